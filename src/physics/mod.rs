@@ -1,0 +1,1 @@
+//! Analytical groundwater formulas, one physical idea per module. SI units throughout.
