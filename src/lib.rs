@@ -1,4 +1,16 @@
 //! drydig: construction dewatering well-field design by superposition.
+//!
+//! Pipeline: design file ([`design`]) → validated [`model`] → quick [`estimate`] … → [`report`].
 #![forbid(unsafe_code)]
 
+pub mod aquifer;
+pub mod cli;
+pub mod design;
+pub mod error;
+pub mod estimate;
+pub mod model;
 pub mod physics;
+pub mod pumping_test;
+pub mod report;
+pub mod starter;
+pub mod units;

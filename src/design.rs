@@ -1,0 +1,390 @@
+//! The design file as written (TOML): every section and field, with units still attached to
+//! positions in the file. [`crate::model`] turns it into the validated model the engine computes
+//! on; nothing else reads these types.
+
+use crate::units::{
+    Compressibility, Conductivity, Duration, Flow, Length, Ratio, Stress, UnitSystem, UnitWeight,
+};
+use serde::Deserialize;
+
+/// Whole design file.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DesignFile {
+    /// Project and datum.
+    pub site: Site,
+    /// The water-bearing layer.
+    pub aquifer: Aquifer,
+    /// One or more excavation outlines.
+    #[serde(default)]
+    pub excavation: Vec<Excavation>,
+    /// Radius-of-influence method.
+    pub influence: Influence,
+    /// Flow contingency and other design allowances.
+    #[serde(default)]
+    pub allowances: Option<Allowances>,
+    /// The kind and dimensions of the wells.
+    #[serde(default)]
+    pub wells: Option<WellSpec>,
+    /// How wells are placed.
+    #[serde(default)]
+    pub layout: Option<Layout>,
+    /// Wells listed one by one (used when `layout.kind = "listed"`).
+    #[serde(default)]
+    pub well: Vec<ListedWell>,
+    /// Straight boundaries (rivers, cut-off walls), by the method of images.
+    #[serde(default)]
+    pub boundary: Vec<Boundary>,
+    /// Areas where no well may be placed.
+    #[serde(default)]
+    pub keep_out: Vec<KeepOut>,
+    /// Neighbouring buildings.
+    #[serde(default)]
+    pub neighbour: Vec<Neighbour>,
+    /// Check-point grid settings and named points.
+    #[serde(default)]
+    pub checks: Option<Checks>,
+    /// Confined layer below the formation, for the base-uplift check.
+    #[serde(default)]
+    pub uplift: Option<Uplift>,
+    /// Output preferences.
+    #[serde(default)]
+    pub output: Option<Output>,
+}
+
+/// `[site]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Site {
+    /// Project name for titles.
+    pub name: String,
+    /// What level 0 means, in words.
+    #[serde(default)]
+    pub datum: Option<String>,
+    /// Ground level (elevation above datum).
+    pub ground_level: Length,
+    /// Name of the projected grid the coordinates are in (free text, e.g. "EPSG:32632"), or
+    /// "local".
+    #[serde(default)]
+    pub grid: Option<String>,
+}
+
+/// `[aquifer]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Aquifer {
+    /// "unconfined", "confined" or "leaky".
+    pub kind: String,
+    /// Hydraulic conductivity.
+    pub conductivity: Conductivity,
+    /// Level of the aquifer base.
+    pub base_level: Length,
+    /// Level of the aquifer top (confined, leaky).
+    #[serde(default)]
+    pub top_level: Option<Length>,
+    /// Groundwater level before pumping (water table or piezometric level).
+    pub groundwater_level: Length,
+    /// Storativity S (confined), dimensionless.
+    #[serde(default)]
+    pub storativity: Option<f64>,
+    /// Specific yield S_y (unconfined), dimensionless.
+    #[serde(default)]
+    pub specific_yield: Option<f64>,
+    /// Leakage factor B = √(T·c) (leaky).
+    #[serde(default)]
+    pub leakage_factor: Option<Length>,
+    /// Hydraulic resistance c = b′/K′ of the aquitard (leaky), a time.
+    #[serde(default)]
+    pub aquitard_resistance: Option<Duration>,
+}
+
+/// `[[excavation]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Excavation {
+    /// Unique name.
+    pub name: String,
+    /// Outline vertices `[[x, y], …]` in metres in the site grid.
+    pub outline: toml::Spanned<Vec<Vec<f64>>>,
+    /// Formation (dig) level.
+    pub formation_level: Length,
+    /// Target water level margin below formation.
+    pub target_margin: Length,
+    /// "auto" (default), "pit" or "trench".
+    #[serde(default)]
+    pub shape: Option<String>,
+}
+
+/// `[influence]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Influence {
+    /// "sichardt", "kusakin", "cooper-jacob", "fixed" or "pumping-test".
+    pub method: String,
+    /// Sichardt's C for radial flow (default 3000).
+    #[serde(default)]
+    pub sichardt_c: Option<f64>,
+    /// Sichardt's C for flow to a line (default 1500).
+    #[serde(default)]
+    pub sichardt_c_line: Option<f64>,
+    /// Pumping time before the dig (Cooper–Jacob).
+    #[serde(default)]
+    pub pumping_time: Option<Duration>,
+    /// Distance of influence (fixed), counted from the excavation's equivalent radius.
+    #[serde(default)]
+    pub distance: Option<Length>,
+    /// Pumping-test results to fit a distance-drawdown line to.
+    #[serde(default)]
+    pub test: Option<PumpingTest>,
+}
+
+/// `[influence.test]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PumpingTest {
+    /// Steady test rate.
+    pub rate: Flow,
+    /// Observations at steady state.
+    pub observation: Vec<Observation>,
+}
+
+/// `[[influence.test.observation]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Observation {
+    /// Distance from the test well.
+    pub distance: Length,
+    /// Steady drawdown observed.
+    pub drawdown: Length,
+}
+
+/// `[allowances]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Allowances {
+    /// Contingency f on the computed flow: design flow = (1 + f)·Q.
+    #[serde(default)]
+    pub contingency: Option<Ratio>,
+    /// Outline length/width ratio from which an excavation counts as a trench.
+    #[serde(default)]
+    pub trench_aspect_ratio: Option<f64>,
+}
+
+/// `[wells]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WellSpec {
+    /// "deep-well" or "wellpoint".
+    #[serde(default)]
+    pub kind: Option<String>,
+    /// Radius of the well (borehole or screen).
+    pub radius: Length,
+    /// Top of screen level.
+    #[serde(default)]
+    pub screen_top: Option<Length>,
+    /// Base of screen level.
+    #[serde(default)]
+    pub screen_base: Option<Length>,
+    /// Pump intake level.
+    #[serde(default)]
+    pub pump_intake: Option<Length>,
+    /// Water depth kept above the intake.
+    #[serde(default)]
+    pub submergence: Option<Length>,
+    /// Largest rate the chosen pump gives.
+    #[serde(default)]
+    pub pump_capacity: Option<Flow>,
+    /// Most drawdown a wellpoint can lift by suction, below its header.
+    #[serde(default)]
+    pub suction_limit: Option<Length>,
+    /// Standby wells added to the count for the bid.
+    #[serde(default)]
+    pub standby: Option<u32>,
+}
+
+/// `[layout]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Layout {
+    /// "ring", "line", "listed" or "csv".
+    pub kind: String,
+    /// Name of the excavation the ring or line serves (default: the first).
+    #[serde(default)]
+    pub excavation: Option<String>,
+    /// Ring: offset outside the outline; line: offset outside the trench edge.
+    #[serde(default)]
+    pub offset: Option<Length>,
+    /// Ring: number of wells.
+    #[serde(default)]
+    pub count: Option<u32>,
+    /// Ring: largest spacing along the ring (alternative to count).
+    #[serde(default)]
+    pub max_spacing: Option<Length>,
+    /// Ring: put a well at each corner.
+    #[serde(default)]
+    pub corner_wells: Option<bool>,
+    /// Line: spacing along the line.
+    #[serde(default)]
+    pub spacing: Option<Length>,
+    /// Line: "one" or "both".
+    #[serde(default)]
+    pub sides: Option<String>,
+    /// Line: the trench centre line `[[x, y], …]` (default: derived from the outline).
+    #[serde(default)]
+    pub centre_line: Option<toml::Spanned<Vec<Vec<f64>>>>,
+    /// Rate given to every generated well (for `check`).
+    #[serde(default)]
+    pub rate: Option<Flow>,
+    /// CSV file of wells (kind = "csv"), relative to the design file.
+    #[serde(default)]
+    pub file: Option<String>,
+}
+
+/// `[[well]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ListedWell {
+    /// Unique name.
+    pub name: String,
+    /// Easting, m.
+    pub x: f64,
+    /// Northing, m.
+    pub y: f64,
+    /// Rate (negative: recharge).
+    pub rate: Flow,
+    /// Radius (default from `[wells]`).
+    #[serde(default)]
+    pub radius: Option<Length>,
+}
+
+/// `[[boundary]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Boundary {
+    /// Name for reports.
+    pub name: String,
+    /// "constant-head" or "barrier".
+    pub kind: String,
+    /// Two points on the straight line `[[x1, y1], [x2, y2]]`.
+    pub line: toml::Spanned<Vec<Vec<f64>>>,
+}
+
+/// `[[keep_out]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct KeepOut {
+    /// Name for reports.
+    pub name: String,
+    /// Polygon `[[x, y], …]`.
+    pub outline: toml::Spanned<Vec<Vec<f64>>>,
+}
+
+/// `[[neighbour]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Neighbour {
+    /// Unique name.
+    pub name: String,
+    /// Footprint polygon `[[x, y], …]`.
+    pub footprint: toml::Spanned<Vec<Vec<f64>>>,
+    /// Underside of foundation level.
+    #[serde(default)]
+    pub foundation_level: Option<Length>,
+    /// Largest drawdown allowed under it.
+    #[serde(default)]
+    pub allowable_drawdown: Option<Length>,
+    /// Largest total settlement allowed.
+    #[serde(default)]
+    pub allowable_settlement: Option<Length>,
+    /// Largest angular distortion allowed ("1/500").
+    #[serde(default)]
+    pub allowable_distortion: Option<Ratio>,
+    /// Soil profile under it, top down.
+    #[serde(default)]
+    pub layer: Vec<SoilLayer>,
+}
+
+/// `[[neighbour.layer]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct SoilLayer {
+    /// Name ("soft clay").
+    pub name: String,
+    /// Thickness.
+    pub thickness: Length,
+    /// Coefficient of volume compressibility.
+    #[serde(default)]
+    pub m_v: Option<Compressibility>,
+    /// Compression index (with `e0` and `sigma0`).
+    #[serde(default)]
+    pub c_c: Option<f64>,
+    /// Initial void ratio.
+    #[serde(default)]
+    pub e0: Option<f64>,
+    /// Initial vertical effective stress at mid-layer.
+    #[serde(default)]
+    pub sigma0: Option<Stress>,
+    /// True for layers that do not compress (sand, rock).
+    #[serde(default)]
+    pub incompressible: Option<bool>,
+    /// Saturated unit weight.
+    #[serde(default)]
+    pub unit_weight: Option<UnitWeight>,
+}
+
+/// `[checks]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Checks {
+    /// Grid spacing inside each outline.
+    #[serde(default)]
+    pub grid_spacing: Option<Length>,
+    /// Spacing of points along each edge.
+    #[serde(default)]
+    pub edge_spacing: Option<Length>,
+    /// Named points of the user's.
+    #[serde(default)]
+    pub point: Vec<NamedPoint>,
+}
+
+/// `[[checks.point]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct NamedPoint {
+    /// Name.
+    pub name: String,
+    /// Easting, m.
+    pub x: f64,
+    /// Northing, m.
+    pub y: f64,
+    /// Level the water must be drawn below here (optional; without it the point is reported).
+    #[serde(default)]
+    pub target_level: Option<Length>,
+}
+
+/// `[uplift]`: a confined layer below the formation.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Uplift {
+    /// Level of the top of the confined layer.
+    pub layer_top: Length,
+    /// Its piezometric level before pumping.
+    pub piezometric_level: Length,
+    /// Unit weight of the soil between formation and the layer top.
+    pub soil_unit_weight: UnitWeight,
+    /// Required factor of safety.
+    #[serde(default)]
+    pub factor_of_safety: Option<f64>,
+}
+
+/// `[output]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Output {
+    /// "si" or "us".
+    #[serde(default)]
+    pub units: Option<UnitSystem>,
+    /// Map shows "drawdown" or "water-level".
+    #[serde(default)]
+    pub map: Option<String>,
+}

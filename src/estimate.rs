@@ -1,0 +1,314 @@
+//! The quick estimate: the hand method an estimator runs in the first hour of a bid, done
+//! properly for every excavation in the design file.
+//!
+//! - **Pit** (compact outline): one equivalent well of radius r_e = √(A/π) at the centre, radius of
+//!   influence R₀ = r_e + L₀ counted from the centre (common practice (no source)), flow by Thiem /
+//!   Dupuit–Thiem through the discharge potential: Q = 2π·(Φ₀ − Φ_t)/ln(R₀/r_e). In a leaky
+//!   aquifer the finite-radius Hantush–Jacob form Q = 2π·ΔΦ·(r_e/B)·K₁(r_e/B)/K₀(r_e/B).
+//! - **Trench** (long and narrow, length/width ≥ the trench ratio): flow to a line slot from both
+//!   sides, q = 2·ΔΦ/L₀ per metre over the full length (L₀ from the line-flow constant), plus the
+//!   two ends acting together as one radial well of radius W/2 (end allowance; common practice
+//!   (no source), after the remark in TM 5-818-5 that inflow is larger near the ends of a slot).
+//!
+//! The design flow adds the contingency, and a rough well count divides it by one well's
+//! capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower).
+
+use crate::aquifer::{Aquifer, AquiferKind};
+use crate::model::{Excavation, Model, ShapeChoice, WellKind};
+use crate::physics::{capacity, equivalent, special};
+use geo::{Area, Euclidean, Length, MinimumRotatedRect};
+use serde::Serialize;
+use std::f64::consts::PI;
+
+/// Which flow method was used for an excavation.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum FlowMethod {
+    /// Equivalent well at the centre.
+    EquivalentWell,
+    /// Line slot from both sides plus end allowance.
+    LineSlot,
+    /// Groundwater already below target: nothing to pump.
+    NoneNeeded,
+}
+
+/// The quick estimate for one excavation. All values SI; keys carry their units.
+#[derive(Debug, Clone, Serialize)]
+pub struct ExcavationEstimate {
+    /// Excavation name.
+    pub name: String,
+    /// Plan area.
+    pub area_m2: f64,
+    /// Perimeter of the outline.
+    pub perimeter_m: f64,
+    /// Length of the smallest enclosing rectangle.
+    pub length_m: f64,
+    /// Width of the smallest enclosing rectangle.
+    pub width_m: f64,
+    /// Equivalent radius, area form √(A/π).
+    pub equivalent_radius_m: f64,
+    /// Equivalent radius, perimeter form P/(2π).
+    pub equivalent_radius_perimeter_form_m: f64,
+    /// Formation level.
+    pub formation_level_m: f64,
+    /// Target level (formation − margin).
+    pub target_level_m: f64,
+    /// Drawdown needed at the excavation, H − h_target.
+    pub drawdown_m: f64,
+    /// Method used and why.
+    pub flow_method: FlowMethod,
+    /// Reason for the method, in words.
+    pub flow_method_reason: String,
+    /// Radius-of-influence method name.
+    pub influence_method: String,
+    /// Distance of influence L₀ beyond the excavation.
+    pub distance_of_influence_m: f64,
+    /// Radius of influence from the centre, R₀ = r_e + L₀ (pits), or r_e + L₀ for the trench ends.
+    pub radius_of_influence_m: f64,
+    /// Steady total flow.
+    pub total_flow_m3_per_day: f64,
+    /// Steady total flow.
+    pub total_flow_l_per_s: f64,
+    /// Of which, for trenches, through the two long sides.
+    pub slot_sides_flow_m3_per_day: Option<f64>,
+    /// Of which, for trenches, through the ends.
+    pub slot_ends_flow_m3_per_day: Option<f64>,
+    /// Flow per 100 m of trench (trenches only).
+    pub flow_per_100m_m3_per_day: Option<f64>,
+    /// Contingency fraction applied.
+    pub contingency: f64,
+    /// Design flow = total × (1 + contingency).
+    pub design_flow_m3_per_day: f64,
+    /// Design flow in L/s.
+    pub design_flow_l_per_s: f64,
+    /// Wetted screen length used for one well's capacity.
+    pub wetted_screen_m: f64,
+    /// Sichardt capacity of one well.
+    pub sichardt_capacity_l_per_s: f64,
+    /// Capacity used per well (lower of Sichardt and pump).
+    pub well_capacity_l_per_s: f64,
+    /// What limits the well capacity.
+    pub well_capacity_limit: String,
+    /// Rough count of working wells.
+    pub rough_well_count: u32,
+    /// Standby wells from the design file.
+    pub standby_wells: u32,
+    /// Warnings an engineer should read.
+    pub notes: Vec<String>,
+}
+
+/// The quick estimate for the whole design file.
+#[derive(Debug, Clone, Serialize)]
+pub struct Estimate {
+    /// Project name.
+    pub project: String,
+    /// Aquifer description.
+    pub aquifer: String,
+    /// Conductivity, m/s.
+    pub conductivity_m_per_s: f64,
+    /// Transmissivity before pumping, m²/s.
+    pub transmissivity_m2_per_s: f64,
+    /// Groundwater level before pumping.
+    pub groundwater_level_m: f64,
+    /// Aquifer base level.
+    pub aquifer_base_level_m: f64,
+    /// Per excavation.
+    pub excavations: Vec<ExcavationEstimate>,
+    /// Sum over excavations (each computed alone; overlapping influence is ignored).
+    pub total_flow_m3_per_day: f64,
+    /// Sum of design flows.
+    pub design_flow_m3_per_day: f64,
+    /// The caution that goes with every output.
+    pub caution: String,
+}
+
+/// Run the quick estimate on a validated model.
+pub fn estimate(model: &Model) -> Estimate {
+    let excavations: Vec<_> = model
+        .excavations
+        .iter()
+        .map(|e| estimate_excavation(model, e))
+        .collect();
+    Estimate {
+        project: model.name.clone(),
+        aquifer: model.aquifer.describe().to_string(),
+        conductivity_m_per_s: model.aquifer.conductivity,
+        transmissivity_m2_per_s: model.aquifer.transmissivity(),
+        groundwater_level_m: model.aquifer.initial_level,
+        aquifer_base_level_m: model.aquifer.base_level,
+        total_flow_m3_per_day: excavations.iter().map(|e| e.total_flow_m3_per_day).sum(),
+        design_flow_m3_per_day: excavations.iter().map(|e| e.design_flow_m3_per_day).sum(),
+        excavations,
+        caution: crate::report::CAUTION.to_string(),
+    }
+}
+
+/// Length and width of the smallest rectangle that encloses the outline, m.
+pub fn length_and_width(e: &Excavation) -> (f64, f64) {
+    let Some(rect) = e.outline.minimum_rotated_rect() else {
+        return (0.0, 0.0);
+    };
+    let c = &rect.exterior().0;
+    let a = (c[1].x - c[0].x).hypot(c[1].y - c[0].y);
+    let b = (c[2].x - c[1].x).hypot(c[2].y - c[1].y);
+    (a.max(b), a.min(b))
+}
+
+/// Radial inflow to a circular excavation of radius `r` from the potential difference ΔΦ, m³/s.
+/// Thiem/Dupuit–Thiem: Q = 2π·ΔΦ/ln(R/r); leaky (Hantush–Jacob, finite radius):
+/// Q = 2π·ΔΦ·(r/B)·K₁(r/B)/K₀(r/B).
+fn radial_flow(aquifer: &Aquifer, delta_phi: f64, r: f64, big_r: f64) -> f64 {
+    match aquifer.kind {
+        AquiferKind::Leaky { leakage_factor } => {
+            let x = r / leakage_factor;
+            2.0 * PI * delta_phi * x * special::bessel_k1(x) / special::bessel_k0(x)
+        }
+        _ => 2.0 * PI * delta_phi / (big_r / r).ln(),
+    }
+}
+
+fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
+    let aq = &model.aquifer;
+    let area = e.outline.unsigned_area();
+    let perimeter = Euclidean.length(e.outline.exterior());
+    let (length, width) = length_and_width(e);
+    let r_e = equivalent::equivalent_radius_from_area(area);
+    let r_p = equivalent::equivalent_radius_from_perimeter(perimeter);
+    let target = e.target_level();
+    let s = aq.initial_level - target;
+    let delta_phi = aq.initial_potential() - aq.potential(target);
+    let aspect = if width > 0.0 {
+        length / width
+    } else {
+        f64::INFINITY
+    };
+    let mut notes = Vec::new();
+    let leaky = aq.leakage_factor();
+
+    let (method, reason) = if s <= 0.0 {
+        (
+            FlowMethod::NoneNeeded,
+            format!(
+                "groundwater ({:.2} m) is already at or below the target level ({target:.2} m)",
+                aq.initial_level
+            ),
+        )
+    } else {
+        match e.shape {
+            ShapeChoice::Pit => (FlowMethod::EquivalentWell, "set as a pit in the design file".to_string()),
+            ShapeChoice::Trench => (FlowMethod::LineSlot, "set as a trench in the design file".to_string()),
+            ShapeChoice::Auto if aspect >= model.trench_aspect_ratio => (
+                FlowMethod::LineSlot,
+                format!("long and narrow: length/width = {aspect:.1} ≥ {:.1}, so one equivalent well would misplace the inflow", model.trench_aspect_ratio),
+            ),
+            ShapeChoice::Auto => (
+                FlowMethod::EquivalentWell,
+                format!("compact: length/width = {aspect:.1} < {:.1}", model.trench_aspect_ratio),
+            ),
+        }
+    };
+
+    let l0_radial = model.influence.distance(aq, s.max(0.0), false);
+    let l0_line = model.influence.distance(aq, s.max(0.0), true);
+    let (l0, big_r, q, sides, ends) = match method {
+        FlowMethod::NoneNeeded => (l0_radial, r_e + l0_radial, 0.0, None, None),
+        FlowMethod::EquivalentWell => {
+            let big_r = r_e + l0_radial;
+            (
+                l0_radial,
+                big_r,
+                radial_flow(aq, delta_phi, r_e, big_r),
+                None,
+                None,
+            )
+        }
+        FlowMethod::LineSlot => {
+            // Per metre, both sides: leaky q = 2·ΔΦ/B (one-dimensional leaky flow), else 2·ΔΦ/L₀.
+            let per_m = 2.0 * delta_phi / leaky.unwrap_or(l0_line);
+            let sides = per_m * length;
+            let r_end = (width / 2.0).max(0.05);
+            let ends = radial_flow(aq, delta_phi, r_end, r_end + l0_radial);
+            (
+                l0_line,
+                r_end + l0_radial,
+                sides + ends,
+                Some(sides),
+                Some(ends),
+            )
+        }
+    };
+    if method != FlowMethod::NoneNeeded && leaky.is_none() && big_r < 1.5 * r_e {
+        notes.push(format!("the radius of influence ({big_r:.0} m) is less than 1.5 × the equivalent radius ({r_e:.0} m): the logarithm is very sensitive here; check L₀ against a pumping test"));
+    }
+    if let Some(b) = leaky {
+        notes.push(format!("leaky aquifer: the leakage factor B = {b:.0} m replaces the radius of influence in the flow"));
+    }
+    if matches!(aq.kind, AquiferKind::Confined) {
+        if let Some(top) = aq.top_level {
+            if target < top {
+                notes.push(format!("the target ({target:.2} m) is below the confining top ({top:.2} m): the aquifer turns unconfined near the excavation (handled through the discharge potential)"));
+            }
+        }
+    }
+    if model.contingency < 0.5 {
+        notes.push(format!(
+            "contingency {:.0} % is below the usual 50–100 % (common practice (no source))",
+            model.contingency * 100.0
+        ));
+    }
+
+    // One well's capacity: screen length below the target level is taken as wetted.
+    let w = &model.wells;
+    let wetted = (w.screen_top.min(target) - w.screen_base).max(0.0);
+    let sichardt = capacity::sichardt_well_capacity(w.radius, wetted, aq.conductivity);
+    let (cap, limit) = match w.pump_capacity {
+        Some(p) if p < sichardt => (p, "pump capacity".to_string()),
+        _ => (sichardt, "Sichardt entrance gradient".to_string()),
+    };
+    let design = q * (1.0 + model.contingency);
+    let count = if design <= 0.0 || cap <= 0.0 {
+        0
+    } else {
+        (design / cap).ceil() as u32
+    };
+    if wetted <= 0.0 && design > 0.0 {
+        notes.push("no screen lies below the target level, so a well here has no capacity: lower screen_base".into());
+    }
+    if w.kind == WellKind::Wellpoint && s > w.suction_limit {
+        notes.push(format!("drawdown {s:.1} m exceeds the wellpoint suction limit {:.1} m: one stage cannot do it — use two stages, ejectors or deep wells (common practice (no source))", w.suction_limit));
+    }
+
+    let day = 86_400.0;
+    ExcavationEstimate {
+        name: e.name.clone(),
+        area_m2: area,
+        perimeter_m: perimeter,
+        length_m: length,
+        width_m: width,
+        equivalent_radius_m: r_e,
+        equivalent_radius_perimeter_form_m: r_p,
+        formation_level_m: e.formation_level,
+        target_level_m: target,
+        drawdown_m: s,
+        flow_method: method,
+        flow_method_reason: reason,
+        influence_method: model.influence.name().to_string(),
+        distance_of_influence_m: l0,
+        radius_of_influence_m: big_r,
+        total_flow_m3_per_day: q * day,
+        total_flow_l_per_s: q * 1e3,
+        slot_sides_flow_m3_per_day: sides.map(|v| v * day),
+        slot_ends_flow_m3_per_day: ends.map(|v| v * day),
+        flow_per_100m_m3_per_day: sides.map(|v| v * day * 100.0 / length.max(1e-9)),
+        contingency: model.contingency,
+        design_flow_m3_per_day: design * day,
+        design_flow_l_per_s: design * 1e3,
+        wetted_screen_m: wetted,
+        sichardt_capacity_l_per_s: sichardt * 1e3,
+        well_capacity_l_per_s: cap * 1e3,
+        well_capacity_limit: limit,
+        rough_well_count: count,
+        standby_wells: w.standby,
+        notes,
+    }
+}

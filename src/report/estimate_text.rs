@@ -1,0 +1,195 @@
+//! The quick estimate as a readable terminal table, and as JSON.
+
+use super::{thousands, wrap, CAUTION};
+use crate::estimate::{Estimate, ExcavationEstimate, FlowMethod};
+use crate::units::{m3s_to_gpm, UnitSystem};
+
+fn flow(m3_per_day: f64, units: UnitSystem) -> String {
+    let m3s = m3_per_day / 86_400.0;
+    match units {
+        UnitSystem::Si => format!(
+            "{} m³/day  ({:.1} L/s)",
+            thousands(m3_per_day, 0),
+            m3s * 1e3
+        ),
+        UnitSystem::Us => format!(
+            "{} US gpm  ({} m³/day)",
+            thousands(m3s_to_gpm(m3s), 0),
+            thousands(m3_per_day, 0)
+        ),
+    }
+}
+
+fn len(m: f64, units: UnitSystem) -> String {
+    format!("{:.2} {}", units.length(m), units.length_unit())
+}
+
+fn row(out: &mut String, label: &str, value: String) {
+    out.push_str(&format!("  {label:<30} {value}\n"));
+}
+
+fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
+    let method = match e.flow_method {
+        FlowMethod::EquivalentWell => "pit: equivalent-well method",
+        FlowMethod::LineSlot => "trench: line-slot method with end allowance",
+        FlowMethod::NoneNeeded => "no dewatering needed",
+    };
+    out.push_str(&format!("\nExcavation \"{}\" — {method}\n", e.name));
+    out.push_str(&wrap(&format!("why: {}", e.flow_method_reason), 96, "  "));
+    row(
+        out,
+        "plan area",
+        format!(
+            "{} {}",
+            thousands(units.area(e.area_m2), 0),
+            units.area_unit()
+        ),
+    );
+    row(
+        out,
+        "length × width (enclosing)",
+        format!("{} × {}", len(e.length_m, units), len(e.width_m, units)),
+    );
+    row(
+        out,
+        "equivalent radius r_e",
+        format!(
+            "{}  (area form; perimeter form {})",
+            len(e.equivalent_radius_m, units),
+            len(e.equivalent_radius_perimeter_form_m, units)
+        ),
+    );
+    row(
+        out,
+        "formation / target level",
+        format!(
+            "{} / {}",
+            len(e.formation_level_m, units),
+            len(e.target_level_m, units)
+        ),
+    );
+    row(out, "drawdown needed s", len(e.drawdown_m, units));
+    if e.flow_method == FlowMethod::NoneNeeded {
+        return;
+    }
+    let line = if e.flow_method == FlowMethod::LineSlot {
+        ", to a line"
+    } else {
+        ""
+    };
+    row(
+        out,
+        "distance of influence L₀",
+        format!(
+            "{}  ({}{line}, from s)",
+            len(e.distance_of_influence_m, units),
+            e.influence_method
+        ),
+    );
+    row(
+        out,
+        "radius of influence R₀",
+        format!(
+            "{}  (= r + L₀ from the centre{})",
+            len(e.radius_of_influence_m, units),
+            if e.flow_method == FlowMethod::LineSlot {
+                " of each end"
+            } else {
+                ""
+            }
+        ),
+    );
+    if let (Some(sides), Some(ends)) = (e.slot_sides_flow_m3_per_day, e.slot_ends_flow_m3_per_day) {
+        row(out, "flow through the long sides", flow(sides, units));
+        row(out, "flow through the ends", flow(ends, units));
+        if let Some(per100) = e.flow_per_100m_m3_per_day {
+            row(out, "flow per 100 m of trench", flow(per100, units));
+        }
+    }
+    row(
+        out,
+        "steady total flow Q",
+        flow(e.total_flow_m3_per_day, units),
+    );
+    row(
+        out,
+        &format!("design flow Q × (1 + {:.2})", e.contingency),
+        flow(e.design_flow_m3_per_day, units),
+    );
+    let cap = e.well_capacity_l_per_s / 1e3 * 86_400.0;
+    row(
+        out,
+        "capacity of one well",
+        format!(
+            "{}  ({}; wetted screen {})",
+            flow(cap, units),
+            e.well_capacity_limit,
+            len(e.wetted_screen_m, units)
+        ),
+    );
+    row(
+        out,
+        "rough well count",
+        format!(
+            "{} working + {} standby",
+            e.rough_well_count, e.standby_wells
+        ),
+    );
+    for n in &e.notes {
+        out.push_str(&wrap(&format!("note: {n}"), 96, "  "));
+    }
+}
+
+/// The estimate as a terminal table.
+pub fn to_text(est: &Estimate, units: UnitSystem) -> String {
+    let mut out = String::new();
+    out.push_str(&format!("drydig quick estimate — {}\n", est.project));
+    out.push_str(&format!(
+        "aquifer: {}; K = {:.2e} m/s; T = {:.2e} m²/s; groundwater {}; base {}\n",
+        est.aquifer,
+        est.conductivity_m_per_s,
+        est.transmissivity_m2_per_s,
+        len(est.groundwater_level_m, units),
+        len(est.aquifer_base_level_m, units)
+    ));
+    for e in &est.excavations {
+        excavation(&mut out, e, units);
+    }
+    if est.excavations.len() > 1 {
+        out.push_str(
+            "\nAll excavations (each computed alone; shared influence is not subtracted)\n",
+        );
+        row(
+            &mut out,
+            "steady total flow",
+            flow(est.total_flow_m3_per_day, units),
+        );
+        row(
+            &mut out,
+            "design flow",
+            flow(est.design_flow_m3_per_day, units),
+        );
+    }
+    out.push('\n');
+    out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
+    out
+}
+
+/// The estimate as one JSON object. Keys are SI with the unit in the name; with US units the
+/// main figures are repeated in feet and US gpm.
+pub fn to_json(est: &Estimate, units: UnitSystem) -> serde_json::Value {
+    let mut v = serde_json::to_value(est).unwrap_or(serde_json::Value::Null);
+    if units == UnitSystem::Us {
+        if let Some(list) = v.get_mut("excavations").and_then(|l| l.as_array_mut()) {
+            for (e, src) in list.iter_mut().zip(&est.excavations) {
+                let gpm = |m3d: f64| m3s_to_gpm(m3d / 86_400.0);
+                e["total_flow_gpm"] = gpm(src.total_flow_m3_per_day).into();
+                e["design_flow_gpm"] = gpm(src.design_flow_m3_per_day).into();
+                e["equivalent_radius_ft"] = units.length(src.equivalent_radius_m).into();
+                e["radius_of_influence_ft"] = units.length(src.radius_of_influence_m).into();
+                e["drawdown_ft"] = units.length(src.drawdown_m).into();
+            }
+        }
+    }
+    v
+}
