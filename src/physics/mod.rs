@@ -1,1 +1,11 @@
 //! Analytical groundwater formulas, one physical idea per module. SI units throughout.
+
+pub mod capacity;
+pub mod equivalent;
+pub mod hantush;
+pub mod images;
+pub mod radius;
+pub mod slot;
+pub mod special;
+pub mod theis;
+pub mod thiem;

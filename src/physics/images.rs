@@ -1,0 +1,150 @@
+//! Method of images for a straight boundary: a river or lake edge held at constant head, or an
+//! impermeable barrier (cut-off wall, rock outcrop). Each real well gets an image well mirrored
+//! across the boundary line, of opposite sign for a constant head and the same sign for a
+//! barrier. Source: Ferris, Knowles, Brown & Stallman (1962), *Theory of Aquifer Tests*, USGS
+//! Water-Supply Paper 1536-E.
+
+/// The kind of a straight boundary.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum BoundaryKind {
+    /// A line held at constant head (river, lake, sea): image well of opposite sign (recharge).
+    ConstantHead,
+    /// An impermeable line (cut-off wall, rock): image well of the same sign.
+    Barrier,
+}
+
+/// Reflect point `p` across the infinite line through `a` and `b` (x, y in m).
+///
+/// Source: plane geometry, as used for image wells by Ferris et al. (1962), USGS WSP 1536-E.
+/// If `a` and `b` coincide the line is undefined and `p` is reflected through the point `a`
+/// (a documented fallback, never a panic). Coordinates are taken relative to `a`, so large
+/// projected coordinates (x ≈ 5e5, y ≈ 6e6) keep their precision.
+pub fn mirror_point(p: [f64; 2], a: [f64; 2], b: [f64; 2]) -> [f64; 2] {
+    let dx = b[0] - a[0];
+    let dy = b[1] - a[1];
+    let len2 = dx * dx + dy * dy;
+    let px = p[0] - a[0];
+    let py = p[1] - a[1];
+    if len2 == 0.0 || !len2.is_finite() {
+        return [a[0] - px, a[1] - py];
+    }
+    // foot of the perpendicular, relative to a
+    let t = (px * dx + py * dy) / len2;
+    let fx = t * dx;
+    let fy = t * dy;
+    [a[0] + 2.0 * fx - px, a[1] + 2.0 * fy - py]
+}
+
+/// Sign of the image well's rate relative to the real well: −1 for a constant-head boundary,
+/// +1 for a barrier. Source: Ferris et al. (1962), USGS WSP 1536-E.
+pub fn image_sign(kind: BoundaryKind) -> f64 {
+    match kind {
+        BoundaryKind::ConstantHead => -1.0,
+        BoundaryKind::Barrier => 1.0,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::physics::theis::theis_drawdown;
+    use crate::physics::thiem::thiem_drawdown;
+    use approx::assert_relative_eq;
+
+    const Q: f64 = 0.01;
+    const T: f64 = 1e-3;
+    const WELL: [f64; 2] = [50.0, 0.0];
+    /// Boundary on the line x = 0.
+    const A: [f64; 2] = [0.0, -100.0];
+    const B: [f64; 2] = [0.0, 100.0];
+
+    fn dist(p: [f64; 2], q: [f64; 2]) -> f64 {
+        (p[0] - q[0]).hypot(p[1] - q[1])
+    }
+
+    fn steady(kind: BoundaryKind, p: [f64; 2]) -> f64 {
+        // R large enough to hold both wells: the ln R terms cancel for a constant head
+        let r_big = 1.0e5;
+        let image = mirror_point(WELL, A, B);
+        thiem_drawdown(Q, T, dist(p, WELL), r_big)
+            + image_sign(kind) * thiem_drawdown(Q, T, dist(p, image), r_big)
+    }
+
+    fn transient(kind: BoundaryKind, p: [f64; 2]) -> f64 {
+        let (s, t) = (1e-4, 86_400.0);
+        let image = mirror_point(WELL, A, B);
+        theis_drawdown(Q, T, s, dist(p, WELL), t)
+            + image_sign(kind) * theis_drawdown(Q, T, s, dist(p, image), t)
+    }
+
+    #[test]
+    fn mirror_simple_lines() {
+        // plane geometry (common practice (no source))
+        assert_eq!(mirror_point(WELL, A, B), [-50.0, 0.0]);
+        let m = mirror_point([3.0, 1.0], [0.0, 0.0], [1.0, 1.0]);
+        assert_relative_eq!(m[0], 1.0, epsilon = 1e-12);
+        assert_relative_eq!(m[1], 3.0, epsilon = 1e-12);
+        // a point on the line is its own image
+        let m = mirror_point([2.0, 2.0], [0.0, 0.0], [1.0, 1.0]);
+        assert_relative_eq!(m[0], 2.0, epsilon = 1e-12);
+        assert_relative_eq!(m[1], 2.0, epsilon = 1e-12);
+        // degenerate line: reflection through the point
+        assert_eq!(
+            mirror_point([1.0, 2.0], [0.0, 0.0], [0.0, 0.0]),
+            [-1.0, -2.0]
+        );
+    }
+
+    #[test]
+    fn mirror_in_projected_coordinates() {
+        // stability with real projected coordinates (x ≈ 5e5, y ≈ 6e6): the same geometry as
+        // mirror_simple_lines, shifted (common practice (no source))
+        let (x0, y0) = (512_345.678, 6_123_456.789);
+        let m = mirror_point([x0 + 50.0, y0], [x0, y0 - 100.0], [x0, y0 + 100.0]);
+        assert_relative_eq!(m[0] - x0, -50.0, epsilon = 1e-8);
+        assert_relative_eq!(m[1] - y0, 0.0, epsilon = 1e-8);
+    }
+
+    #[test]
+    fn steady_constant_head() {
+        // Ferris et al. (1962) USGS WSP 1536-E, method; values library-computed (checks.md §8):
+        // (25, 0) → 1.74850 m; (50, 20) → 2.59271 m; on the boundary → 0
+        let kind = BoundaryKind::ConstantHead;
+        assert_relative_eq!(steady(kind, [25.0, 0.0]), 1.74850, max_relative = 1e-5);
+        assert_relative_eq!(steady(kind, [50.0, 20.0]), 2.59271, max_relative = 1e-5);
+        assert_relative_eq!(steady(kind, [0.0, 37.0]), 0.0, epsilon = 1e-12);
+    }
+
+    #[test]
+    fn transient_images() {
+        // Ferris et al. (1962) USGS WSP 1536-E, method; values library-computed (checks.md §8):
+        // S = 1e-4, t = 1 day; constant head 1.74734 / 2.59041 m, barrier 11.05004 / 10.91716 m
+        let ch = BoundaryKind::ConstantHead;
+        let bar = BoundaryKind::Barrier;
+        assert_relative_eq!(transient(ch, [25.0, 0.0]), 1.74734, max_relative = 1e-5);
+        assert_relative_eq!(transient(ch, [50.0, 20.0]), 2.59041, max_relative = 1e-5);
+        assert_relative_eq!(transient(bar, [25.0, 0.0]), 11.05004, max_relative = 1e-5);
+        assert_relative_eq!(transient(bar, [50.0, 20.0]), 10.91716, max_relative = 1e-5);
+    }
+
+    #[test]
+    fn well_beside_river() {
+        // Ferris et al. (1962) USGS WSP 1536-E: drawdown at the well face with its image,
+        // s_w = Q/(2πT)·ln(2a/r_w); Q = 1.8192e-3 gives s_w = 2 for a = 50, r_w = 0.1, T = 1e-3
+        // (library-computed, checks.md §8)
+        let q = 1.8192e-3;
+        let face = [WELL[0] - 0.1, 0.0];
+        let image = mirror_point(WELL, A, B);
+        let r_big = 1.0e5;
+        let s = thiem_drawdown(q, T, 0.1, r_big) - thiem_drawdown(q, T, dist(face, image), r_big);
+        // the face nearest the river is 99.9 m from the image, not 100 m: 1e-3 relative
+        assert_relative_eq!(s, 2.0, max_relative = 1e-3);
+    }
+
+    #[test]
+    fn signs() {
+        // Ferris et al. (1962) USGS WSP 1536-E
+        assert_eq!(image_sign(BoundaryKind::ConstantHead), -1.0);
+        assert_eq!(image_sign(BoundaryKind::Barrier), 1.0);
+    }
+}
