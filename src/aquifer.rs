@@ -98,7 +98,7 @@ impl Aquifer {
 
     /// Inverse of [`Aquifer::potential`]: the water level for a potential, or `Dry` when Φ ≤ 0.
     pub fn level(&self, potential: f64) -> Level {
-        if !(potential > 0.0) {
+        if potential.is_nan() || potential <= 0.0 {
             return Level::Dry;
         }
         let k = self.conductivity;

@@ -45,6 +45,20 @@ pub enum Command {
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
     },
+    /// Evaluate the design file's layout: levels at every check point and well, maps and tables.
+    Check {
+        /// Design file (TOML).
+        file: PathBuf,
+        /// Output folder for summary.json, wells.csv, checkpoints.csv, map.svg, GeoJSON.
+        #[arg(short = 'o', long = "out", default_value = "drydig-out")]
+        out: PathBuf,
+        /// Take the wells from this CSV (name,x,y,rate_l_per_s[,radius_m]) instead of the layout.
+        #[arg(long)]
+        wells: Option<PathBuf>,
+        /// Units for the terminal output.
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+    },
     /// Write a commented starter design file (never overwrites).
     New {
         /// Where to write it.

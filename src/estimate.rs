@@ -154,6 +154,19 @@ pub fn length_and_width(e: &Excavation) -> (f64, f64) {
     (a.max(b), a.min(b))
 }
 
+/// Whether an excavation is treated as a trench (line slot): by the user's choice, or when its
+/// enclosing rectangle is at least the trench aspect ratio long.
+pub fn is_trench(model: &Model, e: &Excavation) -> bool {
+    match e.shape {
+        ShapeChoice::Pit => false,
+        ShapeChoice::Trench => true,
+        ShapeChoice::Auto => {
+            let (length, width) = length_and_width(e);
+            width <= 0.0 || length / width >= model.trench_aspect_ratio
+        }
+    }
+}
+
 /// Radial inflow to a circular excavation of radius `r` from the potential difference ΔΦ, m³/s.
 /// Thiem/Dupuit–Thiem: Q = 2π·ΔΦ/ln(R/r); leaky (Hantush–Jacob, finite radius):
 /// Q = 2π·ΔΦ·(r/B)·K₁(r/B)/K₀(r/B).

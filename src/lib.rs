@@ -4,13 +4,19 @@
 #![forbid(unsafe_code)]
 
 pub mod aquifer;
+pub mod check;
+pub mod checkpoints;
 pub mod cli;
 pub mod design;
 pub mod error;
 pub mod estimate;
+pub mod evaluate;
+pub mod influence;
+pub mod layout;
 pub mod model;
 pub mod physics;
 pub mod pumping_test;
 pub mod report;
 pub mod starter;
 pub mod units;
+pub mod wells;

@@ -48,6 +48,26 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             }
             Ok(ExitCode::SUCCESS)
         }
+        Command::Check {
+            file,
+            out,
+            wells,
+            units,
+        } => {
+            let model = model::load(&file)?;
+            let units = units.map(Into::into).unwrap_or(model.units);
+            let run = drydig::check::run(&model, wells.as_deref())?;
+            let files = report::check_files(&run)?;
+            report::files::write_all(&out, &files)?;
+            print(&report::check_text::to_text(&run, units))?;
+            print(&format!("outputs written to {}\n", out.display()))?;
+            let e = &run.evaluation;
+            Ok(if e.targets_met && e.wells_ok {
+                ExitCode::SUCCESS
+            } else {
+                ExitCode::from(3)
+            })
+        }
         Command::New { file } => {
             starter::write_new(&file)?;
             eprintln!(

@@ -389,11 +389,14 @@ pub fn load(path: &Path) -> Result<Model, InputError> {
 /// Parse and validate design text that came from `path`.
 pub fn from_str(path: &Path, source: &str) -> Result<Model, InputError> {
     let rep = Reporter::new(path, source);
-    if source.trim().is_empty() {
+    let only_comments = source
+        .lines()
+        .all(|l| l.trim().is_empty() || l.trim_start().starts_with('#'));
+    if only_comments {
         return Err(rep.error(
             "",
             None,
-            "the file is empty; a design file needs at least [site], [aquifer], one [[excavation]] and [influence] — run `drydig new FILE` for a starter",
+            "the file is empty (nothing but blank lines and comments); a design file needs at least [site], [aquifer], one [[excavation]] and [influence] — run `drydig new FILE` for a starter",
         ));
     }
     if source.contains('\0') {
@@ -441,8 +444,32 @@ fn parse_error(rep: &Reporter, source: &str, e: &toml::de::Error) -> InputError 
             );
         }
     }
-    if message.starts_with("missing field") {
+    let mut span = span;
+    if let Some(rest) = message.strip_prefix("missing field `") {
+        let name = rest.split('`').next().unwrap_or_default().to_string();
+        // A field missing from the top level is reported against the whole file: no line.
+        if span
+            .as_ref()
+            .is_some_and(|s| s.start == 0 && (s.end == 0 || s.end >= source.trim_end().len()))
+        {
+            span = None;
+            field = name;
+        }
         message.push_str(" (see `drydig new FILE` for a starter that has every field)");
+    } else if let Some(i) = message.find("expected struct ") {
+        let section = if field.is_empty() { "section" } else { &field };
+        message = format!(
+            "{}expected a [{section}] section (a table of `key = value` lines), not a single value",
+            &message[..i]
+        );
+    } else if message.contains("expected u32") {
+        message = message.replace("expected u32", "expected a whole number, 0 or more");
+    } else if message.starts_with("duplicate key") {
+        message.push_str("; give each field once in its section");
+    } else if field.is_empty() {
+        message.push_str(
+            "; a design file is TOML: `key = value` lines under [section] headers (see `drydig new FILE` for a starter)",
+        );
     }
     rep.error(field, span, message)
 }
@@ -626,13 +653,15 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
                 AquiferKind::Confined
             }
         }
-        other => return Err(rep.error(
-            "aquifer.kind",
-            None,
-            format!(
+        other => {
+            return Err(rep.error(
+                "aquifer.kind",
+                None,
+                format!(
                 "unknown aquifer kind \"{other}\"; valid: \"unconfined\", \"confined\", \"leaky\""
             ),
-        )),
+            ))
+        }
     };
     if !matches!(kind, AquiferKind::Leaky { .. })
         && (a.leakage_factor.is_some() || a.aquitard_resistance.is_some())
@@ -814,7 +843,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     let aspect = allow
         .and_then(|a| a.trench_aspect_ratio)
         .unwrap_or(DEFAULT_TRENCH_ASPECT);
-    if !(aspect >= 1.0) {
+    if aspect.is_nan() || aspect < 1.0 {
         return Err(rep.error(
             "allowances.trench_aspect_ratio",
             None,
@@ -921,6 +950,13 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     let uplift = match &raw.uplift {
         Some(u) => {
+            let lowest = excavations
+                .iter()
+                .map(|e| e.formation_level)
+                .fold(f64::INFINITY, f64::min);
+            if u.layer_top.si >= lowest {
+                return Err(rep.error("uplift.layer_top", u.layer_top.span.clone(), format!("the confined layer's top ({} m) must be below the formation level of every excavation (lowest {lowest} m); the uplift check is for a layer under the dig", u.layer_top.si)));
+            }
             let fos = u.factor_of_safety.unwrap_or(1.2);
             if !(1.0..=3.0).contains(&fos) {
                 return Err(rep.error(
@@ -1034,6 +1070,13 @@ fn well_spec(
         return Err(rep.error("wells.radius", w.radius.span.clone(), format!("{radius} m is not a well radius (usual 0.025 … 0.5 m); is it a diameter in mm written as m?")));
     }
     let screen_top = w.screen_top.as_ref().map_or(default_top, |q| q.si);
+    if screen_top > ground + 1e-9 {
+        return Err(rep.error(
+            "wells.screen_top",
+            w.screen_top.as_ref().and_then(|q| q.span.clone()),
+            format!("the screen top ({screen_top} m) is above ground level ({ground} m); give a level at or below ground"),
+        ));
+    }
     let screen_base = w.screen_base.as_ref().map_or(aquifer.base_level, |q| q.si);
     if screen_base >= screen_top {
         return Err(rep.error(
@@ -1205,13 +1248,15 @@ fn layout_spec(
             let p = path.parent().unwrap_or(Path::new(".")).join(f);
             LayoutKind::Csv { path: p }
         }
-        other => return Err(rep.error(
-            "layout.kind",
-            None,
-            format!(
+        other => {
+            return Err(rep.error(
+                "layout.kind",
+                None,
+                format!(
                 "unknown layout kind \"{other}\"; valid: \"ring\", \"line\", \"listed\", \"csv\""
             ),
-        )),
+            ))
+        }
     };
     Ok(LayoutSpec {
         kind,
@@ -1232,7 +1277,10 @@ fn neighbour(
         return Err(rep.error(
             f("name"),
             Some(n.footprint.span()),
-            format!("duplicate neighbour name \"{}\"", n.name),
+            format!(
+                "duplicate neighbour name \"{}\"; each neighbour needs its own name",
+                n.name
+            ),
         ));
     }
     let footprint = polygon(rep, &f("footprint"), &n.footprint)?;
@@ -1297,6 +1345,15 @@ fn neighbour(
             unit_weight,
         });
     }
+    if let Some(r) = &n.allowable_distortion {
+        if !(r.value > 0.0 && r.value < 1.0) {
+            return Err(rep.error(
+                f("allowable_distortion"),
+                r.span.clone(),
+                format!("{} is not an angular distortion; give a fraction between 0 and 1, e.g. \"1/500\" (usual 1/1000 … 1/300)", r.value),
+            ));
+        }
+    }
     Ok(Neighbour {
         name: n.name.clone(),
         footprint,
@@ -1314,10 +1371,33 @@ fn check_settings(rep: &Reporter, c: Option<&design::Checks>) -> Result<CheckSet
         Some(q) => check_positive(rep, "checks.grid_spacing", q, "grid spacing, e.g. \"2 m\"")?,
         None => DEFAULT_GRID_SPACING,
     };
-    let edge_spacing = match c.and_then(|c| c.edge_spacing.as_ref()) {
+    let edge = c.and_then(|c| c.edge_spacing.as_ref());
+    let edge_spacing = match edge {
         Some(q) => check_positive(rep, "checks.edge_spacing", q, "spacing along edges")?,
         None => grid_spacing,
     };
+    for (name, value, q) in [
+        ("checks.grid_spacing", grid_spacing, grid),
+        ("checks.edge_spacing", edge_spacing, edge),
+    ] {
+        if value < 0.1 {
+            return Err(rep.error(name, q.and_then(|q| q.span.clone()), format!("{value} m is below 0.1 m: the check points would run to millions; usual 1 … 5 m (a unit slip, mm for m?)")));
+        }
+    }
+    if let Some(p) = c.and_then(|c| {
+        c.point
+            .iter()
+            .find(|p| !(p.x.is_finite() && p.y.is_finite()))
+    }) {
+        return Err(rep.error(
+            "checks.point.x",
+            None,
+            format!(
+                "point \"{}\": x and y must be finite numbers in metres",
+                p.name
+            ),
+        ));
+    }
     let points = c
         .map(|c| {
             c.point

@@ -27,7 +27,7 @@ pub fn distance_drawdown_fit(observations: &[(f64, f64)]) -> Option<(f64, f64)> 
         return None;
     }
     let slope = -sxy / sxx;
-    if !(slope > 0.0) {
+    if slope.is_nan() || slope <= 0.0 {
         return None;
     }
     let a = mean_y + slope * mean_x;

@@ -208,6 +208,12 @@ pub fn parse<K: Kind>(text: &str) -> Result<f64, String> {
             K::EXAMPLE
         ));
     }
+    if unit.starts_with(',') && unit[1..].starts_with(|c: char| c.is_ascii_digit()) {
+        return Err(format!(
+            "\"{text}\" has a comma in the number; write it with a decimal point and no thousands separator, e.g. \"{}\"",
+            text.trim().replacen(',', ".", 1)
+        ));
+    }
     let norm = normalise(unit);
     if let Some((_, factor)) = K::UNITS.iter().find(|(u, _)| *u == norm) {
         return Ok(number * factor);
@@ -218,10 +224,11 @@ pub fn parse<K: Kind>(text: &str) -> Result<f64, String> {
             K::NAME
         ));
     }
+    // On a tie the unit listed first (the usual one) is suggested.
     let hint = K::UNITS
         .iter()
         .map(|(u, _)| (strsim::levenshtein(u, &norm), *u))
-        .min()
+        .min_by_key(|(d, _)| *d)
         .filter(|(d, _)| *d <= 2)
         .map(|(_, u)| format!("; did you mean \"{u}\"?"))
         .unwrap_or_default();
@@ -310,10 +317,12 @@ impl<'de> Deserialize<'de> for Ratio {
             toml::Value::String(s) => parse_ratio(s).map_err(serde::de::Error::custom)?,
             toml::Value::Integer(i) => *i as f64,
             toml::Value::Float(f) => *f,
-            other => return Err(serde::de::Error::custom(format!(
+            other => {
+                return Err(serde::de::Error::custom(format!(
                 "expected a number, a fraction (\"1/500\") or a percentage (\"50 %\"), found a {}",
                 other.type_str()
-            ))),
+            )))
+            }
         };
         if !value.is_finite() {
             return Err(serde::de::Error::custom("expected a finite number"));

@@ -1,6 +1,9 @@
 //! Formatting results for people and programs: one file per output format.
 
+pub mod check_text;
 pub mod estimate_text;
+pub mod files;
+pub mod tables;
 
 /// The caution carried by every output: terminal, files and maps.
 pub const CAUTION: &str = "Screening design by analytical methods under idealised ground \
@@ -53,4 +56,16 @@ pub fn thousands(value: f64, decimals: usize) -> String {
     } else {
         format!("{sign}{grouped}.{frac}")
     }
+}
+
+/// Every file `check` writes, rendered in memory: (name, bytes).
+pub fn check_files(run: &crate::check::CheckRun) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
+    Ok(vec![
+        (
+            "summary.json".into(),
+            serde_json::to_vec_pretty(&tables::summary_json(run))?,
+        ),
+        ("wells.csv".into(), tables::wells_csv(run)?),
+        ("checkpoints.csv".into(), tables::checkpoints_csv(run)?),
+    ])
 }

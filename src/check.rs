@@ -1,0 +1,78 @@
+//! `check`: evaluate one layout — place the wells, build the field, evaluate every check point
+//! and well.
+
+use crate::checkpoints::{check_points, CheckPoint};
+use crate::error::InputError;
+use crate::evaluate::{design_radius, evaluate, Evaluation};
+use crate::influence::Field;
+use crate::layout::{self, Placement};
+use crate::model::Model;
+use crate::wells::Well;
+use geo::Centroid;
+use std::path::Path;
+
+/// Everything one evaluated layout needs for its outputs.
+pub struct CheckRun<'a> {
+    /// The validated model.
+    pub model: &'a Model,
+    /// Wells and placement notes.
+    pub placement: Placement,
+    /// The field the wells make.
+    pub field: Field,
+    /// Check points.
+    pub points: Vec<CheckPoint>,
+    /// Results.
+    pub evaluation: Evaluation,
+}
+
+/// A working origin near the site, so that projected coordinates keep their precision.
+pub fn site_origin(model: &Model) -> [f64; 2] {
+    model.excavations[0]
+        .outline
+        .centroid()
+        .map_or([0.0, 0.0], |c| [c.x(), c.y()])
+}
+
+/// Build the field for `wells` in `model`.
+pub fn field_for(model: &Model, wells: &[Well]) -> Field {
+    let (r, _) = design_radius(model);
+    Field::new(
+        &model.aquifer,
+        r,
+        wells,
+        &model.boundaries,
+        site_origin(model),
+    )
+}
+
+/// Evaluate a placement.
+pub fn evaluate_placement(model: &Model, placement: Placement) -> CheckRun<'_> {
+    let field = field_for(model, &placement.wells);
+    let points = check_points(model);
+    let mut evaluation = evaluate(model, &field, &placement.wells, &points);
+    evaluation.radius_of_influence_basis = design_radius(model).1;
+    CheckRun {
+        model,
+        placement,
+        field,
+        points,
+        evaluation,
+    }
+}
+
+/// Evaluate the design file's layout (or the wells of a CSV file).
+pub fn run<'a>(model: &'a Model, wells_csv: Option<&Path>) -> Result<CheckRun<'a>, InputError> {
+    let placement = layout::from_model(model, wells_csv)?;
+    if placement.wells.is_empty() {
+        return Err(InputError {
+            file: model.file.clone(),
+            field: "layout".into(),
+            line: None,
+            message: "the layout places no wells".into(),
+        });
+    }
+    if placement.wells.iter().all(|w| w.rate == 0.0) {
+        return Err(InputError { file: model.file.clone(), field: "layout.rate".into(), line: None, message: "every well has a zero rate: give layout.rate (e.g. \"4 L/s\") or rates per well; `drydig design` finds rates for you".into() });
+    }
+    Ok(evaluate_placement(model, placement))
+}

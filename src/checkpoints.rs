@@ -1,0 +1,107 @@
+//! Check points: where the water level is proven against its target.
+//!
+//! For each excavation: a grid inside the outline, every corner, and points along every edge,
+//! each with the excavation's target level (formation − margin); plus the points the user names.
+
+use crate::model::Model;
+use geo::{BoundingRect, Contains, Point};
+use serde::Serialize;
+
+/// Where a check point comes from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum PointKind {
+    /// Grid node inside an outline.
+    Grid,
+    /// Outline vertex.
+    Corner,
+    /// Along an outline edge.
+    Edge,
+    /// Named by the user.
+    Named,
+}
+
+/// One check point.
+#[derive(Debug, Clone, Serialize)]
+pub struct CheckPoint {
+    /// Name ("Basement g0012", "Basement corner 3", or the user's).
+    pub name: String,
+    /// Kind.
+    pub kind: PointKind,
+    /// Excavation it belongs to, if any.
+    pub excavation: Option<usize>,
+    /// Position [x, y], m.
+    pub position: [f64; 2],
+    /// Level the water must be at or below, m; `None`: report only.
+    pub target_level: Option<f64>,
+}
+
+/// All check points of the model.
+pub fn check_points(model: &Model) -> Vec<CheckPoint> {
+    let mut out = Vec::new();
+    let h = model.checks.grid_spacing;
+    for (ei, e) in model.excavations.iter().enumerate() {
+        let target = Some(e.target_level());
+        let ring = &e.outline.exterior().0;
+        let n = ring.len().saturating_sub(1);
+        for (i, c) in ring.iter().take(n).enumerate() {
+            out.push(CheckPoint {
+                name: format!("{} corner {}", e.name, i + 1),
+                kind: PointKind::Corner,
+                excavation: Some(ei),
+                position: [c.x, c.y],
+                target_level: target,
+            });
+        }
+        for (i, w) in ring.windows(2).enumerate() {
+            let len = (w[1].x - w[0].x).hypot(w[1].y - w[0].y);
+            let m = (len / model.checks.edge_spacing).ceil().max(1.0) as usize;
+            for j in 1..m {
+                let t = j as f64 / m as f64;
+                out.push(CheckPoint {
+                    name: format!("{} edge {}.{}", e.name, i + 1, j),
+                    kind: PointKind::Edge,
+                    excavation: Some(ei),
+                    position: [
+                        w[0].x + t * (w[1].x - w[0].x),
+                        w[0].y + t * (w[1].y - w[0].y),
+                    ],
+                    target_level: target,
+                });
+            }
+        }
+        if let Some(bb) = e.outline.bounding_rect() {
+            let nx = ((bb.width() / h).floor() as usize).max(1);
+            let ny = ((bb.height() / h).floor() as usize).max(1);
+            // Centre the grid in the bounding box.
+            let x0 = bb.min().x + (bb.width() - (nx - 1) as f64 * h) / 2.0;
+            let y0 = bb.min().y + (bb.height() - (ny - 1) as f64 * h) / 2.0;
+            let mut g = 0;
+            for j in 0..ny {
+                for i in 0..nx {
+                    let p = [x0 + i as f64 * h, y0 + j as f64 * h];
+                    if e.outline.contains(&Point::new(p[0], p[1])) {
+                        g += 1;
+                        out.push(CheckPoint {
+                            name: format!("{} g{g:05}", e.name),
+                            kind: PointKind::Grid,
+                            excavation: Some(ei),
+                            position: p,
+                            target_level: target,
+                        });
+                    }
+                }
+            }
+        }
+    }
+    for (name, p, target) in &model.checks.points {
+        out.push(CheckPoint {
+            name: name.clone(),
+            kind: PointKind::Named,
+            excavation: None,
+            position: *p,
+            target_level: *target,
+        });
+    }
+    out
+}

@@ -1,0 +1,233 @@
+//! Evaluate a placed well field: levels at every check point and in every well, against targets
+//! and well limits.
+
+use crate::aquifer::Level;
+use crate::checkpoints::CheckPoint;
+use crate::influence::Field;
+use crate::model::{Model, WellKind};
+use crate::physics::capacity::sichardt_well_capacity;
+use crate::wells::Well;
+use serde::Serialize;
+
+/// Tolerance on targets, m: a point within a millimetre of its target counts as meeting it.
+pub const TARGET_TOLERANCE: f64 = 1e-3;
+
+/// Radius of influence used for superposition, m, and how it was found.
+///
+/// Each well is given the group radius R₀ = r_e + L₀ of the excavation it serves, with L₀ from the
+/// design file's method at that excavation's target drawdown (common practice (no source)).
+pub fn design_radius(model: &Model) -> (f64, String) {
+    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
+    let e = &model.excavations[idx];
+    let aq = &model.aquifer;
+    let s = (aq.initial_level - e.target_level()).max(0.1);
+    let r_e = crate::physics::equivalent::equivalent_radius_from_area(geo::Area::unsigned_area(
+        &e.outline,
+    ));
+    let trench = crate::estimate::is_trench(model, e);
+    if let Some(b) = aq.leakage_factor() {
+        return (b, format!("leaky aquifer: K₀(r/B) with B = {b:.1} m (no radius of influence; cut off at 25 B)"));
+    }
+    if trench {
+        // A long line of wells with Thiem cut-off R draws ΔΦ = q′·R/π at the line (q′ per metre,
+        // from ∫₋R^R ln(R/|x|) dx = 2R); the line slot from both sides draws ΔΦ = q′·L₀/2.
+        // They agree when R = π·L₀/2.
+        let l0 = model.influence.distance(aq, s, true);
+        let r = std::f64::consts::FRAC_PI_2 * l0;
+        return (r, format!(
+            "trench: R = π·L₀/2 = {r:.1} m, so a long line of wells matches the line-slot flow (L₀ = {l0:.1} m, {} to a line at s = {s:.2} m for \"{}\")",
+            model.influence.name(),
+            e.name
+        ));
+    }
+    let l0 = model.influence.distance(aq, s, false);
+    let text = format!(
+        "R₀ = r_e + L₀ = {r_e:.1} + {l0:.1} = {:.1} m ({} at s = {s:.2} m for \"{}\")",
+        r_e + l0,
+        model.influence.name(),
+        e.name
+    );
+    (r_e + l0, text)
+}
+
+/// Result at one well.
+#[derive(Debug, Clone, Serialize)]
+pub struct WellResult {
+    /// Well name.
+    pub name: String,
+    /// Position, m.
+    pub position: [f64; 2],
+    /// Rate, m³/s.
+    pub rate_m3_per_s: f64,
+    /// Water level in the well, m (`None`: pumped dry).
+    pub level_m: Option<f64>,
+    /// Drawdown in the well, m.
+    pub drawdown_m: f64,
+    /// Lowest level allowed in the well, m (pump intake + submergence, or suction limit).
+    pub lowest_allowed_level_m: f64,
+    /// Capacity by Sichardt's entrance gradient on the wetted screen, m³/s.
+    pub sichardt_capacity_m3_per_s: f64,
+    /// The well's own limit on rate (lower of Sichardt and pump), m³/s.
+    pub capacity_m3_per_s: f64,
+    /// What is wrong, if anything.
+    pub problems: Vec<String>,
+}
+
+/// Result at one check point.
+#[derive(Debug, Clone, Serialize)]
+pub struct PointResult {
+    /// The check point.
+    #[serde(flatten)]
+    pub point: CheckPoint,
+    /// Water level, m (`None`: pumped dry here).
+    pub level_m: Option<f64>,
+    /// Drawdown, m.
+    pub drawdown_m: f64,
+    /// Target level − water level, m: positive is below target (met), negative short.
+    pub margin_m: Option<f64>,
+    /// Met, not met, or no target.
+    pub met: Option<bool>,
+}
+
+/// The whole evaluation.
+#[derive(Debug, Clone, Serialize)]
+pub struct Evaluation {
+    /// Radius of influence used, m.
+    pub radius_of_influence_m: f64,
+    /// How it was found.
+    pub radius_of_influence_basis: String,
+    /// Per well.
+    pub wells: Vec<WellResult>,
+    /// Per check point.
+    pub points: Vec<PointResult>,
+    /// Sum of abstraction rates, m³/s.
+    pub total_abstraction_m3_per_s: f64,
+    /// Sum of recharge rates (positive number), m³/s.
+    pub total_recharge_m3_per_s: f64,
+    /// Net flow (abstraction − recharge), m³/s.
+    pub net_flow_m3_per_s: f64,
+    /// Design flow: abstraction × (1 + contingency), m³/s.
+    pub design_flow_m3_per_s: f64,
+    /// Index into `points` of the lowest margin.
+    pub worst_point: Option<usize>,
+    /// Number of points with a target that is not met.
+    pub unmet_count: usize,
+    /// Every target met.
+    pub targets_met: bool,
+    /// Every well within its limits.
+    pub wells_ok: bool,
+}
+
+/// Evaluate `wells` at `points`.
+pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoint]) -> Evaluation {
+    let aq = field.aquifer();
+    let rates: Vec<f64> = wells.iter().map(|w| w.rate).collect();
+    let positions: Vec<[f64; 2]> = points.iter().map(|p| p.position).collect();
+    let levels = field.levels(&positions, &rates);
+    let point_results: Vec<PointResult> = points
+        .iter()
+        .zip(levels)
+        .map(|(p, lv)| {
+            let level = match lv {
+                Level::Wet(z) => Some(z),
+                Level::Dry => None,
+            };
+            let z = lv.or_base(aq.base_level);
+            let margin = p.target_level.map(|t| t - z);
+            PointResult {
+                point: p.clone(),
+                level_m: level,
+                drawdown_m: aq.initial_level - z,
+                margin_m: margin,
+                met: margin.map(|m| m >= -TARGET_TOLERANCE),
+            }
+        })
+        .collect();
+    let well_positions: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
+    let well_levels = field.levels(&well_positions, &rates);
+    let spec = &model.wells;
+    let well_results: Vec<WellResult> = wells
+        .iter()
+        .zip(well_levels)
+        .map(|(w, lv)| {
+            let z = lv.or_base(aq.base_level);
+            let lowest = match w.kind {
+                WellKind::DeepWell => w.pump_intake + spec.submergence,
+                WellKind::Wellpoint => {
+                    (model.ground_level - spec.suction_limit).max(w.pump_intake + spec.submergence)
+                }
+            };
+            let wetted = (w.screen_top.min(z) - w.screen_base).max(0.0);
+            let sichardt = sichardt_well_capacity(w.radius, wetted, aq.conductivity);
+            let cap = spec.pump_capacity.map_or(sichardt, |p| p.min(sichardt));
+            let mut problems = Vec::new();
+            if lv == Level::Dry {
+                problems.push(
+                    "pumped dry: the rate is more than the aquifer can give here".to_string(),
+                );
+            } else if w.rate > 0.0 && z < lowest - TARGET_TOLERANCE {
+                problems.push(match w.kind {
+                    WellKind::DeepWell => format!(
+                        "level {z:.2} m is below the pump intake + submergence ({lowest:.2} m)"
+                    ),
+                    WellKind::Wellpoint => {
+                        format!("level {z:.2} m is below what suction can lift ({lowest:.2} m)")
+                    }
+                });
+            }
+            if w.rate > cap * (1.0 + 1e-9) {
+                problems.push(format!(
+                    "rate {:.2} L/s exceeds its capacity {:.2} L/s ({})",
+                    w.rate * 1e3,
+                    cap * 1e3,
+                    if cap < sichardt {
+                        "pump"
+                    } else {
+                        "Sichardt entrance gradient on the wetted screen"
+                    }
+                ));
+            }
+            WellResult {
+                name: w.name.clone(),
+                position: w.position,
+                rate_m3_per_s: w.rate,
+                level_m: match lv {
+                    Level::Wet(z) => Some(z),
+                    Level::Dry => None,
+                },
+                drawdown_m: aq.initial_level - z,
+                lowest_allowed_level_m: lowest,
+                sichardt_capacity_m3_per_s: sichardt,
+                capacity_m3_per_s: cap,
+                problems,
+            }
+        })
+        .collect();
+    let abstraction: f64 = rates.iter().filter(|q| **q > 0.0).sum();
+    let recharge: f64 = -rates.iter().filter(|q| **q < 0.0).sum::<f64>();
+    let worst_point = point_results
+        .iter()
+        .enumerate()
+        .filter_map(|(i, p)| p.margin_m.map(|m| (i, m)))
+        .min_by(|a, b| a.1.total_cmp(&b.1))
+        .map(|(i, _)| i);
+    let unmet_count = point_results
+        .iter()
+        .filter(|p| p.met == Some(false))
+        .count();
+    let wells_ok = well_results.iter().all(|w| w.problems.is_empty());
+    Evaluation {
+        radius_of_influence_m: field.radius_of_influence(),
+        radius_of_influence_basis: String::new(),
+        wells: well_results,
+        points: point_results,
+        total_abstraction_m3_per_s: abstraction,
+        total_recharge_m3_per_s: recharge,
+        net_flow_m3_per_s: abstraction - recharge,
+        design_flow_m3_per_s: abstraction * (1.0 + model.contingency),
+        worst_point,
+        unmet_count,
+        targets_met: unmet_count == 0,
+        wells_ok,
+    }
+}

@@ -1,0 +1,597 @@
+//! Well layouts: a ring around an excavation, a line of wellpoints along a trench, or wells the
+//! user lists (in the design file or a CSV file). Generated wells that fall in a keep-out zone
+//! are moved along their ring or line to the nearest free place, and the move is reported.
+
+use crate::error::InputError;
+use crate::estimate::length_and_width;
+use crate::model::{Excavation, LayoutKind, LayoutSpec, Model, NamedPolygon, RingCount};
+use crate::wells::Well;
+use geo::algorithm::buffer::{BufferStyle, LineJoin};
+use geo::{Area, Buffer, Contains, Coord, MinimumRotatedRect, Point, Polygon};
+use std::path::Path;
+
+/// Turn angle (degrees) above which a ring vertex counts as a corner for corner wells.
+const CORNER_ANGLE_DEG: f64 = 20.0;
+/// Step (m) in the search along the ring for a free place outside keep-out zones.
+const KEEP_OUT_STEP: f64 = 0.25;
+
+/// Wells placed by a layout, with notes on anything moved or skipped.
+#[derive(Debug, Clone)]
+pub struct Placement {
+    /// The wells.
+    pub wells: Vec<Well>,
+    /// What an engineer should know about the placement.
+    pub notes: Vec<String>,
+    /// The path the wells were placed along (ring or lines), for maps.
+    pub paths: Vec<Vec<[f64; 2]>>,
+}
+
+/// A closed or open path with cumulative arc length, to place points by distance along it.
+struct Path2 {
+    points: Vec<[f64; 2]>,
+    cumulative: Vec<f64>,
+}
+
+impl Path2 {
+    fn new(points: Vec<[f64; 2]>, closed: bool) -> Path2 {
+        let mut pts = points;
+        if closed && pts.first() != pts.last() {
+            pts.push(pts[0]);
+        }
+        let mut cumulative = vec![0.0];
+        for w in pts.windows(2) {
+            let d = (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]);
+            cumulative.push(cumulative.last().unwrap_or(&0.0) + d);
+        }
+        Path2 {
+            points: pts,
+            cumulative,
+        }
+    }
+
+    fn length(&self) -> f64 {
+        *self.cumulative.last().unwrap_or(&0.0)
+    }
+
+    /// Point at arc length `s` (wrapped for closed paths by the caller).
+    fn at(&self, s: f64) -> [f64; 2] {
+        let s = s.clamp(0.0, self.length());
+        let i = match self.cumulative.binary_search_by(|c| c.total_cmp(&s)) {
+            Ok(i) => return self.points[i],
+            Err(i) => i.max(1) - 1,
+        };
+        let i = i.min(self.points.len() - 2);
+        let seg = self.cumulative[i + 1] - self.cumulative[i];
+        let t = if seg > 0.0 {
+            (s - self.cumulative[i]) / seg
+        } else {
+            0.0
+        };
+        let (a, b) = (self.points[i], self.points[i + 1]);
+        [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]
+    }
+
+    /// Unit normal to the left of the direction of travel at arc length `s`.
+    fn left_normal(&self, s: f64) -> [f64; 2] {
+        let s = s.clamp(0.0, self.length());
+        let i = self
+            .cumulative
+            .iter()
+            .position(|c| *c > s)
+            .unwrap_or(self.points.len() - 1)
+            .clamp(1, self.points.len() - 1);
+        let (a, b) = (self.points[i - 1], self.points[i]);
+        let len = (b[0] - a[0]).hypot(b[1] - a[1]).max(1e-12);
+        [-(b[1] - a[1]) / len, (b[0] - a[0]) / len]
+    }
+}
+
+/// The ring at `offset` outside the outline (mitred corners, so corners stay corners).
+pub fn offset_ring(outline: &Polygon<f64>, offset: f64) -> Vec<[f64; 2]> {
+    let ring: Vec<[f64; 2]> = if offset <= 0.0 {
+        outline.exterior().0.iter().map(|c| [c.x, c.y]).collect()
+    } else {
+        let grown =
+            outline.buffer_with_style(BufferStyle::new(offset).line_join(LineJoin::Miter(2.0)));
+        let biggest = grown
+            .0
+            .iter()
+            .max_by(|a, b| a.unsigned_area().total_cmp(&b.unsigned_area()))
+            .cloned()
+            .unwrap_or_else(|| outline.clone());
+        biggest.exterior().0.iter().map(|c| [c.x, c.y]).collect()
+    };
+    let mut pts = ring;
+    if pts.len() > 1 && pts.first() == pts.last() {
+        pts.pop();
+    }
+    pts
+}
+
+/// Indices of ring vertices where the direction turns by more than [`CORNER_ANGLE_DEG`].
+fn corner_indices(pts: &[[f64; 2]]) -> Vec<usize> {
+    let n = pts.len();
+    (0..n)
+        .filter(|&i| {
+            let a = pts[(i + n - 1) % n];
+            let b = pts[i];
+            let c = pts[(i + 1) % n];
+            let (u, v) = ([b[0] - a[0], b[1] - a[1]], [c[0] - b[0], c[1] - b[1]]);
+            let cross = u[0] * v[1] - u[1] * v[0];
+            let dot = u[0] * v[0] + u[1] * v[1];
+            cross.atan2(dot).abs().to_degrees() > CORNER_ANGLE_DEG
+        })
+        .collect()
+}
+
+/// The offset clips sharp corners into short bevels with two vertices; one well stands at the
+/// middle of each bevel, the point of the ring nearest the excavation's corner.
+fn merge_bevels(corners: Vec<f64>, within: f64) -> Vec<f64> {
+    let mut out: Vec<(f64, usize)> = Vec::new();
+    for c in corners {
+        match out.last_mut() {
+            Some((sum, n)) if c - *sum / *n as f64 <= within => {
+                *sum += c;
+                *n += 1;
+            }
+            _ => out.push((c, 1)),
+        }
+    }
+    out.into_iter().map(|(sum, n)| sum / n as f64).collect()
+}
+
+/// Arc-length positions of `n` wells on a closed ring, evenly spaced; with corners, one well at
+/// each corner and the rest shared among the stretches between corners by length.
+fn ring_positions(path: &Path2, corners: &[f64], n: usize) -> Vec<f64> {
+    let total = path.length();
+    if corners.is_empty() || n < corners.len() {
+        return (0..n).map(|i| total * i as f64 / n as f64).collect();
+    }
+    let k = corners.len();
+    let stretches: Vec<f64> = (0..k)
+        .map(|i| {
+            let next = if i + 1 < k {
+                corners[i + 1]
+            } else {
+                corners[0] + total
+            };
+            next - corners[i]
+        })
+        .collect();
+    // Largest-remainder share of the n − k extra wells, by stretch length.
+    let extra = n - k;
+    let mut share: Vec<usize> = stretches
+        .iter()
+        .map(|l| (l / total * extra as f64).floor() as usize)
+        .collect();
+    let mut left = extra - share.iter().sum::<usize>();
+    let mut order: Vec<usize> = (0..k).collect();
+    order.sort_by(|&a, &b| {
+        let ra = stretches[a] / (share[a] + 1) as f64;
+        let rb = stretches[b] / (share[b] + 1) as f64;
+        rb.total_cmp(&ra)
+    });
+    for &i in order.iter().cycle().take(k * 2) {
+        if left == 0 {
+            break;
+        }
+        share[i] += 1;
+        left -= 1;
+    }
+    let mut out = Vec::with_capacity(n);
+    for i in 0..k {
+        let m = share[i] + 1;
+        for j in 0..m {
+            out.push((corners[i] + stretches[i] * j as f64 / m as f64) % total);
+        }
+    }
+    out
+}
+
+/// Number of wells that keeps every gap on the ring at most `spacing`.
+fn count_for_spacing(path: &Path2, corners: &[f64], spacing: f64) -> usize {
+    let total = path.length();
+    if corners.is_empty() {
+        return ((total / spacing).ceil() as usize).max(3);
+    }
+    let k = corners.len();
+    (0..k)
+        .map(|i| {
+            let next = if i + 1 < k {
+                corners[i + 1]
+            } else {
+                corners[0] + total
+            };
+            ((next - corners[i]) / spacing).ceil().max(1.0) as usize
+        })
+        .sum::<usize>()
+        .max(3)
+}
+
+fn blocked(p: [f64; 2], zones: &[&Polygon<f64>]) -> bool {
+    let pt = Point::new(p[0], p[1]);
+    zones.iter().any(|z| z.contains(&pt))
+}
+
+/// Move position `s` along a closed path to the nearest place outside every zone.
+fn free_position(path: &Path2, s: f64, zones: &[&Polygon<f64>], closed: bool) -> Option<f64> {
+    let total = path.length();
+    let wrap = |x: f64| if closed { x.rem_euclid(total) } else { x };
+    let steps = (total / KEEP_OUT_STEP).ceil() as usize;
+    for i in 0..=steps {
+        for sign in [1.0, -1.0] {
+            let cand = wrap(s + sign * i as f64 * KEEP_OUT_STEP);
+            if !(0.0..=total).contains(&cand) {
+                continue;
+            }
+            if !blocked(path.at(cand), zones) {
+                return Some(cand);
+            }
+        }
+    }
+    None
+}
+
+fn keep_out_zones(model: &Model) -> Vec<(&str, &Polygon<f64>)> {
+    let mut zones: Vec<(&str, &Polygon<f64>)> = model
+        .keep_outs
+        .iter()
+        .map(|k: &NamedPolygon| (k.name.as_str(), &k.polygon))
+        .collect();
+    zones.extend(
+        model
+            .neighbours
+            .iter()
+            .map(|n| (n.name.as_str(), &n.footprint)),
+    );
+    zones.extend(
+        model
+            .excavations
+            .iter()
+            .map(|e| (e.name.as_str(), &e.outline)),
+    );
+    zones
+}
+
+/// Place wells on `path` at arc positions, moving any that fall in a keep-out zone.
+#[allow(clippy::too_many_arguments)]
+fn place(
+    model: &Model,
+    path: &Path2,
+    positions: &[f64],
+    closed: bool,
+    side_offset: Option<f64>,
+    prefix: &str,
+    rate: f64,
+    notes: &mut Vec<String>,
+) -> Vec<Well> {
+    let zones = keep_out_zones(model);
+    let polys: Vec<&Polygon<f64>> = zones.iter().map(|z| z.1).collect();
+    let mut wells = Vec::new();
+    for (i, &s) in positions.iter().enumerate() {
+        let name = format!("{prefix}{:02}", i + 1);
+        let at = |s: f64| match side_offset {
+            None => path.at(s),
+            Some(d) => {
+                let p = path.at(s);
+                let nrm = path.left_normal(s);
+                [p[0] + d * nrm[0], p[1] + d * nrm[1]]
+            }
+        };
+        let p = at(s);
+        let mut well = Well::from_spec(name.clone(), p, rate, &model.wells);
+        if let Some((zone, _)) = zones.iter().find(|z| blocked(p, &[z.1])) {
+            match free_position(path, s, &polys, closed) {
+                Some(s2) => {
+                    let moved = (s2 - s).abs().min(path.length() - (s2 - s).abs());
+                    well.position = at(s2);
+                    let msg = format!(
+                        "{name} moved {moved:.1} m along its line out of keep-out zone \"{zone}\""
+                    );
+                    well.note = Some(msg.clone());
+                    notes.push(msg);
+                }
+                None => {
+                    notes.push(format!("{name} dropped: no free place on its line outside keep-out zone \"{zone}\""));
+                    continue;
+                }
+            }
+        }
+        wells.push(well);
+    }
+    wells
+}
+
+/// A ring of `n` wells (or by spacing) at `offset` outside the excavation outline.
+pub fn ring(
+    model: &Model,
+    excavation: &Excavation,
+    offset: f64,
+    count: RingCount,
+    corner_wells: bool,
+    rate: f64,
+) -> Placement {
+    let pts = offset_ring(&excavation.outline, offset);
+    let path = Path2::new(pts.clone(), true);
+    let corners: Vec<f64> = if corner_wells {
+        merge_bevels(
+            corner_indices(&pts)
+                .into_iter()
+                .map(|i| path.cumulative[i])
+                .collect(),
+            1.5 * offset + 0.01,
+        )
+    } else {
+        Vec::new()
+    };
+    let n = match count {
+        RingCount::Count(n) => n as usize,
+        RingCount::MaxSpacing(s) => count_for_spacing(&path, &corners, s),
+    };
+    let mut notes = Vec::new();
+    if corner_wells && n < corners.len() {
+        notes.push(format!(
+            "{n} wells are fewer than the {} corners: spaced evenly instead",
+            corners.len()
+        ));
+    }
+    let positions = ring_positions(&path, &corners, n);
+    let wells = place(model, &path, &positions, true, None, "W", rate, &mut notes);
+    let mut closed = pts.clone();
+    closed.push(pts[0]);
+    Placement {
+        wells,
+        notes,
+        paths: vec![closed],
+    }
+}
+
+/// The trench centre line: the user's, or the long axis of the outline's enclosing rectangle.
+pub fn centre_line(excavation: &Excavation, given: Option<&Vec<[f64; 2]>>) -> Vec<[f64; 2]> {
+    if let Some(c) = given {
+        return c.clone();
+    }
+    let Some(rect) = excavation.outline.minimum_rotated_rect() else {
+        return Vec::new();
+    };
+    let c: Vec<Coord<f64>> = rect.exterior().0.clone();
+    let mid = |a: Coord<f64>, b: Coord<f64>| [(a.x + b.x) / 2.0, (a.y + b.y) / 2.0];
+    let d01 = (c[1].x - c[0].x).hypot(c[1].y - c[0].y);
+    let d12 = (c[2].x - c[1].x).hypot(c[2].y - c[1].y);
+    if d01 >= d12 {
+        vec![mid(c[0], c[3]), mid(c[1], c[2])]
+    } else {
+        vec![mid(c[0], c[1]), mid(c[3], c[2])]
+    }
+}
+
+/// Wellpoints along a trench at `spacing`, `offset` outside each edge, on one side or both.
+/// The line runs past each end of the trench by the same distance as the edge, so the ends are
+/// covered too.
+pub fn line(
+    model: &Model,
+    excavation: &Excavation,
+    offset: f64,
+    spacing: f64,
+    both_sides: bool,
+    given: Option<&Vec<[f64; 2]>>,
+    rate: f64,
+) -> Placement {
+    let mut centre = centre_line(excavation, given);
+    let (_, width) = length_and_width(excavation);
+    let side = width / 2.0 + offset;
+    // Extend both ends by `side`.
+    if centre.len() >= 2 {
+        let ext = |a: [f64; 2], b: [f64; 2]| {
+            let l = (a[0] - b[0]).hypot(a[1] - b[1]).max(1e-12);
+            [
+                a[0] + (a[0] - b[0]) / l * side,
+                a[1] + (a[1] - b[1]) / l * side,
+            ]
+        };
+        let n = centre.len();
+        let first = ext(centre[0], centre[1]);
+        let last = ext(centre[n - 1], centre[n - 2]);
+        centre[0] = first;
+        centre[n - 1] = last;
+    }
+    let path = Path2::new(centre.clone(), false);
+    let total = path.length();
+    let count = ((total / spacing).ceil() as usize).max(1) + 1;
+    let positions: Vec<f64> = (0..count)
+        .map(|i| total * i as f64 / (count - 1) as f64)
+        .collect();
+    let mut notes = Vec::new();
+    let sides: &[(f64, &str)] = if both_sides {
+        &[(1.0, "L"), (-1.0, "R")]
+    } else {
+        &[(1.0, "L")]
+    };
+    let mut wells = Vec::new();
+    let mut paths = Vec::new();
+    for (sign, tag) in sides {
+        wells.extend(place(
+            model,
+            &path,
+            &positions,
+            false,
+            Some(sign * side),
+            &format!("{tag}-"),
+            rate,
+            &mut notes,
+        ));
+        paths.push(
+            (0..=40)
+                .map(|i| {
+                    let s = total * i as f64 / 40.0;
+                    let p = path.at(s);
+                    let nrm = path.left_normal(s);
+                    [p[0] + sign * side * nrm[0], p[1] + sign * side * nrm[1]]
+                })
+                .collect(),
+        );
+    }
+    notes.push(format!(
+        "{} wellpoints at {:.2} m spacing along {:.0} m{}",
+        wells.len(),
+        total / (count - 1) as f64,
+        total,
+        if both_sides {
+            " on both sides"
+        } else {
+            " on one side"
+        }
+    ));
+    Placement {
+        wells,
+        notes,
+        paths,
+    }
+}
+
+/// Wells from a CSV file with columns `name,x,y,rate_l_per_s` and optional `radius_m`.
+pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
+    let err = |line: Option<usize>, field: &str, message: String| InputError {
+        file: path.to_path_buf(),
+        field: field.to_string(),
+        line,
+        message,
+    };
+    let mut reader = csv::ReaderBuilder::new()
+        .trim(csv::Trim::All)
+        .comment(Some(b'#'))
+        .from_path(path)
+        .map_err(|e| err(None, "", format!("cannot read the wells CSV: {e}")))?;
+    let headers = reader
+        .headers()
+        .map_err(|e| err(Some(1), "", format!("cannot read the header row: {e}")))?
+        .clone();
+    let col = |name: &str| headers.iter().position(|h| h.eq_ignore_ascii_case(name));
+    let (Some(ci_name), Some(ci_x), Some(ci_y), Some(ci_rate)) =
+        (col("name"), col("x"), col("y"), col("rate_l_per_s"))
+    else {
+        return Err(err(
+            Some(1),
+            "header",
+            format!(
+                "the header must have name, x, y, rate_l_per_s (optional radius_m); found: {}",
+                headers.iter().collect::<Vec<_>>().join(", ")
+            ),
+        ));
+    };
+    let ci_radius = col("radius_m");
+    let mut wells = Vec::new();
+    let mut names = std::collections::HashSet::new();
+    for (i, rec) in reader.records().enumerate() {
+        let line = i + 2;
+        let rec = rec.map_err(|e| err(Some(line), "", format!("bad row: {e}")))?;
+        let num = |ci: usize, field: &str| -> Result<f64, InputError> {
+            let t = rec.get(ci).unwrap_or("");
+            t.parse::<f64>()
+                .ok()
+                .filter(|v| v.is_finite())
+                .ok_or_else(|| err(Some(line), field, format!("\"{t}\" is not a finite number")))
+        };
+        let name = rec.get(ci_name).unwrap_or("").to_string();
+        if name.is_empty() || !names.insert(name.clone()) {
+            return Err(err(
+                Some(line),
+                "name",
+                format!("well name \"{name}\" is empty or repeated; each well needs its own name"),
+            ));
+        }
+        let mut w = Well::from_spec(
+            name,
+            [num(ci_x, "x")?, num(ci_y, "y")?],
+            num(ci_rate, "rate_l_per_s")? / 1e3,
+            &model.wells,
+        );
+        if let Some(ci) = ci_radius {
+            let r = num(ci, "radius_m")?;
+            if !(r > 0.0 && r <= 2.0) {
+                return Err(err(
+                    Some(line),
+                    "radius_m",
+                    format!("{r} m is outside 0 … 2 m"),
+                ));
+            }
+            w.radius = r;
+        }
+        wells.push(w);
+    }
+    if wells.is_empty() {
+        return Err(err(None, "", "the wells CSV has no rows".into()));
+    }
+    Ok(wells)
+}
+
+/// The layout of the design file, with every generated well at `rate` when given (else the
+/// layout's own rate, else zero).
+pub fn from_model(model: &Model, wells_csv: Option<&Path>) -> Result<Placement, InputError> {
+    if let Some(p) = wells_csv {
+        return Ok(Placement {
+            wells: read_csv(model, p)?,
+            notes: vec![format!("wells read from {}", p.display())],
+            paths: vec![],
+        });
+    }
+    let Some(spec) = &model.layout else {
+        if !model.listed_wells.is_empty() {
+            return Ok(listed(model));
+        }
+        return Err(InputError {
+            file: model.file.clone(),
+            field: "layout".into(),
+            line: None,
+            message: "no wells to check: add a [layout] (kind = \"ring\", \"line\", \"listed\" or \"csv\"), [[well]] entries, or pass --wells FILE.csv".into(),
+        });
+    };
+    generate(model, spec, spec.rate.unwrap_or(0.0))
+}
+
+fn listed(model: &Model) -> Placement {
+    let wells = model
+        .listed_wells
+        .iter()
+        .map(|w| {
+            let mut well = Well::from_spec(w.name.clone(), w.position, w.rate, &model.wells);
+            well.radius = w.radius;
+            well
+        })
+        .collect();
+    Placement {
+        wells,
+        notes: vec![],
+        paths: vec![],
+    }
+}
+
+/// Generate the layout `spec` with every generated well at `rate`.
+pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement, InputError> {
+    let exc = &model.excavations[spec.excavation];
+    Ok(match &spec.kind {
+        LayoutKind::Ring {
+            count,
+            corner_wells,
+        } => ring(model, exc, spec.offset, *count, *corner_wells, rate),
+        LayoutKind::Line {
+            spacing,
+            both_sides,
+            centre_line,
+        } => line(
+            model,
+            exc,
+            spec.offset,
+            *spacing,
+            *both_sides,
+            centre_line.as_ref(),
+            rate,
+        ),
+        LayoutKind::Listed => listed(model),
+        LayoutKind::Csv { path } => Placement {
+            wells: read_csv(model, path)?,
+            notes: vec![],
+            paths: vec![],
+        },
+    })
+}

@@ -1,0 +1,131 @@
+//! Terminal summary of an evaluated layout.
+
+use super::{thousands, wrap, CAUTION};
+use crate::check::CheckRun;
+use crate::units::{m3s_to_gpm, UnitSystem};
+
+fn flow(q: f64, units: UnitSystem) -> String {
+    match units {
+        UnitSystem::Si => format!("{} m³/day ({:.1} L/s)", thousands(q * 86_400.0, 0), q * 1e3),
+        UnitSystem::Us => format!(
+            "{} US gpm ({} m³/day)",
+            thousands(m3s_to_gpm(q), 0),
+            thousands(q * 86_400.0, 0)
+        ),
+    }
+}
+
+/// The summary table.
+pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
+    let e = &run.evaluation;
+    let m = run.model;
+    let lu = units.length_unit();
+    let l = |x: f64| units.length(x);
+    let mut out = format!("drydig check — {}\n", m.name);
+    out.push_str(&wrap(
+        &format!("radius of influence: {}", e.radius_of_influence_basis),
+        96,
+        "",
+    ));
+    out.push_str(&format!(
+        "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>11} {:>9}  {}\n",
+        "well",
+        "x",
+        "y",
+        "rate L/s",
+        &format!("level {lu}"),
+        &format!("lowest {lu}"),
+        "cap L/s",
+        "status"
+    ));
+    for (w, r) in run.placement.wells.iter().zip(&e.wells) {
+        out.push_str(&format!(
+            "{:<10} {:>11.1} {:>11.1} {:>9.2} {:>11} {:>11.2} {:>9.2}  {}\n",
+            w.name,
+            w.position[0],
+            w.position[1],
+            w.rate * 1e3,
+            r.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
+            l(r.lowest_allowed_level_m),
+            r.capacity_m3_per_s * 1e3,
+            if r.problems.is_empty() {
+                "ok".to_string()
+            } else {
+                r.problems.join("; ")
+            }
+        ));
+    }
+    for n in &run.placement.notes {
+        out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+    }
+    out.push('\n');
+    out.push_str(&format!(
+        "wells                 {}\n",
+        run.placement.wells.len()
+    ));
+    out.push_str(&format!(
+        "total flow            {}\n",
+        flow(e.total_abstraction_m3_per_s, units)
+    ));
+    if e.total_recharge_m3_per_s > 0.0 {
+        out.push_str(&format!(
+            "recharge              {}\n",
+            flow(e.total_recharge_m3_per_s, units)
+        ));
+        out.push_str(&format!(
+            "net flow              {}\n",
+            flow(e.net_flow_m3_per_s, units)
+        ));
+    }
+    out.push_str(&format!(
+        "design flow (+{:.0} %)  {}\n",
+        m.contingency * 100.0,
+        flow(e.design_flow_m3_per_s, units)
+    ));
+    out.push_str(&format!(
+        "check points          {} ({} not met)\n",
+        e.points.len(),
+        e.unmet_count
+    ));
+    if let Some(i) = e.worst_point {
+        let p = &e.points[i];
+        let margin = p.margin_m.unwrap_or(0.0);
+        out.push_str(&format!(
+            "lowest margin         {:.2} {lu} {} target at \"{}\" ({:.1}, {:.1})\n",
+            l(margin.abs()),
+            if margin >= 0.0 { "below" } else { "ABOVE" },
+            p.point.name,
+            p.point.position[0],
+            p.point.position[1]
+        ));
+    }
+    let unmet: Vec<_> = e.points.iter().filter(|p| p.met == Some(false)).collect();
+    if !unmet.is_empty() {
+        out.push_str(&format!("\ntargets NOT met ({}):\n", unmet.len()));
+        for p in unmet.iter().take(40) {
+            out.push_str(&format!(
+                "  {:<28} ({:>9.1}, {:>9.1})  level {:>7.2}  target {:>7.2}  short {:.2} {lu}\n",
+                p.point.name,
+                p.point.position[0],
+                p.point.position[1],
+                l(p.level_m.unwrap_or(f64::NAN)),
+                l(p.point.target_level.unwrap_or(f64::NAN)),
+                l(-p.margin_m.unwrap_or(0.0))
+            ));
+        }
+        if unmet.len() > 40 {
+            out.push_str(&format!(
+                "  … and {} more (see checkpoints.csv)\n",
+                unmet.len() - 40
+            ));
+        }
+    }
+    let verdict = match (e.targets_met, e.wells_ok) {
+        (true, true) => "RESULT: every target met, every well within its limits",
+        (true, false) => "RESULT: targets met, but some wells exceed their limits (see status)",
+        (false, _) => "RESULT: targets NOT met",
+    };
+    out.push_str(&format!("\n{verdict}\n\n"));
+    out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
+    out
+}
