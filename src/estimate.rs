@@ -75,6 +75,8 @@ pub struct ExcavationEstimate {
     pub slot_ends_flow_m3_per_day: Option<f64>,
     /// Flow per 100 m of trench (trenches only).
     pub flow_per_100m_m3_per_day: Option<f64>,
+    /// For comparison: the equivalent-well flow (area-form r_e, radial L₀) whatever the method.
+    pub equivalent_well_flow_m3_per_day: f64,
     /// Contingency fraction applied.
     pub contingency: f64,
     /// Design flow = total × (1 + contingency).
@@ -250,6 +252,18 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             )
         }
     };
+    let equivalent_well = if method == FlowMethod::NoneNeeded {
+        0.0
+    } else {
+        radial_flow(aq, delta_phi, r_e, r_e + l0_radial)
+    };
+    if method == FlowMethod::LineSlot && length < 2.0 * leaky.unwrap_or(l0_line) {
+        notes.push(format!(
+            "the trench ({length:.0} m) is shorter than twice its distance of influence ({:.0} m): much of the inflow is radial, so the line-slot figure is rough; the equivalent-well figure for comparison is {:.0} m³/day",
+            leaky.unwrap_or(l0_line),
+            equivalent_well * 86_400.0
+        ));
+    }
     if method != FlowMethod::NoneNeeded && leaky.is_none() && big_r < 1.5 * r_e {
         notes.push(format!("the radius of influence ({big_r:.0} m) is less than 1.5 × the equivalent radius ({r_e:.0} m): the logarithm is very sensitive here; check L₀ against a pumping test"));
     }
@@ -313,6 +327,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         slot_sides_flow_m3_per_day: sides.map(|v| v * day),
         slot_ends_flow_m3_per_day: ends.map(|v| v * day),
         flow_per_100m_m3_per_day: sides.map(|v| v * day * 100.0 / length.max(1e-9)),
+        equivalent_well_flow_m3_per_day: equivalent_well * day,
         contingency: model.contingency,
         design_flow_m3_per_day: design * day,
         design_flow_l_per_s: design * 1e3,
