@@ -244,7 +244,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             let r_end = (width / 2.0).max(0.05);
             let ends = radial_flow(aq, delta_phi, r_end, r_end + l0_radial);
             (
-                l0_line,
+                leaky.unwrap_or(l0_line),
                 r_end + l0_radial,
                 sides + ends,
                 Some(sides),
