@@ -13,6 +13,7 @@ pub mod estimate;
 pub mod evaluate;
 pub mod influence;
 pub mod layout;
+pub mod lp;
 pub mod model;
 pub mod physics;
 pub mod pumping_test;

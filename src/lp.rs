@@ -1,0 +1,382 @@
+//! A small linear-programme layer for well rates, over `good_lp` with the pure-Rust `microlp`
+//! solver.
+//!
+//! The problem is always: minimise Σ cost_j·q_j over rates q_j (m³/s) with bounds
+//! lo_j ≤ q_j ≤ hi_j and linear constraints Σ a_ij·q_j ≥ b_i or ≤ b_i. Recharge wells are
+//! variables with negative bounds.
+//!
+//! **Conditioning.** Rates in m³/s are small numbers (1e-4 … 1e-1) and potentials smaller still,
+//! so the solver sees scaled quantities: each rate is solved for in L/s (q × 1000), each
+//! constraint row is divided by its largest coefficient, and the costs by their largest value.
+//! Results are returned in the caller's units. How a solve ended is a status on the result,
+//! never an error or a panic.
+
+use good_lp::{
+    microlp, variable, Expression, ProblemVariables, ResolutionError, Solution, SolverModel,
+};
+
+/// Rates are solved for in this unit: 1 m³/s = 1000 L/s.
+const RATE_SCALE: f64 = 1e3;
+/// A constraint is binding when its scaled slack is within this (relative to 1 + |rhs|).
+const BINDING_TOLERANCE: f64 = 1e-7;
+/// A returned point that violates a scaled constraint by more than this is reported as failed.
+const FEASIBILITY_TOLERANCE: f64 = 1e-6;
+
+/// Direction of a constraint.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Sense {
+    /// Σ a_j·q_j ≥ rhs.
+    AtLeast,
+    /// Σ a_j·q_j ≤ rhs.
+    AtMost,
+}
+
+/// One linear constraint on the rates.
+#[derive(Debug, Clone)]
+pub struct Constraint {
+    /// a_j for each rate (same length as the costs).
+    pub coefficients: Vec<f64>,
+    /// ≥ or ≤.
+    pub sense: Sense,
+    /// Right-hand side.
+    pub rhs: f64,
+    /// What the constraint stands for ("target at Basement corner 2", "level in W03").
+    pub label: String,
+}
+
+/// Minimise Σ cost_j·q_j subject to bounds and constraints. Rates in m³/s.
+#[derive(Debug, Clone)]
+pub struct RateProblem {
+    /// Cost per unit rate of each variable (1 for "total flow").
+    pub costs: Vec<f64>,
+    /// (lower, upper) bound of each rate, m³/s; infinite values allowed.
+    pub bounds: Vec<(f64, f64)>,
+    /// Linear constraints.
+    pub constraints: Vec<Constraint>,
+}
+
+/// How a solve ended.
+#[derive(Debug, Clone, PartialEq)]
+pub enum LpStatus {
+    /// Solved to optimality.
+    Optimal,
+    /// No rates satisfy every constraint.
+    Infeasible,
+    /// The objective can fall without limit.
+    Unbounded,
+    /// Malformed problem or solver trouble, in words.
+    Failed(String),
+}
+
+/// The outcome of a solve.
+#[derive(Debug, Clone)]
+pub struct LpSolution {
+    /// How it ended.
+    pub status: LpStatus,
+    /// Rates, m³/s (empty unless optimal).
+    pub values: Vec<f64>,
+    /// Indices of the constraints that are active at the optimum (within tolerance).
+    pub binding: Vec<usize>,
+}
+
+impl LpSolution {
+    fn ended(status: LpStatus) -> LpSolution {
+        LpSolution {
+            status,
+            values: Vec::new(),
+            binding: Vec::new(),
+        }
+    }
+
+    /// Objective value Σ cost_j·q_j of the solution (0 when there is none).
+    pub fn objective(&self, problem: &RateProblem) -> f64 {
+        self.values
+            .iter()
+            .zip(&problem.costs)
+            .map(|(q, c)| q * c)
+            .sum()
+    }
+}
+
+/// A scaled constraint row: Σ a_j·x_j (≥ or ≤) rhs with x in L/s and max |a_j| = 1.
+struct Row {
+    index: usize,
+    terms: Vec<(usize, f64)>,
+    sense: Sense,
+    rhs: f64,
+}
+
+fn check_shape(problem: &RateProblem) -> Result<(), String> {
+    let n = problem.costs.len();
+    if problem.bounds.len() != n {
+        return Err(format!(
+            "{} bounds for {} variables",
+            problem.bounds.len(),
+            n
+        ));
+    }
+    if problem.costs.iter().any(|c| !c.is_finite()) {
+        return Err("a cost is not a finite number".into());
+    }
+    for (j, (lo, hi)) in problem.bounds.iter().enumerate() {
+        if lo.is_nan() || hi.is_nan() || *lo == f64::INFINITY || *hi == f64::NEG_INFINITY {
+            return Err(format!("bounds of variable {j} are not numbers"));
+        }
+    }
+    for c in &problem.constraints {
+        if c.coefficients.len() != n {
+            return Err(format!(
+                "constraint \"{}\" has {} coefficients for {} variables",
+                c.label,
+                c.coefficients.len(),
+                n
+            ));
+        }
+        if !c.rhs.is_finite() || c.coefficients.iter().any(|a| !a.is_finite()) {
+            return Err(format!(
+                "constraint \"{}\" holds a value that is not finite",
+                c.label
+            ));
+        }
+    }
+    Ok(())
+}
+
+/// Scale the rows; `Err(status)` when a row without coefficients is violated.
+fn scaled_rows(problem: &RateProblem) -> Result<Vec<Row>, LpStatus> {
+    let mut rows = Vec::with_capacity(problem.constraints.len());
+    for (i, c) in problem.constraints.iter().enumerate() {
+        let big = c
+            .coefficients
+            .iter()
+            .fold(0.0f64, |m, a| m.max(a.abs() / RATE_SCALE));
+        if big == 0.0 {
+            let ok = match c.sense {
+                Sense::AtLeast => 0.0 >= c.rhs,
+                Sense::AtMost => 0.0 <= c.rhs,
+            };
+            if ok {
+                continue;
+            }
+            return Err(LpStatus::Infeasible);
+        }
+        let terms = c
+            .coefficients
+            .iter()
+            .enumerate()
+            .filter(|(_, a)| **a != 0.0)
+            .map(|(j, a)| (j, a / RATE_SCALE / big))
+            .collect();
+        rows.push(Row {
+            index: i,
+            terms,
+            sense: c.sense,
+            rhs: c.rhs / big,
+        });
+    }
+    Ok(rows)
+}
+
+fn row_value(row: &Row, x: &[f64]) -> f64 {
+    row.terms.iter().map(|(j, a)| a * x[*j]).sum()
+}
+
+/// Solve the rate problem. Never panics: a solver fault comes back as [`LpStatus::Failed`].
+pub fn solve(problem: &RateProblem) -> LpSolution {
+    if let Err(msg) = check_shape(problem) {
+        return LpSolution::ended(LpStatus::Failed(msg));
+    }
+    if problem.bounds.iter().any(|(lo, hi)| lo > hi) {
+        return LpSolution::ended(LpStatus::Infeasible);
+    }
+    let rows = match scaled_rows(problem) {
+        Ok(r) => r,
+        Err(status) => return LpSolution::ended(status),
+    };
+    let n = problem.costs.len();
+    if n == 0 {
+        return LpSolution {
+            status: LpStatus::Optimal,
+            values: Vec::new(),
+            binding: Vec::new(),
+        };
+    }
+    let cost_scale = problem
+        .costs
+        .iter()
+        .fold(0.0f64, |m, c| m.max(c.abs()))
+        .max(f64::MIN_POSITIVE);
+    // The solver is third-party code: contain any panic as a failed solve.
+    let outcome = std::panic::catch_unwind(|| run_solver(problem, &rows, cost_scale));
+    let x = match outcome {
+        Ok(Ok(x)) => x,
+        Ok(Err(ResolutionError::Infeasible)) => return LpSolution::ended(LpStatus::Infeasible),
+        Ok(Err(ResolutionError::Unbounded)) => return LpSolution::ended(LpStatus::Unbounded),
+        Ok(Err(e)) => return LpSolution::ended(LpStatus::Failed(e.to_string())),
+        Err(_) => {
+            return LpSolution::ended(LpStatus::Failed(
+                "the LP solver stopped unexpectedly".into(),
+            ))
+        }
+    };
+    // Verify the point the solver returned before trusting it.
+    for row in &rows {
+        let v = row_value(row, &x);
+        let violation = match row.sense {
+            Sense::AtLeast => row.rhs - v,
+            Sense::AtMost => v - row.rhs,
+        };
+        if violation > FEASIBILITY_TOLERANCE * (1.0 + row.rhs.abs()) {
+            return LpSolution::ended(LpStatus::Failed(format!(
+                "the solver's answer misses constraint \"{}\" by {violation:.3e} (scaled)",
+                problem.constraints[row.index].label
+            )));
+        }
+    }
+    let binding = rows
+        .iter()
+        .filter(|row| {
+            (row_value(row, &x) - row.rhs).abs() <= BINDING_TOLERANCE * (1.0 + row.rhs.abs())
+        })
+        .map(|row| row.index)
+        .collect();
+    let values = x.iter().map(|v| v / RATE_SCALE).collect();
+    LpSolution {
+        status: LpStatus::Optimal,
+        values,
+        binding,
+    }
+}
+
+fn run_solver(
+    problem: &RateProblem,
+    rows: &[Row],
+    cost_scale: f64,
+) -> Result<Vec<f64>, ResolutionError> {
+    let mut vars = ProblemVariables::new();
+    let x: Vec<_> = problem
+        .bounds
+        .iter()
+        .map(|(lo, hi)| {
+            let mut def = variable();
+            if lo.is_finite() {
+                def = def.min(lo * RATE_SCALE);
+            }
+            if hi.is_finite() {
+                def = def.max(hi * RATE_SCALE);
+            }
+            vars.add(def)
+        })
+        .collect();
+    let mut objective = Expression::with_capacity(x.len());
+    for (v, c) in x.iter().zip(&problem.costs) {
+        if *c != 0.0 {
+            objective.add_mul(c / RATE_SCALE / cost_scale, *v);
+        }
+    }
+    let mut model = vars.minimise(objective).using(microlp);
+    for row in rows {
+        let mut e = Expression::with_capacity(row.terms.len());
+        for (j, a) in &row.terms {
+            e.add_mul(*a, x[*j]);
+        }
+        model.add_constraint(match row.sense {
+            Sense::AtLeast => e.geq(row.rhs),
+            Sense::AtMost => e.leq(row.rhs),
+        });
+    }
+    let solution = model.solve()?;
+    Ok(x.iter().map(|v| solution.value(*v)).collect())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn c(coefficients: Vec<f64>, sense: Sense, rhs: f64) -> Constraint {
+        Constraint {
+            coefficients,
+            sense,
+            rhs,
+            label: String::new(),
+        }
+    }
+
+    // Hand-solvable LP (vertex enumeration, worked by hand): minimise x + y with x + 2y ≥ 4,
+    // 3x + y ≥ 6, x, y ≥ 0. Vertices (0, 6), (1.6, 1.2), (4, 0): objective 6, 2.8, 4 → 2.8 at
+    // (1.6, 1.2), both constraints binding. Values in m³/s of the order of real well rates.
+    #[test]
+    fn small_lp_matches_hand_vertex_enumeration() {
+        let s = 1e-3;
+        let p = RateProblem {
+            costs: vec![1.0, 1.0],
+            bounds: vec![(0.0, f64::INFINITY); 2],
+            constraints: vec![
+                c(vec![1.0, 2.0], Sense::AtLeast, 4.0 * s),
+                c(vec![3.0, 1.0], Sense::AtLeast, 6.0 * s),
+            ],
+        };
+        let sol = solve(&p);
+        assert_eq!(sol.status, LpStatus::Optimal);
+        assert!((sol.values[0] - 1.6e-3).abs() < 1e-12);
+        assert!((sol.values[1] - 1.2e-3).abs() < 1e-12);
+        assert_eq!(sol.binding, vec![0, 1]);
+    }
+
+    #[test]
+    fn infeasible_and_unbounded_are_statuses() {
+        // x ≤ 1 mL/s by bound, but x ≥ 2 mL/s by constraint: no solution.
+        let p = RateProblem {
+            costs: vec![1.0],
+            bounds: vec![(0.0, 1e-3)],
+            constraints: vec![c(vec![1.0], Sense::AtLeast, 2e-3)],
+        };
+        assert_eq!(solve(&p).status, LpStatus::Infeasible);
+        // Minimise −x with x unbounded above.
+        let p = RateProblem {
+            costs: vec![-1.0],
+            bounds: vec![(0.0, f64::INFINITY)],
+            constraints: vec![],
+        };
+        assert_eq!(solve(&p).status, LpStatus::Unbounded);
+        // A row with no coefficients that cannot hold.
+        let p = RateProblem {
+            costs: vec![1.0],
+            bounds: vec![(0.0, 1.0)],
+            constraints: vec![c(vec![0.0], Sense::AtLeast, 1.0)],
+        };
+        assert_eq!(solve(&p).status, LpStatus::Infeasible);
+    }
+
+    #[test]
+    fn malformed_problem_fails_without_panic() {
+        let p = RateProblem {
+            costs: vec![1.0, 1.0],
+            bounds: vec![(0.0, 1.0)],
+            constraints: vec![],
+        };
+        assert!(matches!(solve(&p).status, LpStatus::Failed(_)));
+        let p = RateProblem {
+            costs: vec![1.0],
+            bounds: vec![(0.0, 1.0)],
+            constraints: vec![c(vec![f64::NAN], Sense::AtMost, 1.0)],
+        };
+        assert!(matches!(solve(&p).status, LpStatus::Failed(_)));
+    }
+
+    // Recharge: negative bounds. Minimise q1 + q2 with q2 ∈ [−2, 0] mL/s, q1 ∈ [0, 5], q1 + 0.5·q2 ≥ 1 → q2 = −2 would need
+    // q1 ≥ 2: objective 0; q2 = 0 → q1 = 1, objective 1. Optimum q2 = −2, q1 = 2 (by hand).
+    #[test]
+    fn negative_bounds_for_recharge_wells() {
+        let m = 1e-3;
+        let p = RateProblem {
+            costs: vec![1.0, 1.0],
+            bounds: vec![(0.0, 5.0 * m), (-2.0 * m, 0.0)],
+            constraints: vec![c(vec![1.0, 0.5], Sense::AtLeast, 1.0 * m)],
+        };
+        let sol = solve(&p);
+        assert_eq!(sol.status, LpStatus::Optimal);
+        assert!((sol.values[0] - 2.0 * m).abs() < 1e-12);
+        assert!((sol.values[1] + 2.0 * m).abs() < 1e-12);
+    }
+}
