@@ -1,13 +1,17 @@
 #!/usr/bin/env bash
 # Regenerate the special-function reference table into a temporary file and compare it with the
 # committed tests/reference/special_functions.csv. Exit 1 (and print the diff) if they differ.
+# Likewise for the superposition table tests/reference/superposition.csv
+# (scripts/reference_superposition.py, numpy and scipy).
 # Needs python3 with the versions pinned in scripts/requirements.txt.
 set -euo pipefail
 
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 committed="$root/tests/reference/special_functions.csv"
 tmp="$(mktemp "${TMPDIR:-/tmp}/drydig-special.XXXXXX.csv")"
-trap 'rm -f "$tmp"' EXIT
+tmp_sup="$(mktemp "${TMPDIR:-/tmp}/drydig-superposition.XXXXXX.csv")"
+trap 'rm -f "$tmp" "$tmp_sup"' EXIT
+status=0
 
 python3 "$root/scripts/reference_special.py" "$tmp"
 
@@ -15,5 +19,17 @@ if diff -u "$committed" "$tmp"; then
     echo "reference table up to date: $committed"
 else
     echo "reference table differs from a fresh run (diff above: - committed, + regenerated)" >&2
-    exit 1
+    status=1
 fi
+
+committed_sup="$root/tests/reference/superposition.csv"
+python3 "$root/scripts/reference_superposition.py" "$tmp_sup"
+
+if diff -u "$committed_sup" "$tmp_sup"; then
+    echo "reference table up to date: $committed_sup"
+else
+    echo "reference table differs from a fresh run (diff above: - committed, + regenerated)" >&2
+    status=1
+fi
+
+exit "$status"
