@@ -91,8 +91,10 @@ pub fn offset_ring(outline: &Polygon<f64>, offset: f64) -> Vec<[f64; 2]> {
     let ring: Vec<[f64; 2]> = if offset <= 0.0 {
         outline.exterior().0.iter().map(|c| [c.x, c.y]).collect()
     } else {
-        let grown =
-            outline.buffer_with_style(BufferStyle::new(offset).line_join(LineJoin::Miter(2.0)));
+        // i_overlay's Miter takes the sharpest corner angle (radians) still mitred, not a
+        // length ratio: π/3 mitres every corner whose mitre is at most 2 × offset long.
+        let join = LineJoin::Miter(std::f64::consts::FRAC_PI_3);
+        let grown = outline.buffer_with_style(BufferStyle::new(offset).line_join(join));
         let biggest = grown
             .0
             .iter()
@@ -457,11 +459,18 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         line,
         message,
     };
+    let bytes = std::fs::read(path)
+        .map_err(|e| err(None, "", format!("cannot read the wells CSV: {e}")))?;
     let mut reader = csv::ReaderBuilder::new()
         .trim(csv::Trim::All)
         .comment(Some(b'#'))
-        .from_path(path)
-        .map_err(|e| err(None, "", format!("cannot read the wells CSV: {e}")))?;
+        .from_reader(bytes.as_slice());
+    // Line of the last byte the reader has taken, i.e. the line the row just read ends on.
+    // (A record's own position points at any comment or blank lines skipped before it.)
+    let line_now = |r: &csv::Reader<&[u8]>| {
+        let end = (r.position().byte() as usize).clamp(1, bytes.len().max(1)) - 1;
+        bytes[..end].iter().filter(|b| **b == b'\n').count() + 1
+    };
     let headers = reader
         .headers()
         .map_err(|e| err(Some(1), "", format!("cannot read the header row: {e}")))?
@@ -471,7 +480,7 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         (col("name"), col("x"), col("y"), col("rate_l_per_s"))
     else {
         return Err(err(
-            Some(1),
+            Some(line_now(&reader)),
             "header",
             format!(
                 "the header must have name, x, y, rate_l_per_s (optional radius_m); found: {}",
@@ -482,9 +491,14 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
     let ci_radius = col("radius_m");
     let mut wells = Vec::new();
     let mut names = std::collections::HashSet::new();
-    for (i, rec) in reader.records().enumerate() {
-        let line = i + 2;
-        let rec = rec.map_err(|e| err(Some(line), "", format!("bad row: {e}")))?;
+    let mut rec = csv::StringRecord::new();
+    loop {
+        match reader.read_record(&mut rec) {
+            Ok(true) => {}
+            Ok(false) => break,
+            Err(e) => return Err(err(Some(line_now(&reader)), "", format!("bad row: {e}"))),
+        }
+        let line = line_now(&reader);
         let num = |ci: usize, field: &str| -> Result<f64, InputError> {
             let t = rec.get(ci).unwrap_or("");
             t.parse::<f64>()
