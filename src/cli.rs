@@ -31,6 +31,24 @@ impl From<UnitsArg> for UnitSystem {
     }
 }
 
+/// Rate option for `design`.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum RatesArg {
+    /// A rate per well, least total flow (linear programme).
+    Individual,
+    /// The same rate in every well (one pump size on site).
+    Uniform,
+}
+
+impl From<RatesArg> for crate::optimise::RateOption {
+    fn from(r: RatesArg) -> Self {
+        match r {
+            RatesArg::Individual => crate::optimise::RateOption::Individual,
+            RatesArg::Uniform => crate::optimise::RateOption::Uniform,
+        }
+    }
+}
+
 /// The subcommands.
 #[derive(Debug, Subcommand)]
 pub enum Command {
@@ -55,6 +73,42 @@ pub enum Command {
         /// Take the wells from this CSV (name,x,y,rate_l_per_s[,radius_m]) instead of the layout.
         #[arg(long)]
         wells: Option<PathBuf>,
+        /// Units for the terminal output.
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+    },
+    /// Find the fewest wells and their rates that meet every target within the well limits;
+    /// writes what `check` writes for the chosen layout, plus design.json, design.csv, bid.csv.
+    Design {
+        /// Design file (TOML).
+        file: PathBuf,
+        /// Output folder.
+        #[arg(short = 'o', long = "out", default_value = "drydig-out")]
+        out: PathBuf,
+        /// Rates for the chosen layout: individual (least total flow) or uniform (one pump size).
+        #[arg(long, value_enum, default_value = "individual")]
+        rates: RatesArg,
+        /// Units for the terminal output.
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+    },
+    /// Try a range of well counts (ring) or spacings in m (trench line): table, sweep.csv and
+    /// sweep.svg.
+    Sweep {
+        /// Design file (TOML).
+        file: PathBuf,
+        /// First count (ring) or spacing in m (line).
+        #[arg(long)]
+        from: f64,
+        /// Last count or spacing (inclusive).
+        #[arg(long)]
+        to: f64,
+        /// Step (default 1 well, or a tenth of the spacing range).
+        #[arg(long)]
+        step: Option<f64>,
+        /// Output folder for sweep.csv and sweep.svg.
+        #[arg(short = 'o', long = "out", default_value = "drydig-out")]
+        out: PathBuf,
         /// Units for the terminal output.
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,

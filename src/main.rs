@@ -68,6 +68,53 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 ExitCode::from(3)
             })
         }
+        Command::Design {
+            file,
+            out,
+            rates,
+            units,
+        } => {
+            let model = model::load(&file)?;
+            let units = units.map(Into::into).unwrap_or(model.units);
+            let design = drydig::optimise::design(&model, rates.into())?;
+            let run = report::design_text::final_run(&model, &design);
+            let files = report::design_text::files(&model, &design, run.as_ref())?;
+            report::files::write_all(&out, &files)?;
+            print(&report::design_text::to_text(&model, &design, run.as_ref(), units))?;
+            print(&format!("outputs written to {}\n", out.display()))?;
+            Ok(if report::design_text::is_met(&design, run.as_ref()) {
+                ExitCode::SUCCESS
+            } else {
+                ExitCode::from(3)
+            })
+        }
+        Command::Sweep {
+            file,
+            from,
+            to,
+            step,
+            out,
+            units,
+        } => {
+            let model = model::load(&file)?;
+            let units = units.map(Into::into).unwrap_or(model.units);
+            let plan = drydig::sweep::plan(&model, from, to, step)?;
+            let bar = indicatif::ProgressBar::new(plan.values.len() as u64);
+            if !std::io::IsTerminal::is_terminal(&std::io::stderr()) || plan.values.len() < 4 {
+                bar.set_draw_target(indicatif::ProgressDrawTarget::hidden());
+            }
+            let sweep = drydig::sweep::run(&model, &plan, &|| bar.inc(1))?;
+            bar.finish_and_clear();
+            let files = vec![
+                ("sweep.csv".to_string(), report::design_text::trials_csv(&sweep.trials, Some(&sweep.values))?),
+                ("sweep.svg".to_string(), report::sweep_chart::render(&model.name, &sweep).into_bytes()),
+            ];
+            report::files::write_all(&out, &files)?;
+            print(&report::design_text::sweep_text(&model, &sweep, units))?;
+            print(&format!("outputs written to {}\n", out.display()))?;
+            let any = sweep.trials.iter().any(|t| t.uniform_met || t.individual_met);
+            Ok(if any { ExitCode::SUCCESS } else { ExitCode::from(3) })
+        }
         Command::New { file } => {
             starter::write_new(&file)?;
             eprintln!(

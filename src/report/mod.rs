@@ -1,8 +1,10 @@
 //! Formatting results for people and programs: one file per output format.
 
 pub mod check_text;
+pub mod design_text;
 pub mod estimate_text;
 pub mod files;
+pub mod sweep_chart;
 pub mod tables;
 
 /// The caution carried by every output: terminal, files and maps.
