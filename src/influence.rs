@@ -11,7 +11,7 @@
 
 use crate::aquifer::{Aquifer, Level};
 use crate::model::Boundary;
-use crate::physics::images::{image_sign, mirror_point};
+use crate::physics::images::{image_set, image_sign, mirror_point};
 use crate::physics::special::bessel_k0;
 use crate::wells::Well;
 use rayon::prelude::*;
@@ -21,6 +21,10 @@ use std::f64::consts::PI;
 
 /// Beyond this many leakage factors a leaky well's K₀ term is below 1e-11 and is cut off.
 const LEAKY_CUTOFF_B: f64 = 25.0;
+
+/// Images are kept out to this many cut-off radii from their well (farther ones add nothing
+/// to any point within the map).
+const IMAGE_REACH_FACTOR: f64 = 3.0;
 
 type Indexed = GeomWithData<[f64; 2], usize>;
 
@@ -60,6 +64,14 @@ impl Field {
         origin: [f64; 2],
     ) -> Field {
         let local = |p: [f64; 2]| [p[0] - origin[0], p[1] - origin[1]];
+        let cutoff = match aquifer.leakage_factor() {
+            Some(b) => LEAKY_CUTOFF_B * b,
+            None => radius_of_influence,
+        };
+        let lines: Vec<_> = boundaries
+            .iter()
+            .map(|b| (local(b.line[0]), local(b.line[1]), b.kind))
+            .collect();
         let mut sources = Vec::with_capacity(wells.len() * (1 + boundaries.len()));
         for (i, w) in wells.iter().enumerate() {
             let p = local(w.position);
@@ -69,21 +81,23 @@ impl Field {
                 well: i,
                 sign: 1.0,
             });
-            for b in boundaries {
-                let a = local(b.line[0]);
-                let c = local(b.line[1]);
+            // Geometry is checked when the design file is validated; an unsolvable set keeps
+            // first-order images only.
+            let images = image_set(p, &lines, IMAGE_REACH_FACTOR * cutoff).unwrap_or_else(|_| {
+                lines
+                    .iter()
+                    .map(|(a, c, k)| (mirror_point(p, *a, *c), image_sign(*k)))
+                    .collect()
+            });
+            for (position, sign) in images {
                 sources.push(Source {
-                    position: mirror_point(p, a, c),
+                    position,
                     radius: w.radius,
                     well: i,
-                    sign: image_sign(b.kind),
+                    sign,
                 });
             }
         }
-        let cutoff = match aquifer.leakage_factor() {
-            Some(b) => LEAKY_CUTOFF_B * b,
-            None => radius_of_influence,
-        };
         let tree = RTree::bulk_load(
             sources
                 .iter()

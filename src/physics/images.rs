@@ -44,6 +44,68 @@ pub fn image_sign(kind: BoundaryKind) -> f64 {
     }
 }
 
+/// Most images kept per well (parallel boundaries give an endless series, cut at `reach`).
+pub const MAX_IMAGES_PER_WELL: usize = 400;
+
+fn side(p: [f64; 2], a: [f64; 2], b: [f64; 2]) -> f64 {
+    (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0])
+}
+
+/// Every image of a well at `p` in a set of straight boundaries, with its sign, by repeated
+/// reflection: every first-order image, and images of images out to `reach` metres from the well.
+///
+/// One boundary gives one image. Two parallel boundaries give the endless alternating series,
+/// cut where it no longer matters; two boundaries meeting at 180°/n give a closed group of images
+/// (Ferris et al. 1962, USGS WSP 1536-E, "multiple boundary systems"). Any other geometry has no
+/// exact image solution; it is refused with a message, detected where an image would land inside
+/// the aquifer or two reflection paths reach one point with opposite signs.
+pub fn image_set(
+    p: [f64; 2],
+    boundaries: &[([f64; 2], [f64; 2], BoundaryKind)],
+    reach: f64,
+) -> Result<Vec<([f64; 2], f64)>, String> {
+    let own: Vec<f64> = boundaries
+        .iter()
+        .map(|(a, b, _)| side(p, *a, *b).signum())
+        .collect();
+    let mut out: Vec<([f64; 2], f64)> = Vec::new();
+    let mut queue = std::collections::VecDeque::from([(p, 1.0, usize::MAX)]);
+    let close = |u: [f64; 2], v: [f64; 2]| (u[0] - v[0]).hypot(u[1] - v[1]) < 1e-6 * (1.0 + reach);
+    while let Some((q, sign, last)) = queue.pop_front() {
+        for (bi, (a, b, kind)) in boundaries.iter().enumerate() {
+            if bi == last {
+                continue;
+            }
+            let img = mirror_point(q, *a, *b);
+            let img_sign = sign * image_sign(*kind);
+            // First-order images are always kept; images of images only out to `reach`.
+            let far = last != usize::MAX && (img[0] - p[0]).hypot(img[1] - p[1]) > reach;
+            if far || close(img, p) {
+                continue;
+            }
+            if let Some((_, s)) = out.iter().find(|(x, _)| close(*x, img)) {
+                if *s != img_sign {
+                    return Err("these boundaries meet at an angle where a constant-head line and a barrier have no exact image solution (mixed boundaries need parallel lines or a right angle)".into());
+                }
+                continue;
+            }
+            let inside = boundaries
+                .iter()
+                .zip(&own)
+                .all(|((a, b, _), s0)| side(img, *a, *b).signum() == *s0);
+            if inside {
+                return Err("these boundaries meet at an angle that is not 180°/n (90°, 60°, 45°…) and are not parallel, so the method of images has no exact solution; simplify them to one line, two parallel lines or a right-angled corner".into());
+            }
+            if out.len() >= MAX_IMAGES_PER_WELL {
+                return Ok(out);
+            }
+            out.push((img, img_sign));
+            queue.push_back((img, img_sign, bi));
+        }
+    }
+    Ok(out)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -146,5 +208,56 @@ mod tests {
         // Ferris et al. (1962) USGS WSP 1536-E
         assert_eq!(image_sign(BoundaryKind::ConstantHead), -1.0);
         assert_eq!(image_sign(BoundaryKind::Barrier), 1.0);
+    }
+
+    // Ferris et al. (1962) WSP 1536-E: two parallel constant-head lines (a strip aquifer) give
+    // an endless alternating series; with a barrier and a river at a right angle the group is
+    // three images with signs (−, +, −). Checked against the boundary conditions themselves:
+    // zero drawdown on each river line, zero normal gradient at the barrier (plane geometry).
+    #[test]
+    fn images_of_images_meet_both_boundary_conditions() {
+        let thiem_sum_r = |p: [f64; 2], imgs: &[([f64; 2], f64)], r_big: f64| {
+            thiem_drawdown(Q, T, dist(p, WELL), r_big)
+                + imgs
+                    .iter()
+                    .map(|(q, s)| s * thiem_drawdown(Q, T, dist(p, *q), r_big))
+                    .sum::<f64>()
+        };
+        let thiem_sum = |p: [f64; 2], imgs: &[([f64; 2], f64)]| thiem_sum_r(p, imgs, 1.0e7);
+        // Right-angled corner: river on x = 0, barrier on y = -30.
+        let corner = [
+            ([0.0, -100.0], [0.0, 100.0], BoundaryKind::ConstantHead),
+            ([-100.0, -30.0], [100.0, -30.0], BoundaryKind::Barrier),
+        ];
+        let imgs = image_set(WELL, &corner, 1.0e6).unwrap();
+        assert_eq!(imgs.len(), 3);
+        for y in [-30.0, -10.0, 0.0, 40.0, 200.0] {
+            assert!(thiem_sum([0.0, y], &imgs).abs() < 1e-9);
+        }
+        for x in [5.0, 30.0, 80.0] {
+            let h = 1e-4;
+            let g =
+                (thiem_sum([x, -30.0 + h], &imgs) - thiem_sum([x, -30.0 - h], &imgs)) / (2.0 * h);
+            assert!(g.abs() < 1e-6, "gradient {g}");
+        }
+        // Strip between two rivers, x = 0 and x = 120: images are kept out to 3 R, as the
+        // superposition kernel does, and each well and image adds nothing beyond R.
+        let strip = [
+            ([0.0, -100.0], [0.0, 100.0], BoundaryKind::ConstantHead),
+            ([120.0, -100.0], [120.0, 100.0], BoundaryKind::ConstantHead),
+        ];
+        let r_big = 5.0e3;
+        let imgs = image_set(WELL, &strip, 3.0 * r_big).unwrap();
+        assert!(imgs.len() > 100);
+        assert!(thiem_sum_r([0.0, 10.0], &imgs, r_big).abs() < 2e-3);
+        assert!(thiem_sum_r([120.0, -20.0], &imgs, r_big).abs() < 2e-3);
+        assert!(thiem_sum_r([60.0, 0.0], &imgs, r_big) > 0.1);
+        // A 70° wedge has no exact image solution: refused.
+        let t = 70f64.to_radians();
+        let wedge = [
+            ([0.0, 0.0], [1.0, 0.0], BoundaryKind::Barrier),
+            ([0.0, 0.0], [t.cos(), t.sin()], BoundaryKind::Barrier),
+        ];
+        assert!(image_set([10.0, 3.0], &wedge, 1.0e4).is_err());
     }
 }
