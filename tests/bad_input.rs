@@ -101,6 +101,7 @@ const CASES: &[Case] = &[
     case("ring_too_few_wells.toml", Slot("layout.count"), "at least 3 wells", None),
     // Boundaries, neighbours, checks, uplift, output.
     case("boundary_crossing_excavation.toml", Slot("boundary[1].line"), "wholly to one side", Some("line = [[15, -100]")),
+    case("boundaries_oblique.toml", Slot("boundary"), "180°/n", None),
     case("boundary_one_point.toml", Slot("boundary[1].line"), "two distinct points", Some("line = [[-50, -100]]")),
     case("duplicate_neighbour_names.toml", Slot("neighbour[2].name"), "needs its own name", Some("[[40, 0]")),
     case("negative_distortion.toml", Slot("neighbour[1].allowable_distortion"), "\"1/500\"", Some("allowable_distortion = ")),

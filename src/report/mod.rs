@@ -1,10 +1,10 @@
 //! Formatting results for people and programs: one file per output format.
 
 pub mod check_text;
-pub mod design_text;
 pub mod estimate_text;
 pub mod files;
-pub mod sweep_chart;
+pub mod geojson_out;
+pub mod map_svg;
 pub mod tables;
 
 /// The caution carried by every output: terminal, files and maps.
@@ -69,5 +69,8 @@ pub fn check_files(run: &crate::check::CheckRun) -> anyhow::Result<Vec<(String, 
         ),
         ("wells.csv".into(), tables::wells_csv(run)?),
         ("checkpoints.csv".into(), tables::checkpoints_csv(run)?),
-    ])
+    ]
+    .into_iter()
+    .chain(map_svg::files(run))
+    .collect())
 }
