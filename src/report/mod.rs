@@ -1,10 +1,12 @@
 //! Formatting results for people and programs: one file per output format.
 
 pub mod check_text;
+pub mod design_text;
 pub mod estimate_text;
 pub mod files;
 pub mod geojson_out;
 pub mod map_svg;
+pub mod sweep_chart;
 pub mod tables;
 
 /// The caution carried by every output: terminal, files and maps.
