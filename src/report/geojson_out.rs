@@ -1,7 +1,8 @@
 //! `layout.geojson` and `contours.geojson`: the layout and the contour lines for GIS and CAD.
 //!
 //! Coordinates are the site's own (x east, y north, metres, in the grid the design file names),
-//! not shifted and not reprojected. RFC 7946 asks for longitude/latitude; a local or projected
+//! not shifted and not reprojected; computed positions (wells, set-out lines, contours) are
+//! rounded to 0.1 mm, the user's outlines are written as given. RFC 7946 asks for longitude/latitude; a local or projected
 //! grid is written as is, and the collection carries `coordinate_system` and `units` members
 //! saying so, for the reader to set the layer's CRS.
 
@@ -42,8 +43,10 @@ fn collection(features: Vec<Feature>, members: Value) -> String {
         fc.foreign_members = Some(map.into_iter().collect::<JsonObject>());
     }
     // Serialising plain numbers and strings cannot fail; fall back to the geojson crate's own
-    // Display if it ever did.
-    serde_json::to_string_pretty(&fc).unwrap_or_else(|_| fc.to_string())
+    // Display if it ever did. One line, as GIS tools write it.
+    let mut out = serde_json::to_string(&fc).unwrap_or_else(|_| fc.to_string());
+    out.push('\n');
+    out
 }
 
 fn members(run: &CheckRun) -> Value {
@@ -82,7 +85,7 @@ pub fn layout_geojson(run: &CheckRun) -> String {
     }
     for (w, r) in run.placement.wells.iter().zip(&run.evaluation.wells) {
         features.push(feature(
-            Geometry::new_point(w.position),
+            Geometry::new_point([round(w.position[0], 4), round(w.position[1], 4)]),
             json!({
                 "kind": "well",
                 "name": w.name,
@@ -98,7 +101,7 @@ pub fn layout_geojson(run: &CheckRun) -> String {
     for (i, p) in run.placement.paths.iter().enumerate() {
         if p.len() >= 2 {
             features.push(feature(
-                Geometry::new_line_string(p.iter().copied()),
+                Geometry::new_line_string(p.iter().map(|q| [round(q[0], 4), round(q[1], 4)])),
                 json!({ "kind": "well-line", "name": format!("set-out line {}", i + 1) }),
             ));
         }
@@ -156,12 +159,12 @@ pub fn contours_geojson(run: &CheckRun, grid: &LevelGrid) -> String {
                 Geometry::new_line_string(
                     line.parts[0]
                         .iter()
-                        .map(|p| [round(p[0], 3), round(p[1], 3)]),
+                        .map(|p| [round(p[0], 4), round(p[1], 4)]),
                 )
             } else {
                 Geometry::new_multi_line_string(line.parts.iter().map(|part| {
                     part.iter()
-                        .map(|p| [round(p[0], 3), round(p[1], 3)])
+                        .map(|p| [round(p[0], 4), round(p[1], 4)])
                         .collect::<Vec<_>>()
                 }))
             };
