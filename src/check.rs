@@ -23,6 +23,8 @@ pub struct CheckRun<'a> {
     pub points: Vec<CheckPoint>,
     /// Results.
     pub evaluation: Evaluation,
+    /// Recharge sizing, when asked for (`check --size-recharge`).
+    pub recharge: Option<crate::recharge::RechargeSizing>,
 }
 
 /// A working origin near the site, so that projected coordinates keep their precision.
@@ -57,6 +59,7 @@ pub fn evaluate_placement(model: &Model, placement: Placement) -> CheckRun<'_> {
         field,
         points,
         evaluation,
+        recharge: None,
     }
 }
 

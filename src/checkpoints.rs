@@ -19,6 +19,8 @@ pub enum PointKind {
     Edge,
     /// Named by the user.
     Named,
+    /// Holds the head that keeps the base from lifting ([`crate::uplift`]).
+    Uplift,
 }
 
 /// One check point.
@@ -103,5 +105,6 @@ pub fn check_points(model: &Model) -> Vec<CheckPoint> {
             target_level: *target,
         });
     }
+    crate::uplift::add_check_points(model, &mut out);
     out
 }

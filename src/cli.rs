@@ -76,6 +76,11 @@ pub enum Command {
         /// Units for the terminal output.
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
+        /// Size the recharge wells (listed wells with a negative rate, the rate being each one's
+        /// largest injection) so every neighbour keeps within its limit while the excavation still
+        /// meets its target; reports the net flow.
+        #[arg(long)]
+        size_recharge: bool,
     },
     /// Find the fewest wells and their rates that meet every target within the well limits;
     /// writes what `check` writes for the chosen layout, plus design.json, design.csv, bid.csv.

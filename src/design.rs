@@ -302,6 +302,12 @@ pub struct Neighbour {
     /// Soil profile under it, top down.
     #[serde(default)]
     pub layer: Vec<SoilLayer>,
+    /// Effective-stress change: "simple" (γ_w·Δh, default) or "buoyancy-loss".
+    #[serde(default)]
+    pub stress_change: Option<String>,
+    /// Hold this building to its limits when sizing recharge (`check --size-recharge`).
+    #[serde(default)]
+    pub protect_with_recharge: Option<bool>,
 }
 
 /// `[[neighbour.layer]]`
@@ -330,6 +336,9 @@ pub struct SoilLayer {
     /// Saturated unit weight.
     #[serde(default)]
     pub unit_weight: Option<UnitWeight>,
+    /// Unit weight once drained above the lowered water table (buoyancy-loss form).
+    #[serde(default)]
+    pub moist_unit_weight: Option<UnitWeight>,
 }
 
 /// `[checks]`

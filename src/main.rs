@@ -53,16 +53,22 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             out,
             wells,
             units,
+            size_recharge,
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let run = drydig::check::run(&model, wells.as_deref())?;
+            let run = if size_recharge {
+                drydig::recharge::run_sized(&model, wells.as_deref())?
+            } else {
+                drydig::check::run(&model, wells.as_deref())?
+            };
             let files = report::check_files(&run)?;
             report::files::write_all(&out, &files)?;
             print(&report::check_text::to_text(&run, units))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             let e = &run.evaluation;
-            Ok(if e.targets_met && e.wells_ok {
+            let neighbours_ok = drydig::neighbours::all_pass(&run);
+            Ok(if e.targets_met && e.wells_ok && neighbours_ok {
                 ExitCode::SUCCESS
             } else {
                 ExitCode::from(3)

@@ -300,6 +300,10 @@ pub struct Neighbour {
     pub allowable_distortion: Option<f64>,
     /// Soil layers top down.
     pub layers: Vec<SoilLayer>,
+    /// Use the buoyancy-loss form Δσ′ = Δh·(γ_w − (γ_sat − γ_moist)) instead of γ_w·Δh.
+    pub buoyancy_loss: bool,
+    /// Marked to be held to its limits when recharge is sized.
+    pub protect_with_recharge: bool,
 }
 
 /// Compressibility of a soil layer.
@@ -331,6 +335,8 @@ pub struct SoilLayer {
     pub compressibility: Compressibility,
     /// Saturated unit weight, kN/m³, when given.
     pub unit_weight: Option<f64>,
+    /// Unit weight once drained (moist), kN/m³, when given.
+    pub moist_unit_weight: Option<f64>,
 }
 
 /// Check-point settings.
@@ -932,6 +938,14 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         });
     }
 
+    if boundaries.len() > 1 {
+        let lines: Vec<_> = boundaries.iter().map(|b| (b.line[0], b.line[1], b.kind)).collect();
+        let probe = excavations[0].outline.exterior().0[0];
+        if let Err(why) = crate::physics::images::image_set([probe.x, probe.y], &lines, 1.0e5) {
+            return Err(rep.error("boundary", None, why));
+        }
+    }
+
     let mut keep_outs = Vec::new();
     for (i, k) in raw.keep_out.iter().enumerate() {
         keep_outs.push(NamedPolygon {
@@ -1338,12 +1352,32 @@ fn neighbour(
             .as_ref()
             .map(|q| check_positive(rep, &format!("{lf}.unit_weight"), q, "unit weight"))
             .transpose()?;
+        let moist_unit_weight = l
+            .moist_unit_weight
+            .as_ref()
+            .map(|q| check_positive(rep, &format!("{lf}.moist_unit_weight"), q, "unit weight"))
+            .transpose()?;
         layers.push(SoilLayer {
             name: l.name.clone(),
             thickness,
             compressibility,
             unit_weight,
+            moist_unit_weight,
         });
+    }
+    let buoyancy_loss = match n.stress_change.as_deref() {
+        None | Some("simple") => false,
+        Some("buoyancy-loss") => true,
+        Some(other) => return Err(rep.error(f("stress_change"), None, format!("unknown stress_change \"{other}\"; valid: \"simple\" (γ_w·Δh, default) or \"buoyancy-loss\" (needs unit_weight and moist_unit_weight on every layer)"))),
+    };
+    if buoyancy_loss {
+        for (j, l) in layers.iter().enumerate() {
+            match (l.unit_weight, l.moist_unit_weight) {
+                (Some(sat), Some(moist)) if moist <= sat => {}
+                (Some(sat), Some(moist)) => return Err(rep.error(format!("neighbour[{}].layer[{}].moist_unit_weight", i + 1, j + 1), None, format!("{moist} kN/m3 is above the saturated unit weight {sat} kN/m3; a drained soil is lighter"))),
+                _ => return Err(rep.error(format!("neighbour[{}].layer[{}]", i + 1, j + 1), None, "stress_change = \"buoyancy-loss\" needs unit_weight (saturated) and moist_unit_weight on every layer, e.g. \"20 kN/m3\" and \"17 kN/m3\"")),
+            }
+        }
     }
     if let Some(r) = &n.allowable_distortion {
         if !(r.value > 0.0 && r.value < 1.0) {
@@ -1362,6 +1396,8 @@ fn neighbour(
         allowable_settlement: positive(&n.allowable_settlement, "allowable_settlement")?,
         allowable_distortion: n.allowable_distortion.as_ref().map(|r| r.value),
         layers,
+        buoyancy_loss,
+        protect_with_recharge: n.protect_with_recharge.unwrap_or(false),
     })
 }
 

@@ -125,6 +125,7 @@ pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
         (true, false) => "RESULT: targets met, but some wells exceed their limits (see status)",
         (false, _) => "RESULT: targets NOT met",
     };
+    out.push_str(&super::neighbours_out::text(run, units));
     out.push_str(&format!("\n{verdict}\n\n"));
     out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
     out

@@ -2333,7 +2333,16 @@ fn caution_footer() -> Group {
 pub fn files(run: &CheckRun) -> Vec<(String, Vec<u8>)> {
     let grid = LevelGrid::for_run(run);
     vec![
-        ("map.svg".into(), map_svg(run, &grid, &today()).into_bytes()),
+        (
+            "map.svg".into(),
+            map_svg_with(
+                run,
+                &grid,
+                &today(),
+                &super::neighbours_out::map_options(run),
+            )
+            .into_bytes(),
+        ),
         (
             "layout.geojson".into(),
             crate::report::geojson_out::layout_geojson(run).into_bytes(),

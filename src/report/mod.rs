@@ -6,6 +6,7 @@ pub mod estimate_text;
 pub mod files;
 pub mod geojson_out;
 pub mod map_svg;
+pub mod neighbours_out;
 pub mod sweep_chart;
 pub mod tables;
 
@@ -73,6 +74,7 @@ pub fn check_files(run: &crate::check::CheckRun) -> anyhow::Result<Vec<(String, 
         ("checkpoints.csv".into(), tables::checkpoints_csv(run)?),
     ]
     .into_iter()
+    .chain(neighbours_out::files(run)?)
     .chain(map_svg::files(run))
     .collect())
 }

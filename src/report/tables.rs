@@ -159,6 +159,10 @@ pub fn summary_json(run: &CheckRun) -> Value {
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
         "placement_notes": run.placement.notes,
         "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems})).collect::<Vec<_>>(),
+        "neighbours": crate::neighbours::assess_run(run),
+        "neighbour_rules_of_thumb": super::neighbours_out::rules_of_thumb(),
+        "uplift": crate::uplift::assess_run(run),
+        "recharge_sizing": run.recharge,
         "caution": super::CAUTION,
     })
 }
