@@ -351,9 +351,13 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
         .iter()
         .filter(|s| s.settlement_m.is_some())
         .max_by(|a, b| {
-            a.settlement_m
-                .unwrap_or(0.0)
-                .total_cmp(&b.settlement_m.unwrap_or(0.0))
+            // Settlements within a micrometre count as equal; then the larger drawdown wins.
+            let (ra, rb) = (a.settlement_m.unwrap_or(0.0), b.settlement_m.unwrap_or(0.0));
+            if (ra - rb).abs() < 1e-6 {
+                a.drawdown_m.total_cmp(&b.drawdown_m)
+            } else {
+                ra.total_cmp(&rb)
+            }
         })
         .cloned();
     let mut sides = Vec::new();

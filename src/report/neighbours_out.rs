@@ -198,9 +198,9 @@ pub fn text(run: &CheckRun, units: UnitSystem) -> String {
             ));
             for s in &r.sides {
                 out.push_str(&format!(
-                    "    side {:<11} L {:>6.1} m  Δρ {:>5.1} mm  β {}\n",
+                    "    side {:<11} L {:>6.1} {lu}  Δρ {:>5.1} mm  β {}\n",
                     s.name,
-                    s.length_m,
+                    l(s.length_m),
                     s.differential_m * 1e3,
                     ratio_text(s.distortion)
                 ));
@@ -218,7 +218,7 @@ pub fn text(run: &CheckRun, units: UnitSystem) -> String {
         out.push_str(&uplift_text(u, units));
     }
     if let Some(rs) = &run.recharge {
-        out.push_str(&recharge_text(rs));
+        out.push_str(&recharge_text(rs, units));
     }
     if !results.is_empty() {
         let failing: Vec<&str> = results
@@ -308,15 +308,16 @@ fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
     out
 }
 
-fn recharge_text(r: &RechargeSizing) -> String {
+fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
+    let lu = units.length_unit();
     let mut out = format!("\nrecharge sizing: {}\n", r.status);
     for p in &r.protected {
         out.push_str(&format!(
-            "  protect {:<24} drawdown ≤ {:.2} m ({}); {:.2} m without recharge\n",
+            "  protect {:<24} drawdown ≤ {:.2} {lu} ({}); {:.2} {lu} without recharge\n",
             truncate(&p.name, 24),
-            p.drawdown_limit_m,
+            units.length(p.drawdown_limit_m),
             p.basis,
-            p.drawdown_without_recharge_m
+            units.length(p.drawdown_without_recharge_m)
         ));
     }
     for w in &r.wells {
