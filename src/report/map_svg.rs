@@ -628,7 +628,7 @@ pub fn map_svg_with(run: &CheckRun, grid: &LevelGrid, date: &str, opts: &MapOpti
         g
     };
     let (scale_bar, north) = scale_and_north(&view, legend_bottom + 14.0);
-    let title = title_block(run, &set, date);
+    let title = title_block(run, &set, date, opts);
     let caution = caution_footer();
 
     let (what, unit) = quantity_words(quantity);
@@ -2175,7 +2175,7 @@ fn lines_of(text: &str, width: usize) -> Vec<String> {
         .collect()
 }
 
-fn title_block(run: &CheckRun, set: &ContourSet, date: &str) -> Group {
+fn title_block(run: &CheckRun, set: &ContourSet, date: &str, opts: &MapOptions) -> Group {
     let model = run.model;
     let e = &run.evaluation;
     let (what, unit) = quantity_words(set.quantity);
@@ -2248,6 +2248,18 @@ fn title_block(run: &CheckRun, set: &ContourSet, date: &str) -> Group {
         "Result: targets met; some wells over limits".to_string()
     };
     raw.push((12.0, result, true));
+    let over = opts.neighbour_status.as_ref().map_or(0, |v| {
+        v.iter()
+            .filter(|s| **s == NeighbourStatus::OverLimit)
+            .count()
+    });
+    if over > 0 {
+        raw.push((
+            12.0,
+            format!("Result: {over} neighbour(s) over a limit"),
+            true,
+        ));
+    }
     if let Some(w) = e.worst_point.and_then(|i| e.points.get(i)) {
         if let Some(m) = w.margin_m.filter(|m| *m < 0.0) {
             raw.push((
@@ -2275,7 +2287,7 @@ fn title_block(run: &CheckRun, set: &ContourSet, date: &str) -> Group {
     let mut rows: Vec<(f64, String, bool, &str)> = Vec::new();
     for (size, words, bold) in raw {
         let chars = (avail / (0.62 * size)).floor().max(10.0) as usize;
-        let fill = if words.starts_with("Result: target NOT") {
+        let fill = if words.starts_with("Result: target NOT") || words.contains("over a limit") {
             FAIL
         } else {
             INK
