@@ -101,7 +101,8 @@ impl LpSolution {
     }
 }
 
-/// A scaled constraint row: Σ a_j·x_j (≥ or ≤) rhs with x in L/s and max |a_j| = 1.
+/// A scaled constraint row: Σ a_j·y_j (≥ or ≤) rhs with y the solver's variables (see
+/// [`column_scales`]) and max |a_j| = 1.
 struct Row {
     index: usize,
     terms: Vec<(usize, f64)>,
@@ -180,6 +181,41 @@ fn scaled_rows(problem: &RateProblem) -> Result<Vec<Row>, LpStatus> {
     Ok(rows)
 }
 
+/// Equilibrate the columns: each variable is solved for as y_j = x_j / c_j (x in L/s) with c_j
+/// chosen so that its largest coefficient over the rows is 1, then the rows are normalised
+/// again. Closely spaced wells give nearly equal columns of very different size from the
+/// capacity rows; without this the simplex can meet a singular basis.
+fn column_scales(rows: &mut [Row], n: usize) -> Vec<f64> {
+    let mut big = vec![0.0f64; n];
+    for row in rows.iter() {
+        for (j, a) in &row.terms {
+            big[*j] = big[*j].max(a.abs());
+        }
+    }
+    let scales: Vec<f64> = big
+        .iter()
+        .map(|b| {
+            if *b > 0.0 {
+                (1.0 / b).clamp(1e-6, 1e6)
+            } else {
+                1.0
+            }
+        })
+        .collect();
+    for row in rows.iter_mut() {
+        let mut m = 0.0f64;
+        for (j, a) in row.terms.iter_mut() {
+            *a *= scales[*j];
+            m = m.max(a.abs());
+        }
+        if m > 0.0 {
+            row.terms.iter_mut().for_each(|(_, a)| *a /= m);
+            row.rhs /= m;
+        }
+    }
+    scales
+}
+
 fn row_value(row: &Row, x: &[f64]) -> f64 {
     row.terms.iter().map(|(j, a)| a * x[*j]).sum()
 }
@@ -192,11 +228,12 @@ pub fn solve(problem: &RateProblem) -> LpSolution {
     if problem.bounds.iter().any(|(lo, hi)| lo > hi) {
         return LpSolution::ended(LpStatus::Infeasible);
     }
-    let rows = match scaled_rows(problem) {
+    let mut rows = match scaled_rows(problem) {
         Ok(r) => r,
         Err(status) => return LpSolution::ended(status),
     };
     let n = problem.costs.len();
+    let scales = column_scales(&mut rows, n);
     if n == 0 {
         return LpSolution {
             status: LpStatus::Optimal,
@@ -204,27 +241,113 @@ pub fn solve(problem: &RateProblem) -> LpSolution {
             binding: Vec::new(),
         };
     }
-    let cost_scale = problem
+    let costs: Vec<f64> = problem
         .costs
+        .iter()
+        .zip(&scales)
+        .map(|(c, s)| c * s)
+        .collect();
+    let cost_scale = costs
         .iter()
         .fold(0.0f64, |m, c| m.max(c.abs()))
         .max(f64::MIN_POSITIVE);
-    // The solver is third-party code: contain any panic as a failed solve.
-    let outcome = std::panic::catch_unwind(|| run_solver(problem, &rows, cost_scale));
-    let x = match outcome {
-        Ok(Ok(x)) => x,
-        Ok(Err(ResolutionError::Infeasible)) => return LpSolution::ended(LpStatus::Infeasible),
-        Ok(Err(ResolutionError::Unbounded)) => return LpSolution::ended(LpStatus::Unbounded),
-        Ok(Err(e)) => return LpSolution::ended(LpStatus::Failed(e.to_string())),
-        Err(_) => {
-            return LpSolution::ended(LpStatus::Failed(
-                "the LP solver stopped unexpectedly".into(),
-            ))
+    let costs: Vec<f64> = costs.iter().map(|c| c / cost_scale).collect();
+    let bounds: Vec<(f64, f64)> = problem
+        .bounds
+        .iter()
+        .zip(&scales)
+        .map(|((lo, hi), s)| (lo * RATE_SCALE / s, hi * RATE_SCALE / s))
+        .collect();
+    // microlp can meet a singular basis on degenerate problems (many constraints active at one
+    // vertex, as with symmetric well lines): on failure, try again with the right-hand sides
+    // tightened by tiny, different amounts (a classic anti-degeneracy perturbation; the answer
+    // stays feasible for the original problem) and the rows in another order.
+    let mut failure = String::new();
+    for (k, (perturb, reverse)) in ATTEMPTS.iter().enumerate() {
+        match attempt(&costs, &bounds, &rows, *perturb, *reverse) {
+            Ok(x) => {
+                if let Some(msg) = violated(problem, &rows, &x) {
+                    failure = msg;
+                    continue;
+                }
+                let tol = BINDING_TOLERANCE.max(4.0 * perturb);
+                let binding = rows
+                    .iter()
+                    .filter(|row| {
+                        (row_value(row, &x) - row.rhs).abs() <= tol * (1.0 + row.rhs.abs())
+                    })
+                    .map(|row| row.index)
+                    .collect();
+                let values = x
+                    .iter()
+                    .zip(&scales)
+                    .map(|(y, s)| y * s / RATE_SCALE)
+                    .collect();
+                return LpSolution {
+                    status: LpStatus::Optimal,
+                    values,
+                    binding,
+                };
+            }
+            // A plain answer of infeasible or unbounded stands; after a perturbation (which
+            // tightens) it may be an artefact, so keep trying.
+            Err(LpStatus::Infeasible) if k == 0 => return LpSolution::ended(LpStatus::Infeasible),
+            Err(LpStatus::Unbounded) if k == 0 => return LpSolution::ended(LpStatus::Unbounded),
+            Err(LpStatus::Failed(msg)) => failure = msg,
+            Err(other) => failure = format!("{other:?} after a perturbed retry"),
         }
-    };
-    // Verify the point the solver returned before trusting it.
-    for row in &rows {
-        let v = row_value(row, &x);
+    }
+    LpSolution::ended(LpStatus::Failed(failure))
+}
+
+/// Tries: (relative tightening of the right-hand sides, rows in reverse order).
+const ATTEMPTS: [(f64, bool); 4] = [(0.0, false), (1e-8, false), (1e-7, true), (1e-6, false)];
+
+/// One solve of the scaled problem, right-hand sides tightened by up to `perturb` (relative).
+fn attempt(
+    costs: &[f64],
+    bounds: &[(f64, f64)],
+    rows: &[Row],
+    perturb: f64,
+    reverse: bool,
+) -> Result<Vec<f64>, LpStatus> {
+    let mut tight: Vec<Row> = rows
+        .iter()
+        .enumerate()
+        .map(|(i, r)| {
+            // Golden-ratio sequence: a different, deterministic amount for every row.
+            let e =
+                perturb * ((i as f64 * 0.618_033_988_749_895).fract() + 0.5) * (1.0 + r.rhs.abs());
+            Row {
+                index: r.index,
+                terms: r.terms.clone(),
+                sense: r.sense,
+                rhs: match r.sense {
+                    Sense::AtLeast => r.rhs + e,
+                    Sense::AtMost => r.rhs - e,
+                },
+            }
+        })
+        .collect();
+    if reverse {
+        tight.reverse();
+    }
+    // The solver is third-party code: contain any panic as a failed solve.
+    match std::panic::catch_unwind(|| run_solver(costs, bounds, &tight)) {
+        Ok(Ok(x)) => Ok(x),
+        Ok(Err(ResolutionError::Infeasible)) => Err(LpStatus::Infeasible),
+        Ok(Err(ResolutionError::Unbounded)) => Err(LpStatus::Unbounded),
+        Ok(Err(e)) => Err(LpStatus::Failed(e.to_string())),
+        Err(_) => Err(LpStatus::Failed(
+            "the LP solver stopped unexpectedly".into(),
+        )),
+    }
+}
+
+/// The first original constraint the solver's answer misses, in words.
+fn violated(problem: &RateProblem, rows: &[Row], x: &[f64]) -> Option<String> {
+    for row in rows {
+        let v = row_value(row, x);
         let violation = match row.sense {
             Sense::AtLeast => row.rhs - v,
             Sense::AtMost => v - row.rhs,
@@ -236,51 +359,39 @@ pub fn solve(problem: &RateProblem) -> LpSolution {
                 .map(|(j, a)| (a * x[*j]).abs())
                 .sum::<f64>();
         if violation > FEASIBILITY_TOLERANCE * size.max(1e-12) {
-            return LpSolution::ended(LpStatus::Failed(format!(
+            return Some(format!(
                 "the solver's answer misses constraint \"{}\" by {violation:.3e} (scaled)",
                 problem.constraints[row.index].label
-            )));
+            ));
         }
     }
-    let binding = rows
-        .iter()
-        .filter(|row| {
-            (row_value(row, &x) - row.rhs).abs() <= BINDING_TOLERANCE * (1.0 + row.rhs.abs())
-        })
-        .map(|row| row.index)
-        .collect();
-    let values = x.iter().map(|v| v / RATE_SCALE).collect();
-    LpSolution {
-        status: LpStatus::Optimal,
-        values,
-        binding,
-    }
+    None
 }
 
+/// Solve min Σ cost_j·y_j over the scaled variables with good_lp + microlp.
 fn run_solver(
-    problem: &RateProblem,
+    costs: &[f64],
+    bounds: &[(f64, f64)],
     rows: &[Row],
-    cost_scale: f64,
 ) -> Result<Vec<f64>, ResolutionError> {
     let mut vars = ProblemVariables::new();
-    let x: Vec<_> = problem
-        .bounds
+    let x: Vec<_> = bounds
         .iter()
         .map(|(lo, hi)| {
             let mut def = variable();
             if lo.is_finite() {
-                def = def.min(lo * RATE_SCALE);
+                def = def.min(*lo);
             }
             if hi.is_finite() {
-                def = def.max(hi * RATE_SCALE);
+                def = def.max(*hi);
             }
             vars.add(def)
         })
         .collect();
     let mut objective = Expression::with_capacity(x.len());
-    for (v, c) in x.iter().zip(&problem.costs) {
+    for (v, c) in x.iter().zip(costs) {
         if *c != 0.0 {
-            objective.add_mul(c / RATE_SCALE / cost_scale, *v);
+            objective.add_mul(*c, *v);
         }
     }
     let mut model = vars.minimise(objective).using(microlp);

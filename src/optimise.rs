@@ -50,8 +50,10 @@ use crate::lp::{self, Constraint, LpStatus, RateProblem, Sense};
 use crate::model::{LayoutKind, LayoutSpec, Model, RingCount, WellKind};
 use crate::physics::capacity::sichardt_well_capacity;
 use crate::wells::Well;
+use rayon::prelude::*;
 use serde::Serialize;
 use std::collections::BTreeMap;
+use std::sync::OnceLock;
 
 /// Allowance below the screen base for the sump and the drill bit, m, added to every well's
 /// drilled depth in the bid quantities (common practice (no source)).
@@ -262,6 +264,9 @@ pub struct Individual {
     pub met: bool,
     /// Rounds of adding violated constraints.
     pub rounds: usize,
+    /// Rate variables in the programme (the number of pumping wells unless neighbouring wells
+    /// share a rate).
+    pub groups: usize,
 }
 
 /// Which constraint a programme row stands for.
@@ -301,10 +306,13 @@ pub struct LayoutRates<'a> {
     targets: Vec<usize>,
     /// Φ at each target level (parallel to `targets`).
     target_phi: Vec<f64>,
-    /// Unit rows at the target points, one column per rate group.
-    a: Vec<Vec<f64>>,
-    /// Unit rows at the wells, one column per rate group.
-    at_wells: Vec<Vec<f64>>,
+    /// Unit rows per rate group at the target points and at the wells, built when the linear
+    /// programme first needs them.
+    matrices: OnceLock<Matrices>,
+    /// Positions of the target points.
+    positions: Vec<[f64; 2]>,
+    /// Positions of the wells.
+    well_positions: Vec<[f64; 2]>,
     /// Row sums of the unit rows at the target points (ΔΦ per unit uniform rate).
     a_sum: Vec<f64>,
     /// Row sums of the unit rows at the wells.
@@ -324,6 +332,14 @@ pub struct LayoutRates<'a> {
 
 fn dot(row: &[f64], x: &[f64]) -> f64 {
     row.iter().zip(x).map(|(a, b)| a * b).sum()
+}
+
+/// Unit rows folded by rate group.
+struct Matrices {
+    /// At the target points.
+    a: Vec<Vec<f64>>,
+    /// At the wells.
+    at_wells: Vec<Vec<f64>>,
 }
 
 /// Groups of consecutive wells (indices `free` into `wells`) sharing one rate, at most `max`
@@ -363,6 +379,16 @@ fn rate_groups(wells: &[Well], free: &[usize], max: usize) -> Vec<Vec<usize>> {
 impl<'a> LayoutRates<'a> {
     /// Build the field and the unit matrix of `wells` (their rates are ignored) at `points`.
     pub fn new(model: &'a Model, points: &'a [CheckPoint], wells: Vec<Well>) -> LayoutRates<'a> {
+        Self::with_groups(model, points, wells, MAX_LP_VARIABLES)
+    }
+
+    /// As [`LayoutRates::new`], with at most `max_groups` rate variables in the programme.
+    pub fn with_groups(
+        model: &'a Model,
+        points: &'a [CheckPoint],
+        wells: Vec<Well>,
+        max_groups: usize,
+    ) -> LayoutRates<'a> {
         let field = crate::check::field_for(model, &wells);
         let aq = &model.aquifer;
         let targets: Vec<usize> = points
@@ -377,7 +403,7 @@ impl<'a> LayoutRates<'a> {
             .collect();
         // A negative rate marks a recharge well: it keeps its rate; every other rate is found.
         let free: Vec<usize> = (0..wells.len()).filter(|&k| wells[k].rate >= 0.0).collect();
-        let groups = rate_groups(&wells, &free, MAX_LP_VARIABLES);
+        let groups = rate_groups(&wells, &free, max_groups);
         let mut group_of = vec![None; wells.len()];
         for (g, members) in groups.iter().enumerate() {
             for &k in members {
@@ -385,33 +411,30 @@ impl<'a> LayoutRates<'a> {
             }
         }
         let phi0 = aq.initial_potential();
-        let fold = |rows: Vec<Vec<f64>>| -> (Vec<Vec<f64>>, Vec<f64>, Vec<f64>) {
-            let mut sums = Vec::with_capacity(rows.len());
-            let mut base = Vec::with_capacity(rows.len());
-            let mut folded = Vec::with_capacity(rows.len());
-            for r in rows {
-                sums.push(free.iter().map(|&k| r[k]).sum());
-                base.push(
-                    phi0 + wells
-                        .iter()
-                        .zip(&r)
-                        .filter(|(w, _)| w.rate < 0.0)
-                        .map(|(w, u)| w.rate * u)
-                        .sum::<f64>(),
-                );
-                folded.push(
-                    groups
-                        .iter()
-                        .map(|m| m.iter().map(|&k| r[k]).sum())
-                        .collect(),
-                );
-            }
-            (folded, sums, base)
+        // Row sums (ΔΦ per unit uniform rate) and the recharge wells' effect, without the
+        // matrix: the uniform option needs nothing more.
+        let free_ones: Vec<f64> = wells
+            .iter()
+            .map(|w| if w.rate >= 0.0 { 1.0 } else { 0.0 })
+            .collect();
+        let fixed: Vec<f64> = wells.iter().map(|w| w.rate.min(0.0)).collect();
+        let any_fixed = fixed.iter().any(|q| *q < 0.0);
+        let sums = |pts: &[[f64; 2]]| -> (Vec<f64>, Vec<f64>) {
+            pts.par_iter()
+                .map(|p| {
+                    let base = if any_fixed {
+                        field.delta_potential(*p, &fixed)
+                    } else {
+                        0.0
+                    };
+                    (field.delta_potential(*p, &free_ones), phi0 + base)
+                })
+                .unzip()
         };
         let positions: Vec<[f64; 2]> = targets.iter().map(|&i| points[i].position).collect();
-        let (a, a_sum, base_t) = fold(field.unit_matrix(&positions));
+        let (a_sum, base_t) = sums(&positions);
         let well_positions: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
-        let (at_wells, at_wells_sum, base_w) = fold(field.unit_matrix(&well_positions));
+        let (at_wells_sum, base_w) = sums(&well_positions);
         let limits = wells.iter().map(|w| WellLimit::new(model, w)).collect();
         LayoutRates {
             model,
@@ -420,8 +443,9 @@ impl<'a> LayoutRates<'a> {
             field,
             targets,
             target_phi,
-            a,
-            at_wells,
+            matrices: OnceLock::new(),
+            positions,
+            well_positions,
             a_sum,
             at_wells_sum,
             groups,
@@ -431,6 +455,27 @@ impl<'a> LayoutRates<'a> {
             base_t,
             base_w,
         }
+    }
+
+    /// The unit rows per rate group (ΔΦ per unit rate of each group), built once.
+    fn matrices(&self) -> &Matrices {
+        self.matrices.get_or_init(|| {
+            let fold = |pts: &[[f64; 2]]| -> Vec<Vec<f64>> {
+                pts.par_iter()
+                    .map(|p| {
+                        let r = self.field.unit_row(*p);
+                        self.groups
+                            .iter()
+                            .map(|m| m.iter().map(|&k| r[k]).sum())
+                            .collect()
+                    })
+                    .collect()
+            };
+            Matrices {
+                a: fold(&self.positions),
+                at_wells: fold(&self.well_positions),
+            }
+        })
     }
 
     /// Number of rate groups in the linear programme (the well count unless grouped).
@@ -593,8 +638,21 @@ impl<'a> LayoutRates<'a> {
     }
 
     /// Option (b): a rate per well, least total flow, by linear programme.
+    ///
+    /// If the solver fails numerically (not an infeasible answer: a fault), the programme is
+    /// solved again with half as many rate groups: coarser, but still within every well's own
+    /// limits and evaluated in full.
     pub fn individual(&self) -> Individual {
         let (sol, rows, rounds) = self.solve(Goal::MinFlow);
+        if matches!(sol.status, LpStatus::Failed(_)) && self.groups.len() >= 16 {
+            let coarser = LayoutRates::with_groups(
+                self.model,
+                self.points,
+                self.wells.clone(),
+                self.groups.len() / 2,
+            );
+            return coarser.individual();
+        }
         if sol.status != LpStatus::Optimal {
             return Individual {
                 status: sol.status,
@@ -603,6 +661,7 @@ impl<'a> LayoutRates<'a> {
                 binding: Vec::new(),
                 met: false,
                 rounds,
+                groups: self.groups.len(),
             };
         }
         let rates = self.well_rates(&sol.values);
@@ -615,6 +674,7 @@ impl<'a> LayoutRates<'a> {
             binding,
             met: e.targets_met && e.wells_ok,
             rounds,
+            groups: self.groups.len(),
         }
     }
 
@@ -643,7 +703,7 @@ impl<'a> LayoutRates<'a> {
         let mut coefficients = vec![0.0; width];
         match r {
             RowRef::Target(t) => {
-                for (c, u) in coefficients.iter_mut().zip(&self.a[t]) {
+                for (c, u) in coefficients.iter_mut().zip(&self.matrices().a[t]) {
                     *c = -u;
                 }
                 if goal == Goal::MinShortfall {
@@ -657,7 +717,7 @@ impl<'a> LayoutRates<'a> {
                 }
             }
             RowRef::Level(k) => {
-                coefficients[..g].copy_from_slice(&self.at_wells[k]);
+                coefficients[..g].copy_from_slice(&self.matrices().at_wells[k]);
                 let lim = &self.limits[k];
                 Constraint {
                     coefficients,
@@ -675,7 +735,7 @@ impl<'a> LayoutRates<'a> {
                 let lim = &self.limits[k];
                 let (pa, ha, slope) = lim.pieces[s];
                 let f = CAPACITY_SAFETY * lim.capacity_per_metre;
-                for (c, u) in coefficients.iter_mut().zip(&self.at_wells[k]) {
+                for (c, u) in coefficients.iter_mut().zip(&self.matrices().at_wells[k]) {
                     *c = -f * slope * u;
                 }
                 if let Some(g) = self.group_of[k] {
@@ -740,12 +800,37 @@ impl<'a> LayoutRates<'a> {
             })
             .collect();
         order.sort_by(|a, b| b.0.total_cmp(&a.0));
+        let mats = self.matrices();
+        // The ten neediest points, and for each rate group the neediest point it serves most
+        // (largest |ΔΦ per unit rate|): the first programme then sees the whole layout.
+        let mut best_of_group: Vec<Option<usize>> = vec![None; g];
+        for (_, t) in &order {
+            let row = &mats.a[*t];
+            if let Some((h, _)) = row
+                .iter()
+                .enumerate()
+                .min_by(|a, b| a.1.total_cmp(b.1))
+                .filter(|(_, u)| **u < 0.0)
+            {
+                if best_of_group[h].is_none() {
+                    best_of_group[h] = Some(*t);
+                }
+            }
+        }
         let mut rows: Vec<RowRef> = order
             .iter()
-            .take(2 * g + 10)
+            .take(10)
             .map(|(_, t)| RowRef::Target(*t))
             .collect();
-        let mut have_target = vec![false; self.a.len()];
+        for t in best_of_group.into_iter().flatten() {
+            if !rows
+                .iter()
+                .any(|r| matches!(r, RowRef::Target(u) if *u == t))
+            {
+                rows.push(RowRef::Target(t));
+            }
+        }
+        let mut have_target = vec![false; mats.a.len()];
         for r in &rows {
             if let RowRef::Target(t) = r {
                 have_target[*t] = true;
@@ -763,7 +848,7 @@ impl<'a> LayoutRates<'a> {
             rounds += 1;
             let full = rounds > MAX_ROUNDS;
             if full {
-                rows = (0..self.a.len()).map(RowRef::Target).collect();
+                rows = (0..mats.a.len()).map(RowRef::Target).collect();
                 if limits_on {
                     for k in (0..n).filter(|&k| self.group_of[k].is_some()) {
                         rows.push(RowRef::Level(k));
@@ -788,38 +873,56 @@ impl<'a> LayoutRates<'a> {
             } else {
                 0.0
             };
-            let mut added = false;
-            for (t, row) in self.a.iter().enumerate() {
-                if !have_target[t]
-                    && self.base_t[t] + dot(row, x) - shortfall > self.target_phi[t] + tol
-                {
-                    have_target[t] = true;
-                    rows.push(RowRef::Target(t));
-                    added = true;
-                }
-            }
+            // Violated rows, most violated first (relative to Φ₀ for levels and targets, to
+            // the capacity for rates); at most `per_round` of each kind are added per round so
+            // that each programme stays small and far from degenerate.
+            let per_round = g.max(20);
+            let mut target_viol: Vec<(f64, usize)> = mats
+                .a
+                .iter()
+                .enumerate()
+                .filter(|(t, _)| !have_target[*t])
+                .filter_map(|(t, row)| {
+                    let v = self.base_t[t] + dot(row, x) - shortfall - self.target_phi[t];
+                    (v > tol).then_some((v / self.phi0.abs().max(1e-30), t))
+                })
+                .collect();
+            let mut well_viol: Vec<(f64, RowRef)> = Vec::new();
             if limits_on {
                 for k in 0..n {
                     let Some(gk) = self.group_of[k] else {
                         continue;
                     };
-                    let phi = self.base_w[k] + dot(&self.at_wells[k], x);
+                    let phi = self.base_w[k] + dot(&mats.at_wells[k], x);
                     let lim = &self.limits[k];
                     if !have_level[k] && phi < lim.floor_potential - tol {
-                        have_level[k] = true;
-                        rows.push(RowRef::Level(k));
-                        added = true;
+                        let v = (lim.floor_potential - phi) / self.phi0.abs().max(1e-30);
+                        well_viol.push((v, RowRef::Level(k)));
                     }
                     let (cap, s) = lim.chord_capacity(phi);
                     if !lim.pieces.is_empty()
                         && !have_cap[k][s]
                         && x[gk] > CAPACITY_SAFETY * cap + 1e-12
                     {
-                        have_cap[k][s] = true;
-                        rows.push(RowRef::Capacity(k, s));
-                        added = true;
+                        let v = (x[gk] - cap) / cap.abs().max(1e-12);
+                        well_viol.push((v, RowRef::Capacity(k, s)));
                     }
                 }
+            }
+            target_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+            well_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+            let added = !target_viol.is_empty() || !well_viol.is_empty();
+            for (_, t) in target_viol.into_iter().take(per_round) {
+                have_target[t] = true;
+                rows.push(RowRef::Target(t));
+            }
+            for (_, r) in well_viol.into_iter().take(per_round) {
+                match r {
+                    RowRef::Level(k) => have_level[k] = true,
+                    RowRef::Capacity(k, s) => have_cap[k][s] = true,
+                    RowRef::Target(_) => {}
+                }
+                rows.push(r);
             }
             if !added {
                 return (sol, rows, rounds);
@@ -1548,6 +1651,13 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
                 used.describe()
             ));
         }
+    }
+    if !model.boundaries.is_empty() {
+        notes.push(format!(
+            "the quick estimate leaves out the design file's {} straight boundar{} (a constant-head edge such as a river feeds the wells and raises the flow; a barrier lowers it), so the two flows differ by more than usual",
+            model.boundaries.len(),
+            if model.boundaries.len() == 1 { "y" } else { "ies" }
+        ));
     }
     if smallest_uniform.is_none() && smallest_individual.is_some() {
         if let Some(t) = cache

@@ -201,7 +201,10 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
                 TOP + PLOT_HEIGHT + 19.0,
                 11.0,
                 "middle",
-                label(x),
+                match sweep.axis {
+                    Axis::Count => format!("{x:.0}"),
+                    Axis::Spacing => label(x),
+                },
             ));
     }
     axes = axes
@@ -257,7 +260,7 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
         .add(
             text(
                 LEFT + plot_w - 6.0,
-                y0 - 5.0,
+                if y0 - TOP < 16.0 { y0 + 14.0 } else { y0 - 5.0 },
                 10.5,
                 "end",
                 "zero margin: below it no uniform rate within the limits is enough",
@@ -360,6 +363,33 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
         legend = legend
             .add(l)
             .add(text(LEFT + 36.0, y, 11.0, "start", *words));
+        let (mx, my) = (LEFT + 14.0, y - 4.0);
+        legend = match k {
+            0 => legend.add(
+                Circle::new()
+                    .set("cx", r1(mx))
+                    .set("cy", r1(my))
+                    .set("r", 3.5)
+                    .set("stroke", UNIFORM)
+                    .set("fill", UNIFORM),
+            ),
+            1 => legend.add(
+                Rectangle::new()
+                    .set("x", r1(mx - 3.0))
+                    .set("y", r1(my - 3.0))
+                    .set("width", 6)
+                    .set("height", 6)
+                    .set("fill", INDIVIDUAL),
+            ),
+            2 => legend.add(
+                Circle::new()
+                    .set("cx", r1(mx))
+                    .set("cy", r1(my))
+                    .set("r", 2.5)
+                    .set("fill", MARGIN),
+            ),
+            _ => legend,
+        };
     }
     doc = doc.add(legend);
 
