@@ -383,8 +383,8 @@ fn deep_shaft_map_structure_and_labels() {
 #[test]
 fn riverside_map_structure_boundary_and_neighbours() {
     let (d, layout_gj, contours_gj, _) = demo("riverside_basement.toml");
-    // layouts/riverside_basement.toml: a ring of `count = 14` wells.
-    check_structure(&d, 14);
+    // layouts/riverside_basement.toml: a ring of `count = 16` wells.
+    check_structure(&d, 16);
     // Drawdown map: labels between 0 and the most the aquifer allows (3.8 − (−11) = 14.8 m).
     check_labels(&d, 0.0, 14.8);
     // The neighbours and the river are named on the map.
@@ -399,15 +399,15 @@ fn riverside_map_structure_boundary_and_neighbours() {
             .any(|t| t.contains("River bank") && t.contains("constant head")),
         "{boundaries:?}"
     );
-    // The title block names the project and the total flow (14 wells × 5 L/s = 70 L/s).
+    // The title block names the project and the total flow (16 wells × 5.2 L/s = 83.2 L/s).
     let title = texts_in(f, "title-block").join(" ");
     assert!(title.contains("Willow Quay flats"), "{title}");
-    assert!(title.contains("Total flow: 70.0 L/s"), "{title}");
+    assert!(title.contains("Total flow: 83.2 L/s"), "{title}");
     // Layout GeoJSON, in the site's own coordinates.
     let fc = parse_fc(&layout_gj);
     let k = kinds(&fc);
     assert_eq!(k.get("excavation"), Some(&1));
-    assert_eq!(k.get("well"), Some(&14));
+    assert_eq!(k.get("well"), Some(&16));
     assert_eq!(k.get("boundary"), Some(&1));
     assert_eq!(k.get("neighbour"), Some(&2));
     assert_eq!(k.get("keep-out"), None);
