@@ -1,0 +1,57 @@
+#!/usr/bin/env bash
+# Speed benchmark (not a test): drydig's superposition kernel against the same sum written plainly
+# with NumPy, in the same run on the same machine, and the time of a full `drydig design`.
+#
+# Cases (built by examples/bench_kernel.rs):
+#   basement — a ring of 60 deep wells around a 150 m × 100 m basement, levels on a 500 × 500 map;
+#   trench   — wellpoints at 4 m on both sides of a 2 km trench (about 1 000), 500 × 500 map.
+# For each case: drydig's kernel time (best of 5; all threads, then one thread), NumPy's time
+# (best of 3), the largest level difference (must be ≤ 1e-9 m) and the ratio NumPy / drydig.
+# Then `drydig design` on the basement (best of 3, wall clock, including writing every output).
+#
+# Usage: scripts/bench.sh [GRID]   (GRID nodes per side, default 500). Needs python3 with numpy.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+grid="${1:-500}"
+cargo build --release --bin drydig --example bench_kernel >&2
+work="$(mktemp -d)"
+trap 'rm -rf "$work"' EXIT
+bin=./target/release/examples/bench_kernel
+
+for case in basement trench; do
+    "$bin" "$case" "$work/$case" "$grid" > "$work/$case.rust.json"
+    RAYON_NUM_THREADS=1 "$bin" "$case" "$work/$case.one" "$grid" > "$work/$case.rust1.json"
+    python3 scripts/bench_numpy.py "$work/$case" > "$work/$case.numpy.json"
+done
+
+python3 - "$work" <<'PY'
+import json, subprocess, sys, time
+work = sys.argv[1]
+print(f"{'case':<9} {'wells':>6} {'nodes':>8} {'drydig s':>10} {'threads':>7} {'1 thread s':>10} "
+      f"{'numpy s':>9} {'ratio':>7} {'ratio/1t':>8} {'max diff m':>11}  agree")
+ok = True
+for case in ["basement", "trench"]:
+    r = json.load(open(f"{work}/{case}.rust.json"))
+    r1 = json.load(open(f"{work}/{case}.rust1.json"))
+    n = json.load(open(f"{work}/{case}.numpy.json"))
+    ratio = n["numpy_seconds"] / r["kernel_seconds"]
+    ratio1 = n["numpy_seconds"] / r1["kernel_seconds"]
+    ok &= n["agree_to_1e-9"]
+    print(f"{case:<9} {r['wells']:>6} {r['points']:>8} {r['kernel_seconds']:>10.4f} {r['threads']:>7} "
+          f"{r1['kernel_seconds']:>10.4f} {n['numpy_seconds']:>9.4f} {ratio:>6.1f}x {ratio1:>7.1f}x "
+          f"{n['max_abs_difference_m']:>11.2e}  {'yes' if n['agree_to_1e-9'] else 'NO'}")
+best = float("inf")
+code = None
+for _ in range(3):
+    t = time.perf_counter()
+    p = subprocess.run(["./target/release/drydig", "design", f"{work}/basement/design.toml",
+                        "-o", f"{work}/design-out"], capture_output=True, text=True)
+    best = min(best, time.perf_counter() - t)
+    code = p.returncode
+summary = [l for l in p.stdout.splitlines() if l.startswith("RESULT")]
+print(f"\ndrydig design on the basement: {best:.3f} s (best of 3, exit {code}; "
+      f"{summary[0] if summary else 'no result line'})")
+if not ok:
+    print("the kernels DISAGREE beyond 1e-9 m", file=sys.stderr)
+    sys.exit(1)
+PY
