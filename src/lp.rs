@@ -7,9 +7,14 @@
 //!
 //! **Conditioning.** Rates in m³/s are small numbers (1e-4 … 1e-1) and potentials smaller still,
 //! so the solver sees scaled quantities: each rate is solved for in L/s (q × 1000), each
-//! constraint row is divided by its largest coefficient, and the costs by their largest value.
-//! Results are returned in the caller's units. How a solve ended is a status on the result,
-//! never an error or a panic.
+//! constraint row is divided by its largest coefficient, each column by its largest coefficient
+//! after that, and the costs by their largest value. Results are returned in the caller's units.
+//!
+//! **Robustness.** The answer is checked against every constraint before it is returned. The
+//! simplex can meet a singular basis on degenerate problems (a known weakness of microlp); the
+//! solve is then repeated with the right-hand sides tightened by tiny, different amounts and the
+//! rows reordered, up to three times. How a solve ended is a status on the result, never an
+//! error or a panic.
 
 use good_lp::{
     microlp, variable, Expression, ProblemVariables, ResolutionError, Solution, SolverModel,

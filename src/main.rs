@@ -86,7 +86,12 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let run = report::design_text::final_run(&model, &design);
             let files = report::design_text::files(&model, &design, run.as_ref())?;
             report::files::write_all(&out, &files)?;
-            print(&report::design_text::to_text(&model, &design, run.as_ref(), units))?;
+            print(&report::design_text::to_text(
+                &model,
+                &design,
+                run.as_ref(),
+                units,
+            ))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             Ok(if report::design_text::is_met(&design, run.as_ref()) {
                 ExitCode::SUCCESS
@@ -112,14 +117,27 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let sweep = drydig::sweep::run(&model, &plan, &|| bar.inc(1))?;
             bar.finish_and_clear();
             let files = vec![
-                ("sweep.csv".to_string(), report::design_text::trials_csv(&sweep.trials, Some(&sweep.values))?),
-                ("sweep.svg".to_string(), report::sweep_chart::render(&model.name, &sweep).into_bytes()),
+                (
+                    "sweep.csv".to_string(),
+                    report::design_text::trials_csv(&sweep.trials, Some(&sweep.values))?,
+                ),
+                (
+                    "sweep.svg".to_string(),
+                    report::sweep_chart::render(&model.name, &sweep).into_bytes(),
+                ),
             ];
             report::files::write_all(&out, &files)?;
             print(&report::design_text::sweep_text(&model, &sweep, units))?;
             print(&format!("outputs written to {}\n", out.display()))?;
-            let any = sweep.trials.iter().any(|t| t.uniform_met || t.individual_met);
-            Ok(if any { ExitCode::SUCCESS } else { ExitCode::from(3) })
+            let any = sweep
+                .trials
+                .iter()
+                .any(|t| t.uniform_met || t.individual_met);
+            Ok(if any {
+                ExitCode::SUCCESS
+            } else {
+                ExitCode::from(3)
+            })
         }
         Command::New { file } => {
             starter::write_new(&file)?;
