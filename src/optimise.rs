@@ -29,16 +29,20 @@
 //!
 //! # Size of the linear programme
 //! A layout has hundreds of check points but only a few bind. The programme starts with the
-//! points that need the most from a uniform rate, solves, checks every point and well against the
-//! full unit matrix, adds what is violated and solves again, until nothing is. The answer is the
-//! optimum of the full programme (a relaxation whose optimum is feasible for the whole).
+//! points that need the most from a uniform rate (and, for each well, the neediest point it
+//! serves most), solves, checks every point and well against the full unit matrix, adds the most
+//! violated rows (a bounded number per round) and solves again, until nothing is violated. The
+//! answer is the optimum of the full programme (a relaxation whose optimum is feasible for the
+//! whole). Above [`MAX_LP_VARIABLES`] wells, neighbouring wells share a rate (see
+//! [`LayoutRates`]).
 //!
 //! # Count search
 //! For a ring (by count) or a trench line (by wells per side, i.e. spacing), the smallest count
-//! that meets every target within the limits: counts are tried 1, 2, 4, 8 … above the smallest,
-//! then bisected, so the count found has been tried and the one below it has been tried and
-//! failed. Outcomes are data: met, not met (best layout, worst point, shortfall) or impossible
-//! (and why).
+//! that meets every target within the limits: counts are tried at the smallest, then 1, 3, 7,
+//! 15 … above it, then bisected between the last failure and the first success, so the count
+//! found has been tried and the one below it has been tried and failed. The search for
+//! individual rates solves a programme per count; the search for one rate needs none. Outcomes
+//! are data: met, not met (best layout, worst point, shortfall) or impossible (and why).
 
 use crate::checkpoints::{check_points, CheckPoint};
 use crate::error::InputError;
@@ -476,11 +480,6 @@ impl<'a> LayoutRates<'a> {
                 at_wells: fold(&self.well_positions),
             }
         })
-    }
-
-    /// Number of rate groups in the linear programme (the well count unless grouped).
-    pub fn group_count(&self) -> usize {
-        self.groups.len()
     }
 
     /// Evaluate the layout at `rates` with the plain solver.
@@ -1685,6 +1684,13 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         let t = &cache[&n];
         let (rates, binding) = match used {
             RateOption::Individual => {
+                let pumping = t.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
+                if let Some(i) = t.individual.as_ref().filter(|i| i.groups < pumping) {
+                    notes.push(format!(
+                        "the {pumping} wells share {} rates in the linear programme (neighbouring wells in groups, as above {MAX_LP_VARIABLES} wells): each well is still held to its own limits, and the total may be a little above the ungrouped least flow",
+                        i.groups
+                    ));
+                }
                 let ind = t.individual.clone().map(|i| (i.rates, i.binding));
                 ind.unwrap_or_default()
             }
