@@ -93,11 +93,14 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 units,
             ))?;
             print(&format!("outputs written to {}\n", out.display()))?;
-            Ok(if report::design_text::is_met(&design, run.as_ref()) {
-                ExitCode::SUCCESS
-            } else {
-                ExitCode::from(3)
-            })
+            let neighbours_ok = run.as_ref().is_none_or(drydig::neighbours::all_pass);
+            Ok(
+                if report::design_text::is_met(&design, run.as_ref()) && neighbours_ok {
+                    ExitCode::SUCCESS
+                } else {
+                    ExitCode::from(3)
+                },
+            )
         }
         Command::Sweep {
             file,

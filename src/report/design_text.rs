@@ -601,6 +601,12 @@ pub fn to_text(
     for n in &design.notes {
         out.push_str(&wrap(&format!("note: {n}"), 96, ""));
     }
+    if let Some(r) = run {
+        if !r.model.neighbours.is_empty() || r.model.uplift.is_some() {
+            out.push_str("\nneighbours and base uplift for the chosen layout:\n");
+            out.push_str(&super::neighbours_out::text(r, units));
+        }
+    }
     out.push('\n');
     out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
     out
