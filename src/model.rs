@@ -939,7 +939,10 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     }
 
     if boundaries.len() > 1 {
-        let lines: Vec<_> = boundaries.iter().map(|b| (b.line[0], b.line[1], b.kind)).collect();
+        let lines: Vec<_> = boundaries
+            .iter()
+            .map(|b| (b.line[0], b.line[1], b.kind))
+            .collect();
         let probe = excavations[0].outline.exterior().0[0];
         if let Err(why) = crate::physics::images::image_set([probe.x, probe.y], &lines, 1.0e5) {
             return Err(rep.error("boundary", None, why));
