@@ -232,6 +232,10 @@ pub struct Layout {
     /// Line: the trench centre line `[[x, y], …]` (default: derived from the outline).
     #[serde(default)]
     pub centre_line: Option<toml::Spanned<Vec<Vec<f64>>>>,
+    /// Line: how far the wellpoint lines run past each end of the trench (default: half the
+    /// trench width plus the offset).
+    #[serde(default)]
+    pub end_extension: Option<Length>,
     /// Rate given to every generated well (for `check`).
     #[serde(default)]
     pub rate: Option<Flow>,

@@ -289,7 +289,7 @@ mod tests {
     fn arithmetic_logarithm_matches_libm() {
         let mut x = 1e-12_f64;
         while x < 1e20 {
-            for f in [1.0, 1.0000001, 1.3, 1.41421356, 1.5, 1.99999] {
+            for f in [1.0, 1.0000001, 1.3, 1.414, 1.5, 1.99999] {
                 let v = x * f;
                 let (a, b) = (ln_fast(v), v.ln());
                 assert!(

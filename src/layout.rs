@@ -367,6 +367,12 @@ pub fn centre_line(excavation: &Excavation, given: Option<&Vec<[f64; 2]>>) -> Ve
     }
 }
 
+/// How far wellpoint lines run past each end of a trench, m: the user's value, or by default
+/// half the trench width plus the offset (so the two lines and the ends form a closed fence).
+pub fn end_extension(excavation: &Excavation, offset: f64, given: Option<f64>) -> f64 {
+    given.unwrap_or_else(|| length_and_width(excavation).1 / 2.0 + offset)
+}
+
 /// Wellpoints along a trench at `spacing`, `offset` outside each edge, on one side or both.
 /// The line runs past each end of the trench by the same distance as the edge, so the ends are
 /// covered too.
@@ -379,16 +385,35 @@ pub fn line(
     given: Option<&Vec<[f64; 2]>>,
     rate: f64,
 ) -> Placement {
+    line_with_ends(
+        model, excavation, offset, spacing, both_sides, given, None, rate,
+    )
+}
+
+/// As [`line`], with the lines run `end_extension` metres past each end of the trench
+/// (`None`: the default of [`end_extension`]).
+#[allow(clippy::too_many_arguments)]
+pub fn line_with_ends(
+    model: &Model,
+    excavation: &Excavation,
+    offset: f64,
+    spacing: f64,
+    both_sides: bool,
+    given: Option<&Vec<[f64; 2]>>,
+    end_ext: Option<f64>,
+    rate: f64,
+) -> Placement {
     let mut centre = centre_line(excavation, given);
     let (_, width) = length_and_width(excavation);
     let side = width / 2.0 + offset;
-    // Extend both ends by `side`.
+    let extension = end_extension(excavation, offset, end_ext);
+    // Extend both ends.
     if centre.len() >= 2 {
         let ext = |a: [f64; 2], b: [f64; 2]| {
             let l = (a[0] - b[0]).hypot(a[1] - b[1]).max(1e-12);
             [
-                a[0] + (a[0] - b[0]) / l * side,
-                a[1] + (a[1] - b[1]) / l * side,
+                a[0] + (a[0] - b[0]) / l * extension,
+                a[1] + (a[1] - b[1]) / l * extension,
             ]
         };
         let n = centre.len();
@@ -592,13 +617,15 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
             spacing,
             both_sides,
             centre_line,
-        } => line(
+            end_extension,
+        } => line_with_ends(
             model,
             exc,
             spec.offset,
             *spacing,
             *both_sides,
             centre_line.as_ref(),
+            *end_extension,
             rate,
         ),
         LayoutKind::Listed => listed(model),

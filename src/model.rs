@@ -231,6 +231,8 @@ pub enum LayoutKind {
         both_sides: bool,
         /// Centre line vertices, m (derived from the outline when not given).
         centre_line: Option<Vec<[f64; 2]>>,
+        /// How far the lines run past each trench end, m (`None`: half-width + offset).
+        end_extension: Option<f64>,
     },
     /// The wells listed in the file.
     Listed,
@@ -1224,6 +1226,17 @@ fn layout_spec(
                     ))
                 }
             };
+            let end_extension = match &l.end_extension {
+                Some(q) if (0.0..=500.0).contains(&q.si) => Some(q.si),
+                Some(q) => {
+                    return Err(rep.error(
+                        "layout.end_extension",
+                        q.span.clone(),
+                        format!("{} m is outside 0 … 500 m", q.si),
+                    ))
+                }
+                None => None,
+            };
             let centre_line = match &l.centre_line {
                 Some(c) => {
                     let pts = points(rep, "layout.centre_line", c)?;
@@ -1242,6 +1255,7 @@ fn layout_spec(
                 spacing,
                 both_sides,
                 centre_line,
+                end_extension,
             }
         }
         "listed" => {

@@ -1211,20 +1211,24 @@ fn closed_length(ring: &[[f64; 2]]) -> f64 {
 }
 
 /// Length of the line the wellpoints stand on: the centre line extended past each end by the
-/// half-width plus the offset (as [`layout::line`] places them), m.
+/// end extension (half-width plus the offset unless the design file says otherwise), as
+/// [`layout::line`] places them, m.
 pub fn line_length(model: &Model, spec: &LayoutSpec) -> f64 {
     let exc = &model.excavations[spec.excavation];
-    let given = match &spec.kind {
-        LayoutKind::Line { centre_line, .. } => centre_line.as_ref(),
-        _ => None,
+    let (given, end_ext) = match &spec.kind {
+        LayoutKind::Line {
+            centre_line,
+            end_extension,
+            ..
+        } => (centre_line.as_ref(), *end_extension),
+        _ => (None, None),
     };
     let centre = layout::centre_line(exc, given);
-    let (_, width) = estimate::length_and_width(exc);
     let open: f64 = centre
         .windows(2)
         .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
         .sum();
-    open + 2.0 * (width / 2.0 + spec.offset)
+    open + 2.0 * layout::end_extension(exc, spec.offset, end_ext)
 }
 
 /// How a design ended.

@@ -550,3 +550,22 @@ fn wells_csv_is_read_and_a_bad_row_is_refused_with_its_line() {
         assert_eq!(e2.line, Some(*line));
     }
 }
+
+// Geometry fact: with `end_extension = E` the wellpoint lines run exactly E past each trench end
+// (x = −E and x = 400 + E for a 400 m trench along x), at no more than the spacing.
+#[test]
+fn trench_line_runs_the_given_distance_past_each_end() {
+    let outline = [[0.0, -1.5], [400.0, -1.5], [400.0, 1.5], [0.0, 1.5]];
+    let m = model(
+        &outline,
+        "kind = \"line\"\noffset = \"1 m\"\nspacing = \"1.5 m\"\nsides = \"one\"\nend_extension = \"20 m\"\nrate = \"0.04 L/s\"",
+        "",
+    );
+    let p = placement(&m);
+    let xs: Vec<f64> = p.wells.iter().map(|w| w.position[0]).collect();
+    let lo = xs.iter().cloned().fold(f64::MAX, f64::min);
+    let hi = xs.iter().cloned().fold(f64::MIN, f64::max);
+    assert!((lo + 20.0).abs() < 1e-9, "first wellpoint at x = {lo}");
+    assert!((hi - 420.0).abs() < 1e-9, "last wellpoint at x = {hi}");
+    assert!(p.wells.len() as f64 >= 440.0 / 1.5);
+}

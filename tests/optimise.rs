@@ -699,7 +699,14 @@ fn design_runs_on_every_demo_layout() {
             &std::fs::read(out.path().join("design.json")).expect("design.json"),
         )
         .expect("valid JSON");
-        assert_eq!(json["met"].as_bool(), Some(code == Some(0)));
+        // Exit 0 needs every target met; a target not met gives exit 3 (so can a neighbour over
+        // its limit with every target met).
+        let met = json["met"].as_bool().expect("met");
+        assert!(
+            (code == Some(0)) <= met && (met || code == Some(3)),
+            "{}",
+            path.display()
+        );
     }
 }
 
