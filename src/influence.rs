@@ -204,13 +204,7 @@ impl Field {
             return points.par_iter().map(|p| self.level(*p, rates)).collect();
         }
         let flat = Flat::new(&self.sources, rates);
-        let (mut bx0, mut by0, mut bx1, mut by1) = (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
-        for s in &self.sources {
-            bx0 = bx0.min(s.position[0]);
-            by0 = by0.min(s.position[1]);
-            bx1 = bx1.max(s.position[0]);
-            by1 = by1.max(s.position[1]);
-        }
+        let [bx0, by0, bx1, by1] = bbox(self.sources.iter().map(|s| s.position));
         let c2 = self.cutoff * self.cutoff;
         let local: Vec<[f64; 2]> = points.iter().map(|p| self.local(*p)).collect();
         let all_in_range = |p: [f64; 2]| {
@@ -256,6 +250,18 @@ impl Field {
     }
 }
 
+/// Bounding box [x_min, y_min, x_max, y_max] of points.
+fn bbox(points: impl Iterator<Item = [f64; 2]>) -> [f64; 4] {
+    points.fold([f64::MAX, f64::MAX, f64::MIN, f64::MIN], |b, p| {
+        [
+            b[0].min(p[0]),
+            b[1].min(p[1]),
+            b[2].max(p[0]),
+            b[3].max(p[1]),
+        ]
+    })
+}
+
 /// Below this many points, or this many sources, [`Field::levels`] sums directly.
 const CELL_MIN_POINTS: usize = 2048;
 const CELL_MIN_SOURCES: usize = 16;
@@ -299,9 +305,9 @@ impl Flat {
     }
 
     /// Σ w·ln(max(r², r_w²)) over the sources `idx` at local point p.
-    fn direct_subset(&self, idx: &[usize], p: [f64; 2]) -> f64 {
+    fn sum_over(&self, idx: impl Iterator<Item = usize>, p: [f64; 2]) -> f64 {
         let mut acc = 0.0;
-        for &i in idx {
+        for i in idx {
             let dx = self.xs[i] - p[0];
             let dy = self.ys[i] - p[1];
             acc += self.ws[i] * ln_fast((dx * dx + dy * dy).max(self.r2min[i]));
@@ -311,13 +317,7 @@ impl Flat {
 
     /// Σ w·ln(max(r², r_w²)) over every source at local point p.
     fn direct(&self, p: [f64; 2]) -> f64 {
-        let mut acc = 0.0;
-        for i in 0..self.ws.len() {
-            let dx = self.xs[i] - p[0];
-            let dy = self.ys[i] - p[1];
-            acc += self.ws[i] * ln_fast((dx * dx + dy * dy).max(self.r2min[i]));
-        }
-        acc
+        self.sum_over(0..self.ws.len(), p)
     }
 
     /// Local expansion about `c` of the far sources `idx`:
@@ -352,13 +352,7 @@ impl Flat {
     /// Σ w·ln(max(r², r_w²)) at the points `which` of `pts`, block by block: near sources
     /// directly, far ones by [`Flat::far_expansion`].
     fn sum_by_cells(&self, pts: &[[f64; 2]], which: &[usize]) -> Vec<(usize, f64)> {
-        let (mut x0, mut y0, mut x1, mut y1) = (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
-        for &i in which {
-            x0 = x0.min(pts[i][0]);
-            y0 = y0.min(pts[i][1]);
-            x1 = x1.max(pts[i][0]);
-            y1 = y1.max(pts[i][1]);
-        }
+        let [x0, y0, x1, y1] = bbox(which.iter().map(|&i| pts[i]));
         let area = ((x1 - x0) * (y1 - y0)).max(1e-12);
         let side = (area * POINTS_PER_CELL / which.len() as f64)
             .sqrt()
@@ -378,13 +372,7 @@ impl Flat {
             .par_iter()
             .filter(|c| !c.is_empty())
             .flat_map_iter(|cell| {
-                let (mut cx0, mut cy0, mut cx1, mut cy1) = (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
-                for &i in cell {
-                    cx0 = cx0.min(pts[i][0]);
-                    cy0 = cy0.min(pts[i][1]);
-                    cx1 = cx1.max(pts[i][0]);
-                    cy1 = cy1.max(pts[i][1]);
-                }
+                let [cx0, cy0, cx1, cy1] = bbox(cell.iter().map(|&i| pts[i]));
                 let c = [(cx0 + cx1) / 2.0, (cy0 + cy1) / 2.0];
                 let rho = cell
                     .iter()
@@ -412,7 +400,10 @@ impl Flat {
                             sr = t * ur - v * ui;
                             si = t * ui + v * ur;
                         }
-                        (i, constant + 2.0 * sr + self.direct_subset(&near, p))
+                        (
+                            i,
+                            constant + 2.0 * sr + self.sum_over(near.iter().copied(), p),
+                        )
                     })
                     .collect::<Vec<_>>()
             })
