@@ -70,7 +70,7 @@ pub enum Command {
         /// Output folder for summary.json, wells.csv, checkpoints.csv, map.svg, GeoJSON.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
         out: PathBuf,
-        /// Take the wells from this CSV (name,x,y,rate_l_per_s[,radius_m]) instead of the layout.
+        /// Take the wells from this CSV (columns name, x, y, rate_l_per_s and optionally radius_m) instead of the layout.
         #[arg(long)]
         wells: Option<PathBuf>,
         /// Units for the terminal output.

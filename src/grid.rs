@@ -18,7 +18,7 @@
 //!
 //! By default the grid has about 40 000 nodes (200 × 200 on a square area), spaced equally in x
 //! and y; a long thin area (a trench) gets more nodes along its length, up to
-//! [`MAX_NODES_PER_SIDE`]. Levels come from [`Field::levels`] (parallel). A node pumped dry
+//! [`MAX_NODES_PER_SIDE`]. Levels come from [`crate::influence::Field::levels`] (parallel). A node pumped dry
 //! ([`Level::Dry`]) takes the aquifer base level and is flagged in [`LevelGrid::dry`].
 //!
 //! # The aquifer side of boundaries
@@ -399,7 +399,7 @@ pub fn thresholds(lo: f64, hi: f64, interval: f64, skip: f64) -> Vec<f64> {
 }
 
 /// A "nice" contour interval (1, 2, 2.5 or 5 × 10ᵏ m) giving 8–15 lines between `lo` and
-/// `hi`, as near [`TARGET_LINES`] as the steps allow.
+/// `hi`, as near `TARGET_LINES` as the steps allow.
 pub fn nice_interval(lo: f64, hi: f64, skip: f64) -> f64 {
     let span = hi - lo;
     if span.is_nan() || span <= 0.0 || !span.is_finite() {

@@ -197,7 +197,7 @@ impl Field {
     /// Where every source is within the cut-off of a point (the usual case on a site map), the
     /// sum runs over flat arrays with an arithmetic logarithm; on many points, sources far from a
     /// block of points enter through a local (Taylor) expansion of Σ w·ln|z − z_j|² about the
-    /// block's centre, exact to ~1e-14 of the sum (see [`Flat::far_expansion`]). Elsewhere the
+    /// block's centre, exact to ~1e-14 of the sum (`Flat::far_expansion`). Elsewhere the
     /// R-tree sum of [`Field::level`] is used.
     pub fn levels(&self, points: &[[f64; 2]], rates: &[f64]) -> Vec<Level> {
         if self.aquifer.leakage_factor().is_some() {

@@ -390,7 +390,7 @@ pub fn line(
     )
 }
 
-/// As [`line`], with the lines run `end_extension` metres past each end of the trench
+/// As [`line()`], with the lines run `end_extension` metres past each end of the trench
 /// (`None`: the default of [`end_extension`]).
 #[allow(clippy::too_many_arguments)]
 pub fn line_with_ends(
