@@ -126,7 +126,12 @@ pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
         (false, _) => "RESULT: targets NOT met",
     };
     out.push_str(&super::neighbours_out::text(run, units));
-    out.push_str(&format!("\n{verdict}\n\n"));
+    let neighbours_note = if crate::neighbours::all_pass(run) {
+        ""
+    } else {
+        "; a neighbour is over a limit (see above)"
+    };
+    out.push_str(&format!("\n{verdict}{neighbours_note}\n\n"));
     out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
     out
 }
