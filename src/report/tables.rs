@@ -30,7 +30,7 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
             well.name.clone(),
             format!("{:.3}", well.position[0]),
             format!("{:.3}", well.position[1]),
-            format!("{:.4}", well.rate * 1e3),
+            format!("{:.6}", well.rate * 1e3),
             format!("{:.2}", well.rate * 86_400.0),
             format!("{:.3}", well.radius),
             format!("{:.2}", well.screen_top),
