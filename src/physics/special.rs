@@ -12,6 +12,21 @@
 
 use spec_math::cephes64;
 
+/// The edge cases shared by E₁, K₀ and K₁ (all decay to 0 and are singular at 0): NaN for
+/// x < 0 or NaN, +inf at 0, 0 at +inf; `f` for the rest.
+fn guarded(x: f64, f: impl Fn(f64) -> f64) -> f64 {
+    if x.is_nan() || x < 0.0 {
+        return f64::NAN;
+    }
+    if x == 0.0 {
+        return f64::INFINITY;
+    }
+    if x.is_infinite() {
+        return 0.0;
+    }
+    f(x)
+}
+
 /// Exponential integral E₁(x) = ∫ₓ^∞ e^(−y)/y dy, the Theis well function W(u) = E₁(u).
 ///
 /// Dimensionless. Source: Abramowitz & Stegun (1964), *Handbook of Mathematical Functions*,
@@ -19,16 +34,7 @@ use spec_math::cephes64;
 ///
 /// Returns `+inf` at x = 0, `0.0` for x beyond ~709 (underflow), NaN for x < 0 or NaN.
 pub fn exp1(x: f64) -> f64 {
-    if x.is_nan() || x < 0.0 {
-        return f64::NAN;
-    }
-    if x == 0.0 {
-        return f64::INFINITY;
-    }
-    if x.is_infinite() {
-        return 0.0;
-    }
-    cephes64::expn(1, x)
+    guarded(x, |x| cephes64::expn(1, x))
 }
 
 /// Modified Bessel function of the second kind, order zero, K₀(x).
@@ -36,16 +42,7 @@ pub fn exp1(x: f64) -> f64 {
 /// Dimensionless. Source: Abramowitz & Stegun (1964), §9.6. Evaluated with `spec_math`
 /// (Cephes `k0`). Returns `+inf` at x = 0, `0.0` for very large x, NaN for x < 0 or NaN.
 pub fn bessel_k0(x: f64) -> f64 {
-    if x.is_nan() || x < 0.0 {
-        return f64::NAN;
-    }
-    if x == 0.0 {
-        return f64::INFINITY;
-    }
-    if x.is_infinite() {
-        return 0.0;
-    }
-    cephes64::k0(x)
+    guarded(x, cephes64::k0)
 }
 
 /// Modified Bessel function of the second kind, order one, K₁(x).
@@ -53,16 +50,7 @@ pub fn bessel_k0(x: f64) -> f64 {
 /// Dimensionless. Source: Abramowitz & Stegun (1964), §9.6. Evaluated with `spec_math`
 /// (Cephes `k1`). Returns `+inf` at x = 0, `0.0` for very large x, NaN for x < 0 or NaN.
 pub fn bessel_k1(x: f64) -> f64 {
-    if x.is_nan() || x < 0.0 {
-        return f64::NAN;
-    }
-    if x == 0.0 {
-        return f64::INFINITY;
-    }
-    if x.is_infinite() {
-        return 0.0;
-    }
-    cephes64::k1(x)
+    guarded(x, cephes64::k1)
 }
 
 /// Hantush–Jacob leaky well function W(u, β) = ∫ᵤ^∞ (1/y)·exp(−y − β²/(4y)) dy, β = r/B.

@@ -27,34 +27,7 @@ pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
         96,
         "",
     ));
-    out.push_str(&format!(
-        "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>11} {:>9}  {}\n",
-        "well",
-        "x",
-        "y",
-        "rate L/s",
-        &format!("level {lu}"),
-        &format!("lowest {lu}"),
-        "cap L/s",
-        "status"
-    ));
-    for (w, r) in run.placement.wells.iter().zip(&e.wells) {
-        out.push_str(&format!(
-            "{:<10} {:>11.1} {:>11.1} {:>9.2} {:>11} {:>11.2} {:>9.2}  {}\n",
-            w.name,
-            w.position[0],
-            w.position[1],
-            w.rate * 1e3,
-            r.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
-            l(r.lowest_allowed_level_m),
-            r.capacity_m3_per_s * 1e3,
-            if r.problems.is_empty() {
-                "ok".to_string()
-            } else {
-                r.problems.join("; ")
-            }
-        ));
-    }
+    out.push_str(&well_table(run, units));
     for n in &run.placement.notes {
         out.push_str(&wrap(&format!("note: {n}"), 96, ""));
     }
@@ -133,5 +106,43 @@ pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
     };
     out.push_str(&format!("\n{verdict}{neighbours_note}\n\n"));
     out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
+    out
+}
+
+/// The wells table: position, rate, level in the well, the lowest level allowed, capacity and
+/// status, one row per well (shared by `check` and `design`).
+pub fn well_table(run: &CheckRun, units: UnitSystem) -> String {
+    let e = &run.evaluation;
+    let lu = units.length_unit();
+    let l = |x: f64| units.length(x);
+    let mut out = String::new();
+    out.push_str(&format!(
+        "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>11} {:>9}  {}\n",
+        "well",
+        "x",
+        "y",
+        "rate L/s",
+        &format!("level {lu}"),
+        &format!("lowest {lu}"),
+        "cap L/s",
+        "status"
+    ));
+    for (w, r) in run.placement.wells.iter().zip(&e.wells) {
+        out.push_str(&format!(
+            "{:<10} {:>11.1} {:>11.1} {:>9.2} {:>11} {:>11.2} {:>9.2}  {}\n",
+            w.name,
+            w.position[0],
+            w.position[1],
+            w.rate * 1e3,
+            r.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
+            l(r.lowest_allowed_level_m),
+            r.capacity_m3_per_s * 1e3,
+            if r.problems.is_empty() {
+                "ok".to_string()
+            } else {
+                r.problems.join("; ")
+            }
+        ));
+    }
     out
 }

@@ -480,34 +480,7 @@ pub fn to_text(
     }
     if let Some(r) = run {
         let e = &r.evaluation;
-        out.push_str(&format!(
-            "\n{:<10} {:>10} {:>10} {:>9} {:>10} {:>10} {:>8}  {}\n",
-            "well",
-            "x",
-            "y",
-            "rate L/s",
-            format!("level {lu}"),
-            format!("lowest {lu}"),
-            "cap L/s",
-            "status"
-        ));
-        for (w, res) in r.placement.wells.iter().zip(&e.wells) {
-            out.push_str(&format!(
-                "{:<10} {:>10.1} {:>10.1} {:>9.2} {:>10} {:>10.2} {:>8.2}  {}\n",
-                w.name,
-                w.position[0],
-                w.position[1],
-                w.rate * 1e3,
-                res.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
-                l(res.lowest_allowed_level_m),
-                res.capacity_m3_per_s * 1e3,
-                if res.problems.is_empty() {
-                    "ok".to_string()
-                } else {
-                    res.problems.join("; ")
-                }
-            ));
-        }
+        out.push_str(&super::check_text::well_table(r, units));
         out.push_str(&format!(
             "\ncheck points          {} ({} not met)\n",
             e.points.len(),
