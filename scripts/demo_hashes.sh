@@ -1,0 +1,28 @@
+#!/usr/bin/env bash
+# Behaviour fingerprint of every demo: runs `estimate --json`, `check` and `design` on each file in
+# layouts/, masks the date/version lines, and prints one SHA-256 per output file (and per
+# terminal text). Two runs of the same code give the same list; a refactor that changes no result
+# must too.  Usage: scripts/demo_hashes.sh [BIN] > hashes.txt   (default target/release/drydig)
+set -uo pipefail
+cd "$(dirname "$0")/.."
+bin="${1:-target/release/drydig}"
+work="$(mktemp -d)"
+trap 'rm -rf "$work"' EXIT
+mask() { sed -E 's/[0-9]{4}-[0-9]{2}-[0-9]{2}([T ][0-9:.]+Z?)?/DATE/g; s/drydig [0-9]+\.[0-9]+\.[0-9]+/drydig VERSION/g' "$1"; }
+for f in layouts/*.toml; do
+    name="$(basename "$f" .toml)"
+    for cmd in estimate check design; do
+        out="$work/$name/$cmd"
+        mkdir -p "$out"
+        case "$cmd" in
+            estimate) "$bin" estimate "$f" --json > "$out/terminal.txt" 2>&1; echo "exit $?" >> "$out/terminal.txt" ;;
+            check) "$bin" check "$f" -o "$out/files" > "$out/terminal.txt" 2>&1; echo "exit $?" >> "$out/terminal.txt" ;;
+            design) "$bin" design "$f" -o "$out/files" > "$out/terminal.txt" 2>&1; echo "exit $?" >> "$out/terminal.txt" ;;
+        esac
+        sed -i "s#$work#WORK#g" "$out/terminal.txt"
+    done
+done
+cd "$work"
+find . -type f | LC_ALL=C sort | while read -r p; do
+    printf '%s  %s\n' "$(mask "$p" | sha256sum | cut -c1-16)" "$p"
+done
