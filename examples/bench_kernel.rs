@@ -11,9 +11,9 @@
 //! and prints one JSON line with the kernel time (best of several runs). Each well's rate varies
 //! around the layout rate so that the comparison with NumPy is not blind to which well is which.
 
-use drydig::check::field_for;
-use drydig::layout::generate;
-use drydig::model::from_str;
+use drydig::check::run::field_for;
+use drydig::field::layout::generate;
+use drydig::input::model::from_str;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::time::Instant;
@@ -186,8 +186,8 @@ fn main() {
     let values: Vec<f64> = levels
         .iter()
         .map(|l| match l {
-            drydig::aquifer::Level::Wet(z) => *z,
-            drydig::aquifer::Level::Dry => f64::NAN,
+            drydig::physics::potential::Level::Wet(z) => *z,
+            drydig::physics::potential::Level::Dry => f64::NAN,
         })
         .collect();
     write_npy(&dir.join("levels.npy"), &values, n, n).unwrap_or_else(|e| fail(e.to_string()));

@@ -1,6 +1,6 @@
 //! Command-line arguments (clap). The binary turns these into calls on the library.
 
-use crate::units::UnitSystem;
+use crate::input::units::UnitSystem;
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
 
@@ -40,11 +40,11 @@ pub enum RatesArg {
     Uniform,
 }
 
-impl From<RatesArg> for crate::optimise::RateOption {
+impl From<RatesArg> for crate::optimise::design::RateOption {
     fn from(r: RatesArg) -> Self {
         match r {
-            RatesArg::Individual => crate::optimise::RateOption::Individual,
-            RatesArg::Uniform => crate::optimise::RateOption::Uniform,
+            RatesArg::Individual => crate::optimise::design::RateOption::Individual,
+            RatesArg::Uniform => crate::optimise::design::RateOption::Uniform,
         }
     }
 }

@@ -13,10 +13,11 @@
 //! The design flow adds the contingency, and a rough well count divides it by one well's
 //! capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower).
 
-use crate::aquifer::{Aquifer, AquiferKind};
-use crate::model::{Excavation, Model, ShapeChoice, WellKind};
+use crate::field::geometry::length_and_width;
+use crate::input::model::{Excavation, Model, ShapeChoice, WellKind};
+use crate::physics::potential::{Aquifer, AquiferKind};
 use crate::physics::{capacity, equivalent, special};
-use geo::{Area, Euclidean, Length, MinimumRotatedRect};
+use geo::{Area, Euclidean, Length};
 use serde::Serialize;
 use std::f64::consts::PI;
 
@@ -141,31 +142,7 @@ pub fn estimate(model: &Model) -> Estimate {
         total_flow_m3_per_day: excavations.iter().map(|e| e.total_flow_m3_per_day).sum(),
         design_flow_m3_per_day: excavations.iter().map(|e| e.design_flow_m3_per_day).sum(),
         excavations,
-        caution: crate::report::CAUTION.to_string(),
-    }
-}
-
-/// Length and width of the smallest rectangle that encloses the outline, m.
-pub fn length_and_width(e: &Excavation) -> (f64, f64) {
-    let Some(rect) = e.outline.minimum_rotated_rect() else {
-        return (0.0, 0.0);
-    };
-    let c = &rect.exterior().0;
-    let a = (c[1].x - c[0].x).hypot(c[1].y - c[0].y);
-    let b = (c[2].x - c[1].x).hypot(c[2].y - c[1].y);
-    (a.max(b), a.min(b))
-}
-
-/// Whether an excavation is treated as a trench (line slot): by the user's choice, or when its
-/// enclosing rectangle is at least the trench aspect ratio long.
-pub fn is_trench(model: &Model, e: &Excavation) -> bool {
-    match e.shape {
-        ShapeChoice::Pit => false,
-        ShapeChoice::Trench => true,
-        ShapeChoice::Auto => {
-            let (length, width) = length_and_width(e);
-            width <= 0.0 || length / width >= model.trench_aspect_ratio
-        }
+        caution: crate::caution::CAUTION.to_string(),
     }
 }
 

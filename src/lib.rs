@@ -1,30 +1,29 @@
 //! drydig: construction dewatering well-field design by superposition.
 //!
-//! Pipeline: design file ([`design`]) → validated [`model`] → quick [`estimate`] … → [`report`].
+//! The modules follow the data, one stage each, in the order it flows:
+//!
+//! 1. [`input`] — the design file: units into SI, the raw schema, validation into the
+//!    [`input::model::Model`] the engine computes on, errors that name the field, the starter file.
+//! 2. [`physics`] — the published formulas (Thiem, Dupuit–Thiem, Theis, Hantush, Strack's
+//!    discharge potential, radius of influence, images, capacity, uplift), one idea per module.
+//! 3. [`field`] — where things are: geometry, the radius used by superposition, well layouts,
+//!    check points, and the superposition kernel that sums every well's effect.
+//! 4. [`estimate`] — the quick hand method (equivalent well or line slot) for comparison.
+//! 5. [`check`] — one layout evaluated: levels at every check point and in every well.
+//! 6. [`safety`] — what the drawdown does around the pit: neighbours, settlement, base uplift.
+//! 7. [`optimise`] — well limits, rates by linear programme, the count search, sweeps, recharge.
+//! 8. [`report`] — output formats only: terminal text, tables, GeoJSON, SVG maps and charts.
+//!
+//! [`cli`] holds the command-line arguments; the binary only parses, calls, prints and exits.
 #![forbid(unsafe_code)]
 
-pub mod aquifer;
+pub mod caution;
 pub mod check;
-pub mod checkpoints;
 pub mod cli;
-pub mod design;
-pub mod error;
 pub mod estimate;
-pub mod evaluate;
-pub mod grid;
-pub mod influence;
-pub mod layout;
-pub mod lp;
-pub mod model;
-pub mod neighbours;
+pub mod field;
+pub mod input;
 pub mod optimise;
 pub mod physics;
-pub mod pumping_test;
-pub mod recharge;
 pub mod report;
-pub mod settlement;
-pub mod starter;
-pub mod sweep;
-pub mod units;
-pub mod uplift;
-pub mod wells;
+pub mod safety;

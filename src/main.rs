@@ -5,8 +5,10 @@
 
 use clap::Parser;
 use drydig::cli::{Cli, Command};
-use drydig::error::InputError;
-use drydig::{estimate, model, report, starter};
+use drydig::estimate;
+use drydig::input::error::InputError;
+use drydig::input::{model, starter};
+use drydig::report;
 use std::io::Write;
 use std::process::ExitCode;
 
@@ -57,17 +59,19 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let run = if size_recharge {
-                drydig::recharge::run_sized(&model, wells.as_deref())?
+            let (run, recharge) = if size_recharge {
+                let (run, sizing) =
+                    drydig::optimise::recharge::run_sized(&model, wells.as_deref())?;
+                (run, Some(sizing))
             } else {
-                drydig::check::run(&model, wells.as_deref())?
+                (drydig::check::run::run(&model, wells.as_deref())?, None)
             };
-            let files = report::check_files(&run)?;
+            let files = report::check_files(&run, recharge.as_ref())?;
             report::files::write_all(&out, &files)?;
-            print(&report::check_text::to_text(&run, units))?;
+            print(&report::check_text::to_text(&run, recharge.as_ref(), units))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             let e = &run.evaluation;
-            let neighbours_ok = drydig::neighbours::all_pass(&run);
+            let neighbours_ok = drydig::safety::neighbours::all_pass(&run);
             Ok(if e.targets_met && e.wells_ok && neighbours_ok {
                 ExitCode::SUCCESS
             } else {
@@ -82,7 +86,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let design = drydig::optimise::design(&model, rates.into())?;
+            let design = drydig::optimise::design::design(&model, rates.into())?;
             let run = report::design_text::final_run(&model, &design);
             let files = report::design_text::files(&model, &design, run.as_ref())?;
             report::files::write_all(&out, &files)?;
@@ -93,7 +97,9 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 units,
             ))?;
             print(&format!("outputs written to {}\n", out.display()))?;
-            let neighbours_ok = run.as_ref().is_none_or(drydig::neighbours::all_pass);
+            let neighbours_ok = run
+                .as_ref()
+                .is_none_or(drydig::safety::neighbours::all_pass);
             Ok(
                 if report::design_text::is_met(&design, run.as_ref()) && neighbours_ok {
                     ExitCode::SUCCESS
@@ -112,12 +118,12 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let plan = drydig::sweep::plan(&model, from, to, step)?;
+            let plan = drydig::optimise::sweep::plan(&model, from, to, step)?;
             let bar = indicatif::ProgressBar::new(plan.values.len() as u64);
             if !std::io::IsTerminal::is_terminal(&std::io::stderr()) || plan.values.len() < 4 {
                 bar.set_draw_target(indicatif::ProgressDrawTarget::hidden());
             }
-            let sweep = drydig::sweep::run(&model, &plan, &|| bar.inc(1))?;
+            let sweep = drydig::optimise::sweep::run(&model, &plan, &|| bar.inc(1))?;
             bar.finish_and_clear();
             let files = vec![
                 (

@@ -1,4 +1,4 @@
-//! Well layouts (`drydig::layout`) against plain geometry facts, checked here with geometry
+//! Well layouts (`drydig::field::layout`) against plain geometry facts, checked here with geometry
 //! written out in the test (point–segment distances, arc length along a polyline), not with the
 //! layout code's own helpers:
 //!
@@ -14,8 +14,8 @@
 //!
 //! The geometry facts are plane geometry (common practice (no source)).
 
-use drydig::layout::{from_model, generate, line, read_csv, ring, Placement};
-use drydig::model::{from_str, LayoutKind, Model, RingCount};
+use drydig::field::layout::{from_model, generate, line, read_csv, ring, Placement};
+use drydig::input::model::{from_str, LayoutKind, Model, RingCount};
 use std::f64::consts::SQRT_2;
 use std::path::Path;
 

@@ -4,9 +4,9 @@
 //! The SVG is read back with the `svg` crate's parser, so the checks see what a viewer sees:
 //! the layer groups and their order, the well symbols, the contour labels, the caution text.
 
-use drydig::check::{self, CheckRun};
-use drydig::grid::LevelGrid;
-use drydig::model::{self, Model};
+use drydig::check::run::{self as check, CheckRun};
+use drydig::field::grid::LevelGrid;
+use drydig::input::model::{self, Model};
 use drydig::report::geojson_out::{contours_geojson, layout_geojson};
 use drydig::report::map_svg::map_svg;
 use drydig::report::CAUTION;

@@ -3,13 +3,13 @@
 //! Foundation Engineering*), the hand formula of the total-stress uplift check, the Thiem
 //! equation for the effect of one recharge well, and the exit codes of the design notes (§4).
 
-use drydig::check::{evaluate_placement, field_for};
-use drydig::checkpoints::{check_points, PointKind};
-use drydig::layout;
-use drydig::model::{self, Compressibility, SoilLayer};
-use drydig::neighbours::{self, Status};
-use drydig::settlement::{self, StressForm};
-use drydig::uplift;
+use drydig::check::run::{evaluate_placement, field_for};
+use drydig::field::checkpoints::{check_points, PointKind};
+use drydig::field::layout;
+use drydig::input::model::{self, Compressibility, SoilLayer};
+use drydig::physics::uplift;
+use drydig::safety::neighbours::{self, Status};
+use drydig::safety::settlement::{self, StressForm};
 use serde_json::Value;
 use std::f64::consts::PI;
 use std::path::{Path, PathBuf};
@@ -599,7 +599,7 @@ m_v = "1e-4 1/kPa"
 #[test]
 fn statuses_are_reported_for_the_demo_neighbours() {
     let m = model::load(&layouts("riverside_basement.toml")).expect("demo loads");
-    let run = drydig::check::run(&m, None).expect("demo runs");
+    let run = drydig::check::run::run(&m, None).expect("demo runs");
     let st = neighbours::neighbour_status(&run);
     assert_eq!(st.len(), 2);
     assert!(st.iter().all(|(_, s, _)| *s == Status::Fail));

@@ -1,8 +1,8 @@
-//! The optimiser (`drydig::optimise`, `drydig design`, `drydig sweep`) checked against things
+//! The optimiser (`drydig::optimise::design`, `drydig design`, `drydig sweep`) checked against things
 //! outside it:
 //!
 //! - the linear programme against a brute-force grid search over the rates of 2–3 wells, each
-//!   point judged by the plain evaluation (`drydig::evaluate::evaluate`): the LP optimum is no
+//!   point judged by the plain evaluation (`drydig::check::evaluate::evaluate`): the LP optimum is no
 //!   higher than any feasible grid point and within the grid's resolution of the best one;
 //! - every design the optimiser reports as met, re-evaluated from scratch the way `check` does,
 //!   meets every target with every well within its limits;
@@ -14,13 +14,13 @@
 //! - `drydig design` on every file in layouts/ exits 0 or 3 (never 1 or 2), and `drydig sweep`
 //!   writes its table and chart.
 
-use drydig::check::{evaluate_placement, field_for};
-use drydig::checkpoints::check_points;
-use drydig::evaluate::evaluate;
-use drydig::layout::generate;
-use drydig::lp::LpStatus;
-use drydig::model::{from_str, LayoutKind, Model, RingCount};
-use drydig::optimise::{design, line_length, Design, LayoutRates, Outcome, RateOption};
+use drydig::check::evaluate::evaluate;
+use drydig::check::run::{evaluate_placement, field_for};
+use drydig::field::checkpoints::check_points;
+use drydig::field::layout::generate;
+use drydig::input::model::{from_str, LayoutKind, Model, RingCount};
+use drydig::optimise::design::{design, line_length, Design, LayoutRates, Outcome, RateOption};
+use drydig::optimise::lp::LpStatus;
 use drydig::physics::slot::{slot_flow_from_potentials, SlotSides};
 use std::path::Path;
 use std::process::Command;
@@ -234,7 +234,7 @@ fn demo_designs() -> &'static [DemoDesign] {
         demo_files()
             .into_iter()
             .map(|path| {
-                let model = match drydig::model::load(&path) {
+                let model = match drydig::input::model::load(&path) {
                     Ok(m) => m,
                     Err(e) => panic!("{e}"),
                 };

@@ -1,4 +1,4 @@
-//! The superposition kernel (`drydig::influence::Field`) against outside references:
+//! The superposition kernel (`drydig::field::influence::Field`) against outside references:
 //!
 //! 1. a ring of N wells against the equivalent well inside it (mean value property of harmonic
 //!    functions; Strack 1989), with the exact finite-N deviation from the factorisation of
@@ -13,12 +13,12 @@
 //! 5. the same site in projected coordinates (x ≈ 500 000 m, y ≈ 6 000 000 m) and near the
 //!    origin, for the field and for the whole `check` pipeline on a design file.
 
-use drydig::aquifer::{Aquifer, AquiferKind, Level};
-use drydig::influence::Field;
-use drydig::model::{Boundary, WellKind, WellSpec};
+use drydig::field::influence::Field;
+use drydig::field::wells::Well;
+use drydig::input::model::{Boundary, WellKind, WellSpec};
 use drydig::physics::images::BoundaryKind;
+use drydig::physics::potential::{Aquifer, AquiferKind, Level};
 use drydig::physics::special::bessel_k0;
-use drydig::wells::Well;
 use rand::{Rng, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 use std::f64::consts::PI;
@@ -821,10 +821,12 @@ fn projected_coordinates_give_the_same_check_results() {
     assert!(far_text.contains("[500000, 6000000], [500056, 6000000]"));
     std::fs::write(&far_path, far_text).expect("written");
 
-    let near_model = drydig::model::load(&near_path).expect("the local design file is valid");
-    let far_model = drydig::model::load(&far_path).expect("the shifted design file is valid");
-    let near = drydig::check::run(&near_model, None).expect("check runs");
-    let far = drydig::check::run(&far_model, None).expect("check runs");
+    let near_model =
+        drydig::input::model::load(&near_path).expect("the local design file is valid");
+    let far_model =
+        drydig::input::model::load(&far_path).expect("the shifted design file is valid");
+    let near = drydig::check::run::run(&near_model, None).expect("check runs");
+    let far = drydig::check::run::run(&far_model, None).expect("check runs");
     let (a, b) = (&near.evaluation, &far.evaluation);
 
     assert_eq!(a.radius_of_influence_m, b.radius_of_influence_m);

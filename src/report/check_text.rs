@@ -1,8 +1,8 @@
 //! Terminal summary of an evaluated layout.
 
 use super::{thousands, wrap, CAUTION};
-use crate::check::CheckRun;
-use crate::units::{m3s_to_gpm, UnitSystem};
+use crate::check::run::CheckRun;
+use crate::input::units::{m3s_to_gpm, UnitSystem};
 
 fn flow(q: f64, units: UnitSystem) -> String {
     match units {
@@ -16,7 +16,11 @@ fn flow(q: f64, units: UnitSystem) -> String {
 }
 
 /// The summary table.
-pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
+pub fn to_text(
+    run: &CheckRun,
+    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
+    units: UnitSystem,
+) -> String {
     let e = &run.evaluation;
     let m = run.model;
     let lu = units.length_unit();
@@ -98,8 +102,8 @@ pub fn to_text(run: &CheckRun, units: UnitSystem) -> String {
         (true, false) => "RESULT: targets met, but some wells exceed their limits (see status)",
         (false, _) => "RESULT: targets NOT met",
     };
-    out.push_str(&super::neighbours_out::text(run, units));
-    let neighbours_note = if crate::neighbours::all_pass(run) {
+    out.push_str(&super::neighbours_out::text(run, recharge, units));
+    let neighbours_note = if crate::safety::neighbours::all_pass(run) {
         ""
     } else {
         "; a neighbour is over a limit (see above)"

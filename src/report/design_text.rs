@@ -3,10 +3,10 @@
 //! sweep table (`sweep.csv`).
 
 use super::{thousands, wrap, CAUTION};
-use crate::check::CheckRun;
-use crate::model::{LayoutKind, Model};
-use crate::optimise::{self, Bid, Design, Outcome, Trial};
-use crate::units::{m3s_to_gpm, UnitSystem};
+use crate::check::run::CheckRun;
+use crate::input::model::{LayoutKind, Model};
+use crate::input::units::{m3s_to_gpm, UnitSystem};
+use crate::optimise::design::{self as optimise, Bid, Design, Outcome, Trial};
 use serde_json::{json, Value};
 
 const DAY: f64 = 86_400.0;
@@ -37,7 +37,7 @@ pub fn final_run<'a>(model: &'a Model, design: &Design) -> Option<CheckRun<'a>> 
     design
         .placement
         .clone()
-        .map(|p| crate::check::evaluate_placement(model, p))
+        .map(|p| crate::check::run::evaluate_placement(model, p))
 }
 
 /// The bid quantities of the layout in `run`.
@@ -89,7 +89,7 @@ pub fn design_json(model: &Model, design: &Design, run: Option<&CheckRun>) -> Va
         "chosen_layout": design.spec.as_ref().map(|s| match &s.kind {
             LayoutKind::Ring { count, corner_wells } => json!({
                 "kind": "ring",
-                "count": match count { crate::model::RingCount::Count(n) => Some(*n), _ => None },
+                "count": match count { crate::input::model::RingCount::Count(n) => Some(*n), _ => None },
                 "corner_wells": corner_wells,
                 "offset_m": s.offset,
             }),
@@ -336,7 +336,7 @@ pub fn files(
     run: Option<&CheckRun>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let mut out = match run {
-        Some(r) => super::check_files(r)?,
+        Some(r) => super::check_files(r, None)?,
         None => Vec::new(),
     };
     out.push((
@@ -492,7 +492,7 @@ pub fn to_text(
             out.push_str(&format!(
                 "lowest margin         {:.3} {lu} {} target at \"{}\"\n",
                 l(m.abs()),
-                if m >= -crate::evaluate::TARGET_TOLERANCE {
+                if m >= -crate::check::evaluate::TARGET_TOLERANCE {
                     "below"
                 } else {
                     "ABOVE"
@@ -577,7 +577,7 @@ pub fn to_text(
     if let Some(r) = run {
         if !r.model.neighbours.is_empty() || r.model.uplift.is_some() {
             out.push_str("\nneighbours and base uplift for the chosen layout:\n");
-            out.push_str(&super::neighbours_out::text(r, units));
+            out.push_str(&super::neighbours_out::text(r, None, units));
         }
     }
     out.push('\n');
@@ -586,7 +586,11 @@ pub fn to_text(
 }
 
 /// The terminal table of a sweep.
-pub fn sweep_text(model: &Model, sweep: &crate::sweep::Sweep, units: UnitSystem) -> String {
+pub fn sweep_text(
+    model: &Model,
+    sweep: &crate::optimise::sweep::Sweep,
+    units: UnitSystem,
+) -> String {
     let mut out = format!("drydig sweep — {}\n", model.name);
     out.push_str(&wrap(&sweep.describe(), 96, ""));
     out.push_str("rate = smallest uniform rate meeting every target; LP = least total with individual rates;\nmargin = lowest margin below target with every well at the largest uniform rate its limits allow\n");

@@ -2,7 +2,7 @@
 
 use super::{thousands, wrap, CAUTION};
 use crate::estimate::{Estimate, ExcavationEstimate, FlowMethod};
-use crate::units::{m3s_to_gpm, UnitSystem};
+use crate::input::units::{m3s_to_gpm, UnitSystem};
 
 fn flow(m3_per_day: f64, units: UnitSystem) -> String {
     let m3s = m3_per_day / 86_400.0;

@@ -6,9 +6,9 @@
 //! grid is written as is, and the collection carries `coordinate_system` and `units` members
 //! saying so, for the reader to set the layer's CRS.
 
-use crate::check::CheckRun;
-use crate::grid::LevelGrid;
-use crate::model::MapQuantity;
+use crate::check::run::CheckRun;
+use crate::field::grid::LevelGrid;
+use crate::input::model::MapQuantity;
 use crate::physics::images::BoundaryKind;
 use geo::Polygon;
 use geojson::{Feature, FeatureCollection, Geometry, JsonObject};

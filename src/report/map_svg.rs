@@ -13,9 +13,9 @@
 //! Site coordinates are turned into page pixels here, in f64, and written rounded to 0.1 px,
 //! so projected coordinates (x ≈ 500 000 m) lose nothing in the `svg` crate's f32 storage.
 
-use crate::check::CheckRun;
-use crate::grid::{ContourSet, LevelGrid};
-use crate::model::MapQuantity;
+use crate::check::run::CheckRun;
+use crate::field::grid::{ContourSet, LevelGrid};
+use crate::input::model::MapQuantity;
 use crate::physics::images::BoundaryKind;
 use crate::report::{thousands, CAUTION};
 use geo::{Centroid, InteriorPoint, MultiPolygon, Polygon};
@@ -681,7 +681,7 @@ fn detail_plan(
     opts: &MapOptions,
 ) -> (Group, Definitions) {
     let w = d.window;
-    let step = ((w[2] - w[0]) * (w[3] - w[1]) / crate::grid::DEFAULT_NODES as f64).sqrt();
+    let step = ((w[2] - w[0]) * (w[3] - w[1]) / crate::field::grid::DEFAULT_NODES as f64).sqrt();
     let nx = ((w[2] - w[0]) / step).ceil() as usize + 1;
     let ny = ((w[3] - w[1]) / step).ceil() as usize + 1;
     let fine = LevelGrid::compute(run, [w[0], w[1]], step, nx.max(4), ny.max(4));
@@ -1476,7 +1476,7 @@ fn draw_failed(
     area: [f64; 4],
     only: Option<[f64; 4]>,
 ) -> usize {
-    let failed: Vec<&crate::evaluate::PointResult> = run
+    let failed: Vec<&crate::check::evaluate::PointResult> = run
         .evaluation
         .points
         .iter()

@@ -10,11 +10,8 @@ pub mod neighbours_out;
 pub mod sweep_chart;
 pub mod tables;
 
-/// The caution carried by every output: terminal, files and maps.
-pub const CAUTION: &str = "Screening design by analytical methods under idealised ground \
-(homogeneous, isotropic, steady unless stated). Confirm with site investigation and pumping \
-tests. Final design, monitoring and discharge permits are for a licensed professional under \
-local codes and regulations. Dewatering can settle and damage nearby structures and services.";
+/// The caution carried by every output (defined once in [`crate::caution`]).
+pub use crate::caution::CAUTION;
 
 /// Wrap text to `width` columns, each line starting with `indent`.
 pub fn wrap(text: &str, width: usize, indent: &str) -> String {
@@ -64,11 +61,14 @@ pub fn thousands(value: f64, decimals: usize) -> String {
 }
 
 /// Every file `check` writes, rendered in memory: (name, bytes).
-pub fn check_files(run: &crate::check::CheckRun) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
+pub fn check_files(
+    run: &crate::check::run::CheckRun,
+    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
+) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     Ok(vec![
         (
             "summary.json".into(),
-            serde_json::to_vec_pretty(&tables::summary_json(run))?,
+            serde_json::to_vec_pretty(&tables::summary_json(run, recharge))?,
         ),
         ("wells.csv".into(), tables::wells_csv(run)?),
         ("checkpoints.csv".into(), tables::checkpoints_csv(run)?),

@@ -2,11 +2,11 @@
 //! `neighbour_points.csv`, the JSON parts of `summary.json`, and `settlement.svg`.
 
 use super::{wrap, CAUTION};
-use crate::check::CheckRun;
-use crate::neighbours::{self, NeighbourResult, Status};
-use crate::recharge::RechargeSizing;
-use crate::units::UnitSystem;
-use crate::uplift::{self, UpliftResult};
+use crate::check::run::CheckRun;
+use crate::input::units::UnitSystem;
+use crate::optimise::recharge::RechargeSizing;
+use crate::safety::neighbours::{self, NeighbourResult, Status};
+use crate::safety::uplift::{self, UpliftResult};
 use geo::{BoundingRect, MultiPolygon};
 use serde_json::{json, Value};
 use svg::node::element::{
@@ -87,7 +87,7 @@ fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
 }
 
 /// Terminal section: neighbours table, uplift, recharge sizing, and the neighbours verdict.
-pub fn text(run: &CheckRun, units: UnitSystem) -> String {
+pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem) -> String {
     let mut out = String::new();
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
@@ -217,7 +217,7 @@ pub fn text(run: &CheckRun, units: UnitSystem) -> String {
     for u in &up {
         out.push_str(&uplift_text(u, units));
     }
-    if let Some(rs) = &run.recharge {
+    if let Some(rs) = recharge {
         out.push_str(&recharge_text(rs, units));
     }
     if !results.is_empty() {

@@ -7,7 +7,7 @@
 //! the layout has reserve, below it no uniform rate within the limits is enough.
 
 use super::{wrap, CAUTION};
-use crate::sweep::{Axis, Sweep};
+use crate::optimise::sweep::{Axis, Sweep};
 use svg::node::element::{Circle, Group, Line, Path, Rectangle, Text};
 use svg::Document;
 

@@ -1,7 +1,7 @@
 //! CSV tables and the JSON summary of an evaluated layout.
 
-use crate::check::CheckRun;
-use crate::model::Model;
+use crate::check::run::CheckRun;
+use crate::input::model::Model;
 use crate::physics::images::BoundaryKind;
 use serde_json::{json, Value};
 
@@ -136,7 +136,10 @@ pub fn model_record(model: &Model) -> Value {
 }
 
 /// `summary.json`.
-pub fn summary_json(run: &CheckRun) -> Value {
+pub fn summary_json(
+    run: &CheckRun,
+    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
+) -> Value {
     let e = &run.evaluation;
     let worst = e.worst_point.map(|i| &e.points[i]);
     json!({
@@ -159,10 +162,10 @@ pub fn summary_json(run: &CheckRun) -> Value {
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
         "placement_notes": run.placement.notes,
         "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems})).collect::<Vec<_>>(),
-        "neighbours": crate::neighbours::assess_run(run),
+        "neighbours": crate::safety::neighbours::assess_run(run),
         "neighbour_rules_of_thumb": super::neighbours_out::rules_of_thumb(),
-        "uplift": crate::uplift::assess_run(run),
-        "recharge_sizing": run.recharge,
+        "uplift": crate::safety::uplift::assess_run(run),
+        "recharge_sizing": recharge,
         "caution": super::CAUTION,
     })
 }

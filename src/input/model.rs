@@ -1,14 +1,14 @@
 //! The validated model: the design file checked and turned into SI numbers and geometry.
 //!
-//! [`load`] is the only way to get a [`Model`]; it reads the file, parses it ([`crate::design`]),
+//! [`load`] is the only way to get a [`Model`]; it reads the file, parses it ([`crate::input::schema`]),
 //! and checks every value against what is physically and practically valid, so the engine never
 //! computes on something it would have to question.
 
-use crate::aquifer::{Aquifer, AquiferKind};
-use crate::design::{self, DesignFile};
-use crate::error::{InputError, Reporter};
+use crate::input::error::{InputError, Reporter};
+use crate::input::schema::{self, DesignFile};
+use crate::input::units::UnitSystem;
+use crate::physics::potential::{Aquifer, AquiferKind};
 use crate::physics::{hantush, radius};
-use crate::units::UnitSystem;
 use geo::{Area, Coord, LineString, Polygon, Validation};
 use std::collections::HashSet;
 use std::path::{Path, PathBuf};
@@ -485,7 +485,7 @@ fn parse_error(rep: &Reporter, source: &str, e: &toml::de::Error) -> InputError 
 fn check_positive(
     rep: &Reporter,
     field: &str,
-    q: &crate::units::Quantity<impl crate::units::Kind>,
+    q: &crate::input::units::Quantity<impl crate::input::units::Kind>,
     what: &str,
 ) -> Result<f64, InputError> {
     if q.si > 0.0 {
@@ -822,7 +822,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
                     check_positive(rep, &format!("{fname}.drawdown"), &o.drawdown, "steady drawdown")?,
                 ));
             }
-            match crate::pumping_test::distance_drawdown_fit(&obs) {
+            match crate::physics::pumping_test::distance_drawdown_fit(&obs) {
                 Some((r, slope)) => InfluenceMethod::PumpingTest {
                     radius: r,
                     transmissivity: q / (2.0 * std::f64::consts::PI * slope),
@@ -1047,7 +1047,7 @@ fn side_of(a: [f64; 2], b: [f64; 2], p: [f64; 2]) -> f64 {
 
 fn well_spec(
     rep: &Reporter,
-    raw: Option<&design::WellSpec>,
+    raw: Option<&schema::WellSpec>,
     aquifer: &Aquifer,
     ground: f64,
 ) -> Result<WellSpec, InputError> {
@@ -1160,7 +1160,7 @@ fn well_spec(
 fn layout_spec(
     rep: &Reporter,
     path: &Path,
-    l: &design::Layout,
+    l: &schema::Layout,
     excavations: &[Excavation],
     no_listed_wells: bool,
 ) -> Result<LayoutSpec, InputError> {
@@ -1300,7 +1300,7 @@ fn layout_spec(
 fn neighbour(
     rep: &Reporter,
     i: usize,
-    n: &design::Neighbour,
+    n: &schema::Neighbour,
     names: &mut HashSet<String>,
 ) -> Result<Neighbour, InputError> {
     let f = |s: &str| format!("neighbour[{}].{s}", i + 1);
@@ -1316,7 +1316,7 @@ fn neighbour(
     }
     let footprint = polygon(rep, &f("footprint"), &n.footprint)?;
     let positive =
-        |q: &Option<crate::units::Length>, name: &str| -> Result<Option<f64>, InputError> {
+        |q: &Option<crate::input::units::Length>, name: &str| -> Result<Option<f64>, InputError> {
             q.as_ref()
                 .map(|q| check_positive(rep, &f(name), q, "a limit greater than zero"))
                 .transpose()
@@ -1418,7 +1418,7 @@ fn neighbour(
     })
 }
 
-fn check_settings(rep: &Reporter, c: Option<&design::Checks>) -> Result<CheckSettings, InputError> {
+fn check_settings(rep: &Reporter, c: Option<&schema::Checks>) -> Result<CheckSettings, InputError> {
     let grid = c.and_then(|c| c.grid_spacing.as_ref());
     let grid_spacing = match grid {
         Some(q) => check_positive(rep, "checks.grid_spacing", q, "grid spacing, e.g. \"2 m\"")?,

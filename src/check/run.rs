@@ -1,13 +1,14 @@
 //! `check`: evaluate one layout — place the wells, build the field, evaluate every check point
 //! and well.
 
-use crate::checkpoints::{check_points, CheckPoint};
-use crate::error::InputError;
-use crate::evaluate::{design_radius, evaluate, Evaluation};
-use crate::influence::Field;
-use crate::layout::{self, Placement};
-use crate::model::Model;
-use crate::wells::Well;
+use crate::check::evaluate::{evaluate, Evaluation};
+use crate::field::checkpoints::{check_points, CheckPoint};
+use crate::field::influence::Field;
+use crate::field::layout::{self, Placement};
+use crate::field::radius::design_radius;
+use crate::field::wells::Well;
+use crate::input::error::InputError;
+use crate::input::model::Model;
 use geo::Centroid;
 use std::path::Path;
 
@@ -23,8 +24,6 @@ pub struct CheckRun<'a> {
     pub points: Vec<CheckPoint>,
     /// Results.
     pub evaluation: Evaluation,
-    /// Recharge sizing, when asked for (`check --size-recharge`).
-    pub recharge: Option<crate::recharge::RechargeSizing>,
 }
 
 /// A working origin near the site, so that projected coordinates keep their precision.
@@ -59,7 +58,6 @@ pub fn evaluate_placement(model: &Model, placement: Placement) -> CheckRun<'_> {
         field,
         points,
         evaluation,
-        recharge: None,
     }
 }
 

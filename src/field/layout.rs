@@ -2,10 +2,10 @@
 //! user lists (in the design file or a CSV file). Generated wells that fall in a keep-out zone
 //! are moved along their ring or line to the nearest free place, and the move is reported.
 
-use crate::error::InputError;
-use crate::estimate::length_and_width;
-use crate::model::{Excavation, LayoutKind, LayoutSpec, Model, NamedPolygon, RingCount};
-use crate::wells::Well;
+use crate::field::geometry::length_and_width;
+use crate::field::wells::Well;
+use crate::input::error::InputError;
+use crate::input::model::{Excavation, LayoutKind, LayoutSpec, Model, NamedPolygon, RingCount};
 use geo::algorithm::buffer::{BufferStyle, LineJoin};
 use geo::{Area, Buffer, Contains, Coord, MinimumRotatedRect, Point, Polygon};
 use std::path::Path;

@@ -186,7 +186,7 @@ fn split_number(text: &str) -> Option<(f64, &str)> {
 ///
 /// # Examples
 /// ```
-/// use drydig::units::{parse, ConductivityKind};
+/// use drydig::input::units::{parse, ConductivityKind};
 /// assert!((parse::<ConductivityKind>("17 m/d").unwrap() - 17.0 / 86400.0).abs() < 1e-15);
 /// ```
 pub fn parse<K: Kind>(text: &str) -> Result<f64, String> {

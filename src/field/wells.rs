@@ -1,6 +1,6 @@
 //! A placed well: where it is, how it is built and what it pumps.
 
-use crate::model::{WellKind, WellSpec};
+use crate::input::model::{WellKind, WellSpec};
 use serde::Serialize;
 
 /// One well or wellpoint in a layout. Levels in m above datum, rate in m³/s (negative: recharge).

@@ -2,13 +2,13 @@
 //! target without asking any well for more than it can give.
 //!
 //! # Rates for a given layout
-//! Superposition is linear in Strack's discharge potential Φ (see [`crate::influence`]): the
+//! Superposition is linear in Strack's discharge potential Φ (see [`crate::field::influence`]): the
 //! potential at check point i is Φᵢ = Φ₀ + Σⱼ uᵢⱼ·qⱼ, with uᵢⱼ the change per unit rate of well j
 //! (negative for pumping). A target level zₜ holds when Φᵢ ≤ Φ(zₜ) — exact, because Φ rises with
 //! the level. Two rate options:
 //! - **uniform** (one pump size on site): the smallest q with Φ₀ + q·Σⱼuᵢⱼ ≤ Φ(zₜ) at every point,
 //!   which is a ratio per point; then the limits are checked at that rate;
-//! - **individual**: a linear programme ([`crate::lp`]) minimising Σqⱼ subject to the targets
+//! - **individual**: a linear programme ([`crate::optimise::lp`]) minimising Σqⱼ subject to the targets
 //!   at every check point and the limits at every well.
 //!
 //! # Well limits
@@ -24,7 +24,7 @@
 //!   true capacity, and much less pessimistic than the capacity at the lowest allowed level.
 //!   The uniform option uses the exact capacity (a monotone equation in q, solved by bisection).
 //!
-//! Every answer is re-evaluated by [`crate::evaluate::evaluate`] with the final rates and heads;
+//! Every answer is re-evaluated by [`crate::check::evaluate::evaluate`] with the final rates and heads;
 //! only a layout that passes there counts as meeting its targets.
 //!
 //! # Size of the linear programme
@@ -44,16 +44,17 @@
 //! individual rates solves a programme per count; the search for one rate needs none. Outcomes
 //! are data: met, not met (best layout, worst point, shortfall) or impossible (and why).
 
-use crate::checkpoints::{check_points, CheckPoint};
-use crate::error::InputError;
+use crate::check::evaluate::{evaluate, Evaluation};
 use crate::estimate::{self, ExcavationEstimate};
-use crate::evaluate::{design_radius, evaluate, Evaluation};
-use crate::influence::Field;
-use crate::layout::{self, Placement};
-use crate::lp::{self, Constraint, LpStatus, RateProblem, Sense};
-use crate::model::{LayoutKind, LayoutSpec, Model, RingCount, WellKind};
+use crate::field::checkpoints::{check_points, CheckPoint};
+use crate::field::influence::Field;
+use crate::field::layout::{self, Placement};
+use crate::field::radius::design_radius;
+use crate::field::wells::Well;
+use crate::input::error::InputError;
+use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount, WellKind};
+use crate::optimise::lp::{self, Constraint, LpStatus, RateProblem, Sense};
 use crate::physics::capacity::sichardt_well_capacity;
-use crate::wells::Well;
 use rayon::prelude::*;
 use serde::Serialize;
 use std::collections::BTreeMap;
@@ -134,7 +135,7 @@ impl FloorKind {
 /// The limits of one well, ready for the programme.
 #[derive(Debug, Clone)]
 pub struct WellLimit {
-    /// Lowest level allowed, m, as [`crate::evaluate::evaluate`] checks it.
+    /// Lowest level allowed, m, as [`crate::check::evaluate::evaluate`] checks it.
     pub lowest_level: f64,
     /// Level the programme holds the well at or above, m: the lowest allowed, the screen base
     /// or just above the aquifer base, whichever is highest.
@@ -393,7 +394,7 @@ impl<'a> LayoutRates<'a> {
         wells: Vec<Well>,
         max_groups: usize,
     ) -> LayoutRates<'a> {
-        let field = crate::check::field_for(model, &wells);
+        let field = crate::check::run::field_for(model, &wells);
         let aq = &model.aquifer;
         let targets: Vec<usize> = points
             .iter()

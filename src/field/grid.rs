@@ -18,7 +18,7 @@
 //!
 //! By default the grid has about 40 000 nodes (200 × 200 on a square area), spaced equally in x
 //! and y; a long thin area (a trench) gets more nodes along its length, up to
-//! [`MAX_NODES_PER_SIDE`]. Levels come from [`crate::influence::Field::levels`] (parallel). A node pumped dry
+//! [`MAX_NODES_PER_SIDE`]. Levels come from [`crate::field::influence::Field::levels`] (parallel). A node pumped dry
 //! ([`Level::Dry`]) takes the aquifer base level and is flagged in [`LevelGrid::dry`].
 //!
 //! # The aquifer side of boundaries
@@ -28,9 +28,9 @@
 //! the grid rectangle cut by every boundary to the side the excavations are on, for clipping
 //! contours and shading the far side.
 
-use crate::aquifer::Level;
-use crate::check::CheckRun;
-use crate::model::{MapQuantity, Model};
+use crate::check::run::CheckRun;
+use crate::input::model::{MapQuantity, Model};
+use crate::physics::potential::Level;
 use contour::ContourBuilder;
 use geo::{BooleanOps, BoundingRect, Coord, LineString, MultiLineString, MultiPolygon, Polygon};
 

@@ -4,10 +4,10 @@
 //! Superposition is linear in the discharge potential, so with the abstraction wells held at their
 //! rates the change ΔΦ at any point is linear in the recharge rates q_j (negative numbers):
 //! ΔΦ(p) = ΔΦ_abstraction(p) + Σ_j a_pj·q_j with a_pj from [`Field::unit_row`]. A linear
-//! programme ([`crate::lp`]) then minimises the total recharge Σ(−q_j) subject to
+//! programme ([`crate::optimise::lp`]) then minimises the total recharge Σ(−q_j) subject to
 //! - at every sample point of every protected neighbour: level ≥ h₀ − s_allow, i.e.
 //!   ΔΦ ≥ Φ(h₀ − s_allow) − Φ₀, with s_allow the smaller of its allowable drawdown and the uniform
-//!   drawdown that settles it by its settlement limit ([`crate::neighbours`]);
+//!   drawdown that settles it by its settlement limit ([`crate::safety::neighbours`]);
 //! - at every excavation check point with a target: level ≤ target, ΔΦ ≤ Φ(target) − Φ₀;
 //! - in every recharge well: level ≤ ground level − [`FREEBOARD`] (the mound must not overflow);
 //! - −capacity_j ≤ q_j ≤ 0, the capacity being the listed (negative) rate of the recharge well.
@@ -20,14 +20,14 @@
 //! when none is marked. The net flow (abstraction − recharge) is what the discharge must take;
 //! recharge water must come from somewhere (often the abstraction itself).
 
-use crate::check::{evaluate_placement, field_for, CheckRun};
-use crate::checkpoints::check_points;
-use crate::error::InputError;
-use crate::influence::Field;
-use crate::layout::{self, Placement};
-use crate::lp::{self, Constraint, LpStatus, RateProblem, Sense};
-use crate::model::Model;
-use crate::neighbours::{drawdown_limit_for_recharge, sample_points};
+use crate::check::run::{evaluate_placement, field_for, CheckRun};
+use crate::field::checkpoints::check_points;
+use crate::field::influence::Field;
+use crate::field::layout::{self, Placement};
+use crate::input::error::InputError;
+use crate::input::model::Model;
+use crate::optimise::lp::{self, Constraint, LpStatus, RateProblem, Sense};
+use crate::safety::neighbours::{drawdown_limit_for_recharge, sample_points};
 use serde::Serialize;
 use std::path::Path;
 
@@ -107,7 +107,7 @@ struct Problem {
 /// capacity on the screen wetted up to the initial level; the level is the pump intake +
 /// submergence, raised where needed so the screen left wet still passes that rate by Sichardt's
 /// entrance gradient (a linear stand-in for the capacity that falls as the well is drawn down).
-fn abstraction_limits(model: &Model, w: &crate::wells::Well) -> (f64, f64) {
+fn abstraction_limits(model: &Model, w: &crate::field::wells::Well) -> (f64, f64) {
     let k = model.aquifer.conductivity;
     let full = (w.screen_top.min(model.aquifer.initial_level) - w.screen_base).max(0.0);
     let sichardt = crate::physics::capacity::sichardt_well_capacity(w.radius, full, k);
@@ -128,7 +128,7 @@ fn abstraction_limits(model: &Model, w: &crate::wells::Well) -> (f64, f64) {
 
 /// The neighbours the sizing holds: those marked `protect_with_recharge`, or every one when
 /// none is marked.
-fn protected_neighbours(model: &Model) -> Vec<&crate::model::Neighbour> {
+fn protected_neighbours(model: &Model) -> Vec<&crate::input::model::Neighbour> {
     let marked: Vec<_> = model
         .neighbours
         .iter()
@@ -365,10 +365,9 @@ pub fn size(
 pub fn run_sized<'a>(
     model: &'a Model,
     wells_csv: Option<&Path>,
-) -> Result<CheckRun<'a>, InputError> {
+) -> Result<(CheckRun<'a>, RechargeSizing), InputError> {
     let placement = layout::from_model(model, wells_csv)?;
     let (placement, sizing) = size(model, placement)?;
-    let mut run = evaluate_placement(model, placement);
-    run.recharge = Some(sizing);
-    Ok(run)
+    let run = evaluate_placement(model, placement);
+    Ok((run, sizing))
 }

@@ -10,90 +10,16 @@
 //!   h_req = z_top + σ_v/(γ_w·FoS_req).
 //!
 //! h_req becomes a target for the check points and the rate optimiser: the uplift points of each
-//! excavation carry target = min(excavation target, h_req) (see [`add_check_points`]). The pumped
+//! excavation carry target = min(excavation target, h_req) (see [`crate::field::checkpoints::add_uplift_points`]). The pumped
 //! aquifer is taken to be the confined layer: the drawdown the wells make is subtracted from h_p.
 //! A factor of 1.1 … 1.5 is usual (common practice (no source)); the design file gives its own.
 
-use crate::check::CheckRun;
-use crate::checkpoints::{CheckPoint, PointKind};
-use crate::model::{Model, Uplift};
-use crate::settlement::GAMMA_W;
-use geo::InteriorPoint;
+use crate::check::run::CheckRun;
+use crate::field::checkpoints::field_target;
+use crate::input::model::Model;
+use crate::physics::uplift::{factor_of_safety, overburden, required_head};
+use crate::physics::water::GAMMA_W;
 use serde::Serialize;
-
-/// Weight of the soil between formation and layer top, kPa.
-pub fn overburden(soil_unit_weight: f64, formation_level: f64, layer_top: f64) -> f64 {
-    soil_unit_weight * (formation_level - layer_top).max(0.0)
-}
-
-/// FoS = σ_v/(γ_w·(h − z_top)); `None` when the head is at or below the layer top (no pressure).
-pub fn factor_of_safety(overburden_kpa: f64, head: f64, layer_top: f64) -> Option<f64> {
-    let u = GAMMA_W * (head - layer_top);
-    (u > 0.0).then(|| overburden_kpa / u)
-}
-
-/// h_req = z_top + σ_v/(γ_w·FoS_req), m.
-pub fn required_head(overburden_kpa: f64, layer_top: f64, fos_required: f64) -> f64 {
-    layer_top + overburden_kpa / (GAMMA_W * fos_required)
-}
-
-/// The level the superposition field must reach for h_req: the drawdown the layer needs
-/// (h_p − h_req) taken off the aquifer's initial level. `None` when no relief is needed.
-pub fn field_target(model: &Model, u: &Uplift, formation_level: f64) -> Option<f64> {
-    let sigma = overburden(u.soil_unit_weight, formation_level, u.layer_top);
-    let h_req = required_head(sigma, u.layer_top, u.factor_of_safety);
-    (h_req < u.piezometric_level)
-        .then_some(model.aquifer.initial_level - (u.piezometric_level - h_req))
-}
-
-/// Add the uplift check points of every excavation that needs relief: its corners and an
-/// interior point, with target = min(excavation target, h_req as a field level); where h_req is
-/// the stricter, also a copy of every check point of the excavation, so the whole base is held.
-pub fn add_check_points(model: &Model, points: &mut Vec<CheckPoint>) {
-    let Some(u) = &model.uplift else { return };
-    let mut extra = Vec::new();
-    for (ei, e) in model.excavations.iter().enumerate() {
-        let Some(t_uplift) = field_target(model, u, e.formation_level) else {
-            continue;
-        };
-        let target = e.target_level().min(t_uplift);
-        let ring = &e.outline.exterior().0;
-        let n = ring.len().saturating_sub(1);
-        for (i, c) in ring.iter().take(n).enumerate() {
-            extra.push(CheckPoint {
-                name: format!("{} uplift corner {}", e.name, i + 1),
-                kind: PointKind::Uplift,
-                excavation: Some(ei),
-                position: [c.x, c.y],
-                target_level: Some(target),
-            });
-        }
-        if let Some(p) = e.outline.interior_point() {
-            extra.push(CheckPoint {
-                name: format!("{} uplift inside", e.name),
-                kind: PointKind::Uplift,
-                excavation: Some(ei),
-                position: [p.x(), p.y()],
-                target_level: Some(target),
-            });
-        }
-        if t_uplift < e.target_level() {
-            for p in points
-                .iter()
-                .filter(|p| p.excavation == Some(ei) && p.kind != PointKind::Corner)
-            {
-                extra.push(CheckPoint {
-                    name: format!("{} (uplift)", p.name),
-                    kind: PointKind::Uplift,
-                    excavation: Some(ei),
-                    position: p.position,
-                    target_level: Some(target),
-                });
-            }
-        }
-    }
-    points.extend(extra);
-}
 
 /// The uplift check of one excavation.
 #[derive(Debug, Clone, Serialize)]
@@ -179,7 +105,7 @@ pub fn assess(model: &Model, least_drawdown: &[Option<f64>]) -> Vec<UpliftResult
                     .is_some_and(|t| t < e.target_level()),
                 head_after_m: after,
                 factor_of_safety_after: fos_after,
-                pass_after: after.map(|h| h <= h_req + crate::evaluate::TARGET_TOLERANCE),
+                pass_after: after.map(|h| h <= h_req + crate::check::evaluate::TARGET_TOLERANCE),
                 method: METHOD.into(),
             }
         })

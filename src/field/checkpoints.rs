@@ -3,8 +3,9 @@
 //! For each excavation: a grid inside the outline, every corner, and points along every edge,
 //! each with the excavation's target level (formation − margin); plus the points the user names.
 
-use crate::model::Model;
-use geo::{BoundingRect, Contains, Point};
+use crate::input::model::{Model, Uplift};
+use crate::physics::uplift::{overburden, required_head};
+use geo::{BoundingRect, Contains, InteriorPoint, Point};
 use serde::Serialize;
 
 /// Where a check point comes from.
@@ -19,7 +20,7 @@ pub enum PointKind {
     Edge,
     /// Named by the user.
     Named,
-    /// Holds the head that keeps the base from lifting ([`crate::uplift`]).
+    /// Holds the head that keeps the base from lifting ([`add_uplift_points`]).
     Uplift,
 }
 
@@ -105,6 +106,64 @@ pub fn check_points(model: &Model) -> Vec<CheckPoint> {
             target_level: *target,
         });
     }
-    crate::uplift::add_check_points(model, &mut out);
+    add_uplift_points(model, &mut out);
     out
+}
+
+/// The level the superposition field must reach for h_req: the drawdown the layer needs
+/// (h_p − h_req) taken off the aquifer's initial level. `None` when no relief is needed.
+pub fn field_target(model: &Model, u: &Uplift, formation_level: f64) -> Option<f64> {
+    let sigma = overburden(u.soil_unit_weight, formation_level, u.layer_top);
+    let h_req = required_head(sigma, u.layer_top, u.factor_of_safety);
+    (h_req < u.piezometric_level)
+        .then_some(model.aquifer.initial_level - (u.piezometric_level - h_req))
+}
+
+/// Add the uplift check points of every excavation that needs relief: its corners and an
+/// interior point, with target = min(excavation target, h_req as a field level); where h_req is
+/// the stricter, also a copy of every check point of the excavation, so the whole base is held.
+pub fn add_uplift_points(model: &Model, points: &mut Vec<CheckPoint>) {
+    let Some(u) = &model.uplift else { return };
+    let mut extra = Vec::new();
+    for (ei, e) in model.excavations.iter().enumerate() {
+        let Some(t_uplift) = field_target(model, u, e.formation_level) else {
+            continue;
+        };
+        let target = e.target_level().min(t_uplift);
+        let ring = &e.outline.exterior().0;
+        let n = ring.len().saturating_sub(1);
+        for (i, c) in ring.iter().take(n).enumerate() {
+            extra.push(CheckPoint {
+                name: format!("{} uplift corner {}", e.name, i + 1),
+                kind: PointKind::Uplift,
+                excavation: Some(ei),
+                position: [c.x, c.y],
+                target_level: Some(target),
+            });
+        }
+        if let Some(p) = e.outline.interior_point() {
+            extra.push(CheckPoint {
+                name: format!("{} uplift inside", e.name),
+                kind: PointKind::Uplift,
+                excavation: Some(ei),
+                position: [p.x(), p.y()],
+                target_level: Some(target),
+            });
+        }
+        if t_uplift < e.target_level() {
+            for p in points
+                .iter()
+                .filter(|p| p.excavation == Some(ei) && p.kind != PointKind::Corner)
+            {
+                extra.push(CheckPoint {
+                    name: format!("{} (uplift)", p.name),
+                    kind: PointKind::Uplift,
+                    excavation: Some(ei),
+                    position: p.position,
+                    target_level: Some(target),
+                });
+            }
+        }
+    }
+    points.extend(extra);
 }

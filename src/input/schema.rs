@@ -1,8 +1,8 @@
 //! The design file as written (TOML): every section and field, with units still attached to
-//! positions in the file. [`crate::model`] turns it into the validated model the engine computes
+//! positions in the file. [`crate::input::model`] turns it into the validated model the engine computes
 //! on; nothing else reads these types.
 
-use crate::units::{
+use crate::input::units::{
     Compressibility, Conductivity, Duration, Flow, Length, Ratio, Stress, UnitSystem, UnitWeight,
 };
 use serde::Deserialize;

@@ -10,7 +10,7 @@ pub const STARTER: &str = include_str!("starter.toml");
 /// Write the starter to `path`; refuses to overwrite an existing file.
 pub fn write_new(path: &Path) -> anyhow::Result<()> {
     if path.exists() {
-        bail!(crate::error::InputError {
+        bail!(crate::input::error::InputError {
             file: path.to_path_buf(),
             field: String::new(),
             line: None,

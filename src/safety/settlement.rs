@@ -25,10 +25,9 @@
 //! layer's σ′₀ (given at mid-layer) for every slice — split a thick clay into several layers for a
 //! closer answer. Incompressible layers (sand, gravel, rock) do not settle.
 
-use crate::model::{Compressibility, SoilLayer};
+use crate::input::model::{Compressibility, SoilLayer};
 
-/// Unit weight of water, kN/m³.
-pub const GAMMA_W: f64 = 9.81;
+pub use crate::physics::water::GAMMA_W;
 /// Largest slice a layer is cut into, m.
 pub const SLICE: f64 = 0.1;
 

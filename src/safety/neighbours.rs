@@ -1,5 +1,5 @@
 //! Neighbouring buildings: drawdown under each footprint, settlement by one-dimensional
-//! consolidation ([`crate::settlement`]), differential settlement and angular distortion along
+//! consolidation ([`crate::safety::settlement`]), differential settlement and angular distortion along
 //! each side, and pass/fail against the building's limits.
 //!
 //! Each footprint is sampled at its corners, along its sides and on a small interior grid; the
@@ -13,11 +13,11 @@
 //! practice (no source); 1/500 is usually credited to Bjerrum (1963), from memory). There is no
 //! rule of thumb for drawdown: without `allowable_drawdown` the drawdown is reported, not checked.
 
-use crate::aquifer::Level;
-use crate::check::CheckRun;
-use crate::influence::Field;
-use crate::model::{Model, Neighbour};
-use crate::settlement::{self, StressForm};
+use crate::check::run::CheckRun;
+use crate::field::influence::Field;
+use crate::input::model::{Model, Neighbour};
+use crate::physics::potential::Level;
+use crate::safety::settlement::{self, StressForm};
 use geo::{BoundingRect, Contains, Point};
 use serde::Serialize;
 

@@ -9,11 +9,11 @@
 //! Wells in range of a point are found with an R-tree (`rstar`); the plain all-pairs sum gives the
 //! same result (tested on seeded random layouts).
 
-use crate::aquifer::{Aquifer, Level};
-use crate::model::Boundary;
+use crate::field::wells::Well;
+use crate::input::model::Boundary;
 use crate::physics::images::{image_set, image_sign, mirror_point};
+use crate::physics::potential::{Aquifer, Level};
 use crate::physics::special::bessel_k0;
-use crate::wells::Well;
 use rayon::prelude::*;
 use rstar::primitives::GeomWithData;
 use rstar::RTree;

@@ -1,0 +1,43 @@
+//! The radius of influence used for superposition: the group radius R₀ = r_e + L₀ of a pit, or
+//! R = π·L₀/2 for a trench line, with L₀ from the design file's method (Sichardt, Kusakin,
+//! Cooper–Jacob, a pumping test, or the user's own value).
+
+use crate::input::model::Model;
+
+/// Radius of influence used for superposition, m, and how it was found.
+///
+/// Each well is given the group radius R₀ = r_e + L₀ of the excavation it serves, with L₀ from the
+/// design file's method at that excavation's target drawdown (common practice (no source)).
+pub fn design_radius(model: &Model) -> (f64, String) {
+    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
+    let e = &model.excavations[idx];
+    let aq = &model.aquifer;
+    let s = (aq.initial_level - e.target_level()).max(0.1);
+    let r_e = crate::physics::equivalent::equivalent_radius_from_area(geo::Area::unsigned_area(
+        &e.outline,
+    ));
+    let trench = crate::field::geometry::is_trench(model, e);
+    if let Some(b) = aq.leakage_factor() {
+        return (b, format!("leaky aquifer: K₀(r/B) with B = {b:.1} m (no radius of influence; cut off at 25 B)"));
+    }
+    if trench {
+        // A long line of wells with Thiem cut-off R draws ΔΦ = q′·R/π at the line (q′ per metre,
+        // from ∫₋R^R ln(R/|x|) dx = 2R); the line slot from both sides draws ΔΦ = q′·L₀/2.
+        // They agree when R = π·L₀/2.
+        let l0 = model.influence.distance(aq, s, true);
+        let r = std::f64::consts::FRAC_PI_2 * l0;
+        return (r, format!(
+            "trench: R = π·L₀/2 = {r:.1} m, so a long line of wells matches the line-slot flow (L₀ = {l0:.1} m, {} to a line at s = {s:.2} m for \"{}\")",
+            model.influence.name(),
+            e.name
+        ));
+    }
+    let l0 = model.influence.distance(aq, s, false);
+    let text = format!(
+        "R₀ = r_e + L₀ = {r_e:.1} + {l0:.1} = {:.1} m ({} at s = {s:.2} m for \"{}\")",
+        r_e + l0,
+        model.influence.name(),
+        e.name
+    );
+    (r_e + l0, text)
+}

@@ -1,0 +1,11 @@
+//! Stage 1, input: the design file as written, turned into the validated model.
+//!
+//! `units` (quantity strings → SI) → `schema` (the file's serde types) → `model` (validation,
+//! the [`model::Model`] the engine computes on) with `error` for messages that name the field;
+//! `starter` writes a commented design file.
+
+pub mod error;
+pub mod model;
+pub mod schema;
+pub mod starter;
+pub mod units;
