@@ -13,7 +13,7 @@
 
 use drydig::check::run::field_for;
 use drydig::field::layout::generate;
-use drydig::input::model::from_str;
+use drydig::input::validate::file::from_str;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::time::Instant;

@@ -13,7 +13,7 @@
 //! The design flow adds the contingency, and a rough well count divides it by one well's
 //! capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower).
 
-use crate::field::geometry::length_and_width;
+use crate::field::shape::length_and_width;
 use crate::input::model::{Excavation, Model, ShapeChoice, WellKind};
 use crate::physics::potential::{Aquifer, AquiferKind};
 use crate::physics::{capacity, equivalent, special};

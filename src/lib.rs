@@ -2,6 +2,7 @@
 //!
 //! The modules follow the data, one stage each, in the order it flows:
 //!
+//! 0. [`geometry`] — plane geometry on site coordinates that `geo` does not offer as such.
 //! 1. [`input`] — the design file: units into SI, the raw schema, validation into the
 //!    [`input::model::Model`] the engine computes on, errors that name the field, the starter file.
 //! 2. [`physics`] — the published formulas (Thiem, Dupuit–Thiem, Theis, Hantush, Strack's
@@ -22,6 +23,7 @@ pub mod check;
 pub mod cli;
 pub mod estimate;
 pub mod field;
+pub mod geometry;
 pub mod input;
 pub mod optimise;
 pub mod physics;

@@ -6,7 +6,8 @@
 
 use drydig::check::run::{self as check, CheckRun};
 use drydig::field::grid::LevelGrid;
-use drydig::input::model::{self, Model};
+use drydig::input::model::Model;
+use drydig::input::validate::file as model;
 use drydig::report::geojson_out::{contours_geojson, layout_geojson};
 use drydig::report::map_svg::map_svg;
 use drydig::report::CAUTION;
@@ -178,7 +179,7 @@ struct Demo {
 fn demo(file: &str) -> (Demo, String, String, f64) {
     let model = load(&layout(file));
     let r = run(&model);
-    let grid = LevelGrid::for_run(&r);
+    let grid = LevelGrid::for_run(&r.grid_source());
     let doc = map_svg(&r, &grid, "2025-01-31");
     let facts = parse_svg(&doc);
     let d = Demo {
@@ -531,7 +532,7 @@ map = "drawdown"
     );
     let q = 5e-3;
     let t = 1e-4 * 20.0;
-    let grid = LevelGrid::for_run(&r);
+    let grid = LevelGrid::for_run(&r.grid_source());
     let fc = parse_fc(&contours_geojson(&r, &grid));
     assert!(
         fc.features.len() >= 8,
@@ -595,7 +596,7 @@ fn neighbour_statuses_reach_the_legend() {
     use drydig::report::map_svg::{map_svg_with, MapOptions, NeighbourStatus};
     let model = load(&layout("riverside_basement.toml"));
     let r = run(&model);
-    let grid = LevelGrid::for_run(&r);
+    let grid = LevelGrid::for_run(&r.grid_source());
     // layouts/riverside_basement.toml has two neighbours.
     let opts = MapOptions {
         neighbour_status: Some(vec![
@@ -626,7 +627,7 @@ fn neighbour_statuses_reach_the_legend() {
 fn trench_map_has_a_readable_detail() {
     let model = load(&layout("pipeline_trench.toml"));
     let r = run(&model);
-    let grid = LevelGrid::for_run(&r);
+    let grid = LevelGrid::for_run(&r.grid_source());
     let doc = map_svg(&r, &grid, "2025-01-31");
     let facts = parse_svg(&doc);
     assert!(

@@ -6,7 +6,8 @@
 use drydig::check::run::{evaluate_placement, field_for};
 use drydig::field::checkpoints::{check_points, PointKind};
 use drydig::field::layout;
-use drydig::input::model::{self, Compressibility, SoilLayer};
+use drydig::input::model::{Compressibility, SoilLayer};
+use drydig::input::validate::file as model;
 use drydig::physics::uplift;
 use drydig::safety::neighbours::{self, Status};
 use drydig::safety::settlement::{self, StressForm};

@@ -18,7 +18,8 @@ use drydig::check::evaluate::evaluate;
 use drydig::check::run::{evaluate_placement, field_for};
 use drydig::field::checkpoints::check_points;
 use drydig::field::layout::generate;
-use drydig::input::model::{from_str, LayoutKind, Model, RingCount};
+use drydig::input::model::{LayoutKind, Model, RingCount};
+use drydig::input::validate::file::from_str;
 use drydig::optimise::design::{design, line_length, Design, LayoutRates, Outcome, RateOption};
 use drydig::optimise::lp::LpStatus;
 use drydig::physics::slot::{slot_flow_from_potentials, SlotSides};
@@ -234,7 +235,7 @@ fn demo_designs() -> &'static [DemoDesign] {
         demo_files()
             .into_iter()
             .map(|path| {
-                let model = match drydig::input::model::load(&path) {
+                let model = match drydig::input::validate::file::load(&path) {
                     Ok(m) => m,
                     Err(e) => panic!("{e}"),
                 };

@@ -822,9 +822,9 @@ fn projected_coordinates_give_the_same_check_results() {
     std::fs::write(&far_path, far_text).expect("written");
 
     let near_model =
-        drydig::input::model::load(&near_path).expect("the local design file is valid");
+        drydig::input::validate::file::load(&near_path).expect("the local design file is valid");
     let far_model =
-        drydig::input::model::load(&far_path).expect("the shifted design file is valid");
+        drydig::input::validate::file::load(&far_path).expect("the shifted design file is valid");
     let near = drydig::check::run::run(&near_model, None).expect("check runs");
     let far = drydig::check::run::run(&far_model, None).expect("check runs");
     let (a, b) = (&near.evaluation, &far.evaluation);

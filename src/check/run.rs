@@ -26,6 +26,17 @@ pub struct CheckRun<'a> {
     pub evaluation: Evaluation,
 }
 
+impl CheckRun<'_> {
+    /// What the map grid is computed from.
+    pub fn grid_source(&self) -> crate::field::grid::GridSource<'_> {
+        crate::field::grid::GridSource {
+            model: self.model,
+            field: &self.field,
+            placement: &self.placement,
+        }
+    }
+}
+
 /// A working origin near the site, so that projected coordinates keep their precision.
 pub fn site_origin(model: &Model) -> [f64; 2] {
     model.excavations[0]

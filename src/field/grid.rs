@@ -28,11 +28,13 @@
 //! the grid rectangle cut by every boundary to the side the excavations are on, for clipping
 //! contours and shading the far side.
 
-use crate::check::run::CheckRun;
+use crate::field::influence::Field;
+use crate::field::layout::Placement;
+use crate::geometry::{cut_half_plane, foot, side, to_polygon};
 use crate::input::model::{MapQuantity, Model};
 use crate::physics::potential::Level;
 use contour::ContourBuilder;
-use geo::{BooleanOps, BoundingRect, Coord, LineString, MultiLineString, MultiPolygon, Polygon};
+use geo::{BooleanOps, BoundingRect, LineString, MultiLineString, MultiPolygon, Polygon};
 
 /// Default number of nodes on the grid (about 200 × 200).
 pub const DEFAULT_NODES: usize = 40_000;
@@ -88,8 +90,20 @@ fn grow_polygon(b: &mut Bounds, poly: &Polygon<f64>) {
     }
 }
 
+/// What a grid of levels is computed from: the model, the field of the wells and their placement
+/// (the check stage hands these over from its evaluated run).
+#[derive(Clone, Copy)]
+pub struct GridSource<'a> {
+    /// The validated model.
+    pub model: &'a Model,
+    /// The superposition field of the wells.
+    pub field: &'a Field,
+    /// The wells (and the paths they were placed on).
+    pub placement: &'a Placement,
+}
+
 /// The feature box (step 1 of the module rule).
-pub fn feature_bounds(run: &CheckRun) -> Bounds {
+pub fn feature_bounds(run: &GridSource) -> Bounds {
     let model = run.model;
     let mut b = [
         f64::INFINITY,
@@ -121,17 +135,6 @@ pub fn feature_bounds(run: &CheckRun) -> Bounds {
     b
 }
 
-/// Foot of the perpendicular from `p` to the infinite line through `a` and `b`.
-fn foot(p: [f64; 2], a: [f64; 2], b: [f64; 2]) -> [f64; 2] {
-    let d = [b[0] - a[0], b[1] - a[1]];
-    let len2 = d[0] * d[0] + d[1] * d[1];
-    if len2 <= 0.0 || !len2.is_finite() {
-        return a;
-    }
-    let t = ((p[0] - a[0]) * d[0] + (p[1] - a[1]) * d[1]) / len2;
-    [a[0] + t * d[0], a[1] + t * d[1]]
-}
-
 /// Distance from `p` to the box `b` (0 inside).
 fn distance_to_box(p: [f64; 2], b: &Bounds) -> f64 {
     let dx = (b[0] - p[0]).max(p[0] - b[2]).max(0.0);
@@ -151,7 +154,7 @@ pub fn margin(extent: f64, radius: f64) -> f64 {
 }
 
 /// The area the map covers, by the rule in the module notes.
-pub fn map_bounds(run: &CheckRun) -> Bounds {
+pub fn map_bounds(run: &GridSource) -> Bounds {
     let f = feature_bounds(run);
     let extent = (f[2] - f[0]).max(f[3] - f[1]);
     let m = margin(extent, run.field.radius_of_influence());
@@ -174,48 +177,6 @@ pub fn map_bounds(run: &CheckRun) -> Bounds {
     b
 }
 
-/// The side of the line a→b that `p` is on: +1 left, −1 right, 0 on it.
-fn side(p: [f64; 2], a: [f64; 2], b: [f64; 2]) -> f64 {
-    let c = (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0]);
-    if c > 0.0 {
-        1.0
-    } else if c < 0.0 {
-        -1.0
-    } else {
-        0.0
-    }
-}
-
-/// Cut a convex polygon (closed ring not repeated) to the half-plane on `keep` side of a→b
-/// (Sutherland–Hodgman, one edge).
-fn cut_half_plane(poly: &[[f64; 2]], a: [f64; 2], b: [f64; 2], keep: f64) -> Vec<[f64; 2]> {
-    let signed =
-        |p: [f64; 2]| keep * ((b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0]));
-    let mut out = Vec::new();
-    let n = poly.len();
-    for i in 0..n {
-        let p = poly[i];
-        let q = poly[(i + 1) % n];
-        let (sp, sq) = (signed(p), signed(q));
-        if sp >= 0.0 {
-            out.push(p);
-        }
-        if (sp >= 0.0) != (sq >= 0.0) {
-            let t = sp / (sp - sq);
-            out.push([p[0] + t * (q[0] - p[0]), p[1] + t * (q[1] - p[1])]);
-        }
-    }
-    out
-}
-
-fn to_polygon(ring: &[[f64; 2]]) -> Polygon<f64> {
-    let mut coords: Vec<Coord<f64>> = ring.iter().map(|p| Coord { x: p[0], y: p[1] }).collect();
-    if let Some(first) = coords.first().copied() {
-        coords.push(first);
-    }
-    Polygon::new(LineString::new(coords), vec![])
-}
-
 /// A point on the aquifer side: the mean of the excavation centroids.
 fn inside_point(model: &Model) -> [f64; 2] {
     use geo::Centroid;
@@ -236,12 +197,12 @@ fn inside_point(model: &Model) -> [f64; 2] {
 
 impl LevelGrid {
     /// The grid for a run: about [`DEFAULT_NODES`] nodes over [`map_bounds`].
-    pub fn for_run(run: &CheckRun) -> LevelGrid {
+    pub fn for_run(run: &GridSource) -> LevelGrid {
         LevelGrid::with_nodes(run, DEFAULT_NODES)
     }
 
     /// The grid for a run with about `nodes` nodes over [`map_bounds`].
-    pub fn with_nodes(run: &CheckRun, nodes: usize) -> LevelGrid {
+    pub fn with_nodes(run: &GridSource, nodes: usize) -> LevelGrid {
         let b = map_bounds(run);
         let (w, h) = ((b[2] - b[0]).max(1e-3), (b[3] - b[1]).max(1e-3));
         let nodes = nodes.max(16) as f64;
@@ -261,7 +222,13 @@ impl LevelGrid {
     }
 
     /// Levels at the nodes of the given grid for a run.
-    pub fn compute(run: &CheckRun, origin: [f64; 2], step: f64, nx: usize, ny: usize) -> LevelGrid {
+    pub fn compute(
+        run: &GridSource,
+        origin: [f64; 2],
+        step: f64,
+        nx: usize,
+        ny: usize,
+    ) -> LevelGrid {
         let aq = run.field.aquifer();
         let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
         let points: Vec<[f64; 2]> = (0..ny)

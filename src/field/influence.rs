@@ -10,8 +10,9 @@
 //! same result (tested on seeded random layouts).
 
 use crate::field::wells::Well;
+use crate::geometry::mirror_point;
 use crate::input::model::Boundary;
-use crate::physics::images::{image_set, image_sign, mirror_point};
+use crate::physics::images::{image_set, image_sign};
 use crate::physics::potential::{Aquifer, Level};
 use crate::physics::special::bessel_k0;
 use rayon::prelude::*;

@@ -2,7 +2,7 @@
 //! user lists (in the design file or a CSV file). Generated wells that fall in a keep-out zone
 //! are moved along their ring or line to the nearest free place, and the move is reported.
 
-use crate::field::geometry::length_and_width;
+use crate::field::shape::length_and_width;
 use crate::field::wells::Well;
 use crate::input::error::InputError;
 use crate::input::model::{Excavation, LayoutKind, LayoutSpec, Model, NamedPolygon, RingCount};

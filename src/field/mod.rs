@@ -1,15 +1,15 @@
 //! Stage 3, the field: where the wells and check points are and what each well does to the
 //! level there.
 //!
-//! `geometry` (shape measures and the few constructions `geo` lacks) → `radius` (the radius of
+//! `shape` (length, width and whether an outline is a trench) → `radius` (the radius of
 //! influence superposition uses) → `wells` and `layout` (ring, line, listed, CSV) →
 //! `checkpoints` (grid, corners, edges, named points) → `influence` (the superposition kernel)
 //! → `grid` (the regular grid of levels behind the maps).
 
 pub mod checkpoints;
-pub mod geometry;
 pub mod grid;
 pub mod influence;
 pub mod layout;
 pub mod radius;
+pub mod shape;
 pub mod wells;

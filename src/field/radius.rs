@@ -16,7 +16,7 @@ pub fn design_radius(model: &Model) -> (f64, String) {
     let r_e = crate::physics::equivalent::equivalent_radius_from_area(geo::Area::unsigned_area(
         &e.outline,
     ));
-    let trench = crate::field::geometry::is_trench(model, e);
+    let trench = crate::field::shape::is_trench(model, e);
     if let Some(b) = aq.leakage_factor() {
         return (b, format!("leaky aquifer: K₀(r/B) with B = {b:.1} m (no radius of influence; cut off at 25 B)"));
     }

@@ -9,3 +9,4 @@ pub mod model;
 pub mod schema;
 pub mod starter;
 pub mod units;
+pub mod validate;

@@ -4,6 +4,8 @@
 //! barrier. Source: Ferris, Knowles, Brown & Stallman (1962), *Theory of Aquifer Tests*, USGS
 //! Water-Supply Paper 1536-E.
 
+use crate::geometry::{cross, mirror_point};
+
 /// The kind of a straight boundary.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum BoundaryKind {
@@ -11,28 +13,6 @@ pub enum BoundaryKind {
     ConstantHead,
     /// An impermeable line (cut-off wall, rock): image well of the same sign.
     Barrier,
-}
-
-/// Reflect point `p` across the infinite line through `a` and `b` (x, y in m).
-///
-/// Source: plane geometry, as used for image wells by Ferris et al. (1962), USGS WSP 1536-E.
-/// If `a` and `b` coincide the line is undefined and `p` is reflected through the point `a`
-/// (a documented fallback, never a panic). Coordinates are taken relative to `a`, so large
-/// projected coordinates (x ≈ 5e5, y ≈ 6e6) keep their precision.
-pub fn mirror_point(p: [f64; 2], a: [f64; 2], b: [f64; 2]) -> [f64; 2] {
-    let dx = b[0] - a[0];
-    let dy = b[1] - a[1];
-    let len2 = dx * dx + dy * dy;
-    let px = p[0] - a[0];
-    let py = p[1] - a[1];
-    if len2 == 0.0 || !len2.is_finite() {
-        return [a[0] - px, a[1] - py];
-    }
-    // foot of the perpendicular, relative to a
-    let t = (px * dx + py * dy) / len2;
-    let fx = t * dx;
-    let fy = t * dy;
-    [a[0] + 2.0 * fx - px, a[1] + 2.0 * fy - py]
 }
 
 /// Sign of the image well's rate relative to the real well: −1 for a constant-head boundary,
@@ -46,10 +26,6 @@ pub fn image_sign(kind: BoundaryKind) -> f64 {
 
 /// Most images kept per well (parallel boundaries give an endless series, cut at `reach`).
 pub const MAX_IMAGES_PER_WELL: usize = 400;
-
-fn side(p: [f64; 2], a: [f64; 2], b: [f64; 2]) -> f64 {
-    (b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0])
-}
 
 /// Every image of a well at `p` in a set of straight boundaries, with its sign, by repeated
 /// reflection: every first-order image, and images of images out to `reach` metres from the well.
@@ -66,7 +42,7 @@ pub fn image_set(
 ) -> Result<Vec<([f64; 2], f64)>, String> {
     let own: Vec<f64> = boundaries
         .iter()
-        .map(|(a, b, _)| side(p, *a, *b).signum())
+        .map(|(a, b, _)| cross(p, *a, *b).signum())
         .collect();
     let mut out: Vec<([f64; 2], f64)> = Vec::new();
     let mut queue = std::collections::VecDeque::from([(p, 1.0, usize::MAX)]);
@@ -92,7 +68,7 @@ pub fn image_set(
             let inside = boundaries
                 .iter()
                 .zip(&own)
-                .all(|((a, b, _), s0)| side(img, *a, *b).signum() == *s0);
+                .all(|((a, b, _), s0)| cross(img, *a, *b).signum() == *s0);
             if inside {
                 return Err("these boundaries meet at an angle that is not 180°/n (90°, 60°, 45°…) and are not parallel, so the method of images has no exact solution; simplify them to one line, two parallel lines or a right-angled corner".into());
             }

@@ -684,7 +684,7 @@ fn detail_plan(
     let step = ((w[2] - w[0]) * (w[3] - w[1]) / crate::field::grid::DEFAULT_NODES as f64).sqrt();
     let nx = ((w[2] - w[0]) / step).ceil() as usize + 1;
     let ny = ((w[3] - w[1]) / step).ceil() as usize + 1;
-    let fine = LevelGrid::compute(run, [w[0], w[1]], step, nx.max(4), ny.max(4));
+    let fine = LevelGrid::compute(&run.grid_source(), [w[0], w[1]], step, nx.max(4), ny.max(4));
     let levels: Vec<f64> = set.lines.iter().map(|l| l.value).collect();
     let local = ContourSet {
         quantity: set.quantity,
@@ -2343,7 +2343,7 @@ fn caution_footer() -> Group {
 /// The map and GeoJSON files of `check`: `map.svg`, `layout.geojson`, `contours.geojson`
 /// (one level grid for all three).
 pub fn files(run: &CheckRun) -> Vec<(String, Vec<u8>)> {
-    let grid = LevelGrid::for_run(run);
+    let grid = LevelGrid::for_run(&run.grid_source());
     vec![
         (
             "map.svg".into(),

@@ -1,5 +1,5 @@
-//! Plane geometry the stages share: shape measures of an outline and the few constructions `geo`
-//! does not offer. Everything else (areas, distances, containment, offsets) is `geo`'s own.
+//! Shape measures of an excavation outline: its length and width (the smallest enclosing
+//! rotated rectangle, from `geo`) and whether it is treated as a trench.
 
 use crate::input::model::{Excavation, Model, ShapeChoice};
 use geo::MinimumRotatedRect;

@@ -1,0 +1,13 @@
+//! Validation: the design file as written ([`crate::input::schema`]) checked value by value and
+//! turned into the [`crate::input::model::Model`] the engine computes on. Every refusal names
+//! the file, the field (and line where known) and what would be valid.
+//!
+//! `file` reads and parses and assembles the model from the parts: `shapes` (outlines, lines,
+//! boundaries, keep-out zones), `aquifer` (aquifer and radius-of-influence method), `wells`
+//! (well specification and layout), `neighbours` (buildings and the base-uplift check).
+
+pub mod aquifer;
+pub mod file;
+pub mod neighbours;
+pub mod shapes;
+pub mod wells;

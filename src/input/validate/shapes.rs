@@ -1,0 +1,241 @@
+//! Geometry in the design file: point lists, outlines (closed, simple, not geographic), the
+//! excavations, boundary lines (each wholly to one side of the site) and keep-out zones.
+
+use crate::geometry::cross;
+use crate::input::error::{InputError, Reporter};
+use crate::input::model::*;
+use crate::input::schema::DesignFile;
+use geo::{Area, Coord, LineString, Polygon, Validation};
+use std::collections::HashSet;
+
+pub fn check_positive(
+    rep: &Reporter,
+    field: &str,
+    q: &crate::input::units::Quantity<impl crate::input::units::Kind>,
+    what: &str,
+) -> Result<f64, InputError> {
+    if q.si > 0.0 {
+        Ok(q.si)
+    } else {
+        Err(rep.error(
+            field,
+            q.span.clone(),
+            format!("must be greater than zero ({what})"),
+        ))
+    }
+}
+
+/// Turn `[[x, y], …]` into points, refusing anything but finite pairs.
+pub fn points(
+    rep: &Reporter,
+    field: &str,
+    raw: &toml::Spanned<Vec<Vec<f64>>>,
+) -> Result<Vec<[f64; 2]>, InputError> {
+    raw.get_ref()
+        .iter()
+        .enumerate()
+        .map(|(i, p)| match p.as_slice() {
+            [x, y] if x.is_finite() && y.is_finite() => Ok([*x, *y]),
+            _ => Err(rep.error(
+                field,
+                Some(raw.span()),
+                format!(
+                    "point {} must be [x, y], two finite numbers in metres",
+                    i + 1
+                ),
+            )),
+        })
+        .collect()
+}
+
+/// A valid simple polygon from at least three points in projected metres.
+pub fn polygon(
+    rep: &Reporter,
+    field: &str,
+    raw: &toml::Spanned<Vec<Vec<f64>>>,
+) -> Result<Polygon<f64>, InputError> {
+    let mut pts = points(rep, field, raw)?;
+    if pts.len() > 1 && pts.first() == pts.last() {
+        pts.pop();
+    }
+    let span = Some(raw.span());
+    if pts.len() < 3 {
+        return Err(rep.error(
+            field,
+            span,
+            format!(
+                "an outline needs at least 3 distinct points [x, y] in metres; found {}",
+                pts.len()
+            ),
+        ));
+    }
+    looks_geographic(&pts).map_or(Ok(()), |m| Err(rep.error(field, span.clone(), m)))?;
+    let ring: LineString<f64> = pts.iter().map(|p| Coord { x: p[0], y: p[1] }).collect();
+    let poly = Polygon::new(ring, vec![]);
+    if let Err(problem) = poly.check_validation() {
+        return Err(rep.error(
+            field,
+            span,
+            format!("the outline is not a simple polygon ({problem}); list the corners in order around the outline without crossing edges"),
+        ));
+    }
+    if poly.unsigned_area() <= 0.0 {
+        return Err(rep.error(field, span, "the outline encloses no area"));
+    }
+    Ok(poly)
+}
+
+/// Coordinates that look like longitude/latitude degrees rather than metres.
+pub fn looks_geographic(pts: &[[f64; 2]]) -> Option<String> {
+    let (mut xmin, mut xmax, mut ymin, mut ymax) = (f64::MAX, f64::MIN, f64::MAX, f64::MIN);
+    for p in pts {
+        xmin = xmin.min(p[0]);
+        xmax = xmax.max(p[0]);
+        ymin = ymin.min(p[1]);
+        ymax = ymax.max(p[1]);
+    }
+    let in_range = xmin >= -180.0 && xmax <= 180.0 && ymin >= -90.0 && ymax <= 90.0;
+    let tiny = (xmax - xmin) < 0.05 && (ymax - ymin) < 0.05;
+    (in_range && tiny).then(|| {
+        format!(
+            "the coordinates look like longitude/latitude degrees (x {xmin}…{xmax}, y {ymin}…{ymax}); drydig works in metres on a flat grid: project them first to a local grid or a projected system such as UTM"
+        )
+    })
+}
+
+/// The excavations: names unique, outline valid, formation below ground, target above the base.
+pub fn excavations(
+    rep: &Reporter,
+    raw: &DesignFile,
+    ground: f64,
+    base: f64,
+) -> Result<Vec<Excavation>, InputError> {
+    // Excavations.
+    if raw.excavation.is_empty() {
+        return Err(rep.error("excavation", None, "at least one [[excavation]] with name, outline, formation_level and target_margin is needed"));
+    }
+    let mut names = HashSet::new();
+    let mut excavations = Vec::new();
+    for (i, e) in raw.excavation.iter().enumerate() {
+        let f = |name: &str| format!("excavation[{}].{name}", i + 1);
+        if e.name.trim().is_empty() {
+            return Err(rep.error(f("name"), None, "must not be empty"));
+        }
+        if !names.insert(e.name.trim().to_string()) {
+            return Err(rep.error(
+                f("name"),
+                Some(e.outline.span()),
+                format!(
+                    "duplicate excavation name \"{}\"; each excavation needs its own name",
+                    e.name
+                ),
+            ));
+        }
+        let outline = polygon(rep, &f("outline"), &e.outline)?;
+        let formation = e.formation_level.si;
+        if formation >= ground {
+            return Err(rep.error(
+                f("formation_level"),
+                e.formation_level.span.clone(),
+                format!("the formation ({formation} m) must be below ground level ({ground} m)"),
+            ));
+        }
+        let margin = e.target_margin.si;
+        if !(0.0..=5.0).contains(&margin) {
+            return Err(rep.error(
+                f("target_margin"),
+                e.target_margin.span.clone(),
+                format!("{margin} m is outside 0 … 5 m (usually 0.5 … 1 m below formation)"),
+            ));
+        }
+        let target = formation - margin;
+        if target <= base + 0.1 {
+            return Err(rep.error(f("target_margin"), e.target_margin.span.clone(), format!("the target level ({target:.2} m = formation − margin) is at or below the aquifer base ({base} m): the aquifer would have to be pumped dry; wells cannot do that — consider a cut-off into the layer below or relief of a deeper aquifer")));
+        }
+        let shape = match e.shape.as_deref().map(str::trim) {
+            None | Some("auto") => ShapeChoice::Auto,
+            Some("pit") => ShapeChoice::Pit,
+            Some("trench") => ShapeChoice::Trench,
+            Some(other) => {
+                return Err(rep.error(
+                    f("shape"),
+                    None,
+                    format!("unknown shape \"{other}\"; valid: \"auto\", \"pit\", \"trench\""),
+                ))
+            }
+        };
+        excavations.push(Excavation {
+            name: e.name.trim().to_string(),
+            outline,
+            formation_level: formation,
+            target_margin: margin,
+            shape,
+        });
+    }
+
+    Ok(excavations)
+}
+
+/// Boundary lines and keep-out zones.
+pub fn boundaries_and_keep_outs(
+    rep: &Reporter,
+    raw: &DesignFile,
+    excavations: &[Excavation],
+) -> Result<(Vec<Boundary>, Vec<NamedPolygon>), InputError> {
+    // Boundaries.
+    let mut boundaries = Vec::new();
+    for (i, b) in raw.boundary.iter().enumerate() {
+        let f = format!("boundary[{}]", i + 1);
+        let kind = match b.kind.trim() {
+            "constant-head" => crate::physics::images::BoundaryKind::ConstantHead,
+            "barrier" => crate::physics::images::BoundaryKind::Barrier,
+            other => return Err(rep.error(format!("{f}.kind"), Some(b.line.span()), format!("unknown boundary kind \"{other}\"; valid: \"constant-head\" (river, lake) or \"barrier\" (cut-off wall, rock)"))),
+        };
+        let pts = points(rep, &format!("{f}.line"), &b.line)?;
+        if pts.len() != 2 || (pts[0][0] - pts[1][0]).hypot(pts[0][1] - pts[1][1]) < 1e-6 {
+            return Err(rep.error(
+                format!("{f}.line"),
+                Some(b.line.span()),
+                "a boundary line is two distinct points [[x1, y1], [x2, y2]]",
+            ));
+        }
+        for e in excavations {
+            let ring = e.outline.exterior();
+            let p0 = ring.0[0];
+            let side0 = cross(pts[0], pts[1], [p0.x, p0.y]);
+            if ring
+                .0
+                .iter()
+                .any(|c| cross(pts[0], pts[1], [c.x, c.y]) * side0 <= 0.0)
+            {
+                return Err(rep.error(format!("{f}.line"), Some(b.line.span()), format!("the boundary line crosses excavation \"{}\"; an image boundary must lie wholly to one side of the site", e.name)));
+            }
+        }
+        boundaries.push(Boundary {
+            name: b.name.clone(),
+            kind,
+            line: [pts[0], pts[1]],
+        });
+    }
+
+    if boundaries.len() > 1 {
+        let lines: Vec<_> = boundaries
+            .iter()
+            .map(|b| (b.line[0], b.line[1], b.kind))
+            .collect();
+        let probe = excavations[0].outline.exterior().0[0];
+        if let Err(why) = crate::physics::images::image_set([probe.x, probe.y], &lines, 1.0e5) {
+            return Err(rep.error("boundary", None, why));
+        }
+    }
+
+    let mut keep_outs = Vec::new();
+    for (i, k) in raw.keep_out.iter().enumerate() {
+        keep_outs.push(NamedPolygon {
+            name: k.name.clone(),
+            polygon: polygon(rep, &format!("keep_out[{}].outline", i + 1), &k.outline)?,
+        });
+    }
+
+    Ok((boundaries, keep_outs))
+}
