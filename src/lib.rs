@@ -25,6 +25,8 @@ pub mod report;
 pub mod settlement;
 pub mod starter;
 pub mod sweep;
+pub mod test_analysis;
+pub mod transient;
 pub mod units;
 pub mod uplift;
 pub mod wells;
