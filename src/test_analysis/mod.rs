@@ -228,7 +228,10 @@ fn rms(res: &[f64]) -> f64 {
 }
 
 /// Ordinary least-squares line y = a + m·x: (a, m, cov of (a, m), residuals).
-fn line_fit(x: &[f64], y: &[f64]) -> Option<(f64, f64, [[f64; 2]; 2], Vec<f64>)> {
+/// (intercept, slope, covariance of (intercept, slope), residuals).
+type LineFit = (f64, f64, [[f64; 2]; 2], Vec<f64>);
+
+fn line_fit(x: &[f64], y: &[f64]) -> Option<LineFit> {
     let n = x.len() as f64;
     if x.len() < 2 {
         return None;
@@ -454,7 +457,7 @@ pub fn fit_cooper_jacob(data: &PumpingTestData) -> Result<Fit, String> {
         let y: Vec<f64> = v[start..].iter().map(|p| p.1).collect();
         let (a, m, cov, res) = line_fit(&x, &y)
             .ok_or("Cooper–Jacob: the points do not span more than one time/distance²")?;
-        if !(m > 0.0) {
+        if m.is_nan() || m <= 0.0 {
             return Err(
                 "Cooper–Jacob: drawdown does not increase with time on the late data".into(),
             );
@@ -527,7 +530,7 @@ pub fn fit_theis_recovery(
     too_few(x.len(), 3, Method::TheisRecovery.name())?;
     let (a, m, cov, res) =
         line_fit(&x, &y).ok_or("Theis recovery: the points do not span more than one t/t′")?;
-    if !(m > 0.0) {
+    if m.is_nan() || m <= 0.0 {
         return Err("Theis recovery: residual drawdown does not fall as t/t′ falls".into());
     }
     let tr = LN_10 * q / (4.0 * PI * m);
@@ -602,7 +605,7 @@ pub fn fit_distance_drawdown(data: &PumpingTestData) -> Result<Fit, String> {
     let (a, slope, cov, res) = line_fit(&x, &y)
         .ok_or("distance–drawdown: the observation wells must be at different distances")?;
     let m = -slope;
-    if !(m > 0.0) {
+    if m.is_nan() || m <= 0.0 {
         return Err("distance–drawdown: drawdown does not fall with distance".into());
     }
     let tr = data.rate / (2.0 * PI * m);

@@ -281,7 +281,7 @@ impl TransientAquifer {
                     .iter()
                     .map(|(start, members)| {
                         let dt = t - start;
-                        if !(dt > 0.0) || !dt.is_finite() {
+                        if dt.is_nan() || dt <= 0.0 || !dt.is_finite() {
                             return 0.0;
                         }
                         members
@@ -433,12 +433,12 @@ impl TransientModel {
             return None;
         }
         let span = t_max - t0;
-        let n = 400;
+        let n: i32 = 400;
         let ratio = 1e12_f64.powf(1.0 / n as f64);
         let mut lo = t0;
         let mut hi = None;
         for i in 0..=n {
-            let t = t0 + span * 1e-12 * ratio.powi(i as i32);
+            let t = t0 + span * 1e-12 * ratio.powi(i);
             let t = if i == n { t_max } else { t.min(t_max) };
             if self.drawdown_at(point, t) >= target {
                 hi = Some(t);
