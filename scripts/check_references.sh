@@ -32,4 +32,6 @@ else
     status=1
 fi
 
+d="$(mktemp -d)"; python3 "$root/scripts/reference_pumping_test.py" "$d" >/dev/null && for f in "$d"/*.csv; do diff -u "$root/tests/reference/$(basename "$f")" "$f" || status=1; done; rm -rf "$d"  # pumping-test tables (scripts/reference_pumping_test.py)
+
 exit "$status"

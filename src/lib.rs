@@ -13,7 +13,10 @@
 //! 5. [`check`] — one layout evaluated: levels at every check point and in every well.
 //! 6. [`safety`] — what the drawdown does around the pit: neighbours, settlement, base uplift.
 //! 7. [`optimise`] — well limits, rates by linear programme, the count search, sweeps, recharge.
-//! 8. [`report`] — output formats only: terminal text, tables, GeoJSON, SVG maps and charts.
+//! 8. [`transient`] — time: Theis / Hantush superposition in space and time with rates that change
+//!    in steps, images in time.
+//! 9. [`test_analysis`] — a constant-rate pumping test fitted for T, S (and B).
+//! 10. [`report`] — output formats only: terminal text, tables, GeoJSON, SVG maps and charts.
 //!
 //! [`cli`] holds the command-line arguments; the binary only parses, calls, prints and exits.
 #![forbid(unsafe_code)]
@@ -26,6 +29,8 @@ pub mod field;
 pub mod geometry;
 pub mod input;
 pub mod optimise;
+pub mod transient;
+pub mod test_analysis;
 pub mod physics;
 pub mod report;
 pub mod safety;

@@ -1,0 +1,254 @@
+//! SVG chart of a pumping test: observed drawdowns and the fitted curves, on log–log axes
+//! (left, the type-curve view) and semi-log axes (right, the Cooper–Jacob view).
+
+use super::{Fit, ObservationWell};
+use svg::node::element::{Circle, Group, Line, Path, Rectangle, Text};
+use svg::Document;
+
+const W: f64 = 980.0;
+const H: f64 = 460.0;
+const PW: f64 = 390.0;
+const PH: f64 = 320.0;
+const TOP: f64 = 60.0;
+const COLOURS: [&str; 6] = [
+    "#1f4e79", "#d1495b", "#2a9d8f", "#e9a03b", "#6a4c93", "#555555",
+];
+
+fn r1(v: f64) -> String {
+    format!("{v:.1}")
+}
+
+fn text(x: f64, y: f64, size: f64, anchor: &str, s: impl Into<String>) -> Text {
+    Text::new(s.into())
+        .set("x", r1(x))
+        .set("y", r1(y))
+        .set("font-size", size)
+        .set("font-family", "sans-serif")
+        .set("text-anchor", anchor)
+}
+
+struct Axes {
+    x0: f64,
+    lx: (f64, f64),
+    ly: (f64, f64),
+    log_y: bool,
+}
+
+impl Axes {
+    fn px(&self, t: f64) -> f64 {
+        self.x0 + (t.log10() - self.lx.0) / (self.lx.1 - self.lx.0) * PW
+    }
+    fn py(&self, s: f64) -> f64 {
+        let v = if self.log_y { s.log10() } else { s };
+        TOP + PH - (v - self.ly.0) / (self.ly.1 - self.ly.0) * PH
+    }
+    fn inside(&self, t: f64, s: f64) -> bool {
+        let v = if self.log_y { s.log10() } else { s };
+        t > 0.0 && v.is_finite() && v >= self.ly.0 && v <= self.ly.1 && (!self.log_y || s > 0.0)
+    }
+}
+
+fn frame(ax: &Axes, title: &str) -> Group {
+    let mut g = Group::new().add(
+        Rectangle::new()
+            .set("x", r1(ax.x0))
+            .set("y", r1(TOP))
+            .set("width", PW)
+            .set("height", PH)
+            .set("fill", "none")
+            .set("stroke", "#333"),
+    );
+    g = g.add(text(ax.x0 + PW / 2.0, TOP - 10.0, 13.0, "middle", title));
+    for d in (ax.lx.0.ceil() as i32)..=(ax.lx.1.floor() as i32) {
+        let x = ax.px(10f64.powi(d));
+        g = g
+            .add(
+                Line::new()
+                    .set("x1", r1(x))
+                    .set("x2", r1(x))
+                    .set("y1", r1(TOP))
+                    .set("y2", r1(TOP + PH))
+                    .set("stroke", "#ddd"),
+            )
+            .add(text(x, TOP + PH + 16.0, 11.0, "middle", format!("1e{d}")));
+    }
+    if ax.log_y {
+        for d in (ax.ly.0.ceil() as i32)..=(ax.ly.1.floor() as i32) {
+            let y = ax.py(10f64.powi(d));
+            g = g
+                .add(
+                    Line::new()
+                        .set("x1", r1(ax.x0))
+                        .set("x2", r1(ax.x0 + PW))
+                        .set("y1", r1(y))
+                        .set("y2", r1(y))
+                        .set("stroke", "#ddd"),
+                )
+                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("1e{d}")));
+        }
+    } else {
+        for i in 0..=5 {
+            let v = ax.ly.0 + (ax.ly.1 - ax.ly.0) * i as f64 / 5.0;
+            let y = ax.py(v);
+            g = g
+                .add(
+                    Line::new()
+                        .set("x1", r1(ax.x0))
+                        .set("x2", r1(ax.x0 + PW))
+                        .set("y1", r1(y))
+                        .set("y2", r1(y))
+                        .set("stroke", "#ddd"),
+                )
+                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("{v:.2}")));
+        }
+    }
+    g.add(text(
+        ax.x0 + PW / 2.0,
+        TOP + PH + 34.0,
+        12.0,
+        "middle",
+        "time since pumping started (s)",
+    ))
+    .add(
+        text(ax.x0 - 48.0, TOP + PH / 2.0, 12.0, "middle", "drawdown (m)").set(
+            "transform",
+            format!("rotate(-90 {} {})", r1(ax.x0 - 48.0), r1(TOP + PH / 2.0)),
+        ),
+    )
+}
+
+fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
+    let mut g = Group::new();
+    for (k, w) in wells.iter().enumerate() {
+        let c = COLOURS[k % COLOURS.len()];
+        for &(t, s) in &w.points {
+            if ax.inside(t, s) {
+                g = g.add(
+                    Circle::new()
+                        .set("cx", r1(ax.px(t)))
+                        .set("cy", r1(ax.py(s)))
+                        .set("r", 3)
+                        .set("fill", "none")
+                        .set("stroke", c),
+                );
+            }
+        }
+        if let Some(f) = fit {
+            let mut d = String::new();
+            for i in 0..=120 {
+                let t = 10f64.powf(ax.lx.0 + (ax.lx.1 - ax.lx.0) * i as f64 / 120.0);
+                let s = f.model_drawdown(w.distance, t);
+                if ax.inside(t, s) {
+                    let cmd = if d.is_empty() { 'M' } else { 'L' };
+                    d.push_str(&format!("{cmd}{} {} ", r1(ax.px(t)), r1(ax.py(s))));
+                }
+            }
+            if !d.is_empty() {
+                g = g.add(
+                    Path::new()
+                        .set("d", d.trim_end())
+                        .set("fill", "none")
+                        .set("stroke", c)
+                        .set("stroke-width", 1.5),
+                );
+            }
+        }
+    }
+    g
+}
+
+/// SVG of the observations of `wells` (open circles) and the fitted model of `fit` (lines), on
+/// log–log and semi-log axes, with a legend and the fitted values. Points that cannot be shown
+/// (zero drawdown on a log axis) are left out; no non-finite number is written.
+pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String {
+    let pts: Vec<(f64, f64)> = wells
+        .iter()
+        .flat_map(|w| w.points.iter().copied())
+        .collect();
+    let tmin = pts
+        .iter()
+        .map(|p| p.0)
+        .filter(|t| *t > 0.0)
+        .fold(f64::INFINITY, f64::min);
+    let tmax = pts.iter().map(|p| p.0).fold(0.0, f64::max);
+    let smin = pts
+        .iter()
+        .map(|p| p.1)
+        .filter(|s| *s > 0.0)
+        .fold(f64::INFINITY, f64::min);
+    let smax = pts.iter().map(|p| p.1).fold(0.0, f64::max);
+    let (tmin, tmax) = if tmin.is_finite() && tmax > tmin {
+        (tmin, tmax)
+    } else {
+        (1.0, 10.0)
+    };
+    let (smin, smax) = if smin.is_finite() && smax > smin {
+        (smin, smax)
+    } else {
+        (0.01, 1.0)
+    };
+    let lx = (
+        tmin.log10().floor(),
+        tmax.log10().ceil().max(tmin.log10().floor() + 1.0),
+    );
+    let loglog = Axes {
+        x0: 80.0,
+        lx,
+        ly: (
+            smin.log10().floor(),
+            smax.log10().ceil().max(smin.log10().floor() + 1.0),
+        ),
+        log_y: true,
+    };
+    let semilog = Axes {
+        x0: 80.0 + PW + 100.0,
+        lx,
+        ly: (0.0, smax * 1.1),
+        log_y: false,
+    };
+    let mut doc = Document::new()
+        .set("viewBox", (0, 0, W, H))
+        .set("width", W)
+        .set("height", H)
+        .add(
+            Rectangle::new()
+                .set("width", W)
+                .set("height", H)
+                .set("fill", "white"),
+        )
+        .add(frame(&loglog, "log–log"))
+        .add(frame(&semilog, "semi-log"))
+        .add(series(&loglog, wells, fit))
+        .add(series(&semilog, wells, fit));
+    let mut legend = String::new();
+    for (k, w) in wells.iter().enumerate() {
+        doc = doc.add(
+            text(
+                80.0 + 150.0 * k as f64,
+                H - 14.0,
+                12.0,
+                "start",
+                format!("○ {} (r = {} m)", w.name, w.distance),
+            )
+            .set("fill", COLOURS[k % COLOURS.len()]),
+        );
+    }
+    if let Some(f) = fit {
+        legend.push_str(&format!(
+            "{}: T = {:.3e} m²/s",
+            f.method.name(),
+            f.transmissivity.value
+        ));
+        if let Some(s) = f.storativity {
+            legend.push_str(&format!(", S = {:.3e}", s.value));
+        }
+        if let Some(b) = f.leakage_factor {
+            legend.push_str(&format!(", B = {:.1} m", b.value));
+        }
+        legend.push_str(&format!(", rms {:.3} m", f.rms));
+    } else {
+        legend.push_str("observations");
+    }
+    doc = doc.add(text(W / 2.0, 24.0, 14.0, "middle", legend));
+    doc.to_string()
+}
