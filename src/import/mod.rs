@@ -1,0 +1,1 @@
+//! Reading site drawings (GeoJSON, DXF) and site coordinates.
