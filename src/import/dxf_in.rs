@@ -118,6 +118,9 @@ impl DxfOptions {
     }
 }
 
+/// A polyline vertex: x, y (drawing units) and the bulge of the segment that starts there.
+type BulgeVertex = (f64, f64, f64);
+
 fn err(file: &Path, field: impl Into<String>, message: impl Into<String>) -> InputError {
     InputError {
         file: file.to_path_buf(),
@@ -204,7 +207,7 @@ pub fn from_drawing(
             count += 1;
             format!("{} {count}", e.common.layer)
         };
-        let vertices: Option<(Vec<(f64, f64, f64)>, bool)> = match &e.specific {
+        let vertices: Option<(Vec<BulgeVertex>, bool)> = match &e.specific {
             EntityType::LwPolyline(p) => Some((
                 p.vertices.iter().map(|v| (v.x, v.y, v.bulge)).collect(),
                 p.is_closed(),
@@ -475,16 +478,18 @@ mod tests {
     use dxf::Point as DxfPoint;
 
     fn lw(layer: &str, pts: &[(f64, f64, f64)], closed: bool) -> Entity {
-        let mut p = LwPolyline::default();
-        p.vertices = pts
-            .iter()
-            .map(|&(x, y, bulge)| LwPolylineVertex {
-                x,
-                y,
-                bulge,
-                ..Default::default()
-            })
-            .collect();
+        let mut p = LwPolyline {
+            vertices: pts
+                .iter()
+                .map(|&(x, y, bulge)| LwPolylineVertex {
+                    x,
+                    y,
+                    bulge,
+                    ..Default::default()
+                })
+                .collect(),
+            ..Default::default()
+        };
         p.set_is_closed(closed);
         let mut e = Entity::new(EntityType::LwPolyline(p));
         e.common.layer = layer.into();

@@ -43,7 +43,7 @@ impl PropertyFilter {
         match v {
             Some(Value::String(s)) => s.eq_ignore_ascii_case(&self.value),
             Some(Value::Null) | None => false,
-            Some(other) => other.to_string() == self.value,
+            Some(other) => *other.to_string() == *self.value,
         }
     }
 }
@@ -218,7 +218,7 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
             format!("no feature matches ({present})"),
         ));
     }
-    if looks_geographic(&drawing) && !crs_named.as_deref().is_some_and(|c| !is_wgs84(c)) {
+    if looks_geographic(&drawing) && crs_named.as_deref().is_none_or(is_wgs84) {
         return Err(err(
             path,
             "coordinates",
