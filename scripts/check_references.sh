@@ -2,7 +2,8 @@
 # Regenerate the special-function reference table into a temporary file and compare it with the
 # committed tests/reference/special_functions.csv. Exit 1 (and print the diff) if they differ.
 # Likewise for the superposition table tests/reference/superposition.csv
-# (scripts/reference_superposition.py, numpy and scipy).
+# (scripts/reference_superposition.py, numpy and scipy) and the LP table
+# tests/reference/lp_reference.json (scripts/reference_lp.py, scipy linprog HiGHS).
 # Needs python3 with the versions pinned in scripts/requirements.txt.
 set -euo pipefail
 
@@ -10,7 +11,8 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 committed="$root/tests/reference/special_functions.csv"
 tmp="$(mktemp "${TMPDIR:-/tmp}/drydig-special.XXXXXX.csv")"
 tmp_sup="$(mktemp "${TMPDIR:-/tmp}/drydig-superposition.XXXXXX.csv")"
-trap 'rm -f "$tmp" "$tmp_sup"' EXIT
+tmp_lp="$(mktemp "${TMPDIR:-/tmp}/drydig-lp.XXXXXX.json")"
+trap 'rm -f "$tmp" "$tmp_sup" "$tmp_lp"' EXIT
 status=0
 
 python3 "$root/scripts/reference_special.py" "$tmp"
@@ -33,5 +35,14 @@ else
 fi
 
 d="$(mktemp -d)"; python3 "$root/scripts/reference_pumping_test.py" "$d" >/dev/null && for f in "$d"/*.csv; do diff -u "$root/tests/reference/$(basename "$f")" "$f" || status=1; done; rm -rf "$d"  # pumping-test tables (scripts/reference_pumping_test.py)
+committed_lp="$root/tests/reference/lp_reference.json"
+python3 "$root/scripts/reference_lp.py" "$tmp_lp"
+
+if diff -u "$committed_lp" "$tmp_lp"; then
+    echo "reference table up to date: $committed_lp"
+else
+    echo "reference table differs from a fresh run (diff above: - committed, + regenerated)" >&2
+    status=1
+fi
 
 exit "$status"

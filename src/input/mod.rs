@@ -5,6 +5,7 @@
 //! `starter` writes a commented design file.
 
 pub mod error;
+pub mod import;
 pub mod model;
 pub mod schema;
 pub mod starter;

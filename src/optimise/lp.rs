@@ -414,6 +414,34 @@ fn run_solver(
     Ok(x.iter().map(|v| solution.value(*v)).collect())
 }
 
+/// Which solver [`solve_with`] uses.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Solver {
+    /// The simplex (microlp) with its perturbed retries: [`solve`].
+    Simplex,
+    /// The interior-point solver clarabel: [`crate::optimise::clarabel::solve`].
+    InteriorPoint,
+    /// The simplex first; only when every simplex attempt ended in [`LpStatus::Failed`]
+    /// (numerical trouble, not infeasible or unbounded), the interior-point solver.
+    SimplexThenInteriorPoint,
+}
+
+/// Solve the rate problem with the chosen solver. The one hook between this module and the
+/// second solver; [`solve`] itself is unchanged.
+pub fn solve_with(problem: &RateProblem, solver: Solver) -> LpSolution {
+    match solver {
+        Solver::Simplex => solve(problem),
+        Solver::InteriorPoint => crate::optimise::clarabel::solve(problem),
+        Solver::SimplexThenInteriorPoint => match solve(problem) {
+            LpSolution {
+                status: LpStatus::Failed(_),
+                ..
+            } => crate::optimise::clarabel::solve(problem),
+            done => done,
+        },
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -4,6 +4,7 @@ pub mod capacity;
 pub mod equivalent;
 pub mod hantush;
 pub mod images;
+pub mod pipes;
 pub mod potential;
 pub mod pumping_test;
 pub mod radius;

@@ -252,9 +252,10 @@ fn chart_and_design_lines() {
     // leaky fit lines carry the aquitard resistance as a duration
     let leaky = fit_hantush(&load(LEAKY, Q, Some(10.0))).unwrap();
     let t: toml::Table = toml::from_str(&aquifer_lines(&leaky)).unwrap();
-    let c =
-        crate::input::units::parse::<crate::input::units::TimeKind>(t["aquitard_resistance"].as_str().unwrap())
-            .unwrap();
+    let c = crate::input::units::parse::<crate::input::units::TimeKind>(
+        t["aquitard_resistance"].as_str().unwrap(),
+    )
+    .unwrap();
     // c = B²/T = 300² / 2e-3 s (Hantush & Jacob 1955)
     assert!(rel(c, 300.0 * 300.0 / 2e-3) < 1e-3, "{c}");
 }
