@@ -40,11 +40,11 @@ pub enum RatesArg {
     Uniform,
 }
 
-impl From<RatesArg> for crate::optimise::design::RateOption {
+impl From<RatesArg> for crate::optimise::rates::RateOption {
     fn from(r: RatesArg) -> Self {
         match r {
-            RatesArg::Individual => crate::optimise::design::RateOption::Individual,
-            RatesArg::Uniform => crate::optimise::design::RateOption::Uniform,
+            RatesArg::Individual => crate::optimise::rates::RateOption::Individual,
+            RatesArg::Uniform => crate::optimise::rates::RateOption::Uniform,
         }
     }
 }

@@ -87,8 +87,8 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let design = drydig::optimise::design::design(&model, rates.into())?;
-            let run = report::design_text::final_run(&model, &design);
+            let design = drydig::optimise::search::design(&model, rates.into())?;
+            let run = drydig::optimise::outcome::final_run(&model, &design);
             let files = report::design_text::files(&model, &design, run.as_ref())?;
             report::files::write_all(&out, &files)?;
             print(&report::design_text::to_text(
@@ -102,7 +102,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 .as_ref()
                 .is_none_or(drydig::safety::neighbours::all_pass);
             Ok(
-                if report::design_text::is_met(&design, run.as_ref()) && neighbours_ok {
+                if drydig::optimise::outcome::is_met(&design, run.as_ref()) && neighbours_ok {
                     ExitCode::SUCCESS
                 } else {
                     ExitCode::from(3)

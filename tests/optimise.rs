@@ -1,4 +1,4 @@
-//! The optimiser (`drydig::optimise::design`, `drydig design`, `drydig sweep`) checked against things
+//! The optimiser (`drydig::optimise`, `drydig design`, `drydig sweep`) checked against things
 //! outside it:
 //!
 //! - the linear programme against a brute-force grid search over the rates of 2–3 wells, each
@@ -20,8 +20,11 @@ use drydig::field::checkpoints::check_points;
 use drydig::field::layout::generate;
 use drydig::input::model::{LayoutKind, Model, RingCount};
 use drydig::input::validate::file::from_str;
-use drydig::optimise::design::{design, line_length, Design, LayoutRates, Outcome, RateOption};
 use drydig::optimise::lp::LpStatus;
+use drydig::optimise::outcome::{Design, Outcome};
+use drydig::optimise::rates::{LayoutRates, RateOption};
+use drydig::optimise::search::design;
+use drydig::optimise::trial::line_length;
 use drydig::physics::slot::{slot_flow_from_potentials, SlotSides};
 use std::path::Path;
 use std::process::Command;

@@ -1,10 +1,22 @@
-//! Stage 7, optimise: the fewest wells and their rates.
+//! Stage 7, optimise: how many wells, pumping how much, so that every check point is at or below
+//! its target without asking any well for more than it can give.
 //!
-//! `lp` (a small linear-programme layer) → `design` (limits, rates, count search, outcomes) →
+//! `lp` (a small linear-programme layer, with `clarabel` as the second solver) and `limits` (what one well may give) → `rates` (one
+//! layout's field and unit rows) → `uniform` and `individual` (the two rate options) → `trial`
+//! (one layout tried) → `precheck` (reasons nothing can work) and `search` (the fewest wells,
+//! `drydig design`) → `outcome` (how it ended, whether it is met) and `bid` (the quantities);
 //! `sweep` (a range of counts or spacings) and `recharge` (sizing recharge wells for neighbours).
 
 pub mod clarabel;
-pub mod design;
+pub mod bid;
+pub mod individual;
+pub mod limits;
 pub mod lp;
+pub mod outcome;
+pub mod precheck;
+pub mod rates;
 pub mod recharge;
+pub mod search;
 pub mod sweep;
+pub mod trial;
+pub mod uniform;

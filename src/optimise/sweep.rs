@@ -4,7 +4,7 @@
 use crate::field::checkpoints::check_points;
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
-use crate::optimise::design::{try_layout, Trial};
+use crate::optimise::trial::{try_layout, Trial};
 use rayon::prelude::*;
 
 /// Most layouts one sweep may try.
@@ -98,11 +98,11 @@ pub fn plan(model: &Model, from: f64, to: f64, step: Option<f64>) -> Result<Plan
                 ));
             }
             let steps = ((to - from) / step).floor() as usize + 1;
-            if steps > MAX_STEPS || to > crate::optimise::design::MAX_WELLS as f64 {
+            if steps > MAX_STEPS || to > crate::optimise::search::MAX_WELLS as f64 {
                 return Err(bad(
                     model,
                     "--from/--to/--step",
-                    format!("{steps} layouts up to {to} wells is too many; at most {MAX_STEPS} layouts and {} wells", crate::optimise::design::MAX_WELLS),
+                    format!("{steps} layouts up to {to} wells is too many; at most {MAX_STEPS} layouts and {} wells", crate::optimise::search::MAX_WELLS),
                 ));
             }
             let values: Vec<f64> = (0..steps).map(|i| from + step * i as f64).collect();
@@ -140,12 +140,12 @@ pub fn plan(model: &Model, from: f64, to: f64, step: Option<f64>) -> Result<Plan
                 ));
             }
             let per_side =
-                crate::optimise::design::line_length(model, spec) / from + 2.0;
-            if per_side > crate::optimise::design::MAX_WELLS as f64 {
+                crate::optimise::trial::line_length(model, spec) / from + 2.0;
+            if per_side > crate::optimise::search::MAX_WELLS as f64 {
                 return Err(bad(
                     model,
                     "--from",
-                    format!("a spacing of {from} m puts about {per_side:.0} wellpoints on each line; at most {} in all", crate::optimise::design::MAX_WELLS),
+                    format!("a spacing of {from} m puts about {per_side:.0} wellpoints on each line; at most {} in all", crate::optimise::search::MAX_WELLS),
                 ));
             }
             let values: Vec<f64> = (0..steps)

@@ -6,7 +6,10 @@ use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
-use crate::optimise::design::{self as optimise, Bid, Design, Outcome, Trial};
+use crate::optimise::bid::{bid_of, Bid};
+use crate::optimise::individual::summarise_binding;
+use crate::optimise::outcome::{is_met, Design, Outcome};
+use crate::optimise::trial::Trial;
 use serde_json::{json, Value};
 
 const DAY: f64 = 86_400.0;
@@ -30,25 +33,6 @@ fn opt(v: Option<f64>, scale: f64, decimals: usize) -> String {
 pub fn estimate_comparison(design: &Design, total: f64) -> (f64, Option<f64>) {
     let est = design.estimate.total_flow_l_per_s / 1e3;
     (est, (est > 0.0).then(|| total / est))
-}
-
-/// The layout evaluated for the outputs (chosen or best), as `check` evaluates it.
-pub fn final_run<'a>(model: &'a Model, design: &Design) -> Option<CheckRun<'a>> {
-    design
-        .placement
-        .clone()
-        .map(|p| crate::check::run::evaluate_placement(model, p))
-}
-
-/// The bid quantities of the layout in `run`.
-pub fn bid_of(model: &Model, run: &CheckRun) -> Bid {
-    optimise::bid(model, &run.placement.wells, &run.placement.paths)
-}
-
-/// Whether the design met every target (exit code 0).
-pub fn is_met(design: &Design, run: Option<&CheckRun>) -> bool {
-    matches!(design.outcome, Outcome::Met { .. })
-        && run.is_some_and(|r| r.evaluation.targets_met && r.evaluation.wells_ok)
 }
 
 fn trial_json(t: &Trial) -> Value {
@@ -473,7 +457,7 @@ pub fn to_text(
     }
     if !design.binding.is_empty() {
         out.push_str(&wrap(
-            &format!("binding: {}", optimise::summarise_binding(&design.binding)),
+            &format!("binding: {}", summarise_binding(&design.binding)),
             96,
             "  ",
         ));
@@ -536,7 +520,7 @@ pub fn to_text(
             "  drilling            {:.0} {lu} ({:.2} {lu} per well incl. {:.1} m sump allowance)\n",
             l(b.drilling_m),
             l(b.depth_per_well_m),
-            optimise::SUMP_ALLOWANCE
+            crate::optimise::bid::SUMP_ALLOWANCE
         ));
         out.push_str(&format!(
             "  screen              {:.0} {lu}\n",

@@ -1,0 +1,439 @@
+//! The individual rate option: a rate per well, least total flow, by linear programme.
+//!
+//! # Size of the linear programme
+//! A layout has hundreds of check points but only a few bind. The programme starts with the
+//! points that need the most from a uniform rate (and, for each well, the neediest point it
+//! serves most), solves, checks every point and well against the full unit matrix, adds the most
+//! violated rows (a bounded number per round) and solves again, until nothing is violated. The
+//! answer is the optimum of the full programme (a relaxation whose optimum is feasible for the
+//! whole). Above [`crate::optimise::rates::MAX_LP_VARIABLES`] wells, neighbouring wells share a rate (see
+//! [`LayoutRates`]).
+
+use crate::optimise::limits::CAPACITY_SAFETY;
+use crate::optimise::lp::{self, Constraint, LpStatus, RateProblem, Sense};
+use crate::optimise::rates::LayoutRates;
+
+/// Most rounds of adding violated constraints before the full programme is used.
+const MAX_ROUNDS: usize = 40;
+/// Relative tolerance on a violated constraint when adding rows, on the potential scale.
+const ROW_TOLERANCE: f64 = 1e-9;
+
+/// The individual-rate answer for one layout.
+#[derive(Debug, Clone)]
+pub struct Individual {
+    /// How the programme ended.
+    pub status: LpStatus,
+    /// Rates, m³/s (empty unless solved).
+    pub rates: Vec<f64>,
+    /// Σ rates, m³/s.
+    pub total: f64,
+    /// Constraints that bind at the optimum, in words.
+    pub binding: Vec<String>,
+    /// Solved, and the evaluation confirms every target and limit.
+    pub met: bool,
+    /// Rounds of adding violated constraints.
+    pub rounds: usize,
+    /// Rate variables in the programme (the number of pumping wells unless neighbouring wells
+    /// share a rate).
+    pub groups: usize,
+}
+
+/// Which constraint a programme row stands for.
+#[derive(Debug, Clone, Copy)]
+enum RowRef {
+    Target(usize),
+    Level(usize),
+    Capacity(usize, usize),
+}
+
+/// What the programme minimises.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Goal {
+    /// Total flow, within every limit.
+    MinFlow,
+    /// The largest shortfall (in Φ) over the targets, within every limit.
+    MinShortfall,
+    /// Total flow with no well limits at all (a lower bound on the flow a layout needs).
+    TargetsOnly,
+}
+
+fn dot(row: &[f64], x: &[f64]) -> f64 {
+    row.iter().zip(x).map(|(a, b)| a * b).sum()
+}
+
+impl LayoutRates<'_> {
+    /// Rates per well from the programme's values per group (recharge wells keep theirs).
+    fn well_rates(&self, values: &[f64]) -> Vec<f64> {
+        self.group_of
+            .iter()
+            .zip(&self.wells)
+            .map(|(g, w)| match g {
+                Some(g) => values.get(*g).copied().unwrap_or(0.0).max(0.0),
+                None => w.rate,
+            })
+            .collect()
+    }
+
+    /// Option (b): a rate per well, least total flow, by linear programme.
+    ///
+    /// If the solver fails numerically (not an infeasible answer: a fault), the programme is
+    /// solved again with half as many rate groups: coarser, but still within every well's own
+    /// limits and evaluated in full.
+    pub fn individual(&self) -> Individual {
+        let (sol, rows, rounds) = self.solve(Goal::MinFlow);
+        if matches!(sol.status, LpStatus::Failed(_)) && self.groups.len() >= 16 {
+            let coarser = LayoutRates::with_groups(
+                self.model,
+                self.points,
+                self.wells.clone(),
+                self.groups.len() / 2,
+            );
+            return coarser.individual();
+        }
+        if sol.status != LpStatus::Optimal {
+            return Individual {
+                status: sol.status,
+                rates: Vec::new(),
+                total: 0.0,
+                binding: Vec::new(),
+                met: false,
+                rounds,
+                groups: self.groups.len(),
+            };
+        }
+        let rates = self.well_rates(&sol.values);
+        let binding = self.binding_labels(&sol, &rows, &rates);
+        let e = self.evaluate(&rates);
+        Individual {
+            status: LpStatus::Optimal,
+            total: rates.iter().filter(|q| **q > 0.0).sum(),
+            rates,
+            binding,
+            met: e.targets_met && e.wells_ok,
+            rounds,
+            groups: self.groups.len(),
+        }
+    }
+
+    /// Rates within every limit that make the largest shortfall (in Φ) over the targets as
+    /// small as it can be: the best this layout can do when it cannot meet every target.
+    pub fn least_shortfall(&self) -> Option<Vec<f64>> {
+        let (sol, _, _) = self.solve(Goal::MinShortfall);
+        (sol.status == LpStatus::Optimal).then(|| self.well_rates(&sol.values))
+    }
+
+    /// Least total flow to meet the targets with no well limits at all, m³/s (a lower bound on
+    /// what the layout needs).
+    pub fn flow_without_limits(&self) -> Option<f64> {
+        let (sol, _, _) = self.solve(Goal::TargetsOnly);
+        (sol.status == LpStatus::Optimal).then(|| {
+            self.well_rates(&sol.values)
+                .iter()
+                .filter(|q| **q > 0.0)
+                .sum()
+        })
+    }
+
+    fn row(&self, r: RowRef, goal: Goal) -> Constraint {
+        let g = self.groups.len();
+        let width = g + usize::from(goal == Goal::MinShortfall);
+        let mut coefficients = vec![0.0; width];
+        match r {
+            RowRef::Target(t) => {
+                for (c, u) in coefficients.iter_mut().zip(&self.matrices().a[t]) {
+                    *c = -u;
+                }
+                if goal == Goal::MinShortfall {
+                    coefficients[g] = 1.0;
+                }
+                Constraint {
+                    coefficients,
+                    sense: Sense::AtLeast,
+                    rhs: self.base_t[t] - self.target_phi[t],
+                    label: format!("target at {}", self.points[self.targets[t]].name),
+                }
+            }
+            RowRef::Level(k) => {
+                coefficients[..g].copy_from_slice(&self.matrices().at_wells[k]);
+                let lim = &self.limits[k];
+                Constraint {
+                    coefficients,
+                    sense: Sense::AtLeast,
+                    rhs: lim.floor_potential - self.base_w[k],
+                    label: format!(
+                        "level in {} at {:.2} m ({})",
+                        self.wells[k].name,
+                        lim.floor_level,
+                        lim.floor_kind.describe()
+                    ),
+                }
+            }
+            RowRef::Capacity(k, s) => {
+                let lim = &self.limits[k];
+                let (pa, ha, slope) = lim.pieces[s];
+                let f = CAPACITY_SAFETY * lim.capacity_per_metre;
+                for (c, u) in coefficients.iter_mut().zip(&self.matrices().at_wells[k]) {
+                    *c = -f * slope * u;
+                }
+                if let Some(g) = self.group_of[k] {
+                    coefficients[g] += 1.0;
+                }
+                Constraint {
+                    coefficients,
+                    sense: Sense::AtMost,
+                    rhs: f * (ha + slope * (self.base_w[k] - pa)),
+                    label: format!(
+                        "Sichardt capacity of {} on its wetted screen",
+                        self.wells[k].name
+                    ),
+                }
+            }
+        }
+    }
+
+    /// Solve by adding violated rows until none is left. Returns the solution (values per
+    /// group, then the shortfall when asked for), the rows it was solved with and the rounds.
+    fn solve(&self, goal: Goal) -> (lp::LpSolution, Vec<RowRef>, usize) {
+        let g = self.groups.len();
+        let n = self.wells.len();
+        let limits_on = goal != Goal::TargetsOnly;
+        let aq_initial = self.model.aquifer.initial_level;
+        let mut costs: Vec<f64> = self.groups.iter().map(|m| m.len() as f64).collect();
+        let mut bounds: Vec<(f64, f64)> = self
+            .groups
+            .iter()
+            .map(|m| {
+                let hi = if limits_on {
+                    m.iter()
+                        .map(|&k| self.limits[k].capacity_at(aq_initial) * CAPACITY_SAFETY)
+                        .fold(f64::INFINITY, f64::min)
+                } else {
+                    f64::INFINITY
+                };
+                (0.0, hi)
+            })
+            .collect();
+        if goal == Goal::MinShortfall {
+            // Shortfall first; a little weight on the flow picks the leanest of equal answers.
+            costs.iter_mut().for_each(|c| *c *= 1e-4);
+            costs.push(1.0);
+            bounds.push((0.0, f64::INFINITY));
+        }
+        // Start with the points that ask most of a uniform rate.
+        let mut order: Vec<(f64, usize)> = self
+            .a_sum
+            .iter()
+            .enumerate()
+            .map(|(t, &s)| {
+                let deficit = self.base_t[t] - self.target_phi[t];
+                let need = if s < 0.0 {
+                    deficit / -s
+                } else if deficit > 0.0 {
+                    f64::INFINITY
+                } else {
+                    f64::NEG_INFINITY
+                };
+                (need, t)
+            })
+            .collect();
+        order.sort_by(|a, b| b.0.total_cmp(&a.0));
+        let mats = self.matrices();
+        // The ten neediest points, and for each rate group the neediest point it serves most
+        // (largest |ΔΦ per unit rate|): the first programme then sees the whole layout.
+        let mut best_of_group: Vec<Option<usize>> = vec![None; g];
+        for (_, t) in &order {
+            let row = &mats.a[*t];
+            if let Some((h, _)) = row
+                .iter()
+                .enumerate()
+                .min_by(|a, b| a.1.total_cmp(b.1))
+                .filter(|(_, u)| **u < 0.0)
+            {
+                if best_of_group[h].is_none() {
+                    best_of_group[h] = Some(*t);
+                }
+            }
+        }
+        let mut rows: Vec<RowRef> = order
+            .iter()
+            .take(10)
+            .map(|(_, t)| RowRef::Target(*t))
+            .collect();
+        for t in best_of_group.into_iter().flatten() {
+            if !rows
+                .iter()
+                .any(|r| matches!(r, RowRef::Target(u) if *u == t))
+            {
+                rows.push(RowRef::Target(t));
+            }
+        }
+        let mut have_target = vec![false; mats.a.len()];
+        for r in &rows {
+            if let RowRef::Target(t) = r {
+                have_target[*t] = true;
+            }
+        }
+        let mut have_level = vec![false; n];
+        let mut have_cap: Vec<Vec<bool>> = self
+            .limits
+            .iter()
+            .map(|l| vec![false; l.pieces.len()])
+            .collect();
+        let tol = ROW_TOLERANCE * self.phi0.abs().max(1e-30);
+        let mut rounds = 0;
+        loop {
+            rounds += 1;
+            let full = rounds > MAX_ROUNDS;
+            if full {
+                rows = (0..mats.a.len()).map(RowRef::Target).collect();
+                if limits_on {
+                    for k in (0..n).filter(|&k| self.group_of[k].is_some()) {
+                        rows.push(RowRef::Level(k));
+                        for s in 0..self.limits[k].pieces.len() {
+                            rows.push(RowRef::Capacity(k, s));
+                        }
+                    }
+                }
+            }
+            let problem = RateProblem {
+                costs: costs.clone(),
+                bounds: bounds.clone(),
+                constraints: rows.iter().map(|r| self.row(*r, goal)).collect(),
+            };
+            let sol = lp::solve(&problem);
+            if sol.status != LpStatus::Optimal || full {
+                return (sol, rows, rounds);
+            }
+            let x = &sol.values[..g];
+            let shortfall = if goal == Goal::MinShortfall {
+                sol.values.get(g).copied().unwrap_or(0.0)
+            } else {
+                0.0
+            };
+            // Violated rows, most violated first (relative to Φ₀ for levels and targets, to
+            // the capacity for rates); at most `per_round` of each kind are added per round so
+            // that each programme stays small and far from degenerate.
+            let per_round = g.max(20);
+            let mut target_viol: Vec<(f64, usize)> = mats
+                .a
+                .iter()
+                .enumerate()
+                .filter(|(t, _)| !have_target[*t])
+                .filter_map(|(t, row)| {
+                    let v = self.base_t[t] + dot(row, x) - shortfall - self.target_phi[t];
+                    (v > tol).then_some((v / self.phi0.abs().max(1e-30), t))
+                })
+                .collect();
+            let mut well_viol: Vec<(f64, RowRef)> = Vec::new();
+            if limits_on {
+                for k in 0..n {
+                    let Some(gk) = self.group_of[k] else {
+                        continue;
+                    };
+                    let phi = self.base_w[k] + dot(&mats.at_wells[k], x);
+                    let lim = &self.limits[k];
+                    if !have_level[k] && phi < lim.floor_potential - tol {
+                        let v = (lim.floor_potential - phi) / self.phi0.abs().max(1e-30);
+                        well_viol.push((v, RowRef::Level(k)));
+                    }
+                    let (cap, s) = lim.chord_capacity(phi);
+                    if !lim.pieces.is_empty()
+                        && !have_cap[k][s]
+                        && x[gk] > CAPACITY_SAFETY * cap + 1e-12
+                    {
+                        let v = (x[gk] - cap) / cap.abs().max(1e-12);
+                        well_viol.push((v, RowRef::Capacity(k, s)));
+                    }
+                }
+            }
+            target_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+            well_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+            let added = !target_viol.is_empty() || !well_viol.is_empty();
+            for (_, t) in target_viol.into_iter().take(per_round) {
+                have_target[t] = true;
+                rows.push(RowRef::Target(t));
+            }
+            for (_, r) in well_viol.into_iter().take(per_round) {
+                match r {
+                    RowRef::Level(k) => have_level[k] = true,
+                    RowRef::Capacity(k, s) => have_cap[k][s] = true,
+                    RowRef::Target(_) => {}
+                }
+                rows.push(r);
+            }
+            if !added {
+                return (sol, rows, rounds);
+            }
+        }
+    }
+
+    fn binding_labels(&self, sol: &lp::LpSolution, rows: &[RowRef], rates: &[f64]) -> Vec<String> {
+        let mut out = Vec::new();
+        let mut targets = Vec::new();
+        for &i in &sol.binding {
+            match rows.get(i) {
+                Some(RowRef::Target(t)) => targets.push(self.points[self.targets[*t]].name.clone()),
+                Some(r) => out.push(self.row(*r, Goal::MinFlow).label),
+                None => {}
+            }
+        }
+        for (k, q) in rates.iter().enumerate() {
+            if self.group_of[k].is_none() {
+                continue;
+            }
+            if let Some(p) = self.limits[k].pump {
+                if *q >= p * CAPACITY_SAFETY * (1.0 - 1e-7) {
+                    out.push(format!("pump capacity of {}", self.wells[k].name));
+                }
+            }
+        }
+        out.sort();
+        out.dedup();
+        let mut all: Vec<String> = targets
+            .into_iter()
+            .map(|name| format!("target at {name}"))
+            .collect();
+        all.extend(out);
+        all
+    }
+}
+
+/// Short summary of binding constraints: "targets at 7 points (…); capacity: W01, W04".
+pub fn summarise_binding(binding: &[String]) -> String {
+    let targets: Vec<&str> = binding
+        .iter()
+        .filter_map(|b| b.strip_prefix("target at "))
+        .collect();
+    let mut parts = Vec::new();
+    if !targets.is_empty() {
+        let shown: Vec<&str> = targets.iter().take(3).copied().collect();
+        parts.push(format!(
+            "targets at {} point{} ({}{})",
+            targets.len(),
+            if targets.len() == 1 { "" } else { "s" },
+            shown.join(", "),
+            if targets.len() > 3 { ", …" } else { "" }
+        ));
+    }
+    let wells: Vec<&String> = binding
+        .iter()
+        .filter(|b| !b.starts_with("target at "))
+        .collect();
+    if !wells.is_empty() {
+        let shown: Vec<&str> = wells.iter().take(4).map(|s| s.as_str()).collect();
+        parts.push(format!(
+            "{}{}",
+            shown.join("; "),
+            if wells.len() > 4 {
+                format!("; and {} more well limits", wells.len() - 4)
+            } else {
+                String::new()
+            }
+        ));
+    }
+    if parts.is_empty() {
+        "none".into()
+    } else {
+        parts.join("; ")
+    }
+}

@@ -1,0 +1,155 @@
+//! The limits of one well, as the optimiser's programme sees them.
+//!
+//! - Level in the well (pump intake + submergence; for wellpoints also ground − suction limit):
+//!   Φₖ ≥ Φ(lowest level), linear in the rates and exact.
+//! - Capacity: the rate is at most the pump's capacity and Sichardt's capacity
+//!   α·h_w (α = 2π·r_w·√K/15, h_w the wetted screen, which depends on the well's own level).
+//!   h_w = min(screen top, z) − screen base is a concave function of the level, and the level is
+//!   a concave function of Φ, so h_w(Φ) is concave in Φ. Its piecewise-linear interpolation
+//!   through a few levels between the lowest allowed level and the initial level lies below it,
+//!   and equals it at the breakpoints. The linear programme uses those chords
+//!   (qₖ ≤ α·chord(Φₖ), one constraint per piece): a safe bound, never allowing more than the
+//!   true capacity, and much less pessimistic than the capacity at the lowest allowed level.
+//!   The uniform option uses the exact capacity (a monotone equation in q, solved by bisection).
+
+use crate::field::wells::Well;
+use crate::input::model::{Model, WellKind};
+use crate::physics::capacity::sichardt_well_capacity;
+use serde::Serialize;
+
+/// Capacities used in the programme are this fraction of the true value, so that solver
+/// round-off never lets a rate exceed the capacity the evaluation checks.
+pub(super) const CAPACITY_SAFETY: f64 = 1.0 - 1e-6;
+/// Pieces of the chord approximation of Sichardt's capacity between the lowest allowed level
+/// and the initial level (plus a breakpoint at the screen top).
+const CAPACITY_PIECES: usize = 8;
+/// A pumping well's level is kept at least this far above the aquifer base, m, so that it never
+/// reads as pumped dry.
+pub(super) const DRY_GUARD: f64 = 0.01;
+
+/// What sets the lowest level allowed in a well.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum FloorKind {
+    /// Pump intake plus submergence.
+    PumpIntake,
+    /// Wellpoint suction limit below ground.
+    Suction,
+    /// The screen base: below it the screen is dry and gives nothing.
+    ScreenBase,
+    /// Just above the aquifer base.
+    AquiferBase,
+}
+
+impl FloorKind {
+    pub(super) fn describe(self) -> &'static str {
+        match self {
+            FloorKind::PumpIntake => "pump intake + submergence",
+            FloorKind::Suction => "suction limit below ground",
+            FloorKind::ScreenBase => "screen base",
+            FloorKind::AquiferBase => "aquifer base",
+        }
+    }
+}
+
+/// The limits of one well, ready for the programme.
+#[derive(Debug, Clone)]
+pub struct WellLimit {
+    /// Lowest level allowed, m, as [`crate::check::evaluate::evaluate`] checks it.
+    pub lowest_level: f64,
+    /// Level the programme holds the well at or above, m: the lowest allowed, the screen base
+    /// or just above the aquifer base, whichever is highest.
+    pub floor_level: f64,
+    /// What sets the floor.
+    pub floor_kind: FloorKind,
+    /// Φ at the floor.
+    pub floor_potential: f64,
+    /// Sichardt capacity per metre of wetted screen, α = 2π·r_w·√K/15, m³/s per m.
+    pub capacity_per_metre: f64,
+    /// Pump capacity, m³/s.
+    pub pump: Option<f64>,
+    pub(super) screen_top: f64,
+    pub(super) screen_base: f64,
+    /// Chord pieces of h_w(Φ): (Φ_a, h_w at Φ_a, slope dh_w/dΦ).
+    pub(super) pieces: Vec<(f64, f64, f64)>,
+}
+
+impl WellLimit {
+    pub(super) fn new(model: &Model, well: &Well) -> WellLimit {
+        let aq = &model.aquifer;
+        let spec = &model.wells;
+        // The same rule as evaluate().
+        let intake = well.pump_intake + spec.submergence;
+        let (lowest, mut kind) = match well.kind {
+            WellKind::DeepWell => (intake, FloorKind::PumpIntake),
+            WellKind::Wellpoint => {
+                let suction = model.ground_level - spec.suction_limit;
+                if suction >= intake {
+                    (suction, FloorKind::Suction)
+                } else {
+                    (intake, FloorKind::PumpIntake)
+                }
+            }
+        };
+        let mut floor = lowest;
+        if well.screen_base > floor {
+            floor = well.screen_base;
+            kind = FloorKind::ScreenBase;
+        }
+        if aq.base_level + DRY_GUARD > floor {
+            floor = aq.base_level + DRY_GUARD;
+            kind = FloorKind::AquiferBase;
+        }
+        let mut limit = WellLimit {
+            lowest_level: lowest,
+            floor_level: floor,
+            floor_kind: kind,
+            floor_potential: aq.potential(floor),
+            capacity_per_metre: sichardt_well_capacity(well.radius, 1.0, aq.conductivity),
+            pump: spec.pump_capacity,
+            screen_top: well.screen_top,
+            screen_base: well.screen_base,
+            pieces: Vec::new(),
+        };
+        let top = aq.initial_level;
+        if top > floor {
+            let mut levels: Vec<f64> = (0..=CAPACITY_PIECES)
+                .map(|i| floor + (top - floor) * i as f64 / CAPACITY_PIECES as f64)
+                .collect();
+            if well.screen_top > floor && well.screen_top < top {
+                levels.push(well.screen_top);
+            }
+            levels.sort_by(f64::total_cmp);
+            levels.dedup_by(|a, b| (*a - *b).abs() < 1e-9);
+            for w in levels.windows(2) {
+                let (pa, pb) = (aq.potential(w[0]), aq.potential(w[1]));
+                if pb > pa {
+                    let (ha, hb) = (limit.wetted(w[0]), limit.wetted(w[1]));
+                    limit.pieces.push((pa, ha, (hb - ha) / (pb - pa)));
+                }
+            }
+        }
+        limit
+    }
+
+    /// Wetted screen length at level `z`, m.
+    pub fn wetted(&self, z: f64) -> f64 {
+        (self.screen_top.min(z) - self.screen_base).max(0.0)
+    }
+
+    /// True capacity at level `z`: the lower of Sichardt's and the pump's, m³/s.
+    pub fn capacity_at(&self, z: f64) -> f64 {
+        let s = self.capacity_per_metre * self.wetted(z);
+        self.pump.map_or(s, |p| p.min(s))
+    }
+
+    /// The safe (chord) Sichardt capacity at potential `phi`, m³/s.
+    pub(super) fn chord_capacity(&self, phi: f64) -> (f64, usize) {
+        self.pieces
+            .iter()
+            .enumerate()
+            .map(|(s, (pa, ha, slope))| (self.capacity_per_metre * (ha + slope * (phi - pa)), s))
+            .min_by(|a, b| a.0.total_cmp(&b.0))
+            .unwrap_or((0.0, 0))
+    }
+}

@@ -1,0 +1,82 @@
+//! How a design ended (met, not met, impossible), the layout it chose, and what is decided from
+//! it afterwards: the layout evaluated as `check` evaluates it, and whether every target is met.
+
+use crate::check::run::CheckRun;
+use crate::estimate::ExcavationEstimate;
+use crate::field::layout::Placement;
+use crate::input::model::{LayoutSpec, Model};
+use crate::optimise::rates::RateOption;
+use crate::optimise::trial::Trial;
+use serde::Serialize;
+
+/// How a design ended.
+#[derive(Debug, Clone, Serialize)]
+#[serde(tag = "status", rename_all = "kebab-case")]
+pub enum Outcome {
+    /// Every target met within every limit.
+    Met {
+        /// Wells in the chosen layout.
+        count: usize,
+        /// Total flow, m³/s.
+        total_flow_m3_per_s: f64,
+    },
+    /// Computed, but no layout tried meets every target within the limits.
+    NotMet {
+        /// Wells in the best layout found.
+        count: usize,
+        /// Its worst check point.
+        worst_point: String,
+        /// Where.
+        position: [f64; 2],
+        /// How far the water stays above the target there, m.
+        shortfall_m: f64,
+    },
+    /// No layout of this kind can work, and why.
+    Impossible {
+        /// In words.
+        reason: String,
+    },
+}
+
+/// The result of `design`.
+#[derive(Debug, Clone)]
+pub struct Design {
+    /// The rate option asked for.
+    pub asked: RateOption,
+    /// The rate option of the chosen layout.
+    pub used: Option<RateOption>,
+    /// How it ended.
+    pub outcome: Outcome,
+    /// Chosen (or best) layout settings.
+    pub spec: Option<LayoutSpec>,
+    /// Chosen (or best) wells with their rates, and paths.
+    pub placement: Option<Placement>,
+    /// Every layout tried, by count.
+    pub trials: Vec<Trial>,
+    /// Smallest count meeting every target with one rate in every well.
+    pub smallest_uniform: Option<usize>,
+    /// Smallest count meeting every target with individual rates.
+    pub smallest_individual: Option<usize>,
+    /// Binding constraints of the chosen rates.
+    pub binding: Vec<String>,
+    /// What was searched, in words.
+    pub search: String,
+    /// What an engineer should know.
+    pub notes: Vec<String>,
+    /// The quick estimate of the layout's excavation.
+    pub estimate: ExcavationEstimate,
+}
+
+/// The layout evaluated for the outputs (chosen or best), as `check` evaluates it.
+pub fn final_run<'a>(model: &'a Model, design: &Design) -> Option<CheckRun<'a>> {
+    design
+        .placement
+        .clone()
+        .map(|p| crate::check::run::evaluate_placement(model, p))
+}
+
+/// Whether the design met every target (exit code 0).
+pub fn is_met(design: &Design, run: Option<&CheckRun>) -> bool {
+    matches!(design.outcome, Outcome::Met { .. })
+        && run.is_some_and(|r| r.evaluation.targets_met && r.evaluation.wells_ok)
+}
