@@ -11,7 +11,12 @@ use crate::report::map::text::{decimals, lines_of, quantity_words, r1, rate_text
 use crate::report::{thousands, CAUTION};
 use svg::node::element::{Group, Line, Rectangle};
 
-pub(super) fn title_block(run: &CheckRun, set: &ContourSet, date: &str, opts: &MapOptions) -> Group {
+pub(super) fn title_block(
+    run: &CheckRun,
+    set: &ContourSet,
+    date: &str,
+    opts: &MapOptions,
+) -> Group {
     let model = run.model;
     let e = &run.evaluation;
     let (what, unit) = quantity_words(set.quantity);
