@@ -9,7 +9,7 @@ use drydig::field::grid::LevelGrid;
 use drydig::input::model::Model;
 use drydig::input::validate::file as model;
 use drydig::report::geojson_out::{contours_geojson, layout_geojson};
-use drydig::report::map_svg::map_svg;
+use drydig::report::map::render::map_svg;
 use drydig::report::CAUTION;
 use geojson::{FeatureCollection, GeometryValue};
 use std::collections::HashMap;
@@ -593,7 +593,8 @@ map = "drawdown"
 /// status list of the wrong length falls back to the plain legend entry.
 #[test]
 fn neighbour_statuses_reach_the_legend() {
-    use drydig::report::map_svg::{map_svg_with, MapOptions, NeighbourStatus};
+    use drydig::report::map::options::{MapOptions, NeighbourStatus};
+    use drydig::report::map::render::map_svg_with;
     let model = load(&layout("riverside_basement.toml"));
     let r = run(&model);
     let grid = LevelGrid::for_run(&r.grid_source());

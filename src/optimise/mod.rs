@@ -7,8 +7,8 @@
 //! `drydig design`) → `outcome` (how it ended, whether it is met) and `bid` (the quantities);
 //! `sweep` (a range of counts or spacings) and `recharge` (sizing recharge wells for neighbours).
 
-pub mod clarabel;
 pub mod bid;
+pub mod clarabel;
 pub mod individual;
 pub mod limits;
 pub mod lp;

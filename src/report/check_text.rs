@@ -102,7 +102,7 @@ pub fn to_text(
         (true, false) => "RESULT: targets met, but some wells exceed their limits (see status)",
         (false, _) => "RESULT: targets NOT met",
     };
-    out.push_str(&super::neighbours_out::text(run, recharge, units));
+    out.push_str(&super::neighbours::text::text(run, recharge, units));
     let neighbours_note = if crate::safety::neighbours::all_pass(run) {
         ""
     } else {

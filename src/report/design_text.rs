@@ -561,7 +561,7 @@ pub fn to_text(
     if let Some(r) = run {
         if !r.model.neighbours.is_empty() || r.model.uplift.is_some() {
             out.push_str("\nneighbours and base uplift for the chosen layout:\n");
-            out.push_str(&super::neighbours_out::text(r, None, units));
+            out.push_str(&super::neighbours::text::text(r, None, units));
         }
     }
     out.push('\n');

@@ -5,8 +5,8 @@ pub mod design_text;
 pub mod estimate_text;
 pub mod files;
 pub mod geojson_out;
-pub mod map_svg;
-pub mod neighbours_out;
+pub mod map;
+pub mod neighbours;
 pub mod sweep_chart;
 pub mod tables;
 
@@ -74,7 +74,7 @@ pub fn check_files(
         ("checkpoints.csv".into(), tables::checkpoints_csv(run)?),
     ]
     .into_iter()
-    .chain(neighbours_out::files(run)?)
-    .chain(map_svg::files(run))
+    .chain(neighbours::files::files(run)?)
+    .chain(map::render::files(run))
     .collect())
 }

@@ -163,7 +163,7 @@ pub fn summary_json(
         "placement_notes": run.placement.notes,
         "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems})).collect::<Vec<_>>(),
         "neighbours": crate::safety::neighbours::assess_run(run),
-        "neighbour_rules_of_thumb": super::neighbours_out::rules_of_thumb(),
+        "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
         "uplift": crate::safety::uplift::assess_run(run),
         "recharge_sizing": recharge,
         "caution": super::CAUTION,

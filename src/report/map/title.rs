@@ -1,0 +1,182 @@
+//! The words of the map: the title block at the foot of the right-hand column (name, quantity
+//! and interval, datum, wells, flows, the result, the worst point, grid, date, design file) and
+//! the caution along the foot of the page.
+
+use crate::check::run::CheckRun;
+use crate::field::grid::ContourSet;
+use crate::report::map::layers::group;
+use crate::report::map::options::{MapOptions, NeighbourStatus};
+use crate::report::map::page::{FAIL, FOOTER_TOP, INK, PANEL, PLAN};
+use crate::report::map::text::{decimals, lines_of, quantity_words, r1, rate_text, signed, text};
+use crate::report::{thousands, CAUTION};
+use svg::node::element::{Group, Line, Rectangle};
+
+pub(super) fn title_block(
+    run: &CheckRun,
+    set: &ContourSet,
+    date: &str,
+    opts: &MapOptions,
+) -> Group {
+    let model = run.model;
+    let e = &run.evaluation;
+    let (what, unit) = quantity_words(set.quantity);
+    let dec = decimals(set.interval);
+    let x = PANEL[0] + 12.0;
+    let bottom = PLAN[3];
+    let mut raw: Vec<(f64, String, bool)> = Vec::new();
+    raw.insert(0, (16.0, model.name.clone(), true));
+    raw.push((
+        12.0,
+        format!(
+            "{what}, {unit}: contours every {} m",
+            signed(set.interval, dec)
+        ),
+        false,
+    ));
+    if !model.datum.is_empty() {
+        raw.push((11.0, format!("Levels: {}", model.datum), false));
+    }
+    let pumping = run.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
+    let recharging = run.placement.wells.len() - pumping;
+    let first_rate = run.placement.wells.first().map_or(0.0, |w| w.rate);
+    let same = run
+        .placement
+        .wells
+        .iter()
+        .all(|w| (w.rate - first_rate).abs() <= 1e-12);
+    let wells = if recharging > 0 {
+        format!("Wells: {pumping} pumping, {recharging} recharge")
+    } else if same && pumping > 1 {
+        format!("Wells: {pumping}, {} each", rate_text(first_rate))
+    } else {
+        format!("Wells: {pumping}")
+    };
+    raw.push((12.0, wells, false));
+    raw.push((
+        12.0,
+        format!(
+            "Total flow: {} L/s ({} m³/day)",
+            thousands(e.total_abstraction_m3_per_s * 1e3, 1),
+            thousands(e.total_abstraction_m3_per_s * 86_400.0, 0)
+        ),
+        true,
+    ));
+    if e.total_recharge_m3_per_s > 0.0 {
+        raw.push((
+            12.0,
+            format!(
+                "Recharge: {} L/s; net {} L/s",
+                thousands(e.total_recharge_m3_per_s * 1e3, 1),
+                thousands(e.net_flow_m3_per_s * 1e3, 1)
+            ),
+            false,
+        ));
+    }
+    raw.push((
+        12.0,
+        format!(
+            "Design flow (+{:.0} %): {} L/s",
+            model.contingency * 100.0,
+            thousands(e.design_flow_m3_per_s * 1e3, 1)
+        ),
+        false,
+    ));
+    let result = if e.targets_met && e.wells_ok {
+        "Result: every target met".to_string()
+    } else if !e.targets_met {
+        format!("Result: target NOT met at {} check points", e.unmet_count)
+    } else {
+        "Result: targets met; some wells over limits".to_string()
+    };
+    raw.push((12.0, result, true));
+    let over = opts.neighbour_status.as_ref().map_or(0, |v| {
+        v.iter()
+            .filter(|s| **s == NeighbourStatus::OverLimit)
+            .count()
+    });
+    if over > 0 {
+        raw.push((
+            12.0,
+            format!("Result: {over} neighbour(s) over a limit"),
+            true,
+        ));
+    }
+    if let Some(w) = e.worst_point.and_then(|i| e.points.get(i)) {
+        if let Some(m) = w.margin_m.filter(|m| *m < 0.0) {
+            raw.push((
+                11.0,
+                format!(
+                    "Worst: {} m above target at ({:.1}, {:.1})",
+                    signed(-m, 2),
+                    w.point.position[0],
+                    w.point.position[1]
+                ),
+                false,
+            ));
+        }
+    }
+    raw.push((11.0, format!("Grid: {}, metres", model.grid), false));
+    let file = model
+        .file
+        .file_name()
+        .map_or_else(String::new, |f| f.to_string_lossy().into_owned());
+    raw.push((11.0, format!("Date: {date}"), false));
+    raw.push((11.0, format!("Design file: {file}"), false));
+    raw.push((11.0, "Drawn by drydig check".to_string(), false));
+    // Wrap each row to the column's width.
+    let avail = PANEL[1] - PANEL[0] - 24.0;
+    let mut rows: Vec<(f64, String, bool, &str)> = Vec::new();
+    for (size, words, bold) in raw {
+        let chars = (avail / (0.62 * size)).floor().max(10.0) as usize;
+        let fill = if words.starts_with("Result: target NOT") || words.contains("over a limit") {
+            FAIL
+        } else {
+            INK
+        };
+        for l in lines_of(&words, chars) {
+            rows.push((size, l, bold, fill));
+        }
+    }
+    let height: f64 = rows.iter().map(|r| r.0 + 6.0).sum::<f64>() + 18.0;
+    let top = bottom - height;
+    let mut g = group("title-block").add(
+        Rectangle::new()
+            .set("x", r1(PANEL[0]))
+            .set("y", r1(top))
+            .set("width", r1(PANEL[1] - PANEL[0]))
+            .set("height", r1(height))
+            .set("fill", "#f6f7f8")
+            .set("stroke", INK)
+            .set("stroke-width", 1.4),
+    );
+    let mut y = top + 8.0;
+    for (size, words, bold, fill) in rows {
+        y += size + 6.0;
+        let mut t = text(x, y, size, words).set("fill", fill);
+        if bold {
+            t = t.set("font-weight", "bold");
+        }
+        g = g.add(t);
+    }
+    g
+}
+
+pub(super) fn caution_footer() -> Group {
+    let size = 11.0;
+    let mut g = group("caution").add(
+        Line::new()
+            .set("x1", r1(PLAN[0]))
+            .set("y1", r1(FOOTER_TOP))
+            .set("x2", r1(PANEL[1]))
+            .set("y2", r1(FOOTER_TOP))
+            .set("stroke", INK)
+            .set("stroke-width", 0.8),
+    );
+    let full = format!("CAUTION — {CAUTION}");
+    let mut y = FOOTER_TOP + 17.0;
+    for l in lines_of(&full, 190) {
+        g = g.add(text(PLAN[0], y, size, l).set("fill", "#6b1f1f"));
+        y += size + 5.0;
+    }
+    g
+}

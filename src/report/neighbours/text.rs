@@ -1,0 +1,328 @@
+//! The terminal section on neighbours, base uplift and recharge: the neighbours table with
+//! limits and status, each building's corners, worst point, sides and checks, the uplift
+//! check of each excavation, the recharge sizing, and the closing neighbours verdict; with the
+//! ratio, millimetre and truncation helpers it writes them with.
+
+use crate::check::run::CheckRun;
+use crate::input::units::UnitSystem;
+use crate::optimise::recharge::RechargeSizing;
+use crate::report::wrap;
+use crate::safety::neighbours::{self, NeighbourResult, Status};
+use crate::safety::uplift::{self, UpliftResult};
+
+pub(super) fn ratio_text(beta: f64) -> String {
+    if beta <= 0.0 {
+        "0".into()
+    } else if beta >= 1.0 {
+        format!("{beta:.2}")
+    } else {
+        format!("1/{:.0}", 1.0 / beta)
+    }
+}
+
+fn mm(x: f64) -> String {
+    format!("{:.1} mm", x * 1e3)
+}
+
+/// The checks of a neighbour in one line: "drawdown 1.62/1.50 m FAIL; …".
+fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
+    r.checks
+        .iter()
+        .map(|c| {
+            let v = match c.quantity.as_str() {
+                "drawdown" => format!(
+                    "{:.2} of {:.2} {}",
+                    units.length(c.value),
+                    units.length(c.limit),
+                    units.length_unit()
+                ),
+                "settlement" => format!("{} of {}", mm(c.value), mm(c.limit)),
+                _ => format!("{} of {}", ratio_text(c.value), ratio_text(c.limit)),
+            };
+            let basis = if c.basis == "design file" {
+                String::new()
+            } else {
+                format!(" [limit: {}]", c.basis)
+            };
+            format!(
+                "{} {v} {}{basis}",
+                c.quantity,
+                if c.pass { "ok" } else { "OVER" }
+            )
+        })
+        .collect::<Vec<_>>()
+        .join("; ")
+}
+
+/// Terminal section: neighbours table, uplift, recharge sizing, and the neighbours verdict.
+pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem) -> String {
+    let mut out = String::new();
+    let lu = units.length_unit();
+    let l = |x: f64| units.length(x);
+    let results = neighbours::assess_run(run);
+    if !results.is_empty() {
+        out.push_str("\nneighbours (drawdown from superposition; settlement by 1D consolidation on the listed layers)\n");
+        out.push_str(&format!(
+            "{:<26} {:>10} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
+            "name",
+            &format!("drawdown {lu}"),
+            "limit",
+            "settlement",
+            "limit",
+            "distortion",
+            "limit",
+            "status"
+        ));
+        for r in &results {
+            let find = |q: &str| r.checks.iter().find(|c| c.quantity == q);
+            let lim_dd = find("drawdown").map_or("—".into(), |c| format!("{:.2}", l(c.limit)));
+            let (rho, lim_rho) = match (&r.worst_settlement, find("settlement")) {
+                (Some(s), Some(c)) => (
+                    format!("{:.1} mm", s.settlement_m.unwrap_or(0.0) * 1e3),
+                    format!(
+                        "{:.1}{}",
+                        c.limit * 1e3,
+                        if c.basis == "design file" { "" } else { "*" }
+                    ),
+                ),
+                _ => ("—".into(), "—".into()),
+            };
+            let (beta, lim_beta) = match (r.max_distortion, find("angular distortion")) {
+                (Some(b), Some(c)) => (
+                    ratio_text(b),
+                    format!(
+                        "{}{}",
+                        ratio_text(c.limit),
+                        if c.basis == "design file" { "" } else { "*" }
+                    ),
+                ),
+                _ => ("—".into(), "—".into()),
+            };
+            let failing: Vec<&str> = r
+                .checks
+                .iter()
+                .filter(|c| !c.pass)
+                .map(|c| c.quantity.as_str())
+                .collect();
+            let status = if failing.is_empty() {
+                r.status.word().to_string()
+            } else {
+                format!("FAIL ({})", failing.join(", "))
+            };
+            out.push_str(&format!(
+                "{:<26} {:>10.2} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
+                truncate(&r.name, 26),
+                l(r.worst_drawdown.drawdown_m),
+                lim_dd,
+                rho,
+                lim_rho,
+                beta,
+                lim_beta,
+                status
+            ));
+        }
+        if results
+            .iter()
+            .flat_map(|r| &r.checks)
+            .any(|c| c.basis != "design file")
+        {
+            out.push_str(&wrap(
+                &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", neighbours::RULE_OF_THUMB_LABEL),
+                96,
+                "  ",
+            ));
+        }
+        for r in &results {
+            out.push_str(&format!(
+                "  {} — layers from the {} at {:.2} {lu}; Δσ′ form: {}\n",
+                r.name,
+                r.profile_top_basis,
+                l(r.profile_top_m),
+                r.stress_change
+            ));
+            for c in &r.corners {
+                out.push_str(&format!(
+                    "    {:<10} ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}\n",
+                    c.name,
+                    c.position[0],
+                    c.position[1],
+                    l(c.drawdown_m),
+                    c.settlement_m.map_or(String::new(), |s| format!(
+                        "  settlement {:>6.1} mm",
+                        s * 1e3
+                    ))
+                ));
+            }
+            let w = &r.worst_drawdown;
+            out.push_str(&format!(
+                "    worst      ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}  [{}, of {} points sampled]\n",
+                w.position[0],
+                w.position[1],
+                l(w.drawdown_m),
+                w.settlement_m
+                    .map_or(String::new(), |s| format!("  settlement {:>6.1} mm", s * 1e3)),
+                w.name,
+                r.sample_count
+            ));
+            for s in &r.sides {
+                out.push_str(&format!(
+                    "    side {:<11} L {:>6.1} {lu}  Δρ {:>5.1} mm  β {}\n",
+                    s.name,
+                    l(s.length_m),
+                    s.differential_m * 1e3,
+                    ratio_text(s.distortion)
+                ));
+            }
+            if !r.checks.is_empty() {
+                out.push_str(&wrap(&checks_line(r, units), 96, "    "));
+            }
+            for n in &r.notes {
+                out.push_str(&wrap(&format!("note: {n}"), 96, "    "));
+            }
+        }
+    }
+    let up = uplift::assess_run(run);
+    for u in &up {
+        out.push_str(&uplift_text(u, units));
+    }
+    if let Some(rs) = recharge {
+        out.push_str(&recharge_text(rs, units));
+    }
+    if !results.is_empty() {
+        let failing: Vec<&str> = results
+            .iter()
+            .filter(|r| r.status == Status::Fail)
+            .map(|r| r.name.as_str())
+            .collect();
+        out.push_str(&if failing.is_empty() {
+            format!(
+                "\nRESULT (neighbours): all {} within their limits\n",
+                results.len()
+            )
+        } else {
+            format!(
+                "\nRESULT (neighbours): {} of {} over a limit: {}\n",
+                failing.len(),
+                results.len(),
+                failing.join(", ")
+            )
+        });
+    }
+    out
+}
+
+pub(super) fn truncate(s: &str, n: usize) -> String {
+    if s.chars().count() <= n {
+        s.to_string()
+    } else {
+        let mut t: String = s.chars().take(n - 1).collect();
+        t.push('…');
+        t
+    }
+}
+
+fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
+    let lu = units.length_unit();
+    let l = |x: f64| units.length(x);
+    let mut out = format!(
+        "\nbase uplift — {}: {:.2} {lu} of soil at {:.1} kN/m³ between formation {:.2} {lu} and the confined layer top {:.2} {lu}: σ_v = {:.1} kPa\n",
+        u.excavation,
+        l(u.cover_thickness_m),
+        u.soil_unit_weight_kn_per_m3,
+        l(u.formation_level_m),
+        l(u.layer_top_m),
+        u.overburden_kpa
+    );
+    out.push_str(&format!(
+        "  before pumping: piezometric level {:.2} {lu}, water pressure {:.1} kPa, FoS {}\n",
+        l(u.piezometric_level_m),
+        u.water_pressure_kpa,
+        u.factor_of_safety_before
+            .map_or("— (no uplift pressure)".into(), |f| format!("{f:.2}"))
+    ));
+    out.push_str(&format!(
+        "  required FoS {:.2}: head in the layer must be at or below {:.2} {lu} (drawdown ≥ {:.2} {lu})\n",
+        u.factor_of_safety_required,
+        l(u.required_head_m),
+        l(u.required_drawdown_m)
+    ));
+    out.push_str(&match u.uplift_target_m {
+        None => "  no relief needed: the layer's head is already low enough\n".to_string(),
+        Some(t) if u.uplift_governs => format!(
+            "  uplift governs: check points \"{} uplift …\" hold the pumped level at or below {:.2} {lu} (excavation target {:.2} {lu})\n",
+            u.excavation, l(t), l(u.excavation_target_m)
+        ),
+        Some(t) => format!(
+            "  fed to the check points (\"{} uplift …\") as target min({:.2}, {:.2}) {lu}: the excavation's own target is the stricter here\n",
+            u.excavation, l(t), l(u.excavation_target_m)
+        ),
+    });
+    if let Some(h) = u.head_after_m {
+        out.push_str(&format!(
+            "  after pumping: highest head under the excavation {:.2} {lu}, FoS {} — {}\n",
+            l(h),
+            u.factor_of_safety_after
+                .map_or("— (no uplift pressure left)".into(), |f| format!(
+                    "{f:.2}"
+                )),
+            if u.pass_after == Some(true) {
+                "met"
+            } else {
+                "NOT MET"
+            }
+        ));
+    }
+    out.push_str(&wrap(&format!("method: {}", u.method), 96, "  "));
+    out
+}
+
+fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
+    let lu = units.length_unit();
+    let mut out = format!("\nrecharge sizing: {}\n", r.status);
+    for p in &r.protected {
+        out.push_str(&format!(
+            "  protect {:<24} drawdown ≤ {:.2} {lu} ({}); {:.2} {lu} without recharge\n",
+            truncate(&p.name, 24),
+            units.length(p.drawdown_limit_m),
+            p.basis,
+            units.length(p.drawdown_without_recharge_m)
+        ));
+    }
+    for w in &r.wells {
+        out.push_str(&format!(
+            "  {:<10} ({:>8.1}, {:>8.1})  injects {:>6.2} L/s of at most {:.2} L/s\n",
+            w.name,
+            w.position[0],
+            w.position[1],
+            (w.rate_m3_per_s * 1e3).max(0.0) + 0.0,
+            w.capacity_m3_per_s * 1e3
+        ));
+    }
+    out.push_str(&format!(
+        "  abstraction {:.1} L/s, recharge {:.1} L/s, net flow {:.1} L/s ({:.0} m³/day)\n",
+        r.abstraction_m3_per_s * 1e3,
+        r.recharge_m3_per_s * 1e3,
+        r.net_flow_m3_per_s * 1e3,
+        r.net_flow_m3_per_s * 86_400.0
+    ));
+    if !r.binding.is_empty() {
+        out.push_str(&format!(
+            "  binding: {}{}\n",
+            r.binding
+                .iter()
+                .take(4)
+                .cloned()
+                .collect::<Vec<_>>()
+                .join("; "),
+            if r.binding.len() > 4 {
+                format!(" … ({} in all)", r.binding.len())
+            } else {
+                String::new()
+            }
+        ));
+    }
+    for n in &r.notes {
+        out.push_str(&wrap(&format!("note: {n}"), 96, "  "));
+    }
+    out
+}
