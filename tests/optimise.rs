@@ -20,7 +20,7 @@ use drydig::field::checkpoints::check_points;
 use drydig::field::layout::generate;
 use drydig::input::model::{LayoutKind, Model, RingCount};
 use drydig::input::validate::file::from_str;
-use drydig::optimise::lp::LpStatus;
+use drydig::optimise::lp_problem::LpStatus;
 use drydig::optimise::outcome::{Design, Outcome};
 use drydig::optimise::rates::{LayoutRates, RateOption};
 use drydig::optimise::search::design;

@@ -20,7 +20,7 @@ use clarabel::solver::{
     DefaultSettingsBuilder, DefaultSolver, IPSolver, SolverStatus, SupportedConeT,
 };
 
-use crate::optimise::lp::{LpSolution, LpStatus, RateProblem, Sense};
+use crate::optimise::lp_problem::{check_shape, LpSolution, LpStatus, RateProblem, Sense};
 
 /// Rates are solved for in L/s, as in [`crate::lp`].
 const RATE_SCALE: f64 = 1e3;
@@ -40,42 +40,6 @@ struct Row {
     rhs: f64,
 }
 
-fn shape_error(problem: &RateProblem) -> Option<String> {
-    let n = problem.costs.len();
-    if problem.bounds.len() != n {
-        return Some(format!(
-            "{} bounds for {} variables",
-            problem.bounds.len(),
-            n
-        ));
-    }
-    if problem.costs.iter().any(|c| !c.is_finite()) {
-        return Some("a cost is not a finite number".into());
-    }
-    for (j, (lo, hi)) in problem.bounds.iter().enumerate() {
-        if lo.is_nan() || hi.is_nan() || *lo == f64::INFINITY || *hi == f64::NEG_INFINITY {
-            return Some(format!("bounds of variable {j} are not numbers"));
-        }
-    }
-    for c in &problem.constraints {
-        if c.coefficients.len() != n {
-            return Some(format!(
-                "constraint \"{}\" has {} coefficients for {} variables",
-                c.label,
-                c.coefficients.len(),
-                n
-            ));
-        }
-        if !c.rhs.is_finite() || c.coefficients.iter().any(|a| !a.is_finite()) {
-            return Some(format!(
-                "constraint \"{}\" holds a value that is not finite",
-                c.label
-            ));
-        }
-    }
-    None
-}
-
 /// Solve the rate problem with clarabel. Same contract as [`crate::optimise::lp::solve`]: rates in m³/s,
 /// binding rows listed, statuses for infeasible (clarabel's primal infeasibility certificate),
 /// unbounded (dual infeasibility) and failure; never panics.
@@ -85,7 +49,7 @@ pub fn solve(problem: &RateProblem) -> LpSolution {
         values: Vec::new(),
         binding: Vec::new(),
     };
-    if let Some(msg) = shape_error(problem) {
+    if let Err(msg) = check_shape(problem) {
         return ended(LpStatus::Failed(msg));
     }
     if problem.bounds.iter().any(|(lo, hi)| lo > hi) {
@@ -269,167 +233,5 @@ fn run_clarabel(costs: &[f64], bounds: &[(f64, f64)], rows: &[Row]) -> Result<Ve
         other => Err(LpStatus::Failed(format!(
             "the interior-point solver ended with {other:?}"
         ))),
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-    use crate::optimise::lp::{self, Constraint};
-    use serde::Deserialize;
-
-    #[derive(Deserialize)]
-    struct Table {
-        source: String,
-        problems: Vec<Problem>,
-    }
-
-    #[derive(Deserialize)]
-    struct Problem {
-        name: String,
-        costs: Vec<f64>,
-        bounds: Vec<(f64, f64)>,
-        rows: Vec<RowIn>,
-        reference: Reference,
-    }
-
-    #[derive(Deserialize)]
-    struct RowIn {
-        a: Vec<f64>,
-        sense: String,
-        rhs: f64,
-    }
-
-    #[derive(Deserialize)]
-    struct Reference {
-        status: String,
-        #[serde(default)]
-        x: Vec<f64>,
-        #[serde(default)]
-        objective: f64,
-        #[serde(default)]
-        unique: bool,
-    }
-
-    fn table() -> Table {
-        let path = concat!(
-            env!("CARGO_MANIFEST_DIR"),
-            "/tests/reference/lp_reference.json"
-        );
-        serde_json::from_str(&std::fs::read_to_string(path).unwrap()).unwrap()
-    }
-
-    fn rate_problem(p: &Problem) -> RateProblem {
-        RateProblem {
-            costs: p.costs.clone(),
-            bounds: p.bounds.clone(),
-            constraints: p
-                .rows
-                .iter()
-                .enumerate()
-                .map(|(i, r)| Constraint {
-                    coefficients: r.a.clone(),
-                    sense: if r.sense == ">=" {
-                        Sense::AtLeast
-                    } else {
-                        Sense::AtMost
-                    },
-                    rhs: r.rhs,
-                    label: format!("row {i}"),
-                })
-                .collect(),
-        }
-    }
-
-    // Reference: tests/reference/lp_reference.json, "library: scipy linprog HiGHS", written by
-    // scripts/reference_lp.py. Objectives to 1e-7 relative; rates (where the optimum is unique)
-    // to 1e-6 of the largest rate, the accuracy of an interior-point stop at 1e-10.
-    #[test]
-    fn clarabel_and_microlp_agree_with_scipy_linprog() {
-        let t = table();
-        assert_eq!(t.source, "library: scipy linprog HiGHS");
-        let mut optimal = 0;
-        for p in &t.problems {
-            let problem = rate_problem(p);
-            let runs = [
-                (
-                    "clarabel",
-                    lp::solve_with(&problem, lp::Solver::InteriorPoint),
-                ),
-                ("microlp", lp::solve_with(&problem, lp::Solver::Simplex)),
-                (
-                    "microlp then clarabel",
-                    lp::solve_with(&problem, lp::Solver::SimplexThenInteriorPoint),
-                ),
-            ];
-            for (solver, sol) in runs {
-                match p.reference.status.as_str() {
-                    "optimal" => {
-                        assert_eq!(sol.status, LpStatus::Optimal, "{} {solver}", p.name);
-                        let obj = sol.objective(&problem);
-                        let want = p.reference.objective;
-                        assert!(
-                            (obj - want).abs() <= 1e-7 * want.abs(),
-                            "{} {solver}: objective {obj} vs scipy {want}",
-                            p.name
-                        );
-                        if p.reference.unique {
-                            let scale = p.reference.x.iter().fold(0.0f64, |m, v| m.max(v.abs()));
-                            for (q, r) in sol.values.iter().zip(&p.reference.x) {
-                                assert!(
-                                    (q - r).abs() <= 1e-6 * scale,
-                                    "{} {solver}: rates {:?} vs scipy {:?}",
-                                    p.name,
-                                    sol.values,
-                                    p.reference.x
-                                );
-                            }
-                        }
-                    }
-                    _ => assert_eq!(sol.status, LpStatus::Infeasible, "{} {solver}", p.name),
-                }
-            }
-            // The two solvers agree with each other on which rows bind (unique optima).
-            if p.reference.status == "optimal" && p.reference.unique {
-                optimal += 1;
-                assert_eq!(
-                    solve(&problem).binding,
-                    lp::solve(&problem).binding,
-                    "{}",
-                    p.name
-                );
-            }
-        }
-        assert!(optimal >= 4);
-    }
-
-    // Hand-checked infeasibility: x ≤ 1 mL/s by bound and x ≥ 2 mL/s by constraint (the same
-    // LP as in src/lp.rs), and an unbounded objective.
-    #[test]
-    fn clarabel_infeasible_and_unbounded() {
-        let p = RateProblem {
-            costs: vec![1.0],
-            bounds: vec![(0.0, 1e-3)],
-            constraints: vec![Constraint {
-                coefficients: vec![1.0],
-                sense: Sense::AtLeast,
-                rhs: 2e-3,
-                label: "target".into(),
-            }],
-        };
-        assert_eq!(solve(&p).status, LpStatus::Infeasible);
-        assert_eq!(lp::solve(&p).status, LpStatus::Infeasible);
-        let p = RateProblem {
-            costs: vec![-1.0],
-            bounds: vec![(0.0, f64::INFINITY)],
-            constraints: vec![],
-        };
-        assert_eq!(solve(&p).status, LpStatus::Unbounded);
-        let p = RateProblem {
-            costs: vec![1.0, 1.0],
-            bounds: vec![(0.0, 1.0)],
-            constraints: vec![],
-        };
-        assert!(matches!(solve(&p).status, LpStatus::Failed(_)));
     }
 }

@@ -10,7 +10,8 @@
 //! [`LayoutRates`]).
 
 use crate::optimise::limits::CAPACITY_SAFETY;
-use crate::optimise::lp::{self, Constraint, LpStatus, RateProblem, Sense};
+use crate::optimise::lp;
+use crate::optimise::lp_problem::{Constraint, LpSolution, LpStatus, RateProblem, Sense};
 use crate::optimise::rates::LayoutRates;
 
 /// Most rounds of adding violated constraints before the full programme is used.
@@ -193,7 +194,7 @@ impl LayoutRates<'_> {
 
     /// Solve by adding violated rows until none is left. Returns the solution (values per
     /// group, then the shortfall when asked for), the rows it was solved with and the rounds.
-    fn solve(&self, goal: Goal) -> (lp::LpSolution, Vec<RowRef>, usize) {
+    fn solve(&self, goal: Goal) -> (LpSolution, Vec<RowRef>, usize) {
         let g = self.groups.len();
         let n = self.wells.len();
         let limits_on = goal != Goal::TargetsOnly;
@@ -367,7 +368,7 @@ impl LayoutRates<'_> {
         }
     }
 
-    fn binding_labels(&self, sol: &lp::LpSolution, rows: &[RowRef], rates: &[f64]) -> Vec<String> {
+    fn binding_labels(&self, sol: &LpSolution, rows: &[RowRef], rates: &[f64]) -> Vec<String> {
         let mut out = Vec::new();
         let mut targets = Vec::new();
         for &i in &sol.binding {

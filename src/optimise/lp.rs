@@ -16,6 +16,7 @@
 //! rows reordered, up to three times. How a solve ended is a status on the result, never an
 //! error or a panic.
 
+use crate::optimise::lp_problem::{check_shape, LpSolution, LpStatus, RateProblem, Sense};
 use good_lp::{
     microlp, variable, Expression, ProblemVariables, ResolutionError, Solution, SolverModel,
 };
@@ -30,82 +31,6 @@ const BINDING_TOLERANCE: f64 = 1e-7;
 /// a hard guarantee check the answer themselves (the optimiser re-evaluates every design).
 const FEASIBILITY_TOLERANCE: f64 = 1e-5;
 
-/// Direction of a constraint.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Sense {
-    /// Σ a_j·q_j ≥ rhs.
-    AtLeast,
-    /// Σ a_j·q_j ≤ rhs.
-    AtMost,
-}
-
-/// One linear constraint on the rates.
-#[derive(Debug, Clone)]
-pub struct Constraint {
-    /// a_j for each rate (same length as the costs).
-    pub coefficients: Vec<f64>,
-    /// ≥ or ≤.
-    pub sense: Sense,
-    /// Right-hand side.
-    pub rhs: f64,
-    /// What the constraint stands for ("target at Basement corner 2", "level in W03").
-    pub label: String,
-}
-
-/// Minimise Σ cost_j·q_j subject to bounds and constraints. Rates in m³/s.
-#[derive(Debug, Clone)]
-pub struct RateProblem {
-    /// Cost per unit rate of each variable (1 for "total flow").
-    pub costs: Vec<f64>,
-    /// (lower, upper) bound of each rate, m³/s; infinite values allowed.
-    pub bounds: Vec<(f64, f64)>,
-    /// Linear constraints.
-    pub constraints: Vec<Constraint>,
-}
-
-/// How a solve ended.
-#[derive(Debug, Clone, PartialEq)]
-pub enum LpStatus {
-    /// Solved to optimality.
-    Optimal,
-    /// No rates satisfy every constraint.
-    Infeasible,
-    /// The objective can fall without limit.
-    Unbounded,
-    /// Malformed problem or solver trouble, in words.
-    Failed(String),
-}
-
-/// The outcome of a solve.
-#[derive(Debug, Clone)]
-pub struct LpSolution {
-    /// How it ended.
-    pub status: LpStatus,
-    /// Rates, m³/s (empty unless optimal).
-    pub values: Vec<f64>,
-    /// Indices of the constraints that are active at the optimum (within tolerance).
-    pub binding: Vec<usize>,
-}
-
-impl LpSolution {
-    fn ended(status: LpStatus) -> LpSolution {
-        LpSolution {
-            status,
-            values: Vec::new(),
-            binding: Vec::new(),
-        }
-    }
-
-    /// Objective value Σ cost_j·q_j of the solution (0 when there is none).
-    pub fn objective(&self, problem: &RateProblem) -> f64 {
-        self.values
-            .iter()
-            .zip(&problem.costs)
-            .map(|(q, c)| q * c)
-            .sum()
-    }
-}
-
 /// A scaled constraint row: Σ a_j·y_j (≥ or ≤) rhs with y the solver's variables (see
 /// [`column_scales`]) and max |a_j| = 1.
 struct Row {
@@ -113,42 +38,6 @@ struct Row {
     terms: Vec<(usize, f64)>,
     sense: Sense,
     rhs: f64,
-}
-
-fn check_shape(problem: &RateProblem) -> Result<(), String> {
-    let n = problem.costs.len();
-    if problem.bounds.len() != n {
-        return Err(format!(
-            "{} bounds for {} variables",
-            problem.bounds.len(),
-            n
-        ));
-    }
-    if problem.costs.iter().any(|c| !c.is_finite()) {
-        return Err("a cost is not a finite number".into());
-    }
-    for (j, (lo, hi)) in problem.bounds.iter().enumerate() {
-        if lo.is_nan() || hi.is_nan() || *lo == f64::INFINITY || *hi == f64::NEG_INFINITY {
-            return Err(format!("bounds of variable {j} are not numbers"));
-        }
-    }
-    for c in &problem.constraints {
-        if c.coefficients.len() != n {
-            return Err(format!(
-                "constraint \"{}\" has {} coefficients for {} variables",
-                c.label,
-                c.coefficients.len(),
-                n
-            ));
-        }
-        if !c.rhs.is_finite() || c.coefficients.iter().any(|a| !a.is_finite()) {
-            return Err(format!(
-                "constraint \"{}\" holds a value that is not finite",
-                c.label
-            ));
-        }
-    }
-    Ok(())
 }
 
 /// Scale the rows; `Err(status)` when a row without coefficients is violated.
@@ -445,6 +334,7 @@ pub fn solve_with(problem: &RateProblem, solver: Solver) -> LpSolution {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::optimise::lp_problem::Constraint;
 
     fn c(coefficients: Vec<f64>, sense: Sense, rhs: f64) -> Constraint {
         Constraint {

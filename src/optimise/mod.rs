@@ -12,6 +12,7 @@ pub mod clarabel;
 pub mod individual;
 pub mod limits;
 pub mod lp;
+pub mod lp_problem;
 pub mod outcome;
 pub mod precheck;
 pub mod rates;

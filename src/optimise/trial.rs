@@ -6,7 +6,7 @@ use crate::field::layout::{self, Placement};
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model};
 use crate::optimise::individual::Individual;
-use crate::optimise::lp::LpStatus;
+use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::rates::LayoutRates;
 use crate::optimise::uniform::Uniform;
 use serde::Serialize;
