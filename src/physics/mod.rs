@@ -4,6 +4,7 @@ pub mod capacity;
 pub mod equivalent;
 pub mod hantush;
 pub mod images;
+pub mod partial_penetration;
 pub mod radius;
 pub mod slot;
 pub mod special;
