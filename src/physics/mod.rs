@@ -10,3 +10,4 @@ pub mod slot;
 pub mod special;
 pub mod theis;
 pub mod thiem;
+pub mod well_loss;

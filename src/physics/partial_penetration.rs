@@ -488,3 +488,259 @@ fn well_images(g: &Geometry, rho: f64) -> f64 {
     sum += image_tail(d, rho, &groups);
     0.5 * d * sum + (rho / (4.0 * d)).ln() + EULER_GAMMA
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use approx::assert_relative_eq;
+
+    fn rel(got: f64, want: f64) -> f64 {
+        (got - want).abs() / want.abs()
+    }
+
+    #[test]
+    fn checks_md_table() {
+        // library: scipy.special.k0 summed directly, mpmath agrees to 15 figures —
+        // /work/shared/checks.md §12 (tolerance 1e-6 relative)
+        let well = [
+            (15.0, 20.0, 20.0, 1.0, 0.15, 9.9420448),
+            (15.0, 20.0, 20.0, 0.1, 0.15, 13.355107),
+            (10.0, 20.0, 20.0, 1.0, 0.15, 3.5401030),
+            (6.0, 9.0, 9.0, 1.0, 0.05, 7.4879908),
+            (20.0, 30.0, 40.0, 1.0, 0.30, 7.9967801),
+        ];
+        for (z1, z2, d, a, rw, want) in well {
+            let got = well_correction(&Screen::new(z1, z2, d).with_anisotropy(a), rw);
+            assert!(
+                rel(got, want) < 1e-6,
+                "well {z1}-{z2}/{d} a={a}: {got} vs {want}"
+            );
+        }
+        let s = Screen::new(15.0, 20.0, 20.0);
+        for (r, z, want) in [
+            (1.0, 17.5, 4.9253419),
+            (5.0, 17.5, 1.1579813),
+            (10.0, 10.0, -0.0375578),
+            (30.0, 17.5, 0.0084513),
+        ] {
+            let got = point_correction(&s, r, z);
+            // the last two rows are quoted to 6 and 5 significant figures
+            assert!(
+                (got - want).abs() < 1e-6 * want.abs().max(0.05),
+                "r={r} z={z}: {got}"
+            );
+        }
+    }
+
+    /// One row of tests/reference/partial_penetration.csv.
+    struct Row {
+        kind: String,
+        screen: Screen,
+        r: f64,
+        z: f64,
+        value: f64,
+    }
+
+    fn reference_rows() -> Vec<Row> {
+        let path = concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/tests/reference/partial_penetration.csv"
+        );
+        let mut reader = csv::ReaderBuilder::new()
+            .comment(Some(b'#'))
+            .has_headers(true)
+            .from_path(path)
+            .expect("tests/reference/partial_penetration.csv is readable");
+        reader
+            .records()
+            .map(|rec| {
+                let rec = rec.expect("well-formed CSV record");
+                let num = |i: usize| -> f64 { rec[i].trim().parse().expect("a number") };
+                Row {
+                    kind: rec[0].trim().to_string(),
+                    screen: Screen::new(num(1), num(2), num(3)).with_anisotropy(num(4)),
+                    r: num(5),
+                    z: num(6),
+                    value: num(7),
+                }
+            })
+            .collect()
+    }
+
+    #[test]
+    fn reference_table() {
+        // library: scipy.special.k0 summed directly until K0 underflows, cross-checked with a
+        // 20-digit mpmath direct sum (scripts/reference_partial_penetration.py; versions in the
+        // CSV header). Tolerance 1e-8 relative, or 1e-12 absolute.
+        let rows = reference_rows();
+        assert!(rows.len() >= 20, "only {} rows", rows.len());
+        for row in &rows {
+            let got = match row.kind.as_str() {
+                "well" => well_correction(&row.screen, row.r),
+                "point" => point_correction(&row.screen, row.r, row.z),
+                other => panic!("unknown kind {other}"),
+            };
+            let err = (got - row.value).abs();
+            assert!(
+                err <= 1e-8 * row.value.abs() || err <= 1e-12,
+                "{} {:?} r={} z={}: {got:.12e} vs {:.12e}",
+                row.kind,
+                row.screen,
+                row.r,
+                row.z,
+                row.value
+            );
+        }
+    }
+
+    #[test]
+    fn kozeny_cross_check() {
+        // Kozeny (1933), from memory (checks.md §12): Q_pp/Q_full ≈ (l/D)[1 + 7√(r_w/(2l))
+        // cos(πl/(2D))] = 0.448 for r_w = 0.15, screen 15–20 m, D = 20, R = 200 m; the series
+        // gives ln(R/r_w)/(ln(R/r_w) + Δ_w) = 0.420. Held within 10 %.
+        let (rw, l, d, r_inf) = (0.15_f64, 5.0_f64, 20.0_f64, 200.0_f64);
+        let kozeny = l / d * (1.0 + 7.0 * (rw / (2.0 * l)).sqrt() * (PI * l / (2.0 * d)).cos());
+        assert!((kozeny - 0.448).abs() < 5e-4, "Kozeny {kozeny}");
+        let dw = well_correction(&Screen::new(15.0, 20.0, d), rw);
+        let ln = (r_inf / rw).ln();
+        let ratio = ln / (ln + dw);
+        assert!((ratio - 0.420).abs() < 5e-4, "series {ratio}");
+        assert!(rel(ratio, kozeny) < 0.10);
+    }
+
+    #[test]
+    fn fully_penetrating_is_exactly_zero() {
+        // Muskat (1937): a screen over the whole layer has no vertical flow, no correction.
+        for s in [
+            Screen::new(0.0, 20.0, 20.0),
+            Screen::new(-3.0, 25.0, 20.0),
+            Screen::new(0.0, 20.0, 20.0).with_anisotropy(0.05),
+        ] {
+            assert!(!is_partial(&s));
+            assert_eq!(well_correction(&s, 0.15), 0.0);
+            assert_eq!(point_correction(&s, 3.0, 4.0), 0.0);
+            assert_eq!(reach(&s), 0.0);
+            assert_eq!(cutoff_radius(&s, 1e-4), 0.0);
+        }
+        assert!(is_partial(&Screen::new(0.0, 19.0, 20.0)));
+        assert!(is_partial(&Screen::new(1.0, 25.0, 20.0)));
+    }
+
+    #[test]
+    fn depth_average_is_zero() {
+        // Hantush (1957), from memory: the depth-averaged drawdown of a partially penetrating
+        // well equals that of a fully penetrating one (the correction only moves drawdown
+        // vertically). Simpson's rule over z at radii on both sides of X_SWITCH.
+        let s = Screen::new(12.0, 18.0, 20.0).with_anisotropy(0.3);
+        for r in [0.2, 0.5, 2.0, 8.0] {
+            let n = 2000;
+            let h = 20.0 / n as f64;
+            let mut acc = 0.0;
+            for i in 0..=n {
+                let w = if i == 0 || i == n {
+                    1.0
+                } else if i % 2 == 1 {
+                    4.0
+                } else {
+                    2.0
+                };
+                acc += w * point_correction(&s, r, i as f64 * h);
+            }
+            let mean = acc * h / 3.0 / 20.0;
+            let scale = point_correction(&s, r, 15.0).abs();
+            assert!(
+                mean.abs() < 1e-4 * scale,
+                "r = {r}: mean {mean}, scale {scale}"
+            );
+        }
+    }
+
+    #[test]
+    fn decays_beyond_reach_and_cutoff() {
+        for s in [
+            Screen::new(15.0, 20.0, 20.0),
+            Screen::new(15.0, 20.0, 20.0).with_anisotropy(0.1),
+            Screen::new(0.0, 3.0, 9.0),
+            Screen::new(20.0, 30.0, 40.0),
+        ] {
+            // rule of thumb, Kruseman & de Ridder (1994), from memory: 1.5·D·√(K_h/K_v)
+            assert_relative_eq!(
+                reach(&s),
+                1.5 * s.thickness / s.anisotropy.sqrt(),
+                max_relative = 1e-12
+            );
+            let cut4 = cutoff_radius(&s, 1e-4);
+            let cut3 = cutoff_radius(&s, 1e-3);
+            assert!(cut3 < cut4);
+            for i in 0..=40 {
+                let z = s.thickness * i as f64 / 40.0;
+                for f in [1.0, 1.3, 2.0, 5.0] {
+                    // beyond the rule-of-thumb reach the correction is a small fraction of a
+                    // typical ln(R/r) ≈ 2 (about 1 % or less)
+                    assert!(point_correction(&s, f * reach(&s), z).abs() < 0.02);
+                    assert!(point_correction(&s, f * cut3, z).abs() < 1e-3);
+                    assert!(point_correction(&s, f * cut4, z).abs() < 1e-4);
+                }
+            }
+            // the cut-off is tight: at 0.9 of it some elevation still exceeds the tolerance
+            let worst = (0..=40)
+                .map(|i| point_correction(&s, 0.9 * cut4, s.thickness * i as f64 / 40.0).abs())
+                .fold(0.0, f64::max);
+            assert!(worst > 1e-4, "worst {worst}");
+        }
+    }
+
+    #[test]
+    fn no_nan_at_the_edges() {
+        // common practice (no source): nothing non-finite reaches an output
+        let screens = [
+            Screen::new(0.0, 1e-6, 20.0),
+            Screen::new(19.999, 20.0, 20.0),
+            Screen::new(5.0, 6.0, 20.0).with_anisotropy(1e-8),
+            Screen::new(5.0, 6.0, 20.0).with_anisotropy(1e4),
+            Screen::new(0.0, 10.0, 1e-3),
+            Screen::new(0.0, 10.0, 1e4),
+        ];
+        for s in screens {
+            for r in [
+                0.0,
+                1e-12,
+                1e-3,
+                0.15,
+                3.0,
+                1e3,
+                1e9,
+                f64::INFINITY,
+                f64::NAN,
+            ] {
+                let w = well_correction(&s, r);
+                assert!(w.is_finite() && w >= 0.0, "{s:?} r={r}: {w}");
+                for z in [-1.0, 0.0, 0.5 * s.thickness, s.thickness, 1e9, f64::NAN] {
+                    let p = point_correction(&s, r, z);
+                    assert!(p.is_finite(), "{s:?} r={r} z={z}: {p}");
+                }
+            }
+            assert!(reach(&s).is_finite());
+            assert!(cutoff_radius(&s, 1e-4).is_finite());
+        }
+        for bad in [
+            Screen::new(5.0, 5.0, 20.0),
+            Screen::new(6.0, 5.0, 20.0),
+            Screen::new(21.0, 25.0, 20.0),
+            Screen::new(1.0, 5.0, 0.0),
+            Screen::new(1.0, 5.0, 20.0).with_anisotropy(0.0),
+            Screen::new(f64::NAN, 5.0, 20.0),
+        ] {
+            assert!(bad.validate().is_err(), "{bad:?}");
+            assert_eq!(well_correction(&bad, 0.15), 0.0);
+            assert_eq!(point_correction(&bad, 1.0, 1.0), 0.0);
+            assert_eq!(cutoff_radius(&bad, 1e-4), 0.0);
+            assert!(!is_partial(&bad));
+        }
+        let msg = Screen::new(1.0, 5.0, 20.0)
+            .with_anisotropy(-1.0)
+            .validate()
+            .unwrap_err();
+        assert!(msg.starts_with("anisotropy"), "{msg}");
+    }
+}
