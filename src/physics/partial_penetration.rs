@@ -239,7 +239,7 @@ pub fn cutoff_radius(screen: &Screen, tolerance: f64) -> f64 {
     let Some(g) = screen.geometry() else {
         return 0.0;
     };
-    if !is_partial(screen) || !(tolerance.is_finite() && tolerance > 0.0) {
+    if !(is_partial(screen) && tolerance.is_finite() && tolerance > 0.0) {
         return 0.0;
     }
     // never below the radius where x = X_SWITCH (0.016·D/√a): keeps the bound's sum short
@@ -314,7 +314,7 @@ impl SinDiff {
 
     fn next(&mut self) -> f64 {
         self.n += 1;
-        if self.n % 64 == 0 {
+        if self.n.is_multiple_of(64) {
             let n = self.n as f64;
             (self.s1, self.c1) = (n * self.t1).sin_cos();
             (self.s2, self.c2) = (n * self.t2).sin_cos();
