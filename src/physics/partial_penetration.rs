@@ -29,8 +29,9 @@
 //! Σ′ subtracts 1/(2D|m|) from each m ≠ 0 term). Integrated over the screen each image is closed
 //! form (asinh for a point, u·asinh(u/ρ) − √(u² + ρ²) for the screen average); images
 //! |m| ≤ [`IMAGE_PAIRS`] are summed exactly and the rest by their expansion in 1/m to order m⁻⁵
-//! (error below 1e-11 absolute). The two routes agree to better than 1e-9 where both apply
-//! (tests), and both agree with the scipy direct sums of the reference table.
+//! (error about 1e-11 absolute). Both routes agree with the scipy direct sums of the reference
+//! table (tests/reference/partial_penetration.csv) to 1e-8 relative or better; they meet at
+//! x = [`X_SWITCH`] to about 1e-11.
 
 use super::special::bessel_k0;
 use std::f64::consts::PI;
@@ -192,7 +193,7 @@ pub fn point_correction(screen: &Screen, r: f64, z: f64) -> f64 {
 ///
 /// Units: r_w in m. Source: Muskat (1937); Hantush (1957); Kruseman & de Ridder (1994), 2nd ed.,
 /// ch. 10 (checks.md §12). Accurate to 1e-9 relative or 1e-11 absolute (see the module notes);
-/// a few µs to ~40 µs per call.
+/// 2–30 µs per call in a release build (worst for thin wells, x just under [`X_SWITCH`]).
 ///
 /// Edge cases: a fully penetrating screen gives exactly 0; an invalid screen gives 0 (check with
 /// [`Screen::validate`]); r_w below `R_MIN_FRACTION·D` (or NaN) is taken as that radius.
