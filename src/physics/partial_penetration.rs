@@ -31,7 +31,7 @@
 //! |m| ≤ [`IMAGE_PAIRS`] are summed exactly and the rest by their expansion in 1/m to order m⁻⁵
 //! (error about 1e-11 absolute). Both routes agree with the scipy direct sums of the reference
 //! table (tests/reference/partial_penetration.csv) to 1e-8 relative or better; they meet at
-//! x = [`X_SWITCH`] to about 1e-11.
+//! x = [`X_SWITCH`] to about 1e-10 relative.
 
 use super::special::bessel_k0;
 use std::f64::consts::PI;
