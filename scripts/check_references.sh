@@ -44,5 +44,7 @@ else
     echo "reference table differs from a fresh run (diff above: - committed, + regenerated)" >&2
     status=1
 fi
+# partial penetration (scripts/reference_partial_penetration.py, scipy and mpmath; ~4 min)
+tmp_pp="$(mktemp "${TMPDIR:-/tmp}/drydig-pp.XXXXXX.csv")"; python3 "$root/scripts/reference_partial_penetration.py" "$tmp_pp"; if diff -u "$root/tests/reference/partial_penetration.csv" "$tmp_pp"; then echo "reference table up to date: $root/tests/reference/partial_penetration.csv"; else echo "partial_penetration.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_pp"
 
 exit "$status"
