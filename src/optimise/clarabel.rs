@@ -1,15 +1,15 @@
-//! A second solver for the rate problem of [`crate::lp`], over the pure-Rust interior-point
+//! A second solver for the rate problem of [`crate::optimise::lp`], over the pure-Rust interior-point
 //! solver `clarabel`.
 //!
 //! The problem is the same: minimise Σ cost_j·q_j over rates q_j (m³/s) with bounds
 //! lo_j ≤ q_j ≤ hi_j and rows Σ a_ij·q_j ≥ b_i or ≤ b_i. It is handed to clarabel in conic form
 //! (minimise cᵀx subject to A·x + s = b, s ≥ 0): every ≤ row as it is, every ≥ row negated, and
-//! every finite bound as one more row. As in [`crate::lp`], rates are solved for in L/s and each
+//! every finite bound as one more row. As in [`crate::optimise::lp`], rates are solved for in L/s and each
 //! row is divided by its largest coefficient; clarabel's own equilibration does the rest.
 //!
 //! An interior-point answer is never exactly on a bound: rates within 1e-7 of zero relative to
 //! the largest finite bound are cut to zero (when zero is within the bounds), and the answer is
-//! then checked against every row with the feasibility tolerance of [`crate::lp`] (1e-5 relative
+//! then checked against every row with the feasibility tolerance of [`crate::optimise::lp`] (1e-5 relative
 //! to the row's terms). How a solve ended is an [`LpStatus`], never an error or a panic.
 //!
 //! Where the optimum is not unique an interior-point method returns a point inside the optimal
@@ -22,11 +22,11 @@ use clarabel::solver::{
 
 use crate::optimise::lp_problem::{check_shape, LpSolution, LpStatus, RateProblem, Sense};
 
-/// Rates are solved for in L/s, as in [`crate::lp`].
+/// Rates are solved for in L/s, as in [`crate::optimise::lp`].
 const RATE_SCALE: f64 = 1e3;
 /// Rates this small relative to the largest finite bound are taken as zero.
 const CUTOFF: f64 = 1e-7;
-/// The same feasibility tolerance as [`crate::lp`]: a violation relative to |rhs| + Σ|aⱼ·xⱼ|.
+/// The same feasibility tolerance as [`crate::optimise::lp`]: a violation relative to |rhs| + Σ|aⱼ·xⱼ|.
 const FEASIBILITY_TOLERANCE: f64 = 1e-5;
 /// A row is binding when its scaled slack is within this of zero (relative to 1 + |rhs|). Looser
 /// than the simplex's 1e-7 because the interior point stops a little inside the constraints.

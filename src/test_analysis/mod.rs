@@ -576,7 +576,7 @@ fn interpolate_log(points: &[(f64, f64)], t: f64) -> Option<f64> {
 /// cover (each interpolated linearly in log t), a line s = a − m·ln r gives T = Q/(2π·m), the
 /// zero-drawdown distance R = exp(a/m) and S = 2.25·T·t/R². Source: Cooper & Jacob (1946);
 /// Kruseman & de Ridder (1994), §3.2.2 (distance–drawdown); see also
-/// [`crate::pumping_test::distance_drawdown_fit`] for the steady form.
+/// [`crate::physics::pumping_test::distance_drawdown_fit`] for the steady form.
 pub fn fit_distance_drawdown(data: &PumpingTestData) -> Result<Fit, String> {
     check_data(data, true)?;
     if data.wells.len() < 2 {
