@@ -32,6 +32,18 @@ impl fmt::Display for InputError {
 
 impl std::error::Error for InputError {}
 
+impl InputError {
+    /// An error in `file` at `field` (no line known).
+    pub fn at(file: &Path, field: impl Into<String>, message: impl Into<String>) -> InputError {
+        InputError {
+            file: file.to_path_buf(),
+            field: field.into(),
+            line: None,
+            message: message.into(),
+        }
+    }
+}
+
 /// 1-based line of a byte offset in `source`.
 pub fn line_of(source: &str, offset: usize) -> usize {
     source[..offset.min(source.len())]

@@ -20,14 +20,12 @@ use clarabel::solver::{
     DefaultSettingsBuilder, DefaultSolver, IPSolver, SolverStatus, SupportedConeT,
 };
 
-use crate::optimise::lp_problem::{check_shape, LpSolution, LpStatus, RateProblem, Sense};
+use crate::optimise::lp_problem::{
+    check_shape, LpSolution, LpStatus, RateProblem, Sense, FEASIBILITY_TOLERANCE, RATE_SCALE,
+};
 
-/// Rates are solved for in L/s, as in [`crate::optimise::lp`].
-const RATE_SCALE: f64 = 1e3;
 /// Rates this small relative to the largest finite bound are taken as zero.
 const CUTOFF: f64 = 1e-7;
-/// The same feasibility tolerance as [`crate::optimise::lp`]: a violation relative to |rhs| + Σ|aⱼ·xⱼ|.
-const FEASIBILITY_TOLERANCE: f64 = 1e-5;
 /// A row is binding when its scaled slack is within this of zero (relative to 1 + |rhs|). Looser
 /// than the simplex's 1e-7 because the interior point stops a little inside the constraints.
 const BINDING_TOLERANCE: f64 = 1e-6;

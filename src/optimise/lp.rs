@@ -16,20 +16,15 @@
 //! rows reordered, up to three times. How a solve ended is a status on the result, never an
 //! error or a panic.
 
-use crate::optimise::lp_problem::{check_shape, LpSolution, LpStatus, RateProblem, Sense};
+use crate::optimise::lp_problem::{
+    check_shape, LpSolution, LpStatus, RateProblem, Sense, FEASIBILITY_TOLERANCE, RATE_SCALE,
+};
 use good_lp::{
     microlp, variable, Expression, ProblemVariables, ResolutionError, Solution, SolverModel,
 };
 
-/// Rates are solved for in this unit: 1 m³/s = 1000 L/s.
-const RATE_SCALE: f64 = 1e3;
 /// A constraint is binding when its scaled slack is within this (relative to 1 + |rhs|).
 const BINDING_TOLERANCE: f64 = 1e-7;
-/// A returned point that violates a scaled constraint by more than this, relative to the size of
-/// the row's terms (|rhs| + Σ|aⱼ·xⱼ|), is reported as failed. The simplex works in floating point
-/// on rows of many similar terms, so exact feasibility is not to be expected; callers that need
-/// a hard guarantee check the answer themselves (the optimiser re-evaluates every design).
-const FEASIBILITY_TOLERANCE: f64 = 1e-5;
 
 /// A scaled constraint row: Σ a_j·y_j (≥ or ≤) rhs with y the solver's variables (see
 /// [`column_scales`]) and max |a_j| = 1.

@@ -2,6 +2,14 @@
 //! over rates q_j (m³/s) with bounds lo_j ≤ q_j ≤ hi_j and rows Σ a_ij·q_j ≥ b_i or ≤ b_i; how a
 //! solve ended is a status on the solution, never an error or a panic.
 
+/// Rates are solved for in this unit: 1 m³/s = 1000 L/s.
+pub const RATE_SCALE: f64 = 1e3;
+/// A returned point that violates a scaled constraint by more than this, relative to the size of
+/// the row's terms (|rhs| + Σ|aⱼ·xⱼ|), is reported as failed. The simplex works in floating point
+/// on rows of many similar terms, so exact feasibility is not to be expected; callers that need
+/// a hard guarantee check the answer themselves (the optimiser re-evaluates every design).
+pub const FEASIBILITY_TOLERANCE: f64 = 1e-5;
+
 /// Direction of a constraint.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Sense {

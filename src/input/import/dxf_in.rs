@@ -122,12 +122,7 @@ impl DxfOptions {
 type BulgeVertex = (f64, f64, f64);
 
 fn err(file: &Path, field: impl Into<String>, message: impl Into<String>) -> InputError {
-    InputError {
-        file: file.to_path_buf(),
-        field: field.into(),
-        line: None,
-        message: message.into(),
-    }
+    InputError::at(file, field, message)
 }
 
 /// Read `options.layer` of the DXF drawing at `path`, in metres.

@@ -49,12 +49,7 @@ impl PropertyFilter {
 }
 
 fn err(file: &Path, field: impl Into<String>, message: impl Into<String>) -> InputError {
-    InputError {
-        file: file.to_path_buf(),
-        field: field.into(),
-        line: None,
-        message: message.into(),
-    }
+    InputError::at(file, field, message)
 }
 
 /// Read `path` and return every feature matching `filter`, in metres.
