@@ -30,6 +30,7 @@ fn main() -> ExitCode {
 }
 
 fn print(text: &str) -> anyhow::Result<()> {
+    report::files::ensure_finite("the terminal text", text.as_bytes())?;
     let mut out = std::io::stdout().lock();
     match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
         Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
@@ -68,7 +69,8 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 (drydig::check::run::run(&model, wells.as_deref())?, None)
             };
             let files = report::check_files(&run, recharge.as_ref())?;
-            report::files::write_all(&out, &files)?;
+            let inputs = report::files::inputs_of(&model, wells.as_deref());
+            report::files::write_set(&out, &files, &inputs)?;
             print(&report::check_text::to_text(&run, recharge.as_ref(), units))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             let e = &run.evaluation;
@@ -90,7 +92,8 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let design = drydig::optimise::search::design(&model, rates.into())?;
             let run = drydig::optimise::outcome::final_run(&model, &design);
             let files = report::design_text::files(&model, &design, run.as_ref())?;
-            report::files::write_all(&out, &files)?;
+            let inputs = report::files::inputs_of(&model, None);
+            report::files::write_set(&out, &files, &inputs)?;
             print(&report::design_text::to_text(
                 &model,
                 &design,
@@ -136,7 +139,8 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                     report::sweep_chart::render(&model.name, &sweep).into_bytes(),
                 ),
             ];
-            report::files::write_all(&out, &files)?;
+            let inputs = report::files::inputs_of(&model, None);
+            report::files::write_set(&out, &files, &inputs)?;
             print(&report::design_text::sweep_text(&model, &sweep, units))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             let any = sweep

@@ -85,7 +85,7 @@ const CASES: &[Case] = &[
     case("outline_nan_point.toml", Slot("excavation[1].outline"), "two finite numbers in metres", Some("outline = ")),
     case("point_with_three_numbers.toml", Slot("excavation[1].outline"), "must be [x, y]", Some("outline = ")),
     case("lonlat_coordinates.toml", Slot("excavation[1].outline"), "projected system", Some("outline = ")),
-    case("check_point_nan.toml", Slot("checks.point.x"), "finite numbers in metres", None),
+    case("check_point_nan.toml", Slot("checks.point[1].x"), "finite numbers in metres", None),
     // Influence.
     case("cooper_jacob_without_time.toml", Slot("influence.pumping_time"), "\"14 days\"", None),
     case("fixed_without_distance.toml", Slot("influence.distance"), "\"150 m\"", None),

@@ -14,6 +14,13 @@ use std::path::Path;
 const CORNER_ANGLE_DEG: f64 = 20.0;
 /// Step (m) in the search along the ring for a free place outside keep-out zones.
 const KEEP_OUT_STEP: f64 = 0.25;
+/// Most trial positions tried when moving one well out of a keep-out zone; on a long path the
+/// step grows past [`KEEP_OUT_STEP`] so the search stays within this bound.
+const MAX_MOVE_STEPS: usize = 4_000;
+/// Most wells a layout or a CSV file may hold (the same bound as for listed wells).
+pub const MAX_WELLS: usize = crate::input::validate::ranges::MAX_WELLS;
+/// Largest wells CSV read, bytes.
+pub const MAX_CSV_BYTES: u64 = 16 << 20;
 
 /// Wells placed by a layout, with notes on anything moved or skipped.
 #[derive(Debug, Clone)]
@@ -219,10 +226,11 @@ fn blocked(p: [f64; 2], zones: &[&Polygon<f64>]) -> bool {
 fn free_position(path: &Path2, s: f64, zones: &[&Polygon<f64>], closed: bool) -> Option<f64> {
     let total = path.length();
     let wrap = |x: f64| if closed { x.rem_euclid(total) } else { x };
-    let steps = (total / KEEP_OUT_STEP).ceil() as usize;
+    let step = KEEP_OUT_STEP.max(total / MAX_MOVE_STEPS as f64);
+    let steps = ((total / step).ceil() as usize).min(MAX_MOVE_STEPS);
     for i in 0..=steps {
         for sign in [1.0, -1.0] {
-            let cand = wrap(s + sign * i as f64 * KEEP_OUT_STEP);
+            let cand = wrap(s + sign * i as f64 * step);
             if !(0.0..=total).contains(&cand) {
                 continue;
             }
@@ -331,6 +339,16 @@ pub fn ring(
         RingCount::MaxSpacing(s) => count_for_spacing(&path, &corners, s),
     };
     let mut notes = Vec::new();
+    // `generate` refuses counts past MAX_WELLS before this is reached; callers that build rings
+    // of their own (the count search) are held to the same bound here.
+    let n = if n > MAX_WELLS {
+        notes.push(format!(
+            "{n} wells is more than {MAX_WELLS}: {MAX_WELLS} placed"
+        ));
+        MAX_WELLS
+    } else {
+        n
+    };
     if corner_wells && n < corners.len() {
         notes.push(format!(
             "{n} wells are fewer than the {} corners: spaced evenly instead",
@@ -424,7 +442,13 @@ pub fn line_with_ends(
     }
     let path = Path2::new(centre.clone(), false);
     let total = path.length();
-    let count = ((total / spacing).ceil() as usize).max(1) + 1;
+    let wanted = (total / spacing).ceil();
+    // Held to MAX_WELLS per side (`generate` refuses more before this is reached).
+    let count = if wanted.is_finite() && wanted < MAX_WELLS as f64 {
+        (wanted as usize).max(1) + 1
+    } else {
+        MAX_WELLS
+    };
     let positions: Vec<f64> = (0..count)
         .map(|i| total * i as f64 / (count - 1) as f64)
         .collect();
@@ -484,8 +508,7 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         line,
         message,
     };
-    let bytes = std::fs::read(path)
-        .map_err(|e| err(None, "", format!("cannot read the wells CSV: {e}")))?;
+    let bytes = crate::input::validate::file::read_capped(path, MAX_CSV_BYTES, "wells CSV")?;
     let mut reader = csv::ReaderBuilder::new()
         .trim(csv::Trim::All)
         .comment(Some(b'#'))
@@ -531,7 +554,21 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
                 .filter(|v| v.is_finite())
                 .ok_or_else(|| err(Some(line), field, format!("\"{t}\" is not a finite number")))
         };
-        let name = rec.get(ci_name).unwrap_or("").to_string();
+        if wells.len() >= MAX_WELLS {
+            return Err(err(
+                Some(line),
+                "",
+                format!("the wells CSV holds more than {MAX_WELLS} wells, the most drydig builds; split the field or give fewer wells"),
+            ));
+        }
+        let name = csv_name(rec.get(ci_name).unwrap_or(""));
+        if let Some(c) = name.chars().find(|c| c.is_control()) {
+            return Err(err(
+                Some(line),
+                "name",
+                format!("the name holds a control character (U+{:04X})", c as u32),
+            ));
+        }
         if name.is_empty() || !names.insert(name.clone()) {
             return Err(err(
                 Some(line),
@@ -539,12 +576,24 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
                 format!("well name \"{name}\" is empty or repeated; each well needs its own name"),
             ));
         }
-        let mut w = Well::from_spec(
-            name,
-            [num(ci_x, "x")?, num(ci_y, "y")?],
-            num(ci_rate, "rate_l_per_s")? / 1e3,
-            &model.wells,
-        );
+        let (x, y) = (num(ci_x, "x")?, num(ci_y, "y")?);
+        let max = crate::input::validate::ranges::MAX_COORD;
+        if x.abs() > max || y.abs() > max {
+            return Err(err(
+                Some(line),
+                "x",
+                format!("({x:e}, {y:e}) lies beyond ±{max:e} m of the grid origin; give projected coordinates in metres"),
+            ));
+        }
+        let rate = num(ci_rate, "rate_l_per_s")?;
+        if rate.abs() > 1e5 {
+            return Err(err(
+                Some(line),
+                "rate_l_per_s",
+                format!("{rate} L/s is more than any well pumps (at most 1e5 L/s)"),
+            ));
+        }
+        let mut w = Well::from_spec(name, [x, y], rate / 1e3, &model.wells);
         if let Some(ci) = ci_radius {
             let r = num(ci, "radius_m")?;
             if !(r > 0.0 && r <= 2.0) {
@@ -566,6 +615,71 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
 
 /// The layout of the design file, with every generated well at `rate` when given (else the
 /// layout's own rate, else zero).
+/// A name cell as written by drydig's own tables: a leading apostrophe before `=`, `+`, `-`, `@`
+/// or `#` (put there so that spreadsheets do not read the cell as a formula and CSV readers not as
+/// a comment) is removed again. OWASP, "CSV Injection" (prefixing such cells with `'`).
+pub fn csv_name(cell: &str) -> String {
+    match cell.strip_prefix('\'') {
+        Some(rest) if rest.starts_with(['=', '+', '-', '@', '#']) => rest.to_string(),
+        _ => cell.to_string(),
+    }
+}
+
+/// The inverse of [`csv_name`]: a text cell safe for a spreadsheet and for a CSV reader that
+/// skips `#` lines.
+pub fn csv_text(text: &str) -> String {
+    if text.starts_with(['=', '+', '-', '@', '#']) {
+        format!("'{text}")
+    } else {
+        text.to_string()
+    }
+}
+
+/// Estimated number of wells a layout places, before any is built: the ring's count, or the
+/// path length over the spacing (per side for a line). Used to refuse huge layouts with a
+/// message naming the setting.
+pub fn estimated_count(model: &Model, spec: &LayoutSpec) -> f64 {
+    use geo::BoundingRect;
+    let exc = &model.excavations[spec.excavation];
+    let perimeter: f64 = exc
+        .outline
+        .exterior()
+        .lines()
+        .map(|l| l.dx().hypot(l.dy()))
+        .sum();
+    match &spec.kind {
+        LayoutKind::Ring { count, .. } => match count {
+            RingCount::Count(n) => *n as f64,
+            RingCount::MaxSpacing(s) => {
+                (perimeter + std::f64::consts::TAU * spec.offset) / s
+                    + exc.outline.exterior().0.len() as f64
+            }
+        },
+        LayoutKind::Line {
+            spacing,
+            both_sides,
+            centre_line,
+            end_extension,
+        } => {
+            let length = match centre_line {
+                Some(c) => c
+                    .windows(2)
+                    .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
+                    .sum::<f64>(),
+                None => exc
+                    .outline
+                    .bounding_rect()
+                    .map_or(0.0, |b| b.width().hypot(b.height())),
+            };
+            let ext = end_extension.unwrap_or(length_and_width(exc).1 / 2.0 + spec.offset);
+            let sides = if *both_sides { 2.0 } else { 1.0 };
+            sides * ((length + 2.0 * ext) / spacing + 1.0)
+        }
+        LayoutKind::Listed => model.listed_wells.len() as f64,
+        LayoutKind::Csv { .. } => 0.0,
+    }
+}
+
 pub fn from_model(model: &Model, wells_csv: Option<&Path>) -> Result<Placement, InputError> {
     if let Some(p) = wells_csv {
         return Ok(Placement {
@@ -608,6 +722,19 @@ fn listed(model: &Model) -> Placement {
 /// Generate the layout `spec` with every generated well at `rate`.
 pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement, InputError> {
     let exc = &model.excavations[spec.excavation];
+    let n = estimated_count(model, spec);
+    if n.is_nan() || n > MAX_WELLS as f64 {
+        let setting = match spec.kind {
+            LayoutKind::Ring { .. } => "layout.max_spacing",
+            _ => "layout.spacing",
+        };
+        return Err(InputError {
+            file: model.file.clone(),
+            field: setting.into(),
+            line: None,
+            message: format!("the layout would place about {n:.0} wells, more than the {MAX_WELLS} drydig builds; give a larger {setting}"),
+        });
+    }
     Ok(match &spec.kind {
         LayoutKind::Ring {
             count,

@@ -20,6 +20,11 @@ pub trait Kind {
     /// Accepted unit spellings (compared case-insensitively after normalising ³, ², spaces)
     /// and the factor that turns one of them into the SI unit.
     const UNITS: &'static [(&'static str, f64)];
+    /// Largest magnitude in SI a real site can have; past it the value is refused after units.
+    const MAX_SI: f64;
+    /// Smallest non-zero magnitude in SI that is not a unit slip (zero passes here and is judged
+    /// by the field's own check).
+    const MIN_SI: f64;
 }
 
 const DAY: f64 = 86_400.0;
@@ -27,7 +32,7 @@ const FOOT: f64 = 0.3048;
 const US_GALLON: f64 = 3.785_411_784e-3;
 
 macro_rules! kind {
-    ($(#[$doc:meta])* $ty:ident, $name:expr, $example:expr, [$(($u:expr, $f:expr)),* $(,)?]) => {
+    ($(#[$doc:meta])* $ty:ident, $name:expr, $example:expr, $min:expr, $max:expr, [$(($u:expr, $f:expr)),* $(,)?]) => {
         $(#[$doc])*
         #[derive(Debug, Clone, Copy, PartialEq)]
         pub struct $ty;
@@ -35,57 +40,59 @@ macro_rules! kind {
             const NAME: &'static str = $name;
             const EXAMPLE: &'static str = $example;
             const UNITS: &'static [(&'static str, f64)] = &[$(($u, $f)),*];
+            const MAX_SI: f64 = $max;
+            const MIN_SI: f64 = $min;
         }
     };
 }
 
 kind!(
     /// Lengths and levels (SI: m).
-    LengthKind, "length or level", "0.3 m",
+    LengthKind, "length or level", "0.3 m", 1e-6, 1e5,
     [("m", 1.0), ("mm", 1e-3), ("cm", 1e-2), ("km", 1e3), ("ft", FOOT), ("in", 0.0254)]
 );
 kind!(
     /// Hydraulic conductivity, a velocity (SI: m/s).
-    ConductivityKind, "hydraulic conductivity", "2e-4 m/s",
+    ConductivityKind, "hydraulic conductivity", "2e-4 m/s", 1e-15, 10.0,
     [("m/s", 1.0), ("cm/s", 1e-2), ("mm/s", 1e-3), ("m/d", 1.0 / DAY), ("m/day", 1.0 / DAY),
      ("m/h", 1.0 / 3600.0), ("ft/d", FOOT / DAY), ("ft/day", FOOT / DAY), ("ft/s", FOOT)]
 );
 kind!(
     /// Pumping rate (SI: m³/s).
-    FlowKind, "flow rate", "3 L/s",
+    FlowKind, "flow rate", "3 L/s", 1e-12, 100.0,
     [("m3/s", 1.0), ("m3/h", 1.0 / 3600.0), ("m3/d", 1.0 / DAY), ("m3/day", 1.0 / DAY),
      ("l/s", 1e-3), ("l/min", 1e-3 / 60.0), ("gpm", US_GALLON / 60.0),
      ("gal/min", US_GALLON / 60.0), ("ft3/s", FOOT * FOOT * FOOT), ("cfs", FOOT * FOOT * FOOT)]
 );
 kind!(
     /// Duration (SI: s).
-    TimeKind, "duration", "14 days",
+    TimeKind, "duration", "14 days", 1e-3, 1e10,
     [("s", 1.0), ("min", 60.0), ("h", 3600.0), ("hours", 3600.0), ("d", DAY), ("day", DAY),
      ("days", DAY), ("week", 7.0 * DAY), ("weeks", 7.0 * DAY)]
 );
 kind!(
     /// Transmissivity (SI: m²/s).
-    TransmissivityKind, "transmissivity", "5e-3 m2/s",
+    TransmissivityKind, "transmissivity", "5e-3 m2/s", 1e-15, 1e3,
     [("m2/s", 1.0), ("m2/d", 1.0 / DAY), ("m2/day", 1.0 / DAY), ("ft2/d", FOOT * FOOT / DAY)]
 );
 kind!(
     /// Coefficient of volume compressibility m_v (SI: 1/kPa, i.e. m²/kN).
-    CompressibilityKind, "coefficient of volume compressibility", "2e-4 1/kPa",
+    CompressibilityKind, "coefficient of volume compressibility", "2e-4 1/kPa", 1e-9, 0.1,
     [("1/kpa", 1.0), ("m2/kn", 1.0), ("1/mpa", 1e-3), ("m2/mn", 1e-3)]
 );
 kind!(
     /// Stress or pressure (SI here: kPa, the unit geotechnical engineers work in).
-    StressKind, "stress", "60 kPa",
+    StressKind, "stress", "60 kPa", 1e-6, 1e5,
     [("kpa", 1.0), ("kn/m2", 1.0), ("mpa", 1e3), ("pa", 1e-3), ("psf", 0.047_880_26)]
 );
 kind!(
     /// Unit weight of soil or water (SI here: kN/m³).
-    UnitWeightKind, "unit weight", "19 kN/m3",
+    UnitWeightKind, "unit weight", "19 kN/m3", 1e-3, 100.0,
     [("kn/m3", 1.0), ("pcf", 0.157_087_5)]
 );
 kind!(
     /// Angular distortion or other ratios written as a fraction ("1/500") or per cent.
-    RatioKind, "ratio", "1/500",
+    RatioKind, "ratio", "1/500", 1e-12, 1e6,
     [("%", 0.01)]
 );
 
@@ -182,6 +189,30 @@ fn split_number(text: &str) -> Option<(f64, &str)> {
     best.map(|(v, i)| (v, t[i..].trim()))
 }
 
+/// Refuse an SI value that overflowed when its unit was applied, or lies outside what a real
+/// site can have for kind `K` (`K::MIN_SI` ≤ |v| ≤ `K::MAX_SI`, or exactly zero, which the
+/// field's own check judges). Bounds are common practice (no source): they are generous limits
+/// of the trade (no soil conducts 10 m/s, no well pumps 100 m³/s), set to keep every formula
+/// finite, not to judge a design.
+fn in_bounds<K: Kind>(text: &str, si: f64) -> Result<f64, String> {
+    let a = si.abs();
+    if !si.is_finite() || a > K::MAX_SI {
+        return Err(format!(
+            "\"{text}\" is {si:e} in SI, beyond the largest {} a site can have ({:e} in SI); check the number and its unit",
+            K::NAME,
+            K::MAX_SI
+        ));
+    }
+    if a != 0.0 && a < K::MIN_SI {
+        return Err(format!(
+            "\"{text}\" is {si:e} in SI, below the smallest non-zero {} drydig accepts ({:e} in SI); check the number and its unit",
+            K::NAME,
+            K::MIN_SI
+        ));
+    }
+    Ok(si)
+}
+
 /// Parse "value unit" into SI for kind `K`.
 ///
 /// # Examples
@@ -216,7 +247,7 @@ pub fn parse<K: Kind>(text: &str) -> Result<f64, String> {
     }
     let norm = normalise(unit);
     if let Some((_, factor)) = K::UNITS.iter().find(|(u, _)| *u == norm) {
-        return Ok(number * factor);
+        return in_bounds::<K>(text, number * factor);
     }
     if let Some(other) = kind_of_unit(&norm) {
         return Err(format!(

@@ -97,8 +97,10 @@ pub fn plan(model: &Model, from: f64, to: f64, step: Option<f64>) -> Result<Plan
                     format!("a ring is swept by well count: give whole numbers, --from at least 3 and --step at least 1 (got {from} … {to} by {step})"),
                 ));
             }
-            let steps = ((to - from) / step).floor() as usize + 1;
-            if steps > MAX_STEPS || to > crate::optimise::search::MAX_WELLS as f64 {
+            // In f64 first: a huge range must not overflow the count.
+            let steps_f = ((to - from) / step).floor() + 1.0;
+            let steps = steps_f.min(usize::MAX as f64 / 2.0) as usize;
+            if steps_f > MAX_STEPS as f64 || to > crate::optimise::search::MAX_WELLS as f64 {
                 return Err(bad(
                     model,
                     "--from/--to/--step",
@@ -124,15 +126,16 @@ pub fn plan(model: &Model, from: f64, to: f64, step: Option<f64>) -> Result<Plan
         }
         LayoutKind::Line { .. } => {
             let step = step.unwrap_or(((to - from) / 10.0).max(0.01));
-            if from < 0.1 || step <= 0.0 {
+            if from < 0.1 || !(step > 0.0 && step.is_finite()) {
                 return Err(bad(
                     model,
                     "--from/--step",
                     format!("a trench line is swept by spacing in metres: --from at least 0.1 m and --step above zero (got {from} by {step})"),
                 ));
             }
-            let steps = ((to - from) / step + 1e-9).floor() as usize + 1;
-            if steps > MAX_STEPS {
+            let steps_f = ((to - from) / step + 1e-9).floor() + 1.0;
+            let steps = steps_f.min(usize::MAX as f64 / 2.0) as usize;
+            if steps_f > MAX_STEPS as f64 {
                 return Err(bad(
                     model,
                     "--step",

@@ -27,12 +27,14 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
     ])?;
     for (well, r) in run.placement.wells.iter().zip(&run.evaluation.wells) {
         w.write_record([
-            well.name.clone(),
-            format!("{:.3}", well.position[0]),
-            format!("{:.3}", well.position[1]),
-            format!("{:.6}", well.rate * 1e3),
+            // Name, position, rate and radius in full (shortest round-trip) precision, so that
+            // `check --wells wells.csv` reproduces the run.
+            crate::field::layout::csv_text(&well.name),
+            format!("{}", well.position[0]),
+            format!("{}", well.position[1]),
+            format!("{}", well.rate * 1e3),
             format!("{:.2}", well.rate * 86_400.0),
-            format!("{:.3}", well.radius),
+            format!("{}", well.radius),
             format!("{:.2}", well.screen_top),
             format!("{:.2}", well.screen_base),
             format!("{:.2}", well.pump_intake),
@@ -67,7 +69,7 @@ pub fn checkpoints_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
     ])?;
     for p in &run.evaluation.points {
         w.write_record([
-            p.point.name.clone(),
+            crate::field::layout::csv_text(&p.point.name),
             format!("{:?}", p.point.kind).to_lowercase(),
             format!("{:.3}", p.point.position[0]),
             format!("{:.3}", p.point.position[1]),

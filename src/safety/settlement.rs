@@ -30,6 +30,9 @@ use crate::input::model::{Compressibility, SoilLayer};
 pub use crate::physics::water::GAMMA_W;
 /// Largest slice a layer is cut into, m.
 pub const SLICE: f64 = 0.1;
+/// Most slices one layer is cut into: a layer thicker than `SLICE × MAX_SLICES` (200 m) is cut
+/// into this many equal slices instead, so the work per column stays bounded.
+pub const MAX_SLICES: usize = 2_000;
 
 /// Which form of the effective-stress change to use.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -105,7 +108,7 @@ pub fn column(
     let mut top = top_level;
     for layer in layers {
         let bottom = top - layer.thickness;
-        let n = (layer.thickness / SLICE).ceil().max(1.0) as usize;
+        let n = ((layer.thickness / SLICE).ceil().max(1.0) as usize).min(MAX_SLICES);
         let dz = layer.thickness / n as f64;
         let loss_rate = match (form, layer.unit_weight, layer.moist_unit_weight) {
             (StressForm::BuoyancyLoss, Some(sat), Some(moist)) => (sat - moist).max(0.0),

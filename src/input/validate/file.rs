@@ -9,14 +9,37 @@ use crate::input::validate::wells;
 use std::collections::HashSet;
 use std::path::Path;
 
-/// Read, parse and validate a design file.
-pub fn load(path: &Path) -> Result<Model, InputError> {
-    let bytes = std::fs::read(path).map_err(|e| InputError {
+/// Largest design file read, bytes (16 MiB): a design file of 10⁵-vertex outlines is a few MiB.
+pub const MAX_FILE_BYTES: u64 = 16 << 20;
+
+/// Read at most `max` bytes of `path`; a longer file (or an endless one such as `/dev/zero`) is
+/// an error that names the cap, found after reading `max + 1` bytes and no more.
+pub fn read_capped(path: &Path, max: u64, what: &str) -> Result<Vec<u8>, InputError> {
+    use std::io::Read;
+    let fail = |message: String| InputError {
         file: path.to_path_buf(),
         field: String::new(),
         line: None,
-        message: format!("cannot read the design file: {e}"),
-    })?;
+        message,
+    };
+    let file =
+        std::fs::File::open(path).map_err(|e| fail(format!("cannot read the {what}: {e}")))?;
+    let mut bytes = Vec::new();
+    file.take(max + 1)
+        .read_to_end(&mut bytes)
+        .map_err(|e| fail(format!("cannot read the {what}: {e}")))?;
+    if bytes.len() as u64 > max {
+        return Err(fail(format!(
+            "the {what} is larger than {} MiB, the most drydig reads; is it the right file?",
+            max >> 20
+        )));
+    }
+    Ok(bytes)
+}
+
+/// Read, parse and validate a design file.
+pub fn load(path: &Path) -> Result<Model, InputError> {
+    let bytes = read_capped(path, MAX_FILE_BYTES, "design file")?;
     let source = String::from_utf8(bytes).map_err(|e| InputError {
         file: path.to_path_buf(),
         field: String::new(),
@@ -118,6 +141,7 @@ fn parse_error(rep: &Reporter, source: &str, e: &toml::de::Error) -> InputError 
 }
 
 fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, InputError> {
+    crate::input::validate::ranges::check(rep, &raw)?;
     // Site.
     if raw.site.name.trim().is_empty() {
         return Err(rep.error("site.name", None, "must not be empty"));
@@ -224,7 +248,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         }
     };
 
-    Ok(Model {
+    let model = Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
         datum: raw
@@ -249,7 +273,9 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         uplift,
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
-    })
+    };
+    crate::input::validate::derived::check(rep, &model)?;
+    Ok(model)
 }
 
 /// The check-point settings: grid spacing, edge points, named points.

@@ -4,10 +4,15 @@
 //!
 //! `file` reads and parses and assembles the model from the parts: `shapes` (outlines, lines,
 //! boundaries, keep-out zones), `aquifer` (aquifer and radius-of-influence method), `wells`
-//! (well specification and layout), `neighbours` (buildings and the base-uplift check).
+//! (well specification and layout), `neighbours` (buildings and the base-uplift check),
+//! `ranges` (levels, coordinates, counts and names a real site can have), `derived` (what the
+//! formulas compute from them: distance of influence, leakage factor, equivalent radius, the
+//! number of check points).
 
 pub mod aquifer;
+pub mod derived;
 pub mod file;
 pub mod neighbours;
+pub mod ranges;
 pub mod shapes;
 pub mod wells;

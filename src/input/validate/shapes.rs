@@ -31,11 +31,28 @@ pub fn points(
     field: &str,
     raw: &toml::Spanned<Vec<Vec<f64>>>,
 ) -> Result<Vec<[f64; 2]>, InputError> {
+    use crate::input::validate::ranges::{MAX_COORD, MAX_VERTICES};
+    let n = raw.get_ref().len();
+    if n > MAX_VERTICES {
+        return Err(rep.error(
+            field,
+            Some(raw.span()),
+            format!("{n} points is more than the {MAX_VERTICES} drydig takes in one outline or line; simplify it (e.g. to 0.1 m) first"),
+        ));
+    }
     raw.get_ref()
         .iter()
         .enumerate()
         .map(|(i, p)| match p.as_slice() {
-            [x, y] if x.is_finite() && y.is_finite() => Ok([*x, *y]),
+            [x, y] if x.abs() <= MAX_COORD && y.abs() <= MAX_COORD => Ok([*x, *y]),
+            [x, y] if x.is_finite() && y.is_finite() => Err(rep.error(
+                field,
+                Some(raw.span()),
+                format!(
+                    "point {} ({x:e}, {y:e}) lies beyond ±{MAX_COORD:e} m of the grid origin; give projected coordinates in metres",
+                    i + 1
+                ),
+            )),
             _ => Err(rep.error(
                 field,
                 Some(raw.span()),
