@@ -55,6 +55,14 @@ pub fn field_for(model: &Model, wells: &[Well]) -> Field {
         &model.boundaries,
         site_origin(model),
     )
+    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+}
+
+/// The level check points and the map are evaluated at for partial penetration, m: the served
+/// excavation's target level (where the water must be drawn to; clamped to the layer inside).
+pub fn evaluation_level(model: &Model) -> f64 {
+    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
+    model.excavations[idx].target_level()
 }
 
 /// Evaluate a placement.

@@ -154,6 +154,13 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     // Wells.
     let wells = wells::well_spec(rep, raw.wells.as_ref(), &aquifer, ground)?;
+    let as_built = crate::input::validate::as_built::as_built(
+        rep,
+        &raw.aquifer,
+        raw.wells.as_ref(),
+        &wells,
+        ground,
+    )?;
 
     // Listed wells.
     let mut well_names = HashSet::new();
@@ -249,6 +256,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         uplift,
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
+        as_built,
     })
 }
 
