@@ -216,6 +216,12 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         Family::Fixed => ("the given wells: rates only".to_string(), spec.clone()),
     };
     let probe_placement = layout::generate(model, &probe, 0.0)?;
+    let named: Vec<(&str, [f64; 2], f64)> = probe_placement
+        .wells
+        .iter()
+        .map(|w| (w.name.as_str(), w.position, w.radius))
+        .collect();
+    crate::input::validate::sides::check_wells(model, &named, "layout")?;
     if matches!(fam, Family::Fixed) && probe_placement.wells.is_empty() {
         return Err(InputError {
             file: model.file.clone(),

@@ -231,7 +231,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         }
     };
 
-    Ok(Model {
+    let model = Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
         datum: raw
@@ -257,7 +257,15 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
         as_built,
-    })
+    };
+    crate::input::validate::sides::check_points_and_neighbours(&model)?;
+    let listed: Vec<(&str, [f64; 2], f64)> = model
+        .listed_wells
+        .iter()
+        .map(|w| (w.name.as_str(), w.position, w.radius))
+        .collect();
+    crate::input::validate::sides::check_wells(&model, &listed, "well")?;
+    Ok(model)
 }
 
 /// The check-point settings: grid spacing, edge points, named points.

@@ -11,4 +11,5 @@ pub mod as_built;
 pub mod file;
 pub mod neighbours;
 pub mod shapes;
+pub mod sides;
 pub mod wells;
