@@ -10,6 +10,12 @@
 //!   two ends acting together as one radial well of radius W/2 (end allowance; common practice
 //!   (no source), after the remark in TM 5-818-5 that inflow is larger near the ends of a slot).
 //!
+//! - **Boundaries**: each straight boundary is represented by the first-order image of the
+//!   equivalent well (radius r_e at the outline's centroid, [`crate::physics::image_flow`]); the
+//!   ratio of the flows with and without the images multiplies the method's flow (pit or
+//!   trench), and both figures are reported. With several boundaries the images of images are
+//!   left out and the estimate says so.
+//!
 //! The design flow adds the contingency, and a rough well count divides it by one well's
 //! capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower).
 
@@ -76,6 +82,10 @@ pub struct ExcavationEstimate {
     pub slot_ends_flow_m3_per_day: Option<f64>,
     /// Flow per 100 m of trench (trenches only).
     pub flow_per_100m_m3_per_day: Option<f64>,
+    /// Steady total flow without the boundaries (equal to the total when there are none), L/s.
+    pub flow_without_boundaries_l_per_s: f64,
+    /// Flow with the boundaries' images over the flow without them.
+    pub boundary_factor: f64,
     /// For comparison: the equivalent-well flow (area-form r_e, radial L₀) whatever the method.
     pub equivalent_well_flow_m3_per_day: f64,
     /// Contingency fraction applied.
@@ -229,6 +239,43 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             )
         }
     };
+    // Boundaries: first-order images of the equivalent well at the centroid.
+    let q_free = q;
+    let centre = geo::Centroid::centroid(&e.outline).map_or([0.0, 0.0], |c| [c.x(), c.y()]);
+    let images: Vec<(f64, f64)> = model
+        .boundaries
+        .iter()
+        .map(|b| {
+            let f = crate::geometry::foot(centre, b.line[0], b.line[1]);
+            let a = (f[0] - centre[0]).hypot(f[1] - centre[1]);
+            (2.0 * a, crate::physics::images::image_sign(b.kind))
+        })
+        .collect();
+    let factor = if method == FlowMethod::NoneNeeded || images.is_empty() {
+        1.0
+    } else {
+        crate::physics::image_flow::boundary_flow_factor(r_e, r_e + l0_radial, leaky, &images)
+    };
+    let q = q * factor;
+    if !images.is_empty() && method != FlowMethod::NoneNeeded {
+        notes.push(format!(
+            "boundaries: {} taken by the image of the equivalent well (r_e = {r_e:.1} m at the centroid): flow {:.2} L/s with them, {:.2} L/s without (× {factor:.2}){}",
+            model
+                .boundaries
+                .iter()
+                .zip(&images)
+                .map(|(b, (d, _))| format!("\"{}\" {:.0} m away", b.name, d / 2.0))
+                .collect::<Vec<_>>()
+                .join(", "),
+            q * 1e3,
+            q_free * 1e3,
+            if images.len() > 1 {
+                " — SEVERAL BOUNDARIES: first-order images only (images of images left out), so this is rough; use `check`/`design` for the flow"
+            } else {
+                ""
+            }
+        ));
+    }
     let equivalent_well = if method == FlowMethod::NoneNeeded {
         0.0
     } else {
@@ -278,8 +325,24 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     if wetted <= 0.0 && design > 0.0 {
         notes.push("no screen lies below the target level, so a well here has no capacity: lower screen_base".into());
     }
-    if w.kind == WellKind::Wellpoint && s > w.suction_limit {
-        notes.push(format!("drawdown {s:.1} m exceeds the wellpoint suction limit {:.1} m: one stage cannot do it — use two stages, ejectors or deep wells (common practice (no source))", w.suction_limit));
+    if w.kind == WellKind::Wellpoint {
+        // One definition with `check` and `design`: the water in a wellpoint may go down to the
+        // header level less the suction limit, and it must reach below the target.
+        let floor = model.as_built.suction_floor(w.suction_limit);
+        let header = format!(
+            "header {:.2} m{}",
+            model.as_built.header_level,
+            if model.as_built.header_given {
+                ""
+            } else {
+                " (ground level, the default)"
+            }
+        );
+        if target < floor {
+            notes.push(format!("wellpoint suction: the lowest level a wellpoint holds is {floor:.2} m ({header} − suction limit {:.2} m), {:.2} m above the target {target:.2} m: one stage cannot do it — a second stage, ejectors or deep wells (common practice (no source))", w.suction_limit, floor - target));
+        } else {
+            notes.push(format!("wellpoint suction: lowest level in a wellpoint {floor:.2} m ({header} − suction limit {:.2} m), {:.2} m below the target {target:.2} m", w.suction_limit, target - floor));
+        }
     }
 
     let day = 86_400.0;
@@ -304,6 +367,8 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         slot_sides_flow_m3_per_day: sides.map(|v| v * day),
         slot_ends_flow_m3_per_day: ends.map(|v| v * day),
         flow_per_100m_m3_per_day: sides.map(|v| v * day * 100.0 / length.max(1e-9)),
+        flow_without_boundaries_l_per_s: q_free * 1e3,
+        boundary_factor: factor,
         equivalent_well_flow_m3_per_day: equivalent_well * day,
         contingency: model.contingency,
         design_flow_m3_per_day: design * day,

@@ -102,6 +102,10 @@ const CASES: &[Case] = &[
     // Boundaries, neighbours, checks, uplift, output.
     case("boundary_crossing_excavation.toml", Slot("boundary[1].line"), "wholly to one side", Some("line = [[15, -100]")),
     case("boundaries_oblique.toml", Slot("boundary"), "180°/n", None),
+    case("well_across_boundary.toml", Slot("well"), "beyond boundary \"River\"", None),
+    case("well_in_constant_head_line.toml", Slot("well"), "at least a well radius inland", None),
+    case("check_point_across_boundary.toml", Slot("checks.point[1]"), "move it to the aquifer side", None),
+    case("neighbour_across_boundary.toml", Slot("neighbour[1].footprint"), "10.00 m beyond boundary", None),
     case("boundary_one_point.toml", Slot("boundary[1].line"), "two distinct points", Some("line = [[-50, -100]]")),
     case("duplicate_neighbour_names.toml", Slot("neighbour[2].name"), "needs its own name", Some("[[40, 0]")),
     case("negative_distortion.toml", Slot("neighbour[1].allowable_distortion"), "\"1/500\"", Some("allowable_distortion = ")),

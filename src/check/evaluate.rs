@@ -1,12 +1,20 @@
 //! Evaluate a placed well field: levels at every check point and in every well, against targets
 //! and well limits.
+//!
+//! The level in a well is the aquifer level at its screen face (with partial penetration, from
+//! the kernel) less its well loss (Jacob's C·Q², or the efficiency: s_well = s_face/E; Jacob
+//! 1947, Kruseman & de Ridder 1994 ch. 14). A wellpoint's lowest level is its header level less
+//! the suction limit (the same rule in `estimate` and `design`). A recharge well (negative
+//! rate) is held below its highest allowed level (ground − margin, or given) and within its
+//! injection capacity (a fraction of its abstraction capacity; common practice (no source)).
 
 use crate::field::checkpoints::CheckPoint;
 use crate::field::influence::Field;
 use crate::field::wells::Well;
-use crate::input::model::{Model, WellKind};
+use crate::input::model::{Model, WellKind, WellLossSpec};
 use crate::physics::capacity::sichardt_well_capacity;
 use crate::physics::potential::Level;
+use crate::physics::well_loss::{efficiency_loss, jacob_loss};
 use serde::Serialize;
 
 /// Tolerance on targets, m: a point within a millimetre of its target counts as meeting it.
@@ -21,8 +29,13 @@ pub struct WellResult {
     pub position: [f64; 2],
     /// Rate, m³/s.
     pub rate_m3_per_s: f64,
-    /// Water level in the well, m (`None`: pumped dry).
+    /// Water level in the well, m, after the well loss (`None`: pumped dry).
     pub level_m: Option<f64>,
+    /// Aquifer level at the screen face (with partial penetration, before the well loss), m.
+    pub aquifer_level_m: Option<f64>,
+    /// Well loss, m (positive: the level in the well is this much below the face when
+    /// pumping, above it when recharging).
+    pub well_loss_m: f64,
     /// Drawdown in the well, m.
     pub drawdown_m: f64,
     /// Lowest level allowed in the well, m (pump intake + submergence, or suction limit).
@@ -31,6 +44,10 @@ pub struct WellResult {
     pub sichardt_capacity_m3_per_s: f64,
     /// The well's own limit on rate (lower of Sichardt and pump), m³/s.
     pub capacity_m3_per_s: f64,
+    /// Recharge wells: the highest level allowed in the well, m.
+    pub highest_allowed_level_m: Option<f64>,
+    /// Recharge wells: the injection capacity, m³/s (a fraction of the abstraction capacity).
+    pub injection_capacity_m3_per_s: Option<f64>,
     /// What is wrong, if anything.
     pub problems: Vec<String>,
 }
@@ -112,14 +129,24 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
         .iter()
         .zip(well_levels)
         .map(|(w, lv)| {
-            let z = lv.or_base(aq.base_level);
+            let face = lv.or_base(aq.base_level);
+            let loss = match model.as_built.loss {
+                WellLossSpec::Jacob(c) => jacob_loss(c, w.rate),
+                WellLossSpec::Efficiency(e) if w.rate > 0.0 => {
+                    efficiency_loss((aq.initial_level - face).max(0.0), e)
+                }
+                _ => 0.0,
+            };
+            // the loss lowers the level in a pumped well and raises it in a recharge well
+            let z = if w.rate < 0.0 { face + loss } else { face - loss };
             let lowest = match w.kind {
                 WellKind::DeepWell => w.pump_intake + spec.submergence,
-                WellKind::Wellpoint => {
-                    (model.ground_level - spec.suction_limit).max(w.pump_intake + spec.submergence)
-                }
+                WellKind::Wellpoint => model
+                    .as_built
+                    .suction_floor(spec.suction_limit)
+                    .max(w.pump_intake + spec.submergence),
             };
-            let wetted = (w.screen_top.min(z) - w.screen_base).max(0.0);
+            let wetted = (w.screen_top.min(face) - w.screen_base).max(0.0);
             let sichardt = sichardt_well_capacity(w.radius, wetted, aq.conductivity);
             let cap = spec.pump_capacity.map_or(sichardt, |p| p.min(sichardt));
             let mut problems = Vec::new();
@@ -128,15 +155,58 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
                     "pumped dry: the rate is more than the aquifer can give here".to_string(),
                 );
             } else if w.rate > 0.0 && z < lowest - TARGET_TOLERANCE {
+                let with_loss = if loss > 0.0 {
+                    format!(" (with a well loss of {loss:.2} m)")
+                } else {
+                    String::new()
+                };
                 problems.push(match w.kind {
                     WellKind::DeepWell => format!(
-                        "level {z:.2} m is below the pump intake + submergence ({lowest:.2} m)"
+                        "level {z:.2} m{with_loss} is below the pump intake + submergence ({lowest:.2} m)"
                     ),
-                    WellKind::Wellpoint => {
-                        format!("level {z:.2} m is below what suction can lift ({lowest:.2} m)")
-                    }
+                    WellKind::Wellpoint => format!(
+                        "level {z:.2} m{with_loss} is below what suction can lift ({lowest:.2} m = header {:.2} m − suction limit {:.2} m), by {:.2} m: one stage cannot do it — a second stage or deep wells",
+                        model.as_built.header_level,
+                        spec.suction_limit,
+                        lowest - z
+                    ),
                 });
             }
+            let (highest, injection_cap) = if w.rate < 0.0 {
+                let full_wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
+                let full = sichardt_well_capacity(w.radius, full_wetted, aq.conductivity);
+                let full = spec.pump_capacity.map_or(full, |p| p.min(full));
+                let inj = model.as_built.injection_fraction * full;
+                let top = model.as_built.max_injection_level;
+                if lv != Level::Dry && z > top + TARGET_TOLERANCE {
+                    problems.push(format!(
+                        "recharge level {z:.2} m is above the highest allowed {top:.2} m ({}), by {:.2} m",
+                        model.as_built.injection_basis,
+                        z - top
+                    ));
+                }
+                if -w.rate > inj * (1.0 + 1e-9) {
+                    problems.push(format!(
+                        "injection {:.2} L/s exceeds its injection capacity {:.2} L/s ({:.0} % of the abstraction capacity {:.2} L/s{})",
+                        -w.rate * 1e3,
+                        inj * 1e3,
+                        model.as_built.injection_fraction * 100.0,
+                        full * 1e3,
+                        if (model.as_built.injection_fraction
+                            - crate::input::model::DEFAULT_INJECTION_FRACTION)
+                            .abs()
+                            < 1e-12
+                        {
+                            "; default fraction, common practice (no source)"
+                        } else {
+                            ""
+                        }
+                    ));
+                }
+                (Some(top), Some(inj))
+            } else {
+                (None, None)
+            };
             if w.rate > cap * (1.0 + 1e-9) {
                 problems.push(format!(
                     "rate {:.2} L/s exceeds its capacity {:.2} L/s ({})",
@@ -149,18 +219,23 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
                     }
                 ));
             }
+            let wet = |v: f64| match lv {
+                Level::Wet(_) => Some(v),
+                Level::Dry => None,
+            };
             WellResult {
                 name: w.name.clone(),
                 position: w.position,
                 rate_m3_per_s: w.rate,
-                level_m: match lv {
-                    Level::Wet(z) => Some(z),
-                    Level::Dry => None,
-                },
+                level_m: wet(z),
+                aquifer_level_m: wet(face),
+                well_loss_m: loss,
                 drawdown_m: aq.initial_level - z,
                 lowest_allowed_level_m: lowest,
                 sichardt_capacity_m3_per_s: sichardt,
                 capacity_m3_per_s: cap,
+                highest_allowed_level_m: highest,
+                injection_capacity_m3_per_s: injection_cap,
                 problems,
             }
         })

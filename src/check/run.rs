@@ -55,6 +55,14 @@ pub fn field_for(model: &Model, wells: &[Well]) -> Field {
         &model.boundaries,
         site_origin(model),
     )
+    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+}
+
+/// The level check points and the map are evaluated at for partial penetration, m: the served
+/// excavation's target level (where the water must be drawn to; clamped to the layer inside).
+pub fn evaluation_level(model: &Model) -> f64 {
+    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
+    model.excavations[idx].target_level()
 }
 
 /// Evaluate a placement.
@@ -75,6 +83,20 @@ pub fn evaluate_placement(model: &Model, placement: Placement) -> CheckRun<'_> {
 /// Evaluate the design file's layout (or the wells of a CSV file).
 pub fn run<'a>(model: &'a Model, wells_csv: Option<&Path>) -> Result<CheckRun<'a>, InputError> {
     let placement = layout::from_model(model, wells_csv)?;
+    let named: Vec<(&str, [f64; 2], f64)> = placement
+        .wells
+        .iter()
+        .map(|w| (w.name.as_str(), w.position, w.radius))
+        .collect();
+    crate::input::validate::sides::check_wells(
+        model,
+        &named,
+        if wells_csv.is_some() {
+            "--wells"
+        } else {
+            "layout"
+        },
+    )?;
     if placement.wells.is_empty() {
         return Err(InputError {
             file: model.file.clone(),

@@ -8,7 +8,12 @@
 //!
 //! Wells in range of a point are found with an R-tree (`rstar`); the plain all-pairs sum gives the
 //! same result (tested on seeded random layouts).
+//!
+//! Wells whose screen does not span the saturated thickness add a near-field term, linear in the
+//! rate ([`crate::field::near_field`], partial penetration): set with
+//! [`Field::with_partial_penetration`].
 
+use crate::field::near_field::{NearField, WellScreen};
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
 use crate::input::model::Boundary;
@@ -51,6 +56,10 @@ pub struct Field {
     sources: Vec<Source>,
     tree: RTree<Indexed>,
     well_count: usize,
+    /// Whether each source is a real well (not an image).
+    real: Vec<bool>,
+    /// Partial penetration near the wells, when some screen does not span the layer.
+    near: Option<NearField>,
 }
 
 impl Field {
@@ -74,8 +83,10 @@ impl Field {
             .map(|b| (local(b.line[0]), local(b.line[1]), b.kind))
             .collect();
         let mut sources = Vec::with_capacity(wells.len() * (1 + boundaries.len()));
+        let mut real = Vec::with_capacity(sources.capacity());
         for (i, w) in wells.iter().enumerate() {
             let p = local(w.position);
+            real.push(true);
             sources.push(Source {
                 position: p,
                 radius: w.radius,
@@ -91,6 +102,7 @@ impl Field {
                     .collect()
             });
             for (position, sign) in images {
+                real.push(false);
                 sources.push(Source {
                     position,
                     radius: w.radius,
@@ -114,7 +126,51 @@ impl Field {
             sources,
             tree,
             well_count: wells.len(),
+            real,
+            near: None,
         }
+    }
+
+    /// The same field with partial penetration of every well whose screen does not span the
+    /// saturated thickness D (the aquifer's thickness before pumping; see
+    /// [`crate::field::near_field`] for the approximations), vertical anisotropy
+    /// `anisotropy` = K_v/K_h, check points and the map evaluated at level `z_eval` (m, clamped to
+    /// the layer). `wells` must be the wells the field was built with.
+    pub fn with_partial_penetration(
+        mut self,
+        wells: &[Well],
+        anisotropy: f64,
+        z_eval: f64,
+    ) -> Field {
+        let screens: Vec<WellScreen> = wells
+            .iter()
+            .map(|w| WellScreen {
+                screen_base: w.screen_base,
+                screen_top: w.screen_top,
+                radius: w.radius,
+            })
+            .collect();
+        let sources: Vec<([f64; 2], usize, f64, bool)> = self
+            .sources
+            .iter()
+            .zip(&self.real)
+            .map(|(s, r)| (s.position, s.well, s.sign, *r))
+            .collect();
+        let aq = &self.aquifer;
+        self.near = NearField::new(
+            &screens,
+            &sources,
+            aq.base_level,
+            aq.initial_saturated_thickness(),
+            anisotropy,
+            z_eval,
+        );
+        self
+    }
+
+    /// Whether some well is partially penetrating (a near-field term is added).
+    pub fn has_partial_penetration(&self) -> bool {
+        self.near.is_some()
     }
 
     /// The aquifer.
@@ -160,6 +216,9 @@ impl Field {
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
             f(s.well, s.sign * self.unit_potential(r, s.radius));
         }
+        if let Some(n) = &self.near {
+            n.for_each(p, f);
+        }
     }
 
     /// Row of ΔΦ per unit rate of each real well at `point` (images folded into their well).
@@ -176,6 +235,9 @@ impl Field {
         for s in &self.sources {
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
             row[s.well] += s.sign * self.unit_potential(r, s.radius);
+        }
+        if let Some(n) = &self.near {
+            n.for_each(p, |w, v| row[w] += v);
         }
         row
     }
@@ -227,6 +289,21 @@ impl Field {
             let vals: Vec<f64> = fast.par_iter().map(|&i| flat.direct(local[i])).collect();
             for (&i, v) in fast.iter().zip(vals) {
                 delta[i] = v - offset;
+            }
+        }
+        if let Some(n) = &self.near {
+            // the near-field term where the fast sums above left it out
+            let extra: Vec<(usize, f64)> = fast
+                .par_iter()
+                .filter(|&&i| n.touches(local[i]))
+                .map(|&i| {
+                    let mut e = 0.0;
+                    n.for_each(local[i], |w, v| e += rates[w] * v);
+                    (i, e)
+                })
+                .collect();
+            for (i, e) in extra {
+                delta[i] += e;
             }
         }
         let phi0 = self.aquifer.initial_potential();

@@ -4,12 +4,13 @@
 //! `shape` (length, width and whether an outline is a trench) → `radius` (the radius of
 //! influence superposition uses) → `wells` and `layout` (ring, line, listed, CSV) →
 //! `checkpoints` (grid, corners, edges, named points) → `influence` (the superposition kernel)
-//! → `grid` (the regular grid of levels behind the maps).
+//! (with `near_field`, partial penetration near the wells) → `grid` (the regular grid of levels behind the maps).
 
 pub mod checkpoints;
 pub mod grid;
 pub mod influence;
 pub mod layout;
+pub mod near_field;
 pub mod radius;
 pub mod shape;
 pub mod wells;

@@ -66,6 +66,8 @@ pub struct Model {
     pub units: UnitSystem,
     /// What the map contours.
     pub map_quantity: MapQuantity,
+    /// Wells as they are built: anisotropy, header, well loss, spacing and recharge limits.
+    pub as_built: AsBuilt,
 }
 
 /// An excavation with its outline and levels.
@@ -369,4 +371,66 @@ pub enum MapQuantity {
     Drawdown,
     /// Water level, m above datum.
     WaterLevel,
+}
+
+/// Default injection capacity as a fraction of the abstraction capacity of the same well
+/// (common practice (no source): a recharge well takes about half what it would give).
+pub const DEFAULT_INJECTION_FRACTION: f64 = 0.5;
+/// Default margin kept between the level in a recharge well and ground, m (common practice
+/// (no source)).
+pub const DEFAULT_INJECTION_MARGIN: f64 = 1.0;
+/// Default closest wellpoint spacing, m (common practice (no source): 0.75–2 m in fine sands
+/// and silts, checks.md §15; jetting and the header set the lower end).
+pub const DEFAULT_MIN_SPACING_WELLPOINT: f64 = 0.75;
+/// Default widest wellpoint spacing, m (common practice (no source): rarely more than 3 m).
+pub const DEFAULT_MAX_SPACING_WELLPOINT: f64 = 3.0;
+/// Default closest deep-well spacing, m (common practice (no source): rigs and pipework).
+pub const DEFAULT_MIN_SPACING_DEEP_WELL: f64 = 3.0;
+/// Default widest deep-well spacing, m (common practice (no source): a ring of deep wells
+/// rarely stands more than about 30 m apart).
+pub const DEFAULT_MAX_SPACING_DEEP_WELL: f64 = 30.0;
+
+/// The loss inside a pumped well over the aquifer just outside its screen.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum WellLossSpec {
+    /// No well loss.
+    None,
+    /// Jacob's C·Q², C in s²/m⁵.
+    Jacob(f64),
+    /// Well efficiency E in (0, 1]: drawdown in the well = aquifer drawdown / E.
+    Efficiency(f64),
+}
+
+/// Wells as they are built and run.
+#[derive(Debug, Clone)]
+pub struct AsBuilt {
+    /// Vertical anisotropy K_v/K_h of the aquifer (default 1).
+    pub anisotropy: f64,
+    /// Wellpoint header (pump) level, m: the suction limit is measured from it down to the
+    /// water in the wellpoint (default ground level).
+    pub header_level: f64,
+    /// Whether the header level was given.
+    pub header_given: bool,
+    /// Well loss.
+    pub loss: WellLossSpec,
+    /// Closest spacing the design may use, m.
+    pub min_spacing: f64,
+    /// Widest spacing the design may use, m.
+    pub max_spacing: f64,
+    /// Whether the spacing limits are the rule-of-thumb defaults.
+    pub spacing_default: bool,
+    /// Injection capacity as a fraction of the abstraction capacity.
+    pub injection_fraction: f64,
+    /// Highest level allowed in a recharge well, m (ground − margin, or given).
+    pub max_injection_level: f64,
+    /// How that level was set, for reports.
+    pub injection_basis: String,
+}
+
+impl AsBuilt {
+    /// The lowest water level a wellpoint can hold by suction: header − suction limit, m.
+    /// One definition for `estimate`, `check` and `design`.
+    pub fn suction_floor(&self, suction_limit: f64) -> f64 {
+        self.header_level - suction_limit
+    }
 }

@@ -96,6 +96,9 @@ pub struct Aquifer {
     /// Hydraulic resistance c = b′/K′ of the aquitard (leaky), a time.
     #[serde(default)]
     pub aquitard_resistance: Option<Duration>,
+    /// Vertical anisotropy K_v/K_h (default 1), for partial penetration.
+    #[serde(default)]
+    pub anisotropy: Option<f64>,
 }
 
 /// `[[excavation]]`
@@ -200,6 +203,30 @@ pub struct WellSpec {
     /// Standby wells added to the count for the bid.
     #[serde(default)]
     pub standby: Option<u32>,
+    /// Wellpoint header (pump) level; the suction limit is measured from it (default ground).
+    #[serde(default)]
+    pub header_level: Option<Length>,
+    /// Jacob's well-loss coefficient C in s²/m⁵ (loss = C·Q²).
+    #[serde(default)]
+    pub loss_coefficient: Option<f64>,
+    /// Well efficiency E in (0, 1] (drawdown in the well = aquifer drawdown / E).
+    #[serde(default)]
+    pub efficiency: Option<f64>,
+    /// Closest spacing the design may use.
+    #[serde(default)]
+    pub min_spacing: Option<Length>,
+    /// Widest spacing the design may use.
+    #[serde(default)]
+    pub max_spacing: Option<Length>,
+    /// Injection capacity of a recharge well as a fraction of its abstraction capacity.
+    #[serde(default)]
+    pub injection_fraction: Option<f64>,
+    /// Margin kept between the level in a recharge well and ground.
+    #[serde(default)]
+    pub injection_margin: Option<Length>,
+    /// Highest level allowed in a recharge well (instead of ground − margin).
+    #[serde(default)]
+    pub max_injection_level: Option<Length>,
 }
 
 /// `[layout]`

@@ -43,7 +43,7 @@ pub struct Individual {
 #[derive(Debug, Clone, Copy)]
 enum RowRef {
     Target(usize),
-    Level(usize),
+    Level(usize, usize),
     Capacity(usize, usize),
 }
 
@@ -154,18 +154,32 @@ impl LayoutRates<'_> {
                     label: format!("target at {}", self.points[self.targets[t]].name),
                 }
             }
-            RowRef::Level(k) => {
+            RowRef::Level(k, i) => {
                 coefficients[..g].copy_from_slice(&self.matrices().at_wells[k]);
                 let lim = &self.limits[k];
+                let (phi, slope) = lim.level_pieces[i];
+                if let Some(gk) = self.group_of[k] {
+                    coefficients[gk] -= slope;
+                }
                 Constraint {
                     coefficients,
                     sense: Sense::AtLeast,
-                    rhs: lim.floor_potential - self.base_w[k],
+                    rhs: phi - self.base_w[k],
                     label: format!(
-                        "level in {} at {:.2} m ({})",
+                        "level in {} at {:.2} m ({}{})",
                         self.wells[k].name,
-                        lim.floor_level,
-                        lim.floor_kind.describe()
+                        lim.lowest_level,
+                        lim.floor_kind.describe(),
+                        if lim.loss_c > 0.0 {
+                            ", with the well loss C·Q²"
+                        } else if lim.floor_level > lim.lowest_level + 1e-9
+                            && lim.floor_kind != crate::optimise::limits::FloorKind::ScreenBase
+                            && lim.floor_kind != crate::optimise::limits::FloorKind::AquiferBase
+                        {
+                            ", with the well efficiency"
+                        } else {
+                            ""
+                        }
                     ),
                 }
             }
@@ -274,7 +288,11 @@ impl LayoutRates<'_> {
                 have_target[*t] = true;
             }
         }
-        let mut have_level = vec![false; n];
+        let mut have_level: Vec<Vec<bool>> = self
+            .limits
+            .iter()
+            .map(|l| vec![false; l.level_pieces.len()])
+            .collect();
         let mut have_cap: Vec<Vec<bool>> = self
             .limits
             .iter()
@@ -289,7 +307,9 @@ impl LayoutRates<'_> {
                 rows = (0..mats.a.len()).map(RowRef::Target).collect();
                 if limits_on {
                     for k in (0..n).filter(|&k| self.group_of[k].is_some()) {
-                        rows.push(RowRef::Level(k));
+                        for i in 0..self.limits[k].level_pieces.len() {
+                            rows.push(RowRef::Level(k, i));
+                        }
                         for s in 0..self.limits[k].pieces.len() {
                             rows.push(RowRef::Capacity(k, s));
                         }
@@ -333,9 +353,10 @@ impl LayoutRates<'_> {
                     };
                     let phi = self.base_w[k] + dot(&mats.at_wells[k], x);
                     let lim = &self.limits[k];
-                    if !have_level[k] && phi < lim.floor_potential - tol {
-                        let v = (lim.floor_potential - phi) / self.phi0.abs().max(1e-30);
-                        well_viol.push((v, RowRef::Level(k)));
+                    let (floor_phi, i) = lim.chord_floor(x[gk]);
+                    if !have_level[k][i] && phi < floor_phi - tol {
+                        let v = (floor_phi - phi) / self.phi0.abs().max(1e-30);
+                        well_viol.push((v, RowRef::Level(k, i)));
                     }
                     let (cap, s) = lim.chord_capacity(phi);
                     if !lim.pieces.is_empty()
@@ -356,7 +377,7 @@ impl LayoutRates<'_> {
             }
             for (_, r) in well_viol.into_iter().take(per_round) {
                 match r {
-                    RowRef::Level(k) => have_level[k] = true,
+                    RowRef::Level(k, i) => have_level[k][i] = true,
                     RowRef::Capacity(k, s) => have_cap[k][s] = true,
                     RowRef::Target(_) => {}
                 }

@@ -11,10 +11,19 @@
 //!   (qₖ ≤ α·chord(Φₖ), one constraint per piece): a safe bound, never allowing more than the
 //!   true capacity, and much less pessimistic than the capacity at the lowest allowed level.
 //!   The uniform option uses the exact capacity (a monotone equation in q, solved by bisection).
+//! - Well loss (in the well only, not in the aquifer): with an efficiency E the level in the
+//!   well is z₀ − (z₀ − z_face)/E, so the floor on the screen-face level is z₀ − E·(z₀ − floor),
+//!   exact and linear. With Jacob's C·Q² the face level must stay above floor + C·q²; in Φ that
+//!   is Φₖ ≥ g(qₖ) with g(q) = Φ(floor + C·q²) convex in q. The programme uses the chords of g
+//!   between [`LOSS_PIECES`] + 1 rates from 0 to the well's capacity (one row per chord): their
+//!   maximum is the piecewise-linear interpolant of g, which lies above g, so the rows are safe
+//!   (never allow a rate whose loss would put the well below its floor) and equal g at the
+//!   breakpoints. The answer is re-verified by plain evaluation.
 
 use crate::field::wells::Well;
-use crate::input::model::{Model, WellKind};
+use crate::input::model::{Model, WellKind, WellLossSpec};
 use crate::physics::capacity::sichardt_well_capacity;
+use crate::physics::well_loss::jacob_loss;
 use serde::Serialize;
 
 /// Capacities used in the programme are this fraction of the true value, so that solver
@@ -23,6 +32,8 @@ pub(super) const CAPACITY_SAFETY: f64 = 1.0 - 1e-6;
 /// Pieces of the chord approximation of Sichardt's capacity between the lowest allowed level
 /// and the initial level (plus a breakpoint at the screen top).
 const CAPACITY_PIECES: usize = 8;
+/// Chords of the Jacob loss floor g(q) = Φ(floor + C·q²) between zero and the well's capacity.
+pub const LOSS_PIECES: usize = 8;
 /// A pumping well's level is kept at least this far above the aquifer base, m, so that it never
 /// reads as pumped dry.
 pub(super) const DRY_GUARD: f64 = 0.01;
@@ -33,7 +44,7 @@ pub(super) const DRY_GUARD: f64 = 0.01;
 pub enum FloorKind {
     /// Pump intake plus submergence.
     PumpIntake,
-    /// Wellpoint suction limit below ground.
+    /// Wellpoint suction limit below the header.
     Suction,
     /// The screen base: below it the screen is dry and gives nothing.
     ScreenBase,
@@ -45,7 +56,7 @@ impl FloorKind {
     pub(super) fn describe(self) -> &'static str {
         match self {
             FloorKind::PumpIntake => "pump intake + submergence",
-            FloorKind::Suction => "suction limit below ground",
+            FloorKind::Suction => "header − suction limit",
             FloorKind::ScreenBase => "screen base",
             FloorKind::AquiferBase => "aquifer base",
         }
@@ -68,6 +79,11 @@ pub struct WellLimit {
     pub capacity_per_metre: f64,
     /// Pump capacity, m³/s.
     pub pump: Option<f64>,
+    /// Jacob's well-loss coefficient C, s²/m⁵ (0: none).
+    pub loss_c: f64,
+    /// Rows of the level floor on the screen-face potential: Φₖ ≥ φ + slope·qₖ, one per chord
+    /// of the Jacob loss (a single row with slope 0 without it).
+    pub(super) level_pieces: Vec<(f64, f64)>,
     pub(super) screen_top: f64,
     pub(super) screen_base: f64,
     /// Chord pieces of h_w(Φ): (Φ_a, h_w at Φ_a, slope dh_w/dΦ).
@@ -83,7 +99,7 @@ impl WellLimit {
         let (lowest, mut kind) = match well.kind {
             WellKind::DeepWell => (intake, FloorKind::PumpIntake),
             WellKind::Wellpoint => {
-                let suction = model.ground_level - spec.suction_limit;
+                let suction = model.as_built.suction_floor(spec.suction_limit);
                 if suction >= intake {
                     (suction, FloorKind::Suction)
                 } else {
@@ -91,7 +107,12 @@ impl WellLimit {
                 }
             }
         };
-        let mut floor = lowest;
+        // the floor on the level at the screen face (outside the well): an efficiency E moves it
+        let z0 = aq.initial_level;
+        let mut floor = match model.as_built.loss {
+            WellLossSpec::Efficiency(e) if lowest < z0 => z0 - e * (z0 - lowest),
+            _ => lowest,
+        };
         if well.screen_base > floor {
             floor = well.screen_base;
             kind = FloorKind::ScreenBase;
@@ -107,6 +128,11 @@ impl WellLimit {
             floor_potential: aq.potential(floor),
             capacity_per_metre: sichardt_well_capacity(well.radius, 1.0, aq.conductivity),
             pump: spec.pump_capacity,
+            loss_c: match model.as_built.loss {
+                WellLossSpec::Jacob(c) => c,
+                _ => 0.0,
+            },
+            level_pieces: Vec::new(),
             screen_top: well.screen_top,
             screen_base: well.screen_base,
             pieces: Vec::new(),
@@ -129,7 +155,39 @@ impl WellLimit {
                 }
             }
         }
+        limit.level_pieces = vec![(limit.floor_potential, 0.0)];
+        let q_hi = limit.capacity_at(top);
+        if limit.loss_c > 0.0 && q_hi > 0.0 {
+            let g = |q: f64| aq.potential(limit.face_floor(q));
+            limit.level_pieces = (0..LOSS_PIECES)
+                .map(|i| {
+                    let (qa, qb) = (
+                        q_hi * i as f64 / LOSS_PIECES as f64,
+                        q_hi * (i + 1) as f64 / LOSS_PIECES as f64,
+                    );
+                    let slope = (g(qb) - g(qa)) / (qb - qa);
+                    (g(qa) - slope * qa, slope)
+                })
+                .collect();
+        }
         limit
+    }
+
+    /// Lowest level allowed at the screen face (outside the well) at rate `q`, m: the lowest level
+    /// in the well plus Jacob's loss C·q² (Jacob 1947; see [`crate::physics::well_loss`]).
+    pub fn face_floor(&self, q: f64) -> f64 {
+        (self.lowest_level + jacob_loss(self.loss_c, q)).max(self.floor_level)
+    }
+
+    /// The safe (chord) floor on the screen-face potential at rate `q`: the largest of the rows,
+    /// Φ, and the row that sets it.
+    pub(super) fn chord_floor(&self, q: f64) -> (f64, usize) {
+        self.level_pieces
+            .iter()
+            .enumerate()
+            .map(|(i, (phi, slope))| (phi + slope * q, i))
+            .max_by(|a, b| a.0.total_cmp(&b.0))
+            .unwrap_or((self.floor_potential, 0))
     }
 
     /// Wetted screen length at level `z`, m.

@@ -14,7 +14,7 @@ use crate::estimate;
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::field::layout;
 use crate::input::error::InputError;
-use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount, WellKind};
+use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::precheck::impossible_before_search;
 use crate::optimise::rates::{LayoutRates, RateOption, MAX_LP_VARIABLES};
@@ -23,12 +23,12 @@ use crate::optimise::trial::{
 };
 use std::collections::BTreeMap;
 
-/// Closest spacing the count search goes to for deep wells, m (common practice (no source):
-/// rigs and pipework need a few metres).
-pub const MIN_SPACING_DEEP_WELL: f64 = 3.0;
-/// Closest spacing the count search goes to for wellpoints, m (common practice (no source):
-/// wellpoints are jetted at 0.5–3 m).
-pub const MIN_SPACING_WELLPOINT: f64 = 0.5;
+/// Closest spacing the count search goes to for deep wells by default, m (common practice (no
+/// source): rigs and pipework need a few metres); `wells.min_spacing` sets it.
+pub const MIN_SPACING_DEEP_WELL: f64 = crate::input::model::DEFAULT_MIN_SPACING_DEEP_WELL;
+/// Closest spacing the count search goes to for wellpoints by default, m (common practice (no
+/// source): 0.75–2 m in fine sands and silts); `wells.min_spacing` sets it.
+pub const MIN_SPACING_WELLPOINT: f64 = crate::input::model::DEFAULT_MIN_SPACING_WELLPOINT;
 /// Most wells the count search places, to bound the work.
 pub const MAX_WELLS: usize = 2000;
 
@@ -43,28 +43,34 @@ enum Family {
 }
 
 fn family(model: &Model, spec: &LayoutSpec) -> Family {
-    let min_spacing = match model.wells.kind {
-        WellKind::DeepWell => MIN_SPACING_DEEP_WELL,
-        WellKind::Wellpoint => MIN_SPACING_WELLPOINT,
-    };
+    // The spacing limits of the design file (defaults: common practice (no source)).
+    let min_spacing = model.as_built.min_spacing;
+    let max_spacing = model.as_built.max_spacing;
     match &spec.kind {
         LayoutKind::Ring { .. } => {
             let ring =
                 layout::offset_ring(&model.excavations[spec.excavation].outline, spec.offset);
             let max = ((closed_length(&ring) / min_spacing).floor() as usize).clamp(3, MAX_WELLS);
-            Family::Ring { min: 3, max }
+            let min = ((closed_length(&ring) / max_spacing).ceil() as usize).clamp(3, max);
+            Family::Ring { min, max }
         }
         LayoutKind::Line { both_sides, .. } => {
             let length = line_length(model, spec);
             let sides = if *both_sides { 2 } else { 1 };
             let max = ((length / min_spacing).floor() as usize + 1).clamp(2, MAX_WELLS / sides);
-            Family::Line {
-                min: 2,
-                max,
-                length,
-            }
+            let min = ((length / max_spacing).ceil() as usize + 1).clamp(2, max);
+            Family::Line { min, max, length }
         }
         LayoutKind::Listed | LayoutKind::Csv { .. } => Family::Fixed,
+    }
+}
+
+/// Where the spacing limits come from, for the search line.
+fn spacing_basis(model: &Model) -> &'static str {
+    if model.as_built.spacing_default {
+        "; limits: common practice (no source), set wells.min_spacing / max_spacing"
+    } else {
+        "; limits from the design file"
     }
 }
 
@@ -187,29 +193,35 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     let (search, probe) = match &fam {
         Family::Ring { min, max } => (
             format!(
-                "ring at {:.1} m outside \"{}\": {min} … {max} wells (closest spacing {:.1} m)",
+                "ring at {:.1} m outside \"{}\": {min} … {max} wells (spacing {:.1} … {:.1} m{})",
                 spec.offset,
                 model.excavations[spec.excavation].name,
-                match model.wells.kind {
-                    WellKind::DeepWell => MIN_SPACING_DEEP_WELL,
-                    WellKind::Wellpoint => MIN_SPACING_WELLPOINT,
-                }
+                model.as_built.min_spacing,
+                model.as_built.max_spacing,
+                spacing_basis(model)
             ),
             spec_for(&spec, &fam, *min),
         ),
         Family::Line { min, max, length } => (
             format!(
-                "trench line {length:.0} m long, {} side{}: {min} … {max} wellpoints per side (spacing {:.2} … {:.2} m)",
+                "trench line {length:.0} m long, {} side{}: {min} … {max} wellpoints per side (spacing {:.2} … {:.2} m{})",
                 if matches!(spec.kind, LayoutKind::Line { both_sides: true, .. }) { "both" } else { "one" },
                 if matches!(spec.kind, LayoutKind::Line { both_sides: true, .. }) { "s" } else { "" },
                 length / (*min - 1) as f64,
-                length / (*max - 1).max(1) as f64
+                length / (*max - 1).max(1) as f64,
+                spacing_basis(model)
             ),
             spec_for(&spec, &fam, *min),
         ),
         Family::Fixed => ("the given wells: rates only".to_string(), spec.clone()),
     };
     let probe_placement = layout::generate(model, &probe, 0.0)?;
+    let named: Vec<(&str, [f64; 2], f64)> = probe_placement
+        .wells
+        .iter()
+        .map(|w| (w.name.as_str(), w.position, w.radius))
+        .collect();
+    crate::input::validate::sides::check_wells(model, &named, "layout")?;
     if matches!(fam, Family::Fixed) && probe_placement.wells.is_empty() {
         return Err(InputError {
             file: model.file.clone(),

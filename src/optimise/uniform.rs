@@ -46,7 +46,22 @@ impl LayoutRates<'_> {
             if s >= 0.0 {
                 continue;
             }
-            let q_level = ((phi_k - lim.floor_potential) / -s).max(0.0);
+            let mut q_level = ((phi_k - lim.floor_potential) / -s).max(0.0);
+            if lim.loss_c > 0.0 {
+                // the face level must stay above floor + C·q² (monotone in q: bisection)
+                let aq = &self.model.aquifer;
+                let ok = |q: f64| phi_k + q * s >= aq.potential(lim.face_floor(q));
+                let (mut lo, mut hi) = (0.0, q_level);
+                for _ in 0..80 {
+                    let mid = 0.5 * (lo + hi);
+                    if ok(mid) {
+                        lo = mid;
+                    } else {
+                        hi = mid;
+                    }
+                }
+                q_level = lo;
+            }
             let cap =
                 |q: f64| lim.capacity_per_metre * lim.wetted(self.level_of(phi_k + q * s)) - q;
             let (q_k, why) = if cap(q_level) >= 0.0 {

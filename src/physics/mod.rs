@@ -3,6 +3,7 @@
 pub mod capacity;
 pub mod equivalent;
 pub mod hantush;
+pub mod image_flow;
 pub mod images;
 pub mod partial_penetration;
 pub mod pipes;

@@ -178,6 +178,13 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     // Wells.
     let wells = wells::well_spec(rep, raw.wells.as_ref(), &aquifer, ground)?;
+    let as_built = crate::input::validate::as_built::as_built(
+        rep,
+        &raw.aquifer,
+        raw.wells.as_ref(),
+        &wells,
+        ground,
+    )?;
 
     // Listed wells.
     let mut well_names = HashSet::new();
@@ -273,7 +280,15 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         uplift,
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
+        as_built,
     };
+    crate::input::validate::sides::check_points_and_neighbours(&model)?;
+    let listed: Vec<(&str, [f64; 2], f64)> = model
+        .listed_wells
+        .iter()
+        .map(|w| (w.name.as_str(), w.position, w.radius))
+        .collect();
+    crate::input::validate::sides::check_wells(&model, &listed, "well")?;
     crate::input::validate::derived::check(rep, &model)?;
     Ok(model)
 }

@@ -7,12 +7,15 @@
 //! (well specification and layout), `neighbours` (buildings and the base-uplift check),
 //! `ranges` (levels, coordinates, counts and names a real site can have), `derived` (what the
 //! formulas compute from them: distance of influence, leakage factor, equivalent radius, the
-//! number of check points).
+//! number of check points), `as_built` (screens, well losses, header level, spacing limits,
+//! recharge limits), `sides` (everything on the aquifer side of every boundary).
 
 pub mod aquifer;
+pub mod as_built;
 pub mod derived;
 pub mod file;
 pub mod neighbours;
 pub mod ranges;
 pub mod shapes;
+pub mod sides;
 pub mod wells;

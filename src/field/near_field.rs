@@ -1,0 +1,337 @@
+//! The near-field term of the superposition kernel: partial penetration of wells whose screen
+//! does not span the saturated thickness.
+//!
+//! For a well of rate Q screened over part of a layer of thickness D, the steady drawdown is the
+//! fully penetrating one plus Q/(2πT)·Δ(r, z) (Muskat 1937; Hantush 1957; Kruseman & de Ridder,
+//! *Analysis and Evaluation of Pumping Test Data*, 2nd ed. 1994, ch. 10; checks.md §12; the series
+//! in [`crate::physics::partial_penetration`]). In discharge potential (confined Φ = T·h + const)
+//! this is ΔΦ_extra = −Q/(2π)·Δ(r, z): linear in the rate, so it is one more per-source term of
+//! the kernel and the linear programme stays linear.
+//!
+//! Approximations, stated once here and in the reports:
+//! - unconfined and converting aquifers: Δ is applied on the saturated thickness before pumping,
+//!   D = initial level − base (confined: the layer thickness), with the screen clipped to it —
+//!   the linearisation ΔΦ ≈ K·D·Δh of Φ = ½K·h² about the initial level;
+//! - leaky aquifers: the confined correction is used unchanged (the leaky one differs only where
+//!   r is comparable with B, far beyond the near field when B ≫ D);
+//! - check points and the map are evaluated at one elevation, the served excavation's target level
+//!   clamped to the saturated layer; a point within a well's radius is in that well and gets the
+//!   screen-averaged Δ_w of its own well and the other wells' Δ at the middle of its screen;
+//! - beyond [`cutoff_radius`] (|Δ| < 1e-4) the term is dropped.
+//!
+//! Δ(r) at a fixed elevation is tabulated once per screen on a uniform grid in ln r and read by
+//! cubic (Catmull–Rom) interpolation, within 1e-6 of the series (tested below).
+
+use crate::physics::partial_penetration::{
+    cutoff_radius, is_partial, point_correction, well_correction, Screen, DEFAULT_CUTOFF_TOLERANCE,
+};
+use std::collections::HashMap;
+use std::f64::consts::PI;
+use std::sync::{Arc, Mutex, OnceLock};
+
+/// Nodes of each Δ(ln r) table.
+const TABLE_NODES: usize = 320;
+
+/// Δ(r) at one elevation for one screen, tabulated in u = ln r.
+#[derive(Debug)]
+struct Table {
+    u0: f64,
+    du: f64,
+    values: Vec<f64>,
+    cutoff: f64,
+}
+
+impl Table {
+    fn build(screen: &Screen, z: f64, r_lo: f64, cutoff: f64) -> Table {
+        let u0 = r_lo.ln();
+        let u1 = cutoff.max(r_lo * 1.001).ln();
+        let du = (u1 - u0) / (TABLE_NODES - 1) as f64;
+        // one node either side for the cubic at the ends
+        let values = (0..TABLE_NODES + 2)
+            .map(|i| point_correction(screen, (u0 + (i as f64 - 1.0) * du).exp(), z))
+            .collect();
+        Table {
+            u0,
+            du,
+            values,
+            cutoff,
+        }
+    }
+
+    /// Δ at radius r (r below the table's start is read at the start).
+    fn at(&self, r: f64) -> f64 {
+        if r >= self.cutoff {
+            return 0.0;
+        }
+        let t = ((r.ln() - self.u0) / self.du).max(0.0);
+        let i = (t as usize).min(TABLE_NODES - 2);
+        let f = t - i as f64;
+        let p = &self.values[i..i + 4];
+        // Catmull–Rom between p[1] and p[2]
+        let a = -0.5 * p[0] + 1.5 * p[1] - 1.5 * p[2] + 0.5 * p[3];
+        let b = p[0] - 2.5 * p[1] + 2.0 * p[2] - 0.5 * p[3];
+        let c = -0.5 * p[0] + 0.5 * p[2];
+        ((a * f + b) * f + c) * f + p[1]
+    }
+}
+
+type Key = [u64; 6];
+
+fn cache() -> &'static Mutex<HashMap<Key, Arc<Table>>> {
+    static CACHE: OnceLock<Mutex<HashMap<Key, Arc<Table>>>> = OnceLock::new();
+    CACHE.get_or_init(|| Mutex::new(HashMap::new()))
+}
+
+/// The table for `screen` at elevation `z`, from the cache when it was built before (the count
+/// search builds many fields with the same wells).
+fn table(screen: &Screen, z: f64, r_lo: f64) -> Arc<Table> {
+    let key = [
+        screen.bottom.to_bits(),
+        screen.top.to_bits(),
+        screen.thickness.to_bits(),
+        screen.anisotropy.to_bits(),
+        z.to_bits(),
+        r_lo.to_bits(),
+    ];
+    if let Ok(c) = cache().lock() {
+        if let Some(t) = c.get(&key) {
+            return t.clone();
+        }
+    }
+    let cutoff = cutoff_radius(screen, DEFAULT_CUTOFF_TOLERANCE);
+    let t = Arc::new(Table::build(screen, z, r_lo, cutoff));
+    if let Ok(mut c) = cache().lock() {
+        if c.len() > 256 {
+            c.clear();
+        }
+        c.insert(key, t.clone());
+    }
+    t
+}
+
+/// One partially penetrating source (a real well or an image of one).
+#[derive(Debug, Clone, Copy)]
+struct PartialSource {
+    position: [f64; 2],
+    radius: f64,
+    well: usize,
+    sign: f64,
+    class: usize,
+    real: bool,
+}
+
+/// A screen class: the wells built alike, with their tables.
+#[derive(Debug)]
+struct Class {
+    /// Δ at the evaluation elevation.
+    at_points: Arc<Table>,
+    /// Δ at the middle of each class's screen (indexed by the other class).
+    at_screen_of: Vec<Arc<Table>>,
+    /// Screen-averaged Δ_w in the well itself.
+    own: f64,
+    cutoff: f64,
+}
+
+/// The partial-penetration term of a field.
+#[derive(Debug)]
+pub struct NearField {
+    sources: Vec<PartialSource>,
+    classes: Vec<Class>,
+    cell: f64,
+    grid: HashMap<(i64, i64), Vec<usize>>,
+    /// Largest cut-off over the classes, m.
+    pub cutoff: f64,
+}
+
+/// What the near-field needs to know of one well: screen (levels, m above datum), radius.
+#[derive(Debug, Clone, Copy)]
+pub struct WellScreen {
+    /// Screen base level, m.
+    pub screen_base: f64,
+    /// Screen top level, m.
+    pub screen_top: f64,
+    /// Well radius, m.
+    pub radius: f64,
+}
+
+impl NearField {
+    /// The near-field term for `wells` (local positions, with their images as (position,
+    /// well index, sign, is-real)) in a layer from `base` (m) of thickness `d` (m) with anisotropy
+    /// K_v/K_h = `anisotropy`, check points evaluated at level `z_eval` (m). `None` when every
+    /// well fully penetrates.
+    pub fn new(
+        wells: &[WellScreen],
+        sources: &[([f64; 2], usize, f64, bool)],
+        base: f64,
+        d: f64,
+        anisotropy: f64,
+        z_eval: f64,
+    ) -> Option<NearField> {
+        if !(d.is_finite() && d > 0.0) {
+            return None;
+        }
+        let screen_of = |w: &WellScreen| {
+            Screen::new(w.screen_base - base, w.screen_top - base, d).with_anisotropy(anisotropy)
+        };
+        // classes of wells built alike
+        let mut keys: Vec<(u64, u64, u64)> = Vec::new();
+        let mut class_of = vec![usize::MAX; wells.len()];
+        for (i, w) in wells.iter().enumerate() {
+            if !is_partial(&screen_of(w)) {
+                continue;
+            }
+            let k = (
+                w.screen_base.to_bits(),
+                w.screen_top.to_bits(),
+                w.radius.to_bits(),
+            );
+            class_of[i] = match keys.iter().position(|x| *x == k) {
+                Some(c) => c,
+                None => {
+                    keys.push(k);
+                    keys.len() - 1
+                }
+            };
+        }
+        if keys.is_empty() {
+            return None;
+        }
+        let rep: Vec<WellScreen> = keys
+            .iter()
+            .map(|k| WellScreen {
+                screen_base: f64::from_bits(k.0),
+                screen_top: f64::from_bits(k.1),
+                radius: f64::from_bits(k.2),
+            })
+            .collect();
+        let z_rel = (z_eval - base).clamp(0.0, d);
+        let mids: Vec<f64> = rep
+            .iter()
+            .map(|w| {
+                let s = screen_of(w);
+                0.5 * (s.bottom.clamp(0.0, d) + s.top.clamp(0.0, d))
+            })
+            .collect();
+        let classes: Vec<Class> = rep
+            .iter()
+            .map(|w| {
+                let s = screen_of(w);
+                let r_lo = w.radius.max(1e-6 * d);
+                Class {
+                    at_points: table(&s, z_rel, r_lo),
+                    at_screen_of: mids.iter().map(|&m| table(&s, m, r_lo)).collect(),
+                    own: well_correction(&s, w.radius),
+                    cutoff: cutoff_radius(&s, DEFAULT_CUTOFF_TOLERANCE),
+                }
+            })
+            .collect();
+        let cutoff = classes.iter().map(|c| c.cutoff).fold(0.0, f64::max);
+        let list: Vec<PartialSource> = sources
+            .iter()
+            .filter(|(_, w, _, _)| class_of[*w] != usize::MAX)
+            .map(|&(position, well, sign, real)| PartialSource {
+                position,
+                radius: wells[well].radius,
+                well,
+                sign,
+                class: class_of[well],
+                real,
+            })
+            .collect();
+        let cell = cutoff.max(1e-3);
+        let mut grid: HashMap<(i64, i64), Vec<usize>> = HashMap::new();
+        for (i, s) in list.iter().enumerate() {
+            grid.entry(cell_index(s.position, cell))
+                .or_default()
+                .push(i);
+        }
+        Some(NearField {
+            sources: list,
+            classes,
+            cell,
+            grid,
+            cutoff,
+        })
+    }
+
+    /// Call `f(well, ΔΦ per unit rate)` for every partially penetrating source near local point
+    /// `p`: −Δ/(2π), with Δ_w for the well the point stands in.
+    pub fn for_each(&self, p: [f64; 2], mut f: impl FnMut(usize, f64)) {
+        let (ci, cj) = cell_index(p, self.cell);
+        // first: is the point inside one of the wells?
+        let mut inside: Option<usize> = None;
+        for di in -1..=1 {
+            for dj in -1..=1 {
+                if let Some(v) = self.grid.get(&(ci + di, cj + dj)) {
+                    for &i in v {
+                        let s = &self.sources[i];
+                        let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
+                        if s.real && r <= s.radius * (1.0 + 1e-9) {
+                            inside = Some(i);
+                        }
+                    }
+                }
+            }
+        }
+        for di in -1..=1 {
+            for dj in -1..=1 {
+                let Some(v) = self.grid.get(&(ci + di, cj + dj)) else {
+                    continue;
+                };
+                for &i in v {
+                    let s = &self.sources[i];
+                    let c = &self.classes[s.class];
+                    let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
+                    if r >= c.cutoff {
+                        continue;
+                    }
+                    let delta = match inside {
+                        Some(k) if k == i => c.own,
+                        Some(k) => c.at_screen_of[self.sources[k].class].at(r.max(s.radius)),
+                        None => c.at_points.at(r.max(s.radius)),
+                    };
+                    f(s.well, -s.sign * delta / (2.0 * PI));
+                }
+            }
+        }
+    }
+
+    /// Whether local point `p` is within the cut-off of any partially penetrating source.
+    pub fn touches(&self, p: [f64; 2]) -> bool {
+        let (ci, cj) = cell_index(p, self.cell);
+        (-1..=1).any(|di| (-1..=1).any(|dj| self.grid.contains_key(&(ci + di, cj + dj))))
+    }
+}
+
+fn cell_index(p: [f64; 2], cell: f64) -> (i64, i64) {
+    ((p[0] / cell).floor() as i64, (p[1] / cell).floor() as i64)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // The table is a shortcut: it must equal the series of partial_penetration (itself tested
+    // against the scipy table of checks.md §12) to 1e-6 over the near field.
+    #[test]
+    fn table_matches_the_series() {
+        for (z1, z2, d, a, z) in [
+            (2.5, 3.5, 9.0, 1.0, 3.9),
+            (0.0, 1.0, 9.0, 0.1, 5.0),
+            (4.0, 9.0, 20.0, 1.0, 2.0),
+        ] {
+            let s = Screen::new(z1, z2, d).with_anisotropy(a);
+            let t = table(&s, z, 0.03);
+            let mut r = 0.03;
+            while r < t.cutoff {
+                let exact = point_correction(&s, r, z);
+                assert!(
+                    (t.at(r) - exact).abs() < 1e-6 * exact.abs().max(1.0),
+                    "r {r}: {} vs {exact}",
+                    t.at(r)
+                );
+                r *= 1.013;
+            }
+        }
+    }
+}
