@@ -224,6 +224,8 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         }
     };
 
+    let design =
+        crate::input::validate::design_settings::design_settings(rep, &raw, ground, wells.kind)?;
     Ok(Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
@@ -249,6 +251,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         uplift,
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
+        design,
     })
 }
 

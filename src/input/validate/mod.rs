@@ -7,6 +7,7 @@
 //! (well specification and layout), `neighbours` (buildings and the base-uplift check).
 
 pub mod aquifer;
+pub mod design_settings;
 pub mod file;
 pub mod neighbours;
 pub mod shapes;
