@@ -87,14 +87,16 @@ pub struct Bid {
 }
 
 fn path_length(paths: &[Vec<[f64; 2]>]) -> f64 {
-    paths
+    let l: f64 = paths
         .iter()
         .map(|p| {
             p.windows(2)
                 .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
                 .sum::<f64>()
         })
-        .sum()
+        .sum();
+    // The sum of nothing is −0.0; written out as 0.
+    l + 0.0
 }
 
 /// The bid quantities of a designed layout; `levels` are the water levels in the wells at

@@ -178,18 +178,22 @@ impl Search<'_, '_> {
         ok: fn(&Trial) -> bool,
         with_lp: bool,
         others: &mut Vec<TrialRun>,
-    ) -> Result<(Option<usize>, Vec<String>), InputError> {
+    ) -> Result<(Option<usize>, Vec<String>, Option<TrialRun>), InputError> {
         let Some(mut best) = found else {
-            return Ok((None, Vec::new()));
+            return Ok((None, Vec::new(), None));
         };
         let min = match *self.fam {
             Family::Ring { min, .. } | Family::Line { min, .. } => min,
-            Family::Fixed => return Ok((found, Vec::new())),
+            Family::Fixed => return Ok((found, Vec::new(), None)),
         };
         let mut words = Vec::new();
+        let mut chosen: Option<TrialRun> = None;
         while best > min {
             let m = best - 1;
             if self.cache.get(&m).is_some_and(|t| ok(&t.trial)) {
+                if let Some(old) = chosen.take() {
+                    others.push(old);
+                }
                 best = m;
                 continue;
             }
@@ -206,7 +210,7 @@ impl Search<'_, '_> {
             }
             match winner {
                 Some(t) => {
-                    if let Some(old) = self.cache.insert(m, t) {
+                    if let Some(old) = chosen.replace(t) {
                         others.push(old);
                     }
                     best = m;
@@ -214,7 +218,7 @@ impl Search<'_, '_> {
                 None => break,
             }
         }
-        Ok((Some(best), words))
+        Ok((Some(best), words, chosen))
     }
 
     /// Smallest index meeting `ok`: try min, min + 1, min + 3, min + 7 … up to max, then
@@ -388,15 +392,31 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     // positions (and the other corner option) of the same count.
     let mut others: Vec<TrialRun> = Vec::new();
     let mut tried_words = Vec::new();
-    let (smallest_individual, smallest_uniform) = if matches!(fam, Family::Fixed) {
-        (smallest_individual, smallest_uniform)
+    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed)
+    {
+        (smallest_individual, smallest_uniform, None, None)
     } else {
-        let (i, wi) = search_state.fewer_by_variants(smallest_individual, |t| t.individual_met, true, &mut others)?;
-        let (u, wu) = search_state.fewer_by_variants(smallest_uniform, |t| t.uniform_met, false, &mut others)?;
+        let (i, wi, ri) = search_state.fewer_by_variants(
+            smallest_individual,
+            |t| t.individual_met,
+            true,
+            &mut others,
+        )?;
+        let (u, wu, ru) = search_state.fewer_by_variants(
+            smallest_uniform,
+            |t| t.uniform_met,
+            false,
+            &mut others,
+        )?;
         tried_words.extend(wi);
         tried_words.extend(wu);
-        (i, u)
+        (i, u, ri, ru)
     };
+    // The runs at the smallest indices: a placement found below, else the cached run.
+    let mut trial_extra: Vec<Trial> = Vec::new();
+    for r in [&run_i, &run_u].into_iter().flatten() {
+        trial_extra.push(r.trial.clone());
+    }
     if !tried_words.is_empty() {
         tried_words.dedup();
         notes.push(format!(
@@ -407,6 +427,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     let cache = search_state.cache;
     let mut trials: Vec<Trial> = cache.values().map(|t| t.trial.clone()).collect();
     trials.extend(others.iter().map(|t| t.trial.clone()));
+    trials.extend(trial_extra);
     trials.sort_by(|a, b| a.count.cmp(&b.count).then(a.variant.cmp(&b.variant)));
     let count_of = |n: Option<usize>| n.and_then(|n| cache.get(&n)).map(|t| t.trial.count);
 
@@ -457,7 +478,11 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         }
     }
     let design = if let Some((n, used)) = pick {
-        let t = &cache[&n];
+        let found = match used {
+            RateOption::Individual => run_i.as_ref(),
+            RateOption::Uniform => run_u.as_ref(),
+        };
+        let t = found.unwrap_or(&cache[&n]);
         let (rates, binding) = match used {
             RateOption::Individual => {
                 let pumping = t.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
