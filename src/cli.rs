@@ -96,6 +96,10 @@ pub enum Command {
         /// Units for the terminal output.
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
+        /// Your own unit prices (CSV with columns item,price; items named as in bid.csv): adds
+        /// the cost lines to the bid sheet. No prices are built in.
+        #[arg(long)]
+        prices: Option<PathBuf>,
     },
     /// Try a range of well counts (ring) or spacings in m (trench line): table, sweep.csv and
     /// sweep.svg.

@@ -86,12 +86,18 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             out,
             rates,
             units,
+            prices,
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
+            let prices = prices
+                .as_deref()
+                .map(drydig::input::prices::read)
+                .transpose()?;
             let design = drydig::optimise::search::design(&model, rates.into())?;
             let run = drydig::optimise::outcome::final_run(&model, &design);
-            let files = report::design_text::files(&model, &design, run.as_ref())?;
+            let files =
+                report::design_text::files(&model, &design, run.as_ref(), prices.as_deref())?;
             let inputs = report::files::inputs_of(&model, None);
             report::files::write_set(&out, &files, &inputs)?;
             print(&report::design_text::to_text(
@@ -99,6 +105,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 &design,
                 run.as_ref(),
                 units,
+                prices.as_deref(),
             ))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             let neighbours_ok = run

@@ -3,7 +3,7 @@
 //! For each excavation: a grid inside the outline, every corner, and points along every edge,
 //! each with the excavation's target level (formation − margin); plus the points the user names.
 
-use crate::input::model::{Model, Uplift};
+use crate::input::model::{Control, Model, Uplift};
 use crate::physics::uplift::{overburden, required_head};
 use geo::{BoundingRect, Contains, InteriorPoint, Point};
 use serde::Serialize;
@@ -44,7 +44,8 @@ pub fn check_points(model: &Model) -> Vec<CheckPoint> {
     let mut out = Vec::new();
     let h = model.checks.grid_spacing;
     for (ei, e) in model.excavations.iter().enumerate() {
-        let target = Some(e.target_level());
+        // Relief only: the water table is left where it is; the uplift points carry the target.
+        let target = (e.control != Control::Relieve).then(|| e.target_level());
         let ring = &e.outline.exterior().0;
         let n = ring.len().saturating_sub(1);
         for (i, c) in ring.iter().take(n).enumerate() {
@@ -153,8 +154,10 @@ pub fn field_target(model: &Model, u: &Uplift, formation_level: f64) -> Option<f
 }
 
 /// Add the uplift check points of every excavation that needs relief: its corners and an
-/// interior point, with target = min(excavation target, h_req as a field level); where h_req is
-/// the stricter, also a copy of every check point of the excavation, so the whole base is held.
+/// interior point, with target = min(excavation target, h_req as a field level) (`control =
+/// "both"`), or h_req alone (`"relieve"`; none for `"dewater"`); where h_req is the stricter or
+/// the only target, also a copy of every check point of the excavation, so the whole base is
+/// held.
 pub fn add_uplift_points(model: &Model, points: &mut Vec<CheckPoint>) {
     let Some(u) = &model.uplift else { return };
     let mut extra = Vec::new();
@@ -162,7 +165,11 @@ pub fn add_uplift_points(model: &Model, points: &mut Vec<CheckPoint>) {
         let Some(t_uplift) = field_target(model, u, e.formation_level) else {
             continue;
         };
-        let target = e.target_level().min(t_uplift);
+        let target = match e.control {
+            Control::Dewater => continue,
+            Control::Relieve => t_uplift,
+            Control::Both => e.target_level().min(t_uplift),
+        };
         let ring = &e.outline.exterior().0;
         let n = ring.len().saturating_sub(1);
         for (i, c) in ring.iter().take(n).enumerate() {
@@ -183,7 +190,7 @@ pub fn add_uplift_points(model: &Model, points: &mut Vec<CheckPoint>) {
                 target_level: Some(target),
             });
         }
-        if t_uplift < e.target_level() {
+        if t_uplift < e.target_level() || e.control == Control::Relieve {
             for p in points
                 .iter()
                 .filter(|p| p.excavation == Some(ei) && p.kind != PointKind::Corner)

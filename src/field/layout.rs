@@ -321,6 +321,20 @@ pub fn ring(
     corner_wells: bool,
     rate: f64,
 ) -> Placement {
+    ring_from(model, excavation, offset, count, corner_wells, rate, 0.0)
+}
+
+/// As [`ring`], with the first well `start` m along the ring from its first vertex (without
+/// corner wells; corner wells fix the positions).
+pub fn ring_from(
+    model: &Model,
+    excavation: &Excavation,
+    offset: f64,
+    count: RingCount,
+    corner_wells: bool,
+    rate: f64,
+    start: f64,
+) -> Placement {
     let pts = offset_ring(&excavation.outline, offset);
     let path = Path2::new(pts.clone(), true);
     let corners: Vec<f64> = if corner_wells {
@@ -355,7 +369,13 @@ pub fn ring(
             corners.len()
         ));
     }
-    let positions = ring_positions(&path, &corners, n);
+    let mut positions = ring_positions(&path, &corners, n);
+    if corners.is_empty() && start != 0.0 {
+        let total = path.length();
+        positions
+            .iter_mut()
+            .for_each(|s| *s = (*s + start).rem_euclid(total));
+    }
     let wells = place(model, &path, &positions, true, None, "W", rate, &mut notes);
     let mut closed = pts.clone();
     closed.push(pts[0]);
@@ -421,6 +441,25 @@ pub fn line_with_ends(
     end_ext: Option<f64>,
     rate: f64,
 ) -> Placement {
+    line_from(
+        model, excavation, offset, spacing, both_sides, given, end_ext, rate, 0.0,
+    )
+}
+
+/// As [`line_with_ends`], with the end wellpoints `start` m inside each end of the line (the
+/// wellpoints between spread evenly at most `spacing` apart).
+#[allow(clippy::too_many_arguments)]
+pub fn line_from(
+    model: &Model,
+    excavation: &Excavation,
+    offset: f64,
+    spacing: f64,
+    both_sides: bool,
+    given: Option<&Vec<[f64; 2]>>,
+    end_ext: Option<f64>,
+    rate: f64,
+    start: f64,
+) -> Placement {
     let mut centre = centre_line(excavation, given);
     let (_, width) = length_and_width(excavation);
     let side = width / 2.0 + offset;
@@ -442,7 +481,9 @@ pub fn line_with_ends(
     }
     let path = Path2::new(centre.clone(), false);
     let total = path.length();
-    let wanted = (total / spacing).ceil();
+    let start = start.clamp(0.0, 0.49 * total);
+    let inner = total - 2.0 * start;
+    let wanted = (inner / spacing).ceil();
     // Held to MAX_WELLS per side (`generate` refuses more before this is reached).
     let count = if wanted.is_finite() && wanted < MAX_WELLS as f64 {
         (wanted as usize).max(1) + 1
@@ -450,7 +491,7 @@ pub fn line_with_ends(
         MAX_WELLS
     };
     let positions: Vec<f64> = (0..count)
-        .map(|i| total * i as f64 / (count - 1) as f64)
+        .map(|i| start + inner * i as f64 / (count - 1) as f64)
         .collect();
     let mut notes = Vec::new();
     let sides: &[(f64, &str)] = if both_sides {
@@ -485,7 +526,7 @@ pub fn line_with_ends(
     notes.push(format!(
         "{} wellpoints at {:.2} m spacing along {:.0} m{}",
         wells.len(),
-        total / (count - 1) as f64,
+        inner / (count - 1) as f64,
         total,
         if both_sides {
             " on both sides"
@@ -739,13 +780,21 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
         LayoutKind::Ring {
             count,
             corner_wells,
-        } => ring(model, exc, spec.offset, *count, *corner_wells, rate),
+        } => ring_from(
+            model,
+            exc,
+            spec.offset,
+            *count,
+            *corner_wells,
+            rate,
+            spec.start,
+        ),
         LayoutKind::Line {
             spacing,
             both_sides,
             centre_line,
             end_extension,
-        } => line_with_ends(
+        } => line_from(
             model,
             exc,
             spec.offset,
@@ -754,6 +803,7 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
             centre_line.as_ref(),
             *end_extension,
             rate,
+            spec.start,
         ),
         LayoutKind::Listed => listed(model),
         LayoutKind::Csv { path } => Placement {

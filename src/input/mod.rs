@@ -7,6 +7,7 @@
 pub mod error;
 pub mod import;
 pub mod model;
+pub mod prices;
 pub mod schema;
 pub mod starter;
 pub mod units;

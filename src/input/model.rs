@@ -68,6 +68,66 @@ pub struct Model {
     pub map_quantity: MapQuantity,
     /// Wells as they are built: anisotropy, header, well loss, spacing and recharge limits.
     pub as_built: AsBuilt,
+    /// Design allowances for `drydig design` and the bid: margin, capacity fraction, one well
+    /// out, pumps.
+    pub design: DesignSettings,
+}
+
+/// Default operating margin below every target that `design` keeps, m (common practice (no
+/// source): a few decimetres of reserve for the scatter of K and of levels).
+pub const DEFAULT_OPERATING_MARGIN: f64 = 0.3;
+/// Default fraction of a well's capacity that `design` lets it run at (common practice (no
+/// source): wells are not run at their full capacity; 0.7–0.8 is usual).
+pub const DEFAULT_CAPACITY_FRACTION: f64 = 0.8;
+
+/// Design allowances (`[allowances]` and `[pumps]`), in SI.
+#[derive(Debug, Clone)]
+pub struct DesignSettings {
+    /// Depth below every target the design keeps with every well running, m.
+    pub operating_margin: f64,
+    /// Fraction of each well's capacity (Sichardt and pump) the design may use.
+    pub capacity_fraction: f64,
+    /// The targets must still hold (at the target itself, without the margin) with any one
+    /// well out of service.
+    pub one_well_out: bool,
+    /// Pumps and pipes.
+    pub pumps: PumpSettings,
+}
+
+/// Pump selection and pipework (`[pumps]`), in SI.
+#[derive(Debug, Clone)]
+pub struct PumpSettings {
+    /// Standard pump duties to choose from, m³/s, ascending.
+    pub duties: Vec<f64>,
+    /// Pump efficiency (wire-to-water), 0 < η ≤ 1.
+    pub efficiency: f64,
+    /// Level the water is pumped up to (discharge), m.
+    pub discharge_level: f64,
+    /// Internal diameter of each well's riser main, m.
+    pub riser_diameter: f64,
+    /// Internal diameter of the header main, m.
+    pub header_diameter: f64,
+    /// Hazen–Williams C of the pipes.
+    pub hazen_williams_c: f64,
+    /// Running hours a day.
+    pub hours_per_day: f64,
+    /// Wells whose running rates are within this fraction of the largest in a class share it.
+    pub class_tolerance: f64,
+    /// Run every well of a class at the class's largest rate (one rate per class).
+    pub one_rate_per_class: bool,
+    /// Header length served by one wellpoint pump set, m.
+    pub wellpoint_set_length: f64,
+}
+
+/// What an excavation's groundwater control must achieve.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Control {
+    /// Lower the water to the target level (formation − margin).
+    Dewater,
+    /// Relieve the confined layer below to the uplift head only; the water table is left.
+    Relieve,
+    /// Both: the stricter of the two everywhere.
+    Both,
 }
 
 /// An excavation with its outline and levels.
@@ -83,6 +143,8 @@ pub struct Excavation {
     pub target_margin: f64,
     /// User's shape choice.
     pub shape: ShapeChoice,
+    /// Dewater to a level, relieve only, or both.
+    pub control: Control,
 }
 
 impl Excavation {
@@ -210,6 +272,9 @@ pub struct LayoutSpec {
     pub offset: f64,
     /// Rate for every generated well, m³/s.
     pub rate: Option<f64>,
+    /// Ring (without corner wells): distance along the ring of the first well from the ring's
+    /// first vertex; line: distance of the first and last wellpoint inside each end, m.
+    pub start: f64,
 }
 
 /// The layout kinds.

@@ -50,6 +50,45 @@ pub struct DesignFile {
     /// Output preferences.
     #[serde(default)]
     pub output: Option<Output>,
+    /// Pump selection and pipework for the bid.
+    #[serde(default)]
+    pub pumps: Option<Pumps>,
+}
+
+/// `[pumps]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Pumps {
+    /// Standard pump duties to choose from (`["2 L/s", "5 L/s", …]`).
+    #[serde(default)]
+    pub duties: Option<Vec<Flow>>,
+    /// Pump efficiency (`"60 %"`).
+    #[serde(default)]
+    pub efficiency: Option<Ratio>,
+    /// Level the water is pumped up to.
+    #[serde(default)]
+    pub discharge_level: Option<Length>,
+    /// Internal diameter of each well's riser.
+    #[serde(default)]
+    pub riser_diameter: Option<Length>,
+    /// Internal diameter of the header main.
+    #[serde(default)]
+    pub header_diameter: Option<Length>,
+    /// Hazen–Williams C of the pipes.
+    #[serde(default)]
+    pub hazen_williams_c: Option<f64>,
+    /// Running hours a day.
+    #[serde(default)]
+    pub hours_per_day: Option<f64>,
+    /// Rates within this fraction of a class's largest share its pump (`"25 %"`).
+    #[serde(default)]
+    pub class_tolerance: Option<Ratio>,
+    /// Every well of a class runs at the class's largest rate.
+    #[serde(default)]
+    pub one_rate_per_class: Option<bool>,
+    /// Header length one wellpoint pump set serves.
+    #[serde(default)]
+    pub wellpoint_set_length: Option<Length>,
 }
 
 /// `[site]`
@@ -116,6 +155,9 @@ pub struct Excavation {
     /// "auto" (default), "pit" or "trench".
     #[serde(default)]
     pub shape: Option<String>,
+    /// "dewater" (to the target level), "relieve" (the uplift head only) or "both" (default).
+    #[serde(default)]
+    pub control: Option<String>,
 }
 
 /// `[influence]`
@@ -171,6 +213,15 @@ pub struct Allowances {
     /// Outline length/width ratio from which an excavation counts as a trench.
     #[serde(default)]
     pub trench_aspect_ratio: Option<f64>,
+    /// Depth below every target that `design` keeps with every well running.
+    #[serde(default)]
+    pub operating_margin: Option<Length>,
+    /// Fraction of each well's capacity `design` may use (`"80 %"`).
+    #[serde(default)]
+    pub capacity_fraction: Option<Ratio>,
+    /// The targets must still hold with any one well out of service.
+    #[serde(default)]
+    pub one_well_out: Option<bool>,
 }
 
 /// `[wells]`
@@ -269,6 +320,10 @@ pub struct Layout {
     /// CSV file of wells (kind = "csv"), relative to the design file.
     #[serde(default)]
     pub file: Option<String>,
+    /// Ring: distance along the ring of the first well; line: distance of the end wellpoints
+    /// inside each end of the line.
+    #[serde(default)]
+    pub start: Option<Length>,
 }
 
 /// `[[well]]`

@@ -1,174 +1,259 @@
-//! The quantities a bid needs for a designed layout: wells, drilling, screen, pumps by duty,
-//! design flow and, for wellpoints, header length.
+//! The quantities a bid needs for a designed layout: wells working and standby, drilling (deep
+//! wells) and jetting (wellpoints) kept apart, screen, pumps by class with their head, power
+//! installed and running, energy per day, flow and design flow, and for wellpoints the header
+//! and its pump sets. Heads and powers are found in [`crate::optimise::pumps`].
 
 use crate::check::run::CheckRun;
 use crate::field::wells::Well;
 use crate::input::model::{Model, WellKind};
+use crate::optimise::pumps::{classes, duty_for, head, shaft_power, Head};
+use crate::optimise::standby::is_standby;
 use serde::Serialize;
-use std::collections::BTreeMap;
 
 /// Allowance below the screen base for the sump and the drill bit, m, added to every well's
 /// drilled depth in the bid quantities (common practice (no source)).
 pub const SUMP_ALLOWANCE: f64 = 1.0;
 
-/// Pumps of one duty.
+/// Pumps of one class.
 #[derive(Debug, Clone, Serialize)]
-pub struct PumpGroup {
-    /// Duty each pump is bought for, L/s (rate × (1 + contingency), rounded up to the step).
+pub struct PumpClass {
+    /// Duty each pump is bought for, L/s (a standard duty from the list).
     pub duty_l_per_s: f64,
-    /// How many working wells have it.
+    /// Total head at the duty, the largest of the class's wells, m.
+    pub head_m: f64,
+    /// Its parts (of the well with the largest total head).
+    pub head_parts: Head,
+    /// Working pumps of this class.
     pub count: usize,
-    /// Range of running rates of those wells, L/s.
+    /// Their wells (or, for wellpoints, pump sets).
+    pub wells: Vec<String>,
+    /// Range of running rates, L/s.
     pub running_l_per_s: [f64; 2],
+    /// Shaft power of one pump at its duty and head, kW.
+    pub shaft_power_kw: f64,
+    /// The rate asks for more than the largest duty in the list.
+    pub above_list: bool,
 }
 
 /// The quantities a bid needs.
 #[derive(Debug, Clone, Serialize)]
 pub struct Bid {
-    /// Wells in the layout.
-    pub wells_in_layout: usize,
-    /// Wells with a rate above zero.
+    /// Deep wells or wellpoints.
+    pub wellpoints: bool,
+    /// Working wells (rate above zero).
     pub working_wells: usize,
-    /// Wells the programme left idle.
-    pub idle_wells: usize,
+    /// Standby wells placed in the layout (names).
+    pub standby_placed: Vec<String>,
+    /// Standby wells or pump sets asked for in the design file.
+    pub standby_asked: u32,
     /// Recharge wells kept at their given rates.
     pub recharge_wells: usize,
     /// Their total injection, m³/s (a positive number).
     pub recharge_flow_m3_per_s: f64,
-    /// Standby wells from the design file.
-    pub standby_wells: u32,
-    /// Depth of one well: ground to screen base plus the sump allowance, m.
+    /// Depth of one well or wellpoint: ground to screen base plus the sump allowance, m.
     pub depth_per_well_m: f64,
-    /// Drilling (or jetting) for working + standby wells, m.
+    /// Drilling for working + standby deep wells, m (0 for wellpoints).
     pub drilling_m: f64,
+    /// Jetting for wellpoints, m (0 for deep wells).
+    pub jetting_m: f64,
     /// Screen for working + standby wells, m.
     pub screen_m: f64,
-    /// Pumps by duty (deep wells); empty for wellpoints.
-    pub pumps: Vec<PumpGroup>,
-    /// Standby pumps (one per standby well, at the largest duty).
+    /// Pumps by class (deep wells: one per working well; wellpoints: the header pump sets).
+    pub pumps: Vec<PumpClass>,
+    /// Standby pumps (one per standby well or set, of the largest class).
     pub standby_pumps: u32,
+    /// Installed power: every pump (working and standby) at its duty and class head, kW.
+    pub power_installed_kw: f64,
+    /// Running power: every working pump at its running rate and head, kW.
+    pub power_running_kw: f64,
+    /// Energy per day at the running power, kWh.
+    pub energy_per_day_kwh: f64,
+    /// Running hours a day.
+    pub hours_per_day: f64,
     /// Total flow, m³/s.
     pub total_flow_m3_per_s: f64,
     /// Design flow = total × (1 + contingency), m³/s.
     pub design_flow_m3_per_s: f64,
     /// Contingency used.
     pub contingency: f64,
-    /// Header length and flow per 100 m (wellpoints).
-    pub header_length_m: Option<f64>,
+    /// Header length, m (wellpoints, and the deep-well collecting main).
+    pub header_length_m: f64,
+    /// Wellpoint pump sets.
+    pub pump_sets: Option<usize>,
     /// Design flow per 100 m of header, m³/s (wellpoints).
     pub design_flow_per_100m_m3_per_s: Option<f64>,
     /// How each figure was found.
     pub basis: Vec<String>,
 }
 
-/// Round a pump duty (L/s) up to a selection step: 0.5 L/s below 5, 1 below 20, 2.5 below 50,
-/// 5 above (a convenience for grouping, not a pump catalogue).
-pub fn pump_step(duty_l_per_s: f64) -> f64 {
-    let step = if duty_l_per_s < 5.0 {
-        0.5
-    } else if duty_l_per_s < 20.0 {
-        1.0
-    } else if duty_l_per_s < 50.0 {
-        2.5
-    } else {
-        5.0
-    };
-    ((duty_l_per_s / step) - 1e-9).ceil().max(1.0) * step
+fn path_length(paths: &[Vec<[f64; 2]>]) -> f64 {
+    let l: f64 = paths
+        .iter()
+        .map(|p| {
+            p.windows(2)
+                .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
+                .sum::<f64>()
+        })
+        .sum();
+    // The sum of nothing is −0.0; written out as 0.
+    l + 0.0
 }
 
-/// The bid quantities of a designed layout.
-pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>]) -> Bid {
+/// The bid quantities of a designed layout; `levels` are the water levels in the wells at
+/// their rates (m; `None` where a well was not evaluated or is dry: its lowest allowed level
+/// is used).
+pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Option<f64>]) -> Bid {
     let spec = &model.wells;
-    let working: Vec<&Well> = wells.iter().filter(|w| w.rate > 1e-9).collect();
-    let total: f64 = working.iter().map(|w| w.rate).sum();
+    let ps = &model.design.pumps;
+    let idx: Vec<usize> = (0..wells.len()).filter(|&i| wells[i].rate > 1e-9).collect();
+    let standby_placed: Vec<String> = wells
+        .iter()
+        .filter(|w| is_standby(w))
+        .map(|w| w.name.clone())
+        .collect();
+    let total: f64 = idx.iter().map(|&i| wells[i].rate).sum();
     let f = model.contingency;
+    let design_flow = total * (1.0 + f);
     let depth = model.ground_level - spec.screen_base + SUMP_ALLOWANCE;
     let screen = spec.screen_top - spec.screen_base;
-    let built = working.len() as f64 + spec.standby as f64;
+    let wellpoints = spec.kind == WellKind::Wellpoint;
+    let line_length = path_length(paths);
+    let lowest = |i: usize| {
+        let floor = wells[i].pump_intake + spec.submergence;
+        levels.get(i).copied().flatten().unwrap_or(floor)
+    };
+    let hours = ps.hours_per_day;
     let mut basis = vec![
         format!(
-            "depth per well = ground {:.2} m − screen base {:.2} m + {SUMP_ALLOWANCE:.1} m sump allowance = {depth:.2} m (common practice (no source))",
+            "depth per {} = ground {:.2} m − screen base {:.2} m + {SUMP_ALLOWANCE:.1} m sump allowance = {depth:.2} m (common practice (no source))",
+            if wellpoints { "wellpoint" } else { "well" },
             model.ground_level, spec.screen_base
         ),
-        format!("drilling and screen count working + standby wells ({} + {})", working.len(), spec.standby),
         format!("design flow = total × (1 + {f:.2}) (contingency from the design file)"),
+        format!(
+            "pump duty = the smallest of the standard duties [{}] L/s at least the running rate × (1 + {f:.2}){}; wells within {:.0} % of a class's largest rate share its class",
+            ps.duties.iter().map(|d| format!("{}", d * 1e3)).collect::<Vec<_>>().join(", "),
+            if spec.pump_capacity.is_some() { ", at most the design file's pump capacity" } else { "" },
+            ps.class_tolerance * 100.0
+        ),
+        format!(
+            "total head = discharge level {:.2} m − lowest level in the well + riser friction ({:.0} mm) + header friction ({:.0} mm, half the {} length at the whole design flow), Hazen–Williams C = {:.0} (checks.md §15)",
+            ps.discharge_level, ps.riser_diameter * 1e3, ps.header_diameter * 1e3,
+            if wellpoints { "pump set's header" } else { "well line's" },
+            ps.hazen_williams_c
+        ),
+        format!(
+            "shaft power = ρ·g·Q·H/η with η = {:.2}; installed at each pump's duty and class head (standby included), running at each well's rate; energy per day at the running power for {hours:.0} h",
+            ps.efficiency
+        ),
     ];
     let mut pumps = Vec::new();
-    let (mut header, mut per100) = (None, None);
-    match spec.kind {
-        WellKind::DeepWell => {
-            let mut groups: BTreeMap<i64, PumpGroup> = BTreeMap::new();
-            for w in &working {
-                let want = w.rate * 1e3 * (1.0 + f);
-                let duty = match spec.pump_capacity {
-                    Some(p) if p * 1e3 < want => p * 1e3,
-                    _ => pump_step(want),
-                };
-                let key = (duty * 1000.0).round() as i64;
-                let g = groups.entry(key).or_insert(PumpGroup {
-                    duty_l_per_s: duty,
-                    count: 0,
-                    running_l_per_s: [f64::INFINITY, 0.0],
-                });
-                g.count += 1;
-                g.running_l_per_s[0] = g.running_l_per_s[0].min(w.rate * 1e3);
-                g.running_l_per_s[1] = g.running_l_per_s[1].max(w.rate * 1e3);
+    let mut running_w = 0.0;
+    let (mut sets, mut per100) = (None, None);
+    let standby_pumps;
+    if !wellpoints {
+        let header_length = 0.5 * line_length;
+        let rates: Vec<f64> = wells.iter().map(|w| w.rate.max(0.0)).collect();
+        for (duty, members) in classes(model, &rates) {
+            let mut worst: Option<Head> = None;
+            let mut rng = [f64::INFINITY, 0.0f64];
+            for &i in &members {
+                let q = wells[i].rate;
+                let h_duty = head(model, lowest(i), wells[i].pump_intake, duty, header_length, design_flow);
+                if worst.is_none_or(|w| h_duty.total() > w.total()) {
+                    worst = Some(h_duty);
+                }
+                let h_run = head(model, lowest(i), wells[i].pump_intake, q, header_length, total);
+                running_w += shaft_power(model, q, h_run.total());
+                rng = [rng[0].min(q * 1e3), rng[1].max(q * 1e3)];
             }
-            pumps = groups.into_values().collect();
+            let h = worst.unwrap_or(Head { lift_m: 0.0, riser_m: 0.0, header_m: 0.0 });
+            pumps.push(PumpClass {
+                duty_l_per_s: duty * 1e3,
+                head_m: h.total(),
+                head_parts: h,
+                count: members.len(),
+                wells: members.iter().map(|&i| wells[i].name.clone()).collect(),
+                running_l_per_s: rng,
+                shaft_power_kw: shaft_power(model, duty, h.total()) / 1e3,
+                above_list: members.iter().any(|&i| duty_for(model, wells[i].rate).1),
+            });
+        }
+        standby_pumps = standby_placed.len().max(spec.standby as usize) as u32;
+    } else {
+        // Header pump sets by length: each serves `wellpoint_set_length` m of header.
+        let n = ((line_length / ps.wellpoint_set_length).ceil() as usize).max(usize::from(total > 0.0));
+        if n > 0 {
+            let per_set = total / n as f64;
+            let low = idx.iter().map(|&i| lowest(i)).fold(f64::INFINITY, f64::min);
+            let low = if low.is_finite() { low } else { model.ground_level - spec.suction_limit };
+            let (duty, above) = duty_for(model, per_set);
+            let set_len = line_length / n as f64;
+            let h_duty = head(model, low, model.ground_level, duty, 0.5 * set_len, per_set * (1.0 + f));
+            let h_run = head(model, low, model.ground_level, per_set, 0.5 * set_len, per_set);
+            running_w = n as f64 * shaft_power(model, per_set, h_run.total());
+            pumps.push(PumpClass {
+                duty_l_per_s: duty * 1e3,
+                head_m: h_duty.total(),
+                head_parts: h_duty,
+                count: n,
+                wells: (1..=n).map(|k| format!("set {k}")).collect(),
+                running_l_per_s: [per_set * 1e3, per_set * 1e3],
+                shaft_power_kw: shaft_power(model, duty, h_duty.total()) / 1e3,
+                above_list: above,
+            });
+            sets = Some(n);
+            per100 = (line_length > 0.0).then(|| design_flow / line_length * 100.0);
             basis.push(format!(
-                "pump duty = running rate × (1 + {f:.2}), rounded up to 0.5 L/s below 5 L/s, 1 L/s below 20, 2.5 L/s below 50 (a grouping step, not a catalogue){}",
-                if spec.pump_capacity.is_some() { "; never above the design file's pump capacity" } else { "" }
+                "wellpoint pump sets = header length {line_length:.0} m ÷ {:.0} m per set, rounded up; each set lifts from the lowest level in its wellpoints (common practice (no source))",
+                ps.wellpoint_set_length
             ));
         }
-        WellKind::Wellpoint => {
-            let length: f64 = paths
-                .iter()
-                .map(|p| {
-                    p.windows(2)
-                        .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
-                        .sum::<f64>()
-                })
-                .sum();
-            if length > 0.0 {
-                header = Some(length);
-                per100 = Some(total * (1.0 + f) / length * 100.0);
-            }
-            basis.push("wellpoints share header pumps: sized on the design flow per length of header, not per wellpoint (not sized here)".into());
-        }
+        standby_pumps = spec.standby;
     }
+    let largest = pumps
+        .iter()
+        .max_by(|a, b| a.duty_l_per_s.total_cmp(&b.duty_l_per_s));
+    let installed_w: f64 = pumps
+        .iter()
+        .map(|p| p.count as f64 * p.shaft_power_kw * 1e3)
+        .sum::<f64>()
+        + standby_pumps as f64 * largest.map_or(0.0, |p| p.shaft_power_kw * 1e3);
+    let built = idx.len() as f64 + standby_placed.len() as f64;
+    let energy = running_w * hours / 1e3;
     Bid {
-        wells_in_layout: wells.len(),
-        working_wells: working.len(),
-        idle_wells: wells
-            .iter()
-            .filter(|w| (0.0..=1e-9).contains(&w.rate))
-            .count(),
+        wellpoints,
+        working_wells: idx.len(),
+        standby_placed,
+        standby_asked: spec.standby,
         recharge_wells: wells.iter().filter(|w| w.rate < 0.0).count(),
         recharge_flow_m3_per_s: -wells
             .iter()
             .filter(|w| w.rate < 0.0)
             .map(|w| w.rate)
             .sum::<f64>(),
-        standby_wells: spec.standby,
         depth_per_well_m: depth,
-        drilling_m: depth * built,
+        drilling_m: if wellpoints { 0.0 } else { depth * built },
+        jetting_m: if wellpoints { depth * built } else { 0.0 },
         screen_m: screen * built,
-        standby_pumps: if spec.kind == WellKind::DeepWell {
-            spec.standby
-        } else {
-            0
-        },
         pumps,
+        standby_pumps,
+        power_installed_kw: installed_w / 1e3,
+        power_running_kw: running_w / 1e3,
+        energy_per_day_kwh: if energy.is_finite() { energy } else { 0.0 },
+        hours_per_day: hours,
         total_flow_m3_per_s: total,
-        design_flow_m3_per_s: total * (1.0 + f),
+        design_flow_m3_per_s: design_flow,
         contingency: f,
-        header_length_m: header,
+        header_length_m: line_length,
+        pump_sets: sets,
         design_flow_per_100m_m3_per_s: per100,
         basis,
     }
 }
 
-/// The bid quantities of the layout in `run`.
+/// The bid quantities of the layout in `run`, with the levels it computed in the wells.
 pub fn bid_of(model: &Model, run: &CheckRun) -> Bid {
-    bid(model, &run.placement.wells, &run.placement.paths)
+    let levels: Vec<Option<f64>> = run.evaluation.wells.iter().map(|w| w.level_m).collect();
+    bid(model, &run.placement.wells, &run.placement.paths, &levels)
 }

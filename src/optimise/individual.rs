@@ -10,7 +10,7 @@
 //! [`LayoutRates`]).
 
 use crate::optimise::limits::CAPACITY_SAFETY;
-use crate::optimise::lp;
+use crate::optimise::lp::{self, Solver};
 use crate::optimise::lp_problem::{Constraint, LpSolution, LpStatus, RateProblem, Sense};
 use crate::optimise::rates::LayoutRates;
 
@@ -37,6 +37,17 @@ pub struct Individual {
     /// Rate variables in the programme (the number of pumping wells unless neighbouring wells
     /// share a rate).
     pub groups: usize,
+}
+
+/// A row given per well: Σₖ cₖ·qₖ ≥ rhs, qₖ the rate of well k (m³/s).
+#[derive(Debug, Clone)]
+pub struct WellRow {
+    /// cₖ for every well of the layout.
+    pub per_well: Vec<f64>,
+    /// Right-hand side.
+    pub rhs: f64,
+    /// What it stands for.
+    pub label: String,
 }
 
 /// Which constraint a programme row stands for.
@@ -81,7 +92,14 @@ impl LayoutRates<'_> {
     /// solved again with half as many rate groups: coarser, but still within every well's own
     /// limits and evaluated in full.
     pub fn individual(&self) -> Individual {
-        let (sol, rows, rounds) = self.solve(Goal::MinFlow);
+        self.individual_with(&[])
+    }
+
+    /// As [`LayoutRates::individual`], with `extra` rows Σₖ cₖ·qₖ ≥ b given per well (folded
+    /// into the rate groups here), present from the first round: the rows for one well out
+    /// ([`crate::optimise::one_out`]).
+    pub fn individual_with(&self, extra: &[WellRow]) -> Individual {
+        let (sol, rows, rounds) = self.solve(Goal::MinFlow, extra);
         if matches!(sol.status, LpStatus::Failed(_)) && self.groups.len() >= 16 {
             let coarser = LayoutRates::with_groups(
                 self.model,
@@ -89,7 +107,7 @@ impl LayoutRates<'_> {
                 self.wells.clone(),
                 self.groups.len() / 2,
             );
-            return coarser.individual();
+            return coarser.individual_with(extra);
         }
         if sol.status != LpStatus::Optimal {
             return Individual {
@@ -119,14 +137,14 @@ impl LayoutRates<'_> {
     /// Rates within every limit that make the largest shortfall (in Φ) over the targets as
     /// small as it can be: the best this layout can do when it cannot meet every target.
     pub fn least_shortfall(&self) -> Option<Vec<f64>> {
-        let (sol, _, _) = self.solve(Goal::MinShortfall);
+        let (sol, _, _) = self.solve(Goal::MinShortfall, &[]);
         (sol.status == LpStatus::Optimal).then(|| self.well_rates(&sol.values))
     }
 
     /// Least total flow to meet the targets with no well limits at all, m³/s (a lower bound on
     /// what the layout needs).
     pub fn flow_without_limits(&self) -> Option<f64> {
-        let (sol, _, _) = self.solve(Goal::TargetsOnly);
+        let (sol, _, _) = self.solve(Goal::TargetsOnly, &[]);
         (sol.status == LpStatus::Optimal).then(|| {
             self.well_rates(&sol.values)
                 .iter()
@@ -208,7 +226,7 @@ impl LayoutRates<'_> {
 
     /// Solve by adding violated rows until none is left. Returns the solution (values per
     /// group, then the shortfall when asked for), the rows it was solved with and the rounds.
-    fn solve(&self, goal: Goal) -> (LpSolution, Vec<RowRef>, usize) {
+    fn solve(&self, goal: Goal, extra: &[WellRow]) -> (LpSolution, Vec<RowRef>, usize) {
         let g = self.groups.len();
         let n = self.wells.len();
         let limits_on = goal != Goal::TargetsOnly;
@@ -316,12 +334,16 @@ impl LayoutRates<'_> {
                     }
                 }
             }
+            let mut constraints: Vec<Constraint> = rows.iter().map(|r| self.row(*r, goal)).collect();
+            constraints.extend(extra.iter().map(|e| self.fold_row(e, costs.len())));
             let problem = RateProblem {
                 costs: costs.clone(),
                 bounds: bounds.clone(),
-                constraints: rows.iter().map(|r| self.row(*r, goal)).collect(),
+                constraints,
             };
-            let sol = lp::solve(&problem);
+            // The simplex, and the interior point when the simplex fails numerically: a solver
+            // fault must not count as a layout that cannot work.
+            let sol = lp::solve_with(&problem, Solver::SimplexThenInteriorPoint);
             if sol.status != LpStatus::Optimal || full {
                 return (sol, rows, rounds);
             }
@@ -386,6 +408,25 @@ impl LayoutRates<'_> {
             if !added {
                 return (sol, rows, rounds);
             }
+        }
+    }
+
+    /// A per-well row folded into the rate groups (recharge wells kept at their rates move
+    /// their term to the right-hand side).
+    fn fold_row(&self, e: &WellRow, width: usize) -> Constraint {
+        let mut coefficients = vec![0.0; width];
+        let mut rhs = e.rhs;
+        for (k, c) in e.per_well.iter().enumerate() {
+            match self.group_of.get(k).copied().flatten() {
+                Some(g) => coefficients[g] += c,
+                None => rhs -= c * self.wells.get(k).map_or(0.0, |w| w.rate),
+            }
+        }
+        Constraint {
+            coefficients,
+            sense: Sense::AtLeast,
+            rhs,
+            label: e.label.clone(),
         }
     }
 

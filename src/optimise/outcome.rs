@@ -6,6 +6,7 @@ use crate::estimate::ExcavationEstimate;
 use crate::field::layout::Placement;
 use crate::input::model::{LayoutSpec, Model};
 use crate::optimise::rates::RateOption;
+use crate::optimise::standby::Finish;
 use crate::optimise::trial::Trial;
 use serde::Serialize;
 
@@ -65,6 +66,8 @@ pub struct Design {
     pub notes: Vec<String>,
     /// The quick estimate of the layout's excavation.
     pub estimate: ExcavationEstimate,
+    /// Idle wells dropped, one well out, standby wells placed (met designs).
+    pub finish: Finish,
 }
 
 /// The layout evaluated for the outputs (chosen or best), as `check` evaluates it.

@@ -190,7 +190,17 @@ impl<'a> LayoutRates<'a> {
         let (a_sum, base_t) = sums(&positions);
         let well_positions: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
         let (at_wells_sum, base_w) = sums(&well_positions);
-        let limits = wells.iter().map(|w| WellLimit::new(model, w)).collect();
+        // The design runs each well at no more than the design file's capacity fraction.
+        let fraction = model.design.capacity_fraction;
+        let limits = wells
+            .iter()
+            .map(|w| {
+                let mut l = WellLimit::new(model, w);
+                l.capacity_per_metre *= fraction;
+                l.pump = l.pump.map(|p| p * fraction);
+                l
+            })
+            .collect();
         LayoutRates {
             model,
             points,

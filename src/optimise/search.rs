@@ -18,8 +18,9 @@ use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::precheck::impossible_before_search;
 use crate::optimise::rates::{LayoutRates, RateOption, MAX_LP_VARIABLES};
+use crate::optimise::standby::{finish, is_standby};
 use crate::optimise::trial::{
-    closed_length, line_length, try_layout, try_placement, Trial, TrialRun,
+    closed_length, line_length, solve_individual, try_layout, try_placement, Trial, TrialRun,
 };
 use std::collections::BTreeMap;
 
@@ -117,12 +118,113 @@ impl Search<'_, '_> {
         }
         if let Some(t) = self.cache.get_mut(&n) {
             if with_lp && t.individual.is_none() && !t.placement.wells.is_empty() {
-                let ind = LayoutRates::new(self.model, self.points, t.placement.wells.clone())
-                    .individual();
+                let rates =
+                    LayoutRates::new(self.model, self.points, t.placement.wells.clone());
+                let ind = solve_individual(self.model, &rates);
                 t.set_individual(ind);
             }
         }
         Ok(self.cache.get(&n).is_some_and(|t| ok(&t.trial)))
+    }
+
+    /// Other placements of search index `n`: the first well a quarter, half and
+    /// three-quarters of a spacing further round the ring (without corner wells) and the other
+    /// corner option; for a trench line the end points a quarter and half a spacing inside the
+    /// line ends, the same count spread between them.
+    fn variants(&self, n: usize) -> Vec<LayoutSpec> {
+        let base = spec_for(self.spec, self.fam, n);
+        let mut out = Vec::new();
+        match (&base.kind, self.fam) {
+            (LayoutKind::Ring { corner_wells, .. }, Family::Ring { .. }) => {
+                let ring = layout::offset_ring(
+                    &self.model.excavations[self.spec.excavation].outline,
+                    self.spec.offset,
+                );
+                let total = closed_length(&ring);
+                let step = total / n.max(1) as f64;
+                for f in [0.25, 0.5, 0.75] {
+                    let mut v = base.clone();
+                    v.start = (base.start + f * step).rem_euclid(total);
+                    if let LayoutKind::Ring { corner_wells, .. } = &mut v.kind {
+                        *corner_wells = false;
+                    }
+                    out.push(v);
+                }
+                let mut v = base.clone();
+                if let LayoutKind::Ring { corner_wells: c, .. } = &mut v.kind {
+                    *c = !*corner_wells;
+                }
+                out.push(v);
+            }
+            (LayoutKind::Line { .. }, Family::Line { length, .. }) => {
+                let step = length / (n.max(2) - 1) as f64;
+                for f in [0.25, 0.5] {
+                    let mut v = base.clone();
+                    let d = (base.start + f * step).min(0.45 * length);
+                    v.start = d;
+                    if let LayoutKind::Line { spacing, .. } = &mut v.kind {
+                        *spacing = (length - 2.0 * d) / (n.max(2) - 1) as f64 * (1.0 + 1e-9);
+                    }
+                    out.push(v);
+                }
+            }
+            _ => {}
+        }
+        out
+    }
+
+    /// Below the smallest index `found` meeting `ok` with the design file's placement, try the
+    /// other placements of each smaller index, one index at a time, while one of them meets.
+    /// A placement that meets replaces the cached run of its index (the run it replaces goes to
+    /// `others` with every other placement tried). Returns the smallest index met and what was
+    /// tried, in words.
+    fn fewer_by_variants(
+        &mut self,
+        found: Option<usize>,
+        ok: fn(&Trial) -> bool,
+        with_lp: bool,
+        others: &mut Vec<TrialRun>,
+    ) -> Result<(Option<usize>, Vec<String>, Option<TrialRun>), InputError> {
+        let Some(mut best) = found else {
+            return Ok((None, Vec::new(), None));
+        };
+        let min = match *self.fam {
+            Family::Ring { min, .. } | Family::Line { min, .. } => min,
+            Family::Fixed => return Ok((found, Vec::new(), None)),
+        };
+        let mut words = Vec::new();
+        let mut chosen: Option<TrialRun> = None;
+        while best > min {
+            let m = best - 1;
+            if self.cache.get(&m).is_some_and(|t| ok(&t.trial)) {
+                if let Some(old) = chosen.take() {
+                    others.push(old);
+                }
+                best = m;
+                continue;
+            }
+            let per_side = matches!(self.fam, Family::Line { .. }).then_some(m);
+            let mut winner = None;
+            for v in self.variants(m) {
+                let t = try_layout(self.model, self.points, &v, per_side, with_lp)?;
+                words.push(format!("{} wells, {}", t.trial.count, t.trial.variant));
+                if ok(&t.trial) {
+                    winner = Some(t);
+                    break;
+                }
+                others.push(t);
+            }
+            match winner {
+                Some(t) => {
+                    if let Some(old) = chosen.replace(t) {
+                        others.push(old);
+                    }
+                    best = m;
+                }
+                None => break,
+            }
+        }
+        Ok((Some(best), words, chosen))
     }
 
     /// Smallest index meeting `ok`: try min, min + 1, min + 3, min + 7 … up to max, then
@@ -166,6 +268,18 @@ impl Search<'_, '_> {
     }
 }
 
+/// The check points the design works to: every target lowered by the operating margin, m.
+pub fn design_points(model: &Model) -> Vec<CheckPoint> {
+    let m = model.design.operating_margin;
+    let mut points = check_points(model);
+    for p in &mut points {
+        if let Some(t) = p.target_level.as_mut() {
+            *t -= m;
+        }
+    }
+    points
+}
+
 /// Run the design: the smallest layout of the design file's kind that meets every target
 /// within every well limit, with rates by `asked`.
 pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
@@ -177,7 +291,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
             message: "design needs a [layout]: kind = \"ring\" (the count is searched), \"line\" (the spacing is searched), or \"listed\"/\"csv\" (the rates are found for the given wells)".into(),
         });
     };
-    let points = check_points(model);
+    let points = design_points(model);
     let est = estimate::estimate(model)
         .excavations
         .into_iter()
@@ -250,6 +364,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         search: search.clone(),
         notes: Vec::new(),
         estimate: est.clone(),
+        finish: Default::default(),
     };
     if let Some(reason) =
         impossible_before_search(model, &points, &probe_placement.paths, &fixed_points)
@@ -285,8 +400,47 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         let u = search_state.smallest(|t| t.uniform_met, false)?;
         (i, u)
     };
+    // The real fewest: below the count found with the design file's placement, other start
+    // positions (and the other corner option) of the same count.
+    let mut others: Vec<TrialRun> = Vec::new();
+    let mut tried_words = Vec::new();
+    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed)
+    {
+        (smallest_individual, smallest_uniform, None, None)
+    } else {
+        let (i, wi, ri) = search_state.fewer_by_variants(
+            smallest_individual,
+            |t| t.individual_met,
+            true,
+            &mut others,
+        )?;
+        let (u, wu, ru) = search_state.fewer_by_variants(
+            smallest_uniform,
+            |t| t.uniform_met,
+            false,
+            &mut others,
+        )?;
+        tried_words.extend(wi);
+        tried_words.extend(wu);
+        (i, u, ri, ru)
+    };
+    // The runs at the smallest indices: a placement found below, else the cached run.
+    let mut trial_extra: Vec<Trial> = Vec::new();
+    for r in [&run_i, &run_u].into_iter().flatten() {
+        trial_extra.push(r.trial.clone());
+    }
+    if !tried_words.is_empty() {
+        tried_words.dedup();
+        notes.push(format!(
+            "below the count found with the design file's placement, also tried: {}",
+            tried_words.join("; ")
+        ));
+    }
     let cache = search_state.cache;
-    let trials: Vec<Trial> = cache.values().map(|t| t.trial.clone()).collect();
+    let mut trials: Vec<Trial> = cache.values().map(|t| t.trial.clone()).collect();
+    trials.extend(others.iter().map(|t| t.trial.clone()));
+    trials.extend(trial_extra);
+    trials.sort_by(|a, b| a.count.cmp(&b.count).then(a.variant.cmp(&b.variant)));
     let count_of = |n: Option<usize>| n.and_then(|n| cache.get(&n)).map(|t| t.trial.count);
 
     let pick = match asked {
@@ -336,7 +490,11 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         }
     }
     let design = if let Some((n, used)) = pick {
-        let t = &cache[&n];
+        let found = match used {
+            RateOption::Individual => run_i.as_ref(),
+            RateOption::Uniform => run_u.as_ref(),
+        };
+        let t = found.unwrap_or(&cache[&n]);
         let (rates, binding) = match used {
             RateOption::Individual => {
                 let pumping = t.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
@@ -372,10 +530,27 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         for (w, q) in placement.wells.iter_mut().zip(&rates) {
             w.rate = *q;
         }
+        if model.design.pumps.one_rate_per_class && used == RateOption::Individual {
+            notes.push(crate::optimise::pumps::one_rate_per_class(
+                model,
+                &points,
+                &mut placement.wells,
+            ));
+        }
+        let fin = finish(model, &mut placement.wells);
+        if !fin.dropped.is_empty() {
+            notes.push(format!(
+                "{} well{} the least-flow rates leave idle dropped from the layout: {}",
+                fin.dropped.len(),
+                if fin.dropped.len() == 1 { "" } else { "s" },
+                fin.dropped.join(", ")
+            ));
+        }
         Design {
             used: Some(used),
+            finish: fin,
             outcome: Outcome::Met {
-                count: placement.wells.len(),
+                count: placement.wells.iter().filter(|w| !is_standby(w)).count(),
                 total_flow_m3_per_s: rates.iter().filter(|q| **q > 0.0).sum(),
             },
             spec: Some(t.spec.clone()),

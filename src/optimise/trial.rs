@@ -5,7 +5,9 @@ use crate::field::checkpoints::CheckPoint;
 use crate::field::layout::{self, Placement};
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model};
+use crate::check::evaluate::TARGET_TOLERANCE;
 use crate::optimise::individual::Individual;
+use crate::optimise::one_out::one_out_report;
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::rates::LayoutRates;
 use crate::optimise::uniform::Uniform;
@@ -45,6 +47,8 @@ pub struct Trial {
     pub individual_met: bool,
     /// In words.
     pub outcome: String,
+    /// Where the first well stands and the corner option ("start 0.0 m", "corner wells").
+    pub variant: String,
 }
 
 /// A trial with what the design needs to write it out.
@@ -81,6 +85,44 @@ pub fn try_layout(
     ))
 }
 
+/// The individual rates of `rates` as the design asks: with one well out when the design file
+/// asks for it (the operating margin given back with the well out).
+pub(super) fn solve_individual(model: &Model, rates: &LayoutRates) -> Individual {
+    if model.design.one_well_out {
+        let mut ind = rates.individual_one_out(model.design.operating_margin);
+        if ind.met {
+            ind.met = one_out_report(rates, &ind.rates).is_none_or(|o| {
+                o.margin_without_m + model.design.operating_margin >= -TARGET_TOLERANCE
+            });
+        }
+        ind
+    } else {
+        rates.individual()
+    }
+}
+
+/// The uniform option with one well out: the rate rises to what the wells left running need,
+/// and is met only if that rate is within the limits and the evaluation confirms it.
+fn one_out_uniform(rates: &LayoutRates, uniform: &mut Uniform, relax: f64) {
+    let Some(need_all) = uniform.needed_m3_per_s else {
+        return;
+    };
+    match rates.uniform_one_out_rate(relax) {
+        None => {
+            uniform.needed_m3_per_s = None;
+            uniform.met = false;
+        }
+        Some(q) if q > need_all => {
+            uniform.needed_m3_per_s = Some(q);
+            uniform.met = q <= uniform.limit_m3_per_s && {
+                let e = rates.evaluate(&rates.uniform_rates(q));
+                e.targets_met && e.wells_ok
+            };
+        }
+        Some(_) => {}
+    }
+}
+
 fn status_words(status: &LpStatus) -> String {
     match status {
         LpStatus::Optimal => "optimal".into(),
@@ -101,8 +143,12 @@ pub(super) fn try_placement(
 ) -> TrialRun {
     let count = placement.wells.len();
     let rates = LayoutRates::new(model, points, placement.wells.clone());
-    let uniform = rates.uniform();
-    let individual = (count > 0 && with_lp).then(|| rates.individual());
+    let mut uniform = rates.uniform();
+    if model.design.one_well_out && count > 0 {
+        one_out_uniform(&rates, &mut uniform, model.design.operating_margin);
+    }
+    let individual = (count > 0 && with_lp).then(|| solve_individual(model, &rates));
+    let variant = variant_words(&spec);
     let mut run = TrialRun {
         trial: trial_row(
             points,
@@ -117,10 +163,23 @@ pub(super) fn try_placement(
         placement,
         individual: None,
     };
+    run.trial.variant = variant;
     if let Some(ind) = individual {
         run.set_individual(ind);
     }
     run
+}
+
+/// The start position and corner option of a layout, in words.
+pub fn variant_words(spec: &LayoutSpec) -> String {
+    match &spec.kind {
+        LayoutKind::Ring {
+            corner_wells: true, ..
+        } => "corner wells".into(),
+        LayoutKind::Ring { .. } => format!("first well {:.1} m along the ring", spec.start),
+        LayoutKind::Line { .. } => format!("end points {:.2} m inside the line ends", spec.start),
+        _ => "as given".into(),
+    }
 }
 
 impl TrialRun {
@@ -189,6 +248,7 @@ fn trial_row(
         uniform_met: uniform.met,
         individual_met: ind_met,
         outcome: String::new(),
+        variant: String::new(),
     };
     trial.outcome = outcome_words(&trial);
     trial

@@ -6,7 +6,8 @@ use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
-use crate::optimise::bid::{bid_of, Bid};
+use crate::input::prices::Price;
+use crate::optimise::bid::bid_of;
 use crate::optimise::individual::summarise_binding;
 use crate::optimise::outcome::{is_met, Design, Outcome};
 use crate::optimise::trial::Trial;
@@ -52,6 +53,7 @@ fn trial_json(t: &Trial) -> Value {
         "individual_met": t.individual_met,
         "individual_status": t.individual_status,
         "outcome": t.outcome,
+        "placement": t.variant,
     })
 }
 
@@ -76,12 +78,14 @@ pub fn design_json(model: &Model, design: &Design, run: Option<&CheckRun>) -> Va
                 "count": match count { crate::input::model::RingCount::Count(n) => Some(*n), _ => None },
                 "corner_wells": corner_wells,
                 "offset_m": s.offset,
+                "start_m": s.start,
             }),
             LayoutKind::Line { spacing, both_sides, .. } => json!({
                 "kind": "line",
                 "spacing_m": spacing,
                 "both_sides": both_sides,
                 "offset_m": s.offset,
+                "start_m": s.start,
             }),
             LayoutKind::Listed => json!({"kind": "listed"}),
             LayoutKind::Csv { path } => json!({"kind": "csv", "file": path.display().to_string()}),
@@ -94,27 +98,23 @@ pub fn design_json(model: &Model, design: &Design, run: Option<&CheckRun>) -> Va
             "ratio_optimised_to_estimate": ratio,
         },
         "counts_tried": design.trials.iter().map(trial_json).collect::<Vec<_>>(),
-        "bid": bid.map(|b| json!({
-            "wells_in_layout": b.wells_in_layout,
-            "working_wells": b.working_wells,
-            "idle_wells": b.idle_wells,
-            "recharge_wells": b.recharge_wells,
-            "recharge_flow_m3_per_day": b.recharge_flow_m3_per_s * DAY,
-            "standby_wells": b.standby_wells,
-            "depth_per_well_m": b.depth_per_well_m,
-            "drilling_m": b.drilling_m,
-            "screen_m": b.screen_m,
-            "pumps": b.pumps,
-            "standby_pumps": b.standby_pumps,
-            "total_flow_m3_per_day": b.total_flow_m3_per_s * DAY,
-            "total_flow_l_per_s": b.total_flow_m3_per_s * 1e3,
-            "design_flow_m3_per_day": b.design_flow_m3_per_s * DAY,
-            "design_flow_l_per_s": b.design_flow_m3_per_s * 1e3,
-            "contingency": b.contingency,
-            "header_length_m": b.header_length_m,
-            "design_flow_per_100m_header_l_per_s": b.design_flow_per_100m_m3_per_s.map(|q| q * 1e3),
-            "basis": b.basis,
+        "bid": bid.as_ref().map(|b| super::bid_out::bid_json(b, &super::bid_out::lines(design, b), None)),
+        "design_allowances": {
+            "operating_margin_m": model.design.operating_margin,
+            "operating_margin_basis": "below every target with every well running (design file allowances.operating_margin; default 0.3 m, common practice (no source))",
+            "capacity_fraction": model.design.capacity_fraction,
+            "capacity_fraction_basis": "largest share of each well's capacity (Sichardt and pump) the design uses (allowances.capacity_fraction; default 0.8, common practice (no source))",
+            "one_well_out": model.design.one_well_out,
+        },
+        "one_well_out": design.finish.one_out.as_ref().map(|o| json!({
+            "worst_well": o.worst_well,
+            "margin_without_it_m": o.margin_without_m,
+            "at": o.worst_point,
+            "margin_by_well_out_m": o.by_well.iter().map(|(w, m)| json!({"well": w, "margin_m": m})).collect::<Vec<_>>(),
         })),
+        "standby_wells_placed": design.finish.standby,
+        "idle_wells_dropped": design.finish.dropped,
+        "highest_use_of_capacity": run.map(highest_use),
         "notes": design.notes,
         "caution": CAUTION,
     })
@@ -138,6 +138,7 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
         "individual_met",
         "individual_status",
         "outcome",
+        "placement",
     ];
     if requested.is_some() {
         header.insert(0, "requested");
@@ -162,152 +163,12 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
             t.individual_met.to_string(),
             t.individual_status.clone(),
             t.outcome.clone(),
+            t.variant.clone(),
         ];
         if let Some(r) = requested {
             rec.insert(0, r.get(i).map_or(String::new(), |v| format!("{v}")));
         }
         w.write_record(&rec)?;
-    }
-    Ok(w.into_inner()?)
-}
-
-/// `bid.csv`: item, quantity, unit, basis — with the comparison against the quick estimate.
-pub fn bid_csv(design: &Design, bid: &Bid) -> anyhow::Result<Vec<u8>> {
-    let mut w = csv::Writer::from_writer(Vec::new());
-    w.write_record(["item", "quantity", "unit", "basis"])?;
-    let row = |w: &mut csv::Writer<Vec<u8>>, item: &str, q: String, unit: &str, basis: &str| {
-        w.write_record([item, &q, unit, basis])
-    };
-    row(
-        &mut w,
-        "working wells",
-        bid.working_wells.to_string(),
-        "no.",
-        "wells with a rate above zero",
-    )?;
-    if bid.idle_wells > 0 {
-        row(
-            &mut w,
-            "idle wells in the layout",
-            bid.idle_wells.to_string(),
-            "no.",
-            "the least-flow rates leave them at zero: omit or keep as spare",
-        )?;
-    }
-    row(
-        &mut w,
-        "standby wells",
-        bid.standby_wells.to_string(),
-        "no.",
-        "design file wells.standby",
-    )?;
-    if bid.recharge_wells > 0 {
-        row(
-            &mut w,
-            "recharge wells",
-            bid.recharge_wells.to_string(),
-            "no.",
-            &format!(
-                "kept at their given rates, {:.1} m³/day in all",
-                bid.recharge_flow_m3_per_s * DAY
-            ),
-        )?;
-    }
-    row(
-        &mut w,
-        "drilling",
-        format!("{:.1}", bid.drilling_m),
-        "m",
-        bid.basis.first().map_or("", |s| s),
-    )?;
-    row(
-        &mut w,
-        "screen",
-        format!("{:.1}", bid.screen_m),
-        "m",
-        "screen top − screen base, working + standby wells",
-    )?;
-    for p in &bid.pumps {
-        row(
-            &mut w,
-            &format!("pumps of {:.1} L/s duty", p.duty_l_per_s),
-            p.count.to_string(),
-            "no.",
-            &format!(
-                "running {:.2}–{:.2} L/s",
-                p.running_l_per_s[0], p.running_l_per_s[1]
-            ),
-        )?;
-    }
-    if bid.standby_pumps > 0 {
-        row(
-            &mut w,
-            "standby pumps",
-            bid.standby_pumps.to_string(),
-            "no.",
-            "one per standby well, of the largest duty",
-        )?;
-    }
-    if let (Some(l), Some(q)) = (bid.header_length_m, bid.design_flow_per_100m_m3_per_s) {
-        row(
-            &mut w,
-            "wellpoint header",
-            format!("{l:.0}"),
-            "m",
-            "along the wellpoint lines",
-        )?;
-        row(
-            &mut w,
-            "design flow per 100 m of header",
-            format!("{:.2}", q * 1e3),
-            "L/s",
-            "header pumps are sized on this",
-        )?;
-    }
-    row(
-        &mut w,
-        "total flow",
-        format!("{:.1}", bid.total_flow_m3_per_s * DAY),
-        "m³/day",
-        "sum of the well rates",
-    )?;
-    row(
-        &mut w,
-        "total flow",
-        format!("{:.2}", bid.total_flow_m3_per_s * 1e3),
-        "L/s",
-        "sum of the well rates",
-    )?;
-    row(
-        &mut w,
-        "design flow",
-        format!("{:.1}", bid.design_flow_m3_per_s * DAY),
-        "m³/day",
-        &format!("total × (1 + {:.2})", bid.contingency),
-    )?;
-    row(
-        &mut w,
-        "design flow",
-        format!("{:.2}", bid.design_flow_m3_per_s * 1e3),
-        "L/s",
-        &format!("total × (1 + {:.2})", bid.contingency),
-    )?;
-    let (est, ratio) = estimate_comparison(design, bid.total_flow_m3_per_s);
-    row(
-        &mut w,
-        "quick estimate total flow",
-        format!("{:.1}", est * DAY),
-        "m³/day",
-        "drydig estimate (equivalent well or line slot)",
-    )?;
-    if let Some(r) = ratio {
-        row(
-            &mut w,
-            "optimised / estimate",
-            format!("{r:.2}"),
-            "ratio",
-            "total flow of this design over the quick estimate",
-        )?;
     }
     Ok(w.into_inner()?)
 }
@@ -318,6 +179,7 @@ pub fn files(
     model: &Model,
     design: &Design,
     run: Option<&CheckRun>,
+    prices: Option<&[Price]>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let mut out = match run {
         Some(r) => super::check_files(r, None)?,
@@ -329,7 +191,13 @@ pub fn files(
     ));
     out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
     if let Some(r) = run {
-        out.push(("bid.csv".into(), bid_csv(design, &bid_of(model, r))?));
+        let b = bid_of(model, r);
+        let lines = super::bid_out::lines(design, &b);
+        out.push(("bid.csv".into(), super::bid_out::bid_csv(&lines, prices)?));
+        out.push((
+            "bid.json".into(),
+            serde_json::to_vec_pretty(&super::bid_out::bid_json(&b, &lines, prices))?,
+        ));
     }
     Ok(out)
 }
@@ -353,7 +221,7 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
         format!("LP {total_unit}"),
         format!("margin {lu}"),
         "limit on the uniform rate",
-        "outcome"
+        "outcome [placement]"
     ));
     for (i, t) in trials.iter().enumerate() {
         if let Some(r) = requested {
@@ -384,7 +252,11 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
             },
             units.length(t.lowest_margin_m),
             limit,
-            t.outcome
+            if t.variant.is_empty() {
+                t.outcome.clone()
+            } else {
+                format!("{} [{}]", t.outcome, t.variant)
+            }
         ));
     }
     out
@@ -396,6 +268,7 @@ pub fn to_text(
     design: &Design,
     run: Option<&CheckRun>,
     units: UnitSystem,
+    prices: Option<&[Price]>,
 ) -> String {
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
@@ -494,63 +367,9 @@ pub fn to_text(
                 "  → this design is {r:.2} × the estimate"
             ))
         ));
+        out.push_str(&allowance_text(model, design, r, units));
         let b = bid_of(model, r);
-        out.push_str("\nbid quantities\n");
-        out.push_str(&format!(
-            "  wells               {} working + {} standby{}\n",
-            b.working_wells,
-            b.standby_wells,
-            if b.idle_wells > 0 {
-                format!(
-                    " ({} more in the layout left idle by the least-flow rates)",
-                    b.idle_wells
-                )
-            } else {
-                String::new()
-            }
-        ));
-        if b.recharge_wells > 0 {
-            out.push_str(&format!(
-                "  recharge wells      {} at their given rates ({} in all; not in the drilling below)\n",
-                b.recharge_wells,
-                flow(b.recharge_flow_m3_per_s, units)
-            ));
-        }
-        out.push_str(&format!(
-            "  drilling            {:.0} {lu} ({:.2} {lu} per well incl. {:.1} m sump allowance)\n",
-            l(b.drilling_m),
-            l(b.depth_per_well_m),
-            crate::optimise::bid::SUMP_ALLOWANCE
-        ));
-        out.push_str(&format!(
-            "  screen              {:.0} {lu}\n",
-            l(b.screen_m)
-        ));
-        for p in &b.pumps {
-            out.push_str(&format!(
-                "  pumps               {} × {:.1} L/s duty (running {:.2}–{:.2} L/s)\n",
-                p.count, p.duty_l_per_s, p.running_l_per_s[0], p.running_l_per_s[1]
-            ));
-        }
-        if b.standby_pumps > 0 {
-            out.push_str(&format!("  standby pumps       {}\n", b.standby_pumps));
-        }
-        if let (Some(len), Some(q)) = (b.header_length_m, b.design_flow_per_100m_m3_per_s) {
-            out.push_str(&format!(
-                "  wellpoint header    {:.0} {lu}, design flow {:.2} L/s per 100 m (header pumps sized on it)\n",
-                l(len),
-                q * 1e3
-            ));
-        }
-        out.push_str(&format!(
-            "  total flow          {}\n",
-            flow(b.total_flow_m3_per_s, units)
-        ));
-        out.push_str(&format!(
-            "  design flow (+{:.0} %) {}\n",
-            b.contingency * 100.0,
-            flow(b.design_flow_m3_per_s, units)
-        ));
+        out.push_str(&super::bid_out::bid_text(&super::bid_out::lines(design, &b), prices));
         for n in &r.placement.notes {
             out.push_str(&wrap(&format!("note: {n}"), 96, ""));
         }
@@ -597,5 +416,57 @@ pub fn sweep_text(
     }
     out.push('\n');
     out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
+    out
+}
+
+/// The highest share of its capacity any working well runs at, and which.
+fn highest_use(r: &CheckRun) -> Value {
+    let best = r
+        .evaluation
+        .wells
+        .iter()
+        .filter(|w| w.rate_m3_per_s > 0.0 && w.capacity_m3_per_s > 0.0)
+        .map(|w| (w.rate_m3_per_s / w.capacity_m3_per_s, w.name.clone()))
+        .max_by(|a, b| a.0.total_cmp(&b.0));
+    best.map_or(Value::Null, |(f, n)| json!({"fraction": f, "well": n}))
+}
+
+/// Margin, capacity use, one well out and standby wells, for the terminal.
+fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSystem) -> String {
+    let lu = units.length_unit();
+    let d = &model.design;
+    let mut out = format!(
+        "operating margin      {:.2} {lu} below every target kept with every well running (allowances.operating_margin; common practice (no source))\n",
+        units.length(d.operating_margin)
+    );
+    if let Value::Object(o) = highest_use(r) {
+        out.push_str(&format!(
+            "capacity use          at most {:.0} % allowed; highest {:.0} % ({})\n",
+            d.capacity_fraction * 100.0,
+            o.get("fraction").and_then(Value::as_f64).unwrap_or(0.0) * 100.0,
+            o.get("well").and_then(Value::as_str).unwrap_or("")
+        ));
+    }
+    match (&design.finish.one_out, d.one_well_out) {
+        (Some(o), on) => out.push_str(&wrap(
+            &format!(
+                "one well out          {}: losing {} hurts most — lowest margin without it {:.2} {lu} {} target at \"{}\"",
+                if on { "planned for" } else { "not planned for (allowances.one_well_out = false)" },
+                o.worst_well,
+                units.length(o.margin_without_m.abs()),
+                if o.margin_without_m >= -crate::check::evaluate::TARGET_TOLERANCE { "below" } else { "ABOVE" },
+                o.worst_point
+            ),
+            96,
+            "",
+        )),
+        (None, _) => {}
+    }
+    if !design.finish.standby.is_empty() {
+        out.push_str(&format!(
+            "standby wells         {} placed where a well's loss hurts most (rate 0, shown hollow on the map)\n",
+            design.finish.standby.join(", ")
+        ));
+    }
     out
 }

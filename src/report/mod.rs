@@ -1,5 +1,6 @@
 //! Formatting results for people and programs: one file per output format.
 
+pub mod bid_out;
 pub mod check_text;
 pub mod design_text;
 pub mod estimate_text;

@@ -101,8 +101,9 @@ pub fn assess(model: &Model, least_drawdown: &[Option<f64>]) -> Vec<UpliftResult
                 required_drawdown_m: (u.piezometric_level - h_req).max(0.0),
                 excavation_target_m: e.target_level(),
                 uplift_target_m: field_target(model, u, e.formation_level),
-                uplift_governs: field_target(model, u, e.formation_level)
-                    .is_some_and(|t| t < e.target_level()),
+                uplift_governs: field_target(model, u, e.formation_level).is_some_and(|t| {
+                    t < e.target_level() || e.control == crate::input::model::Control::Relieve
+                }),
                 head_after_m: after,
                 factor_of_safety_after: fos_after,
                 pass_after: after.map(|h| h <= h_req + crate::check::evaluate::TARGET_TOLERANCE),

@@ -255,6 +255,8 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         }
     };
 
+    let design =
+        crate::input::validate::design_settings::design_settings(rep, &raw, ground, wells.kind)?;
     let model = Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
@@ -281,6 +283,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
         as_built,
+        design,
     };
     crate::input::validate::sides::check_points_and_neighbours(&model)?;
     let listed: Vec<(&str, [f64; 2], f64)> = model

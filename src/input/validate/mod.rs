@@ -8,11 +8,13 @@
 //! `ranges` (levels, coordinates, counts and names a real site can have), `derived` (what the
 //! formulas compute from them: distance of influence, leakage factor, equivalent radius, the
 //! number of check points), `as_built` (screens, well losses, header level, spacing limits,
-//! recharge limits), `sides` (everything on the aquifer side of every boundary).
+//! recharge limits), `sides` (everything on the aquifer side of every boundary),
+//! `design_settings` (operating margin, capacity fraction, one well out, pumps).
 
 pub mod aquifer;
 pub mod as_built;
 pub mod derived;
+pub mod design_settings;
 pub mod file;
 pub mod neighbours;
 pub mod ranges;

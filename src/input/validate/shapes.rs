@@ -187,6 +187,12 @@ pub fn excavations(
             formation_level: formation,
             target_margin: margin,
             shape,
+            control: crate::input::validate::design_settings::control(
+                rep,
+                &f("control"),
+                e.control.as_deref(),
+                raw.uplift.is_some(),
+            )?,
         });
     }
 

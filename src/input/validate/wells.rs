@@ -251,10 +251,22 @@ pub fn layout_spec(
             ))
         }
     };
+    let start = match &l.start {
+        Some(q) if q.si.is_finite() && (0.0..=10_000.0).contains(&q.si) => q.si,
+        Some(q) => {
+            return Err(rep.error(
+                "layout.start",
+                q.span.clone(),
+                format!("{} m is outside 0 … 10 000 m (distance along the ring of the first well, or of the end wellpoints inside each end of the line)", q.si),
+            ))
+        }
+        None => 0.0,
+    };
     Ok(LayoutSpec {
         kind,
         excavation,
         offset,
         rate: l.rate.as_ref().map(|q| q.si),
+        start,
     })
 }

@@ -62,6 +62,21 @@ pub(super) fn draw_wells(
             p[1] + r + 1.0,
         ]);
         let recharge = w.rate < 0.0;
+        if crate::optimise::standby::is_standby(w) {
+            // A standby well: a hollow symbol, not drawn as pumping.
+            symbols = symbols.add(
+                svg::node::element::Circle::new()
+                    .set("cx", r1(p[0]))
+                    .set("cy", r1(p[1]))
+                    .set("r", r1(r))
+                    .set("fill", "white")
+                    .set("stroke", WELL)
+                    .set("stroke-width", 1.5)
+                    .set("stroke-dasharray", "3 2")
+                    .set("class", "well standby"),
+            );
+            continue;
+        }
         symbols = symbols.add(well_symbol(p, r, recharge).set(
             "class",
             if recharge {
@@ -91,7 +106,11 @@ pub(super) fn draw_wells(
             continue;
         }
         let name = w.name.clone();
-        let rate = rate_text(w.rate);
+        let rate = if crate::optimise::standby::is_standby(w) {
+            "standby".to_string()
+        } else {
+            rate_text(w.rate)
+        };
         let bw = text_width(&name, s1).max(text_width(&rate, s2)) + 4.0;
         let bh = s1 + s2 + 4.0;
         // Outward from the nearest excavation centre, then round the compass.

@@ -1,0 +1,182 @@
+//! One well out of service: the least-flow rates that still meet every target with any single
+//! pumping well stopped (the others keep their rates), and, for a finished design, which
+//! well's loss hurts most and the margin left without it.
+//!
+//! Superposition is linear in Strack's discharge potential, so with well k stopped the
+//! potential at target point i is Φᵢ − uᵢₖ·qₖ (uᵢₖ < 0 for pumping). The target with k out
+//! holds when Φ₀ + Σⱼ≠ₖ uᵢⱼ·qⱼ ≤ Φ(zₜ): one more linear row per (point, well). There are
+//! points × wells such rows, but only a few bind (the points nearest each well). The rows are
+//! generated lazily: solve, find for every well the point its loss leaves furthest above the
+//! target, add those rows, solve again, until none is violated — the answer is then the
+//! optimum of the full programme (every row holds, and the rows left out could only raise the
+//! optimum). Stopping a pumping well raises every level, so the level and capacity limits of
+//! the wells that keep running are looser than with every well on; they are held with every
+//! well on.
+//!
+//! With one well out the targets are held at the target itself; with every well on at the
+//! target less the operating margin.
+
+use crate::optimise::individual::{Individual, WellRow};
+use crate::optimise::lp_problem::LpStatus;
+use crate::optimise::rates::LayoutRates;
+use rayon::prelude::*;
+
+/// Most rounds of adding one-well-out rows.
+const MAX_ROUNDS: usize = 30;
+/// Relative tolerance on the potential scale for a violated one-well-out row.
+const ROW_TOLERANCE: f64 = 1e-9;
+
+/// What one well out does to a design.
+#[derive(Debug, Clone, serde::Serialize)]
+pub struct OneOut {
+    /// The well whose loss leaves the lowest margin.
+    pub worst_well: String,
+    /// The lowest margin below target with that well out, m (negative: a target is missed).
+    pub margin_without_m: f64,
+    /// Where that margin is.
+    pub worst_point: String,
+    /// The lowest margin with each pumping well out in turn, by well name.
+    pub by_well: Vec<(String, f64)>,
+}
+
+impl LayoutRates<'_> {
+    /// Unit rows per well (not grouped) at the target points: ΔΦ per unit rate.
+    fn unit_rows_at_targets(&self) -> Vec<Vec<f64>> {
+        self.positions
+            .par_iter()
+            .map(|p| self.field.unit_row(*p))
+            .collect()
+    }
+
+    /// Least total flow such that every target holds with every well on (at the targets of
+    /// this layout's check points) and, with any one pumping well out, at those targets raised
+    /// by `relax` m (the operating margin given back).
+    pub fn individual_one_out(&self, relax: f64) -> Individual {
+        let aq = &self.model.aquifer;
+        let u = self.unit_rows_at_targets();
+        let phi_out: Vec<f64> = self
+            .targets
+            .iter()
+            .map(|&i| aq.potential(self.points[i].target_level.unwrap_or(f64::NAN) + relax))
+            .collect();
+        let n = self.wells.len();
+        let tol = ROW_TOLERANCE * self.phi0.abs().max(1e-30);
+        let mut extra: Vec<WellRow> = Vec::new();
+        let mut have = std::collections::HashSet::new();
+        let mut ind = self.individual_with(&extra);
+        let mut rounds = 0;
+        while ind.status == LpStatus::Optimal && rounds < MAX_ROUNDS {
+            rounds += 1;
+            let x = &ind.rates;
+            let free: Vec<f64> = (0..n)
+                .map(|k| if self.group_of[k].is_some() { x[k] } else { 0.0 })
+                .collect();
+            // Φ at each target with every well on, and the worst point per well out.
+            let phi: Vec<f64> = u
+                .iter()
+                .enumerate()
+                .map(|(t, row)| self.base_t[t] + row.iter().zip(&free).map(|(a, q)| a * q).sum::<f64>())
+                .collect();
+            let mut added = 0;
+            for k in (0..n).filter(|&k| free[k] > 0.0) {
+                let worst = (0..u.len())
+                    .map(|t| (phi[t] - u[t][k] * free[k] - phi_out[t], t))
+                    .max_by(|a, b| a.0.total_cmp(&b.0));
+                if let Some((v, t)) = worst {
+                    if v > tol && have.insert((t, k)) {
+                        let per_well: Vec<f64> = u[t]
+                            .iter()
+                            .enumerate()
+                            .map(|(j, a)| {
+                                if j != k && self.group_of[j].is_some() {
+                                    -a
+                                } else {
+                                    0.0
+                                }
+                            })
+                            .collect();
+                        extra.push(WellRow {
+                            per_well,
+                            rhs: self.base_t[t] - phi_out[t],
+                            label: format!(
+                                "target at {} with {} out",
+                                self.points[self.targets[t]].name, self.wells[k].name
+                            ),
+                        });
+                        added += 1;
+                    }
+                }
+            }
+            if added == 0 {
+                break;
+            }
+            ind = self.individual_with(&extra);
+        }
+        if ind.status == LpStatus::Optimal {
+            // The one-well-out rows that bind, in words.
+            let x = &ind.rates;
+            for e in &extra {
+                let lhs: f64 = e.per_well.iter().zip(x).map(|(c, q)| c * q).sum();
+                let size: f64 =
+                    e.rhs.abs() + e.per_well.iter().zip(x).map(|(c, q)| (c * q).abs()).sum::<f64>();
+                if (lhs - e.rhs).abs() <= 1e-6 * size {
+                    ind.binding.push(e.label.clone());
+                }
+            }
+            ind.rounds += rounds;
+        }
+        ind
+    }
+}
+
+/// The lowest margin at the target points with each pumping well of `rates` out in turn, by
+/// plain superposition ([`crate::check::evaluate::evaluate`]) at `points` (the real targets).
+pub fn one_out_report(layout: &LayoutRates, rates: &[f64]) -> Option<OneOut> {
+    let mut by_well = Vec::new();
+    let mut worst: Option<(f64, String, String)> = None;
+    for k in (0..rates.len()).filter(|&k| rates[k] > 0.0) {
+        let mut r = rates.to_vec();
+        r[k] = 0.0;
+        let e = layout.evaluate(&r);
+        let Some(i) = e.worst_point else { continue };
+        let m = e.points[i].margin_m.unwrap_or(0.0);
+        by_well.push((layout.wells[k].name.clone(), m));
+        if worst.as_ref().is_none_or(|w| m < w.0) {
+            worst = Some((m, layout.wells[k].name.clone(), e.points[i].point.name.clone()));
+        }
+    }
+    worst.map(|(m, w, p)| OneOut {
+        worst_well: w,
+        margin_without_m: m,
+        worst_point: p,
+        by_well,
+    })
+}
+
+impl LayoutRates<'_> {
+    /// The smallest rate in every pumping well that meets every target with any one well out
+    /// (targets raised by `relax` m): per point and well out, the deficit over the summed unit
+    /// rows of the wells still running (a ratio, as for the uniform option). `None` when a
+    /// target is out of reach of the wells left running.
+    pub fn uniform_one_out_rate(&self, relax: f64) -> Option<f64> {
+        let aq = &self.model.aquifer;
+        let u = self.unit_rows_at_targets();
+        let mut need = 0.0f64;
+        for (t, row) in u.iter().enumerate() {
+            let i = self.targets[t];
+            let phi_out = aq.potential(self.points[i].target_level.unwrap_or(f64::NAN) + relax);
+            let deficit = self.base_t[t] - phi_out;
+            if deficit <= 0.0 {
+                continue;
+            }
+            for k in (0..row.len()).filter(|&k| self.group_of[k].is_some()) {
+                let s = self.a_sum[t] - row[k];
+                if s >= 0.0 {
+                    return None;
+                }
+                need = need.max(deficit / -s);
+            }
+        }
+        Some(need)
+    }
+}
