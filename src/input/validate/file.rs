@@ -224,6 +224,14 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         }
     };
 
+    let programme = crate::input::validate::programme::programme(
+        rep,
+        raw.programme.as_ref(),
+        &excavations,
+        &aquifer,
+        ground,
+    )?;
+
     Ok(Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
@@ -249,6 +257,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         uplift,
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
+        programme,
     })
 }
 

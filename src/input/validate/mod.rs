@@ -9,5 +9,6 @@
 pub mod aquifer;
 pub mod file;
 pub mod neighbours;
+pub mod programme;
 pub mod shapes;
 pub mod wells;
