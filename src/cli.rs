@@ -150,6 +150,10 @@ pub enum Command {
         /// The data are recovery after this much pumping ("2 days"): Theis recovery only.
         #[arg(long = "recovery-after")]
         recovery_after: Option<String>,
+        /// The fit whose aquifer lines are printed and drawn: theis (default), cooper-jacob,
+        /// hantush, unconfined, distance.
+        #[arg(long)]
+        method: Option<String>,
         /// Output folder for pumping_test.svg.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
         out: PathBuf,

@@ -197,8 +197,14 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             distance,
             thickness,
             recovery_after,
+            method,
             out,
         } => {
+            let prefer = method
+                .as_deref()
+                .map(report::pumping_test_text::method_named)
+                .transpose()
+                .map_err(|e| bad_arg("--method", e))?;
             let data = pumping_test_data(&file, &rate, &distance, thickness.as_deref())?;
             let recovery = recovery_after
                 .as_deref()
@@ -208,8 +214,8 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 })
                 .transpose()?;
             let fits = report::pumping_test_text::fits(&data, recovery);
-            report::files::write_all(&out, &report::pumping_test_text::files(&data, &fits))?;
-            print(&report::pumping_test_text::to_text(&data, &fits))?;
+            report::files::write_all(&out, &report::pumping_test_text::files(&data, &fits, prefer))?;
+            print(&report::pumping_test_text::to_text(&data, &fits, prefer))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             Ok(if fits.iter().any(|(_, f)| f.is_ok()) {
                 ExitCode::SUCCESS

@@ -63,7 +63,7 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             if st.ready() {
                 "ready".to_string()
             } else if let Some(t) = st.earliest {
-                format!("{} days late (last point: {})", days(t - st.planned_start), st.critical_point)
+                format!("waits {} days for the water (last point: {})", days(t - st.planned_start), st.critical_point)
             } else {
                 format!("NOT REACHED (furthest: {})", st.critical_point)
             }

@@ -3,6 +3,7 @@
 
 use super::{wrap, CAUTION};
 use crate::test_analysis::{
+    Method,
     aquifer_lines, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown, fit_hantush,
     fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, PumpingTestData,
 };
@@ -35,25 +36,41 @@ pub fn fits(data: &PumpingTestData, recovery_after: Option<f64>) -> Vec<(String,
     out
 }
 
-/// The fit whose aquifer lines are printed: the least rms among the type-curve fits that
-/// succeeded (Theis, Hantush, unconfined), else the first that succeeded.
-pub fn best(fits: &[(String, Result<Fit, String>)]) -> Option<&Fit> {
-    use crate::test_analysis::Method;
+/// The fit whose aquifer lines are printed and drawn: the one of method `prefer` when it
+/// succeeded, else the first that succeeded (Theis, in the order of [`fits`]). More parameters
+/// always fit closer, so the choice is the engineer's, not the least rms.
+pub fn best(fits: &[(String, Result<Fit, String>)], prefer: Option<Method>) -> Option<&Fit> {
     let ok: Vec<&Fit> = fits.iter().filter_map(|(_, f)| f.as_ref().ok()).collect();
     ok.iter()
-        .filter(|f| {
-            matches!(
-                f.method,
-                Method::Theis | Method::Hantush | Method::TheisUnconfined
-            )
-        })
-        .min_by(|a, b| a.rms.total_cmp(&b.rms))
+        .find(|f| Some(f.method) == prefer)
         .or(ok.first())
         .copied()
 }
 
+/// The method named on the command line: theis, cooper-jacob, hantush, unconfined, recovery,
+/// distance; `Err` lists the valid names.
+pub fn method_named(name: &str) -> Result<Method, String> {
+    Ok(match name.trim().to_lowercase().as_str() {
+        "theis" => Method::Theis,
+        "cooper-jacob" => Method::CooperJacob,
+        "hantush" | "leaky" => Method::Hantush,
+        "unconfined" => Method::TheisUnconfined,
+        "recovery" => Method::TheisRecovery,
+        "distance" | "distance-drawdown" => Method::DistanceDrawdown,
+        other => {
+            return Err(format!(
+                "unknown method \"{other}\"; valid: theis, cooper-jacob, hantush, unconfined, recovery, distance"
+            ))
+        }
+    })
+}
+
 /// Terminal text: a line per method, then the aquifer lines of the best fit.
-pub fn to_text(data: &PumpingTestData, fits: &[(String, Result<Fit, String>)]) -> String {
+pub fn to_text(
+    data: &PumpingTestData,
+    fits: &[(String, Result<Fit, String>)],
+    prefer: Option<Method>,
+) -> String {
     let n: usize = data.wells.iter().map(|w| w.points.len()).sum();
     let mut s = format!(
         "PUMPING TEST  Q = {:.3} L/s, {} observation well{}, {n} readings\n\n",
@@ -87,7 +104,7 @@ pub fn to_text(data: &PumpingTestData, fits: &[(String, Result<Fit, String>)]) -
             Err(e) => s.push_str(&format!("  {name:<36} not fitted: {e}\n")),
         }
     }
-    if let Some(b) = best(fits) {
+    if let Some(b) = best(fits, prefer) {
         s.push_str(&format!(
             "\n  aquifer lines from the {} fit (paste into [aquifer]):\n\n",
             b.method.name()
@@ -107,8 +124,9 @@ pub fn to_text(data: &PumpingTestData, fits: &[(String, Result<Fit, String>)]) -
 pub fn files(
     data: &PumpingTestData,
     fits: &[(String, Result<Fit, String>)],
+    prefer: Option<Method>,
 ) -> Vec<(String, Vec<u8>)> {
-    let b = best(fits);
+    let b = best(fits, prefer);
     let mut out = vec![(
         "pumping_test.svg".to_string(),
         pumping_test_svg(&data.wells, b).into_bytes(),
