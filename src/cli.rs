@@ -100,6 +100,10 @@ pub enum Command {
         /// the cost lines to the bid sheet. No prices are built in.
         #[arg(long)]
         prices: Option<PathBuf>,
+        /// Size for levels reached by this day of pumping (Theis/Hantush in time) instead of
+        /// the steady state: the fewest wells and least total flow meeting every target then.
+        #[arg(long = "by-day")]
+        by_day: Option<f64>,
     },
     /// Try a range of well counts (ring) or spacings in m (trench line): table, sweep.csv and
     /// sweep.svg.
@@ -121,6 +125,42 @@ pub enum Command {
         /// Units for the terminal output.
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
+    },
+    /// Run the design file's [programme] in time: days to dig each stage, hydrographs, flow and
+    /// volume, maps at chosen times, recovery and time to flood; writes programme.csv and SVGs.
+    Programme {
+        /// Design file (TOML) with a [programme] section.
+        file: PathBuf,
+        /// Output folder.
+        #[arg(short = 'o', long = "out", default_value = "drydig-out")]
+        out: PathBuf,
+    },
+    /// Fit a constant-rate pumping test (CSV of time and drawdown, units in the header): Theis,
+    /// Cooper–Jacob, Hantush, unconfined Theis, recovery, distance–drawdown; prints the aquifer
+    /// lines to paste into a design file and writes pumping_test.svg.
+    PumpingTest {
+        /// CSV with columns time_<unit>, drawdown_<unit>, optionally well and distance_<unit>.
+        file: PathBuf,
+        /// Constant pumping rate, with its unit ("8 L/s").
+        #[arg(long)]
+        rate: String,
+        /// Distance of the observation well from the pumped well ("30 m"), or NAME=DISTANCE for
+        /// each well of a file with a well column; not needed when the file has a distance column.
+        #[arg(long)]
+        distance: Vec<String>,
+        /// Aquifer (saturated) thickness ("12 m"): for the unconfined fit and K = T / thickness.
+        #[arg(long)]
+        thickness: Option<String>,
+        /// The data are recovery after this much pumping ("2 days"): Theis recovery only.
+        #[arg(long = "recovery-after")]
+        recovery_after: Option<String>,
+        /// The fit whose aquifer lines are printed and drawn: theis (default), cooper-jacob,
+        /// hantush, unconfined, distance.
+        #[arg(long)]
+        method: Option<String>,
+        /// Output folder for pumping_test.svg.
+        #[arg(short = 'o', long = "out", default_value = "drydig-out")]
+        out: PathBuf,
     },
     /// Write a commented starter design file (never overwrites).
     New {

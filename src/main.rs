@@ -87,8 +87,22 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             rates,
             units,
             prices,
+            by_day,
         } => {
             let model = model::load(&file)?;
+            if let Some(day) = by_day {
+                let d = drydig::transient::by_date::design_by_day(&model, day)?;
+                let files = vec![("by_day.csv".to_string(), report::by_day_text::to_csv(&d))];
+                let inputs = report::files::inputs_of(&model, None);
+                report::files::write_set(&out, &files, &inputs)?;
+                print(&report::by_day_text::to_text(&model, &d))?;
+                print(&format!("outputs written to {}\n", out.display()))?;
+                return Ok(if d.met {
+                    ExitCode::SUCCESS
+                } else {
+                    ExitCode::from(3)
+                });
+            }
             let units = units.map(Into::into).unwrap_or(model.units);
             let prices = prices
                 .as_deref()
@@ -160,6 +174,68 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 ExitCode::from(3)
             })
         }
+        Command::Programme { file, out } => {
+            let model = model::load(&file)?;
+            let setup = drydig::transient::programme::setup(&model)?;
+            let answers = drydig::transient::answers::answer(&model, &setup);
+            let mut files = vec![(
+                "programme.csv".to_string(),
+                report::programme_text::to_csv(&model, &answers),
+            )];
+            files.extend(report::programme_charts::charts(&model, &answers));
+            let wells: Vec<[f64; 2]> = setup.wells.iter().map(|w| w.position).collect();
+            for m in &answers.maps {
+                files.push((
+                    format!("map_day_{:.1}.svg", m.time / 86_400.0),
+                    report::programme_map::map_svg(&model, m, &wells).into_bytes(),
+                ));
+            }
+            let inputs = report::files::inputs_of(&model, None);
+            report::files::write_set(&out, &files, &inputs)?;
+            print(&report::programme_text::to_text(&model, &answers))?;
+            print(&format!("outputs written to {}\n", out.display()))?;
+            let ready = answers.stages.iter().all(|s| s.ready());
+            Ok(if ready {
+                ExitCode::SUCCESS
+            } else {
+                ExitCode::from(3)
+            })
+        }
+        Command::PumpingTest {
+            file,
+            rate,
+            distance,
+            thickness,
+            recovery_after,
+            method,
+            out,
+        } => {
+            let prefer = method
+                .as_deref()
+                .map(report::pumping_test_text::method_named)
+                .transpose()
+                .map_err(|e| bad_arg("--method", e))?;
+            let data = pumping_test_data(&file, &rate, &distance, thickness.as_deref())?;
+            let recovery = recovery_after
+                .as_deref()
+                .map(|t| {
+                    drydig::input::units::parse::<drydig::input::units::TimeKind>(t)
+                        .map_err(|e| bad_arg("--recovery-after", e))
+                })
+                .transpose()?;
+            let fits = report::pumping_test_text::fits(&data, recovery);
+            report::files::write_all(
+                &out,
+                &report::pumping_test_text::files(&data, &fits, prefer),
+            )?;
+            print(&report::pumping_test_text::to_text(&data, &fits, prefer))?;
+            print(&format!("outputs written to {}\n", out.display()))?;
+            Ok(if fits.iter().any(|(_, f)| f.is_ok()) {
+                ExitCode::SUCCESS
+            } else {
+                ExitCode::from(3)
+            })
+        }
         Command::New { file } => {
             starter::write_new(&file)?;
             eprintln!(
@@ -170,4 +246,77 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(ExitCode::SUCCESS)
         }
     }
+}
+
+fn bad_arg(field: &str, message: String) -> anyhow::Error {
+    InputError {
+        file: std::path::PathBuf::new(),
+        field: field.into(),
+        line: None,
+        message,
+    }
+    .into()
+}
+
+/// The pumping-test data from the CSV and the command-line values (rate, distances, thickness).
+fn pumping_test_data(
+    file: &std::path::Path,
+    rate: &str,
+    distance: &[String],
+    thickness: Option<&str>,
+) -> anyhow::Result<drydig::test_analysis::PumpingTestData> {
+    use drydig::input::units::{parse, FlowKind, LengthKind};
+    let text = std::fs::read_to_string(file).map_err(|e| InputError {
+        file: file.to_path_buf(),
+        field: String::new(),
+        line: None,
+        message: format!("cannot read the test data: {e}"),
+    })?;
+    let err = |m: String| InputError {
+        file: file.to_path_buf(),
+        field: String::new(),
+        line: None,
+        message: m,
+    };
+    let rate = parse::<FlowKind>(rate).map_err(|e| bad_arg("--rate", e))?;
+    if !(rate > 0.0) {
+        return Err(bad_arg(
+            "--rate",
+            "the pumping rate must be greater than 0".into(),
+        ));
+    }
+    let name = file.file_stem().map_or("observation".to_string(), |s| {
+        s.to_string_lossy().into_owned()
+    });
+    let series = drydig::test_analysis::csv_input::read_observations(&text, &name).map_err(err)?;
+    let mut named = Vec::new();
+    let mut plain = None;
+    for d in distance {
+        match d.split_once('=') {
+            Some((n, v)) => named.push((
+                n.trim().to_string(),
+                parse::<LengthKind>(v).map_err(|e| bad_arg("--distance", e))?,
+            )),
+            None => plain = Some(parse::<LengthKind>(d).map_err(|e| bad_arg("--distance", e))?),
+        }
+    }
+    let wells = series
+        .into_iter()
+        .map(|s| {
+            let d = named
+                .iter()
+                .find(|(n, _)| *n == s.name)
+                .map(|(_, v)| *v)
+                .or(plain);
+            s.into_well(d).map_err(|m| bad_arg("--distance", m))
+        })
+        .collect::<Result<Vec<_>, _>>()?;
+    let thickness = thickness
+        .map(|t| parse::<LengthKind>(t).map_err(|e| bad_arg("--thickness", e)))
+        .transpose()?;
+    Ok(drydig::test_analysis::PumpingTestData {
+        rate,
+        wells,
+        thickness,
+    })
 }

@@ -71,6 +71,8 @@ pub struct Model {
     /// Design allowances for `drydig design` and the bid: margin, capacity fraction, one well
     /// out, pumps.
     pub design: DesignSettings,
+    /// The pumping programme in time, when given.
+    pub programme: Option<Programme>,
 }
 
 /// Default operating margin below every target that `design` keeps, m (common practice (no
@@ -498,4 +500,49 @@ impl AsBuilt {
     pub fn suction_floor(&self, suction_limit: f64) -> f64 {
         self.header_level - suction_limit
     }
+}
+
+/// The pumping programme (times in s from day 0).
+#[derive(Debug, Clone)]
+pub struct Programme {
+    /// Calendar date of day 0, as days since 1970-01-01, when given.
+    pub start_day: Option<i64>,
+    /// Pumping duration, s; every pump stops at its end.
+    pub duration: f64,
+    /// Step between output times, s.
+    pub output_step: f64,
+    /// Time followed after switch-off, s.
+    pub recovery: f64,
+    /// Times of the drawdown maps, s.
+    pub map_times: Vec<f64>,
+    /// Stages, start times strictly increasing.
+    pub stages: Vec<Stage>,
+    /// Extra hydrograph points: name, position m.
+    pub points: Vec<(String, [f64; 2])>,
+}
+
+/// One stage of the dig.
+#[derive(Debug, Clone)]
+pub struct Stage {
+    /// Name.
+    pub name: String,
+    /// Start, s after day 0.
+    pub start: f64,
+    /// Index of the excavation dug.
+    pub excavation: usize,
+    /// Formation level reached, m.
+    pub formation_level: f64,
+    /// Wells running (names); `None`: every well.
+    pub wells: Option<Vec<String>>,
+    /// Rate of the running wells.
+    pub rate: StageRate,
+}
+
+/// Rate of the wells that run in a stage.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum StageRate {
+    /// Each well's rate in the design file.
+    AsDesigned,
+    /// This rate in every running well, m³/s.
+    Each(f64),
 }

@@ -53,6 +53,9 @@ pub struct DesignFile {
     /// Pump selection and pipework for the bid.
     #[serde(default)]
     pub pumps: Option<Pumps>,
+    /// The pumping programme in time (stages of the dig), for `drydig programme`.
+    #[serde(default)]
+    pub programme: Option<Programme>,
 }
 
 /// `[pumps]`
@@ -482,4 +485,67 @@ pub struct Output {
     /// Map shows "drawdown" or "water-level".
     #[serde(default)]
     pub map: Option<String>,
+}
+
+/// `[programme]`: the pumping programme in time.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Programme {
+    /// Calendar date of day 0 ("2027-03-01"), needed when a stage gives a date.
+    #[serde(default)]
+    pub start_date: Option<String>,
+    /// How long the pumps run from day 0 ("120 days"); they are switched off at its end.
+    pub duration: Duration,
+    /// Step between output times ("1 day").
+    #[serde(default)]
+    pub output_step: Option<Duration>,
+    /// How long the levels are followed after switch-off ("30 days").
+    #[serde(default)]
+    pub recovery: Option<Duration>,
+    /// Times of the drawdown maps (["14 days", "60 days"]).
+    #[serde(default)]
+    pub map_times: Vec<Duration>,
+    /// Stages of the dig, in time order.
+    #[serde(default)]
+    pub stage: Vec<Stage>,
+    /// Extra points with a hydrograph (piezometers, services).
+    #[serde(default)]
+    pub point: Vec<ProgrammePoint>,
+}
+
+/// `[[programme.stage]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Stage {
+    /// Name ("Dig to 2.5 m").
+    pub name: String,
+    /// Start, as time after day 0 ("0 days", "3 weeks").
+    #[serde(default)]
+    pub start: Option<Duration>,
+    /// Start as a calendar date ("2027-03-15"), with `programme.start_date`.
+    #[serde(default)]
+    pub date: Option<String>,
+    /// The excavation this stage digs (default: the first).
+    #[serde(default)]
+    pub excavation: Option<String>,
+    /// Formation level reached in this stage.
+    pub formation_level: Length,
+    /// Wells running in this stage (default: every well).
+    #[serde(default)]
+    pub wells: Option<Vec<String>>,
+    /// "as designed" (each well's design-file rate) or one rate for each running well ("4 L/s").
+    #[serde(default)]
+    pub rate: Option<String>,
+}
+
+/// `[[programme.point]]`
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ProgrammePoint {
+    /// Name.
+    pub name: String,
+    /// x, m.
+    pub x: f64,
+    /// y, m.
+    pub y: f64,
 }

@@ -118,8 +118,7 @@ impl Search<'_, '_> {
         }
         if let Some(t) = self.cache.get_mut(&n) {
             if with_lp && t.individual.is_none() && !t.placement.wells.is_empty() {
-                let rates =
-                    LayoutRates::new(self.model, self.points, t.placement.wells.clone());
+                let rates = LayoutRates::new(self.model, self.points, t.placement.wells.clone());
                 let ind = solve_individual(self.model, &rates);
                 t.set_individual(ind);
             }
@@ -151,7 +150,10 @@ impl Search<'_, '_> {
                     out.push(v);
                 }
                 let mut v = base.clone();
-                if let LayoutKind::Ring { corner_wells: c, .. } = &mut v.kind {
+                if let LayoutKind::Ring {
+                    corner_wells: c, ..
+                } = &mut v.kind
+                {
                     *c = !*corner_wells;
                 }
                 out.push(v);
@@ -404,8 +406,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     // positions (and the other corner option) of the same count.
     let mut others: Vec<TrialRun> = Vec::new();
     let mut tried_words = Vec::new();
-    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed)
-    {
+    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed) {
         (smallest_individual, smallest_uniform, None, None)
     } else {
         let (i, wi, ri) = search_state.fewer_by_variants(

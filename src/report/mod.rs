@@ -1,6 +1,7 @@
 //! Formatting results for people and programs: one file per output format.
 
 pub mod bid_out;
+pub mod by_day_text;
 pub mod check_text;
 pub mod design_text;
 pub mod estimate_text;
@@ -8,6 +9,10 @@ pub mod files;
 pub mod geojson_out;
 pub mod map;
 pub mod neighbours;
+pub mod programme_charts;
+pub mod programme_map;
+pub mod programme_text;
+pub mod pumping_test_text;
 pub mod sweep_chart;
 pub mod tables;
 

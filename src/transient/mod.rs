@@ -23,6 +23,10 @@
 //! until t > t_k; a term with u > 700 (E₁ below 1e-307) is skipped; no NaN reaches an output.
 //! Units SI: m, s, m³/s (positive = abstraction), m²/s.
 
+pub mod answers;
+pub mod by_date;
+pub mod programme;
+
 use crate::physics::special::{exp1, hantush_w};
 use rayon::prelude::*;
 use std::f64::consts::PI;

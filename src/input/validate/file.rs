@@ -255,6 +255,14 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         }
     };
 
+    let programme = crate::input::validate::programme::programme(
+        rep,
+        raw.programme.as_ref(),
+        &excavations,
+        &aquifer,
+        ground,
+    )?;
+
     let design =
         crate::input::validate::design_settings::design_settings(rep, &raw, ground, wells.kind)?;
     let model = Model {
@@ -284,6 +292,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         map_quantity,
         as_built,
         design,
+        programme,
     };
     crate::input::validate::sides::check_points_and_neighbours(&model)?;
     let listed: Vec<(&str, [f64; 2], f64)> = model

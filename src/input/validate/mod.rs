@@ -17,6 +17,7 @@ pub mod derived;
 pub mod design_settings;
 pub mod file;
 pub mod neighbours;
+pub mod programme;
 pub mod ranges;
 pub mod shapes;
 pub mod sides;

@@ -1,0 +1,594 @@
+//! The programme's answers: when each check point meets its target, the earliest day each stage
+//! can be dug, hydrographs, flow and volume against time, drawdown maps at chosen times, recovery
+//! after switch-off, and the time to flood when the pumps fail.
+//!
+//! Method. Drawdowns s(x, t) come from [`crate::transient::TransientModel`] (Theis/Hantush
+//! superposition in space and time with images). Output times are the programme's step, every
+//! stage start and the end of pumping. A crossing (target first met, water back above formation)
+//! is bracketed between two output times and found by bisection to 1 s. A stage can be dug once
+//! every check point of its excavation (grid, corners, edges) stands at or below the stage's
+//! target, its formation level less the excavation's target margin (the design file has no
+//! separate operating margin; the target margin is the one used). Volumes are ∫ Q dt of the step
+//! schedules, exact.
+//!
+//! Time to flood: at each output time while a stage's points are dry (level below that stage's
+//! formation, and after the stage's earliest day), the excavation point with the least margin
+//! is taken; every pump is switched off there and then, and the time until the water stands above
+//! formation at that point is found. The moment with the shortest time is the worst moment; the
+//! same is done there with only the most important well off (the one giving the most drawdown at
+//! that point at that moment). Searched up to [`FLOOD_SEARCH`] after the failure.
+
+use crate::field::checkpoints::{check_points, PointKind};
+use crate::input::model::Model;
+use crate::transient::programme::{switched_off, ProgrammeSetup, DAY};
+use crate::transient::TransientModel;
+use rayon::prelude::*;
+
+/// Longest time followed after a failure, s (365 days).
+pub const FLOOD_SEARCH: f64 = 365.0 * DAY;
+/// Nodes along each side of a drawdown map.
+pub const MAP_NODES: usize = 101;
+
+/// What a hydrograph is of.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SeriesKind {
+    /// A named check point or programme point.
+    Point,
+    /// A corner of a neighbour's footprint.
+    Neighbour,
+    /// In a well (fully penetrating, see the programme notes).
+    Well,
+}
+
+/// Water level against time at one place.
+#[derive(Debug, Clone)]
+pub struct Hydrograph {
+    /// Name.
+    pub name: String,
+    /// Kind.
+    pub kind: SeriesKind,
+    /// Position, m.
+    pub position: [f64; 2],
+    /// Water level at each output time, m above datum.
+    pub levels: Vec<f64>,
+}
+
+/// When a check point first meets its target.
+#[derive(Debug, Clone)]
+pub struct PointTime {
+    /// Check point name.
+    pub name: String,
+    /// Target level, m.
+    pub target_level: f64,
+    /// First time at or below the target, s; `None` if not within the programme.
+    pub time: Option<f64>,
+}
+
+/// One stage's answer.
+#[derive(Debug, Clone)]
+pub struct StageAnswer {
+    /// Name.
+    pub name: String,
+    /// Planned start, s.
+    pub planned_start: f64,
+    /// End of the stage (next stage's start or the end of pumping), s.
+    pub end: f64,
+    /// Formation level reached, m.
+    pub formation_level: f64,
+    /// Target level of its check points, m.
+    pub target_level: f64,
+    /// Earliest time every point meets the target, s; `None`: not within the programme.
+    pub earliest: Option<f64>,
+    /// The last point to meet it (or the one furthest from it).
+    pub critical_point: String,
+    /// Scheduled flow at the stage start, m³/s.
+    pub flow: f64,
+    /// Volume pumped during the stage, m³.
+    pub volume: f64,
+}
+
+impl StageAnswer {
+    /// Ready by its planned start.
+    pub fn ready(&self) -> bool {
+        self.earliest.is_some_and(|t| t <= self.planned_start + 1.0)
+    }
+}
+
+/// Time to flood after a failure at the worst moment.
+#[derive(Debug, Clone)]
+pub struct Flood {
+    /// Moment of the failure, s.
+    pub moment: f64,
+    /// Stage active then.
+    pub stage: String,
+    /// Point that floods.
+    pub point: String,
+    /// Formation level there, m.
+    pub formation_level: f64,
+    /// Margin below formation at the failure, m.
+    pub margin: f64,
+    /// Time from failure until water stands above formation with every pump off, s (`None`:
+    /// not within [`FLOOD_SEARCH`]).
+    pub all_off: Option<f64>,
+    /// The most important well.
+    pub well: String,
+    /// Time to flood with only that well off, s (`None`: the others hold the water down).
+    pub well_off: Option<f64>,
+}
+
+/// Recovery after the pumps stop at the end of the programme.
+#[derive(Debug, Clone)]
+pub struct Recovery {
+    /// Point followed (the excavation point with the least drawdown at switch-off).
+    pub point: String,
+    /// Drawdown at switch-off, m.
+    pub drawdown_at_stop: f64,
+    /// Residual drawdown at the end of the recovery followed, m.
+    pub residual_at_end: f64,
+    /// Time after switch-off until 90 % of the drawdown has recovered, s.
+    pub to_90_percent: Option<f64>,
+    /// Time after switch-off until the water stands above the last formation level, s.
+    pub above_formation: Option<f64>,
+}
+
+/// Drawdown on a regular grid at one time. Node (i, j) at origin + (i, j)·step; row-major j·nx+i.
+#[derive(Debug, Clone)]
+pub struct DrawdownMap {
+    /// Time, s.
+    pub time: f64,
+    /// Node (0, 0), m.
+    pub origin: [f64; 2],
+    /// Spacing, m.
+    pub step: f64,
+    /// Nodes along x.
+    pub nx: usize,
+    /// Nodes along y.
+    pub ny: usize,
+    /// Drawdown at each node, m.
+    pub drawdown: Vec<f64>,
+}
+
+/// Everything the programme answers.
+#[derive(Debug, Clone)]
+pub struct ProgrammeAnswers {
+    /// Output times, s.
+    pub times: Vec<f64>,
+    /// Total scheduled flow at each output time, m³/s.
+    pub flows: Vec<f64>,
+    /// Volume pumped from day 0 to each output time, m³.
+    pub volumes: Vec<f64>,
+    /// Stage active at each output time (`None` after pumping).
+    pub stage_at: Vec<Option<usize>>,
+    /// Hydrographs.
+    pub hydrographs: Vec<Hydrograph>,
+    /// Every check point with a target.
+    pub point_times: Vec<PointTime>,
+    /// Every stage.
+    pub stages: Vec<StageAnswer>,
+    /// Total volume pumped, m³.
+    pub total_volume: f64,
+    /// Time to flood at the worst moment.
+    pub flood: Option<Flood>,
+    /// Recovery after the pumps stop.
+    pub recovery: Option<Recovery>,
+    /// Drawdown maps at the chosen times.
+    pub maps: Vec<DrawdownMap>,
+    /// End of pumping, s.
+    pub duration: f64,
+}
+
+/// Output times: 0, step, 2·step … to duration + recovery, with every stage start and the end of
+/// pumping added, sorted, without repeats.
+pub fn output_times(starts: &[f64], duration: f64, recovery: f64, step: f64) -> Vec<f64> {
+    let end = duration + recovery;
+    let n = (end / step).ceil() as usize;
+    let mut t: Vec<f64> = (0..=n).map(|k| (k as f64 * step).min(end)).collect();
+    t.extend_from_slice(starts);
+    t.push(duration);
+    t.sort_by(f64::total_cmp);
+    t.dedup_by(|a, b| (*a - *b).abs() < 1e-6);
+    t
+}
+
+/// Bisection on a predicate that is false at `lo` and true at `hi`, to 1 s: the first time true.
+fn bisect(mut lo: f64, mut hi: f64, ok: impl Fn(f64) -> bool) -> f64 {
+    for _ in 0..200 {
+        if hi - lo <= 1.0 {
+            break;
+        }
+        let mid = 0.5 * (lo + hi);
+        if ok(mid) {
+            hi = mid;
+        } else {
+            lo = mid;
+        }
+    }
+    hi
+}
+
+/// First time after `from` (s) that the drawdown at `point` falls below `limit` (m), searched
+/// to `from + cap`: 300 times spaced geometrically from 1 s, then bisection. `None` if it
+/// stays at or above the limit.
+pub fn time_until_below(
+    model: &TransientModel,
+    point: [f64; 2],
+    limit: f64,
+    from: f64,
+    cap: f64,
+) -> Option<f64> {
+    let below = |t: f64| model.drawdown_at(point, t) < limit;
+    if below(from) {
+        return Some(0.0);
+    }
+    let n = 300;
+    let ratio = cap.max(2.0).powf(1.0 / n as f64);
+    let mut lo = from;
+    for i in 1..=n {
+        let t = from + ratio.powi(i);
+        if below(t) {
+            return Some(bisect(lo, t, below) - from);
+        }
+        lo = t;
+    }
+    None
+}
+
+fn first_crossing(times: &[f64], values: &[bool], ok: impl Fn(f64) -> bool) -> Option<f64> {
+    let k = values.iter().position(|v| *v)?;
+    if k == 0 {
+        return Some(times[0]);
+    }
+    Some(bisect(times[k - 1], times[k], ok))
+}
+
+/// Answer the programme on its setup. See the module notes for the method.
+pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
+    let prog = model
+        .programme
+        .as_ref()
+        .expect("answer is called on a model with a programme");
+    let tm = &setup.model;
+    let h0 = model.aquifer.initial_level;
+    let starts: Vec<f64> = prog.stages.iter().map(|s| s.start).collect();
+    let times = output_times(&starts, prog.duration, prog.recovery, prog.output_step);
+    let stage_of = |t: f64| -> Option<usize> {
+        (t < prog.duration)
+            .then(|| starts.iter().rposition(|s| *s <= t))
+            .flatten()
+    };
+    let stage_at: Vec<Option<usize>> = times.iter().map(|t| stage_of(*t)).collect();
+    let flows: Vec<f64> = times.iter().map(|t| setup.flow_at(*t)).collect();
+    let volumes: Vec<f64> = times
+        .iter()
+        .map(|t| setup.volume_between(0.0, *t))
+        .collect();
+
+    // Check points and their drawdowns at every output time.
+    let points = check_points(model);
+    let with_target: Vec<usize> = (0..points.len())
+        .filter(|&i| points[i].target_level.is_some())
+        .collect();
+    let positions: Vec<[f64; 2]> = points.iter().map(|p| p.position).collect();
+    let d = tm.drawdowns(&positions, &times);
+    let point_times: Vec<PointTime> = with_target
+        .par_iter()
+        .map(|&i| {
+            let p = &points[i];
+            let target = p.target_level.unwrap_or(h0);
+            let need = h0 - target;
+            let met: Vec<bool> = d[i].iter().map(|s| *s >= need).collect();
+            PointTime {
+                name: p.name.clone(),
+                target_level: target,
+                time: first_crossing(&times, &met, |t| tm.drawdown_at(p.position, t) >= need),
+            }
+        })
+        .collect();
+
+    // Stages.
+    let in_exc = |e: usize| -> Vec<usize> {
+        (0..points.len())
+            .filter(|&i| {
+                points[i].excavation == Some(e)
+                    && matches!(
+                        points[i].kind,
+                        PointKind::Grid | PointKind::Corner | PointKind::Edge
+                    )
+            })
+            .collect()
+    };
+    let stages: Vec<StageAnswer> = prog
+        .stages
+        .iter()
+        .enumerate()
+        .map(|(k, st)| {
+            let exc = &model.excavations[st.excavation];
+            let target = st.formation_level - exc.target_margin;
+            let need = h0 - target;
+            let idx = in_exc(st.excavation);
+            let all_met = |t: f64| {
+                idx.iter()
+                    .all(|&i| tm.drawdown_at(points[i].position, t) >= need)
+            };
+            let met: Vec<bool> = (0..times.len())
+                .map(|j| times[j] < prog.duration && idx.iter().all(|&i| d[i][j] >= need))
+                .collect();
+            let earliest = if need <= 0.0 {
+                Some(0.0)
+            } else {
+                first_crossing(&times, &met, all_met)
+            };
+            // The critical point: the last to meet the target, or the furthest from it.
+            let at = earliest.unwrap_or(prog.duration * (1.0 - 1e-9));
+            let critical = idx
+                .iter()
+                .min_by(|&&a, &&b| {
+                    tm.drawdown_at(points[a].position, at)
+                        .total_cmp(&tm.drawdown_at(points[b].position, at))
+                })
+                .map_or(String::new(), |&i| points[i].name.clone());
+            let end = starts.get(k + 1).copied().unwrap_or(prog.duration);
+            StageAnswer {
+                name: st.name.clone(),
+                planned_start: st.start,
+                end,
+                formation_level: st.formation_level,
+                target_level: target,
+                earliest,
+                critical_point: critical,
+                flow: setup.flow_at(st.start),
+                volume: setup.volume_between(st.start, end),
+            }
+        })
+        .collect();
+    let total_volume = setup.volume_between(0.0, prog.duration);
+
+    // Hydrographs: named points, neighbour corners, wells.
+    let mut places: Vec<(String, SeriesKind, [f64; 2])> = Vec::new();
+    for (name, p, _) in &model.checks.points {
+        places.push((name.clone(), SeriesKind::Point, *p));
+    }
+    for (name, p) in &prog.points {
+        places.push((name.clone(), SeriesKind::Point, *p));
+    }
+    for n in &model.neighbours {
+        let ring = &n.footprint.exterior().0;
+        for (i, c) in ring.iter().take(ring.len().saturating_sub(1)).enumerate() {
+            places.push((
+                format!("{} corner {}", n.name, i + 1),
+                SeriesKind::Neighbour,
+                [c.x, c.y],
+            ));
+        }
+    }
+    for w in &setup.wells {
+        places.push((w.name.clone(), SeriesKind::Well, w.position));
+    }
+    let place_pos: Vec<[f64; 2]> = places.iter().map(|p| p.2).collect();
+    let hd = tm.drawdowns(&place_pos, &times);
+    let hydrographs: Vec<Hydrograph> = places
+        .into_iter()
+        .zip(hd)
+        .map(|((name, kind, position), s)| Hydrograph {
+            name,
+            kind,
+            position,
+            levels: s.iter().map(|s| h0 - s).collect(),
+        })
+        .collect();
+
+    let flood = flood(model, setup, &times, &d, &stages, &in_exc);
+    let recovery = recovery(model, setup, &times, &d, &in_exc);
+    let maps = prog
+        .map_times
+        .iter()
+        .map(|t| drawdown_map(model, setup, *t))
+        .collect();
+    ProgrammeAnswers {
+        times,
+        flows,
+        volumes,
+        stage_at,
+        hydrographs,
+        point_times,
+        stages,
+        total_volume,
+        flood,
+        recovery,
+        maps,
+        duration: prog.duration,
+    }
+}
+
+fn flood(
+    model: &Model,
+    setup: &ProgrammeSetup,
+    times: &[f64],
+    d: &[Vec<f64>],
+    stages: &[StageAnswer],
+    in_exc: &dyn Fn(usize) -> Vec<usize>,
+) -> Option<Flood> {
+    let prog = model.programme.as_ref()?;
+    let h0 = model.aquifer.initial_level;
+    let points = check_points(model);
+    // Candidate moments: (time index, stage, point index, margin).
+    let mut candidates = Vec::new();
+    for (j, &t) in times.iter().enumerate() {
+        if t >= prog.duration {
+            break;
+        }
+        let Some(k) = prog.stages.iter().rposition(|s| s.start <= t) else {
+            continue;
+        };
+        if stages[k].earliest.is_none_or(|e| t < e) {
+            continue;
+        }
+        let f = prog.stages[k].formation_level;
+        let idx = in_exc(prog.stages[k].excavation);
+        let worst = idx
+            .iter()
+            .map(|&i| (i, f - (h0 - d[i][j])))
+            .min_by(|a, b| a.1.total_cmp(&b.1));
+        if let Some((i, margin)) = worst {
+            if margin > 0.0 {
+                candidates.push((j, k, i, margin));
+            }
+        }
+    }
+    let results: Vec<(usize, usize, usize, f64, Option<f64>)> = candidates
+        .par_iter()
+        .map(|&(j, k, i, margin)| {
+            let t = times[j];
+            let sch: Vec<_> = setup.schedules.iter().map(|s| switched_off(s, t)).collect();
+            let ttf = setup.with_schedules(sch).ok().and_then(|m| {
+                time_until_below(
+                    &m,
+                    points[i].position,
+                    h0 - prog.stages[k].formation_level,
+                    t,
+                    FLOOD_SEARCH,
+                )
+            });
+            (j, k, i, margin, ttf)
+        })
+        .collect();
+    let &(j, k, i, margin, all_off) = results.iter().min_by(|a, b| {
+        a.4.unwrap_or(f64::INFINITY)
+            .total_cmp(&b.4.unwrap_or(f64::INFINITY))
+    })?;
+    let t = times[j];
+    let p = points[i].position;
+    // The most important well: the most drawdown at p at t from its own sources.
+    let (w_best, _) = (0..setup.wells.len())
+        .map(|w| {
+            let sch: Vec<_> = setup
+                .schedules
+                .iter()
+                .enumerate()
+                .map(|(m, s)| {
+                    if m == w {
+                        s.clone()
+                    } else {
+                        switched_off(s, 0.0)
+                    }
+                })
+                .collect();
+            let s = setup
+                .with_schedules(sch)
+                .map_or(0.0, |m| m.drawdown_at(p, t));
+            (w, s)
+        })
+        .max_by(|a, b| a.1.total_cmp(&b.1))?;
+    let sch: Vec<_> = setup
+        .schedules
+        .iter()
+        .enumerate()
+        .map(|(m, s)| {
+            if m == w_best {
+                switched_off(s, t)
+            } else {
+                s.clone()
+            }
+        })
+        .collect();
+    let limit = h0 - prog.stages[k].formation_level;
+    let well_off = setup.with_schedules(sch).ok().and_then(|m| {
+        // Only while the programme still pumps: beyond its end every pump stops anyway.
+        let cap = (prog.duration - t).max(1.0);
+        time_until_below(&m, p, limit, t, cap)
+    });
+    Some(Flood {
+        moment: t,
+        stage: prog.stages[k].name.clone(),
+        point: points[i].name.clone(),
+        formation_level: prog.stages[k].formation_level,
+        margin,
+        all_off,
+        well: setup.wells[w_best].name.clone(),
+        well_off,
+    })
+}
+
+fn recovery(
+    model: &Model,
+    setup: &ProgrammeSetup,
+    times: &[f64],
+    d: &[Vec<f64>],
+    in_exc: &dyn Fn(usize) -> Vec<usize>,
+) -> Option<Recovery> {
+    let prog = model.programme.as_ref()?;
+    let points = check_points(model);
+    let last = prog.stages.last()?;
+    let j = times.iter().position(|t| *t >= prog.duration)?;
+    let idx = in_exc(last.excavation);
+    let &i = idx.iter().min_by(|&&a, &&b| d[a][j].total_cmp(&d[b][j]))?;
+    let p = points[i].position;
+    let s0 = setup.model.drawdown_at(p, prog.duration);
+    let end = prog.duration + prog.recovery;
+    let h0 = model.aquifer.initial_level;
+    Some(Recovery {
+        point: points[i].name.clone(),
+        drawdown_at_stop: s0,
+        residual_at_end: setup.model.drawdown_at(p, end),
+        to_90_percent: time_until_below(&setup.model, p, 0.1 * s0, prog.duration, prog.recovery),
+        above_formation: time_until_below(
+            &setup.model,
+            p,
+            h0 - last.formation_level,
+            prog.duration,
+            FLOOD_SEARCH,
+        ),
+    })
+}
+
+/// The box a map covers: excavations, wells and neighbours with a margin (40 % of the longer
+/// side, at least 30 m), m: [xmin, ymin, xmax, ymax].
+pub fn map_box(model: &Model, setup: &ProgrammeSetup) -> [f64; 4] {
+    let mut b = [f64::MAX, f64::MAX, f64::MIN, f64::MIN];
+    let mut grow = |x: f64, y: f64| {
+        b[0] = b[0].min(x);
+        b[1] = b[1].min(y);
+        b[2] = b[2].max(x);
+        b[3] = b[3].max(y);
+    };
+    for e in &model.excavations {
+        for c in &e.outline.exterior().0 {
+            grow(c.x, c.y);
+        }
+    }
+    for n in &model.neighbours {
+        for c in &n.footprint.exterior().0 {
+            grow(c.x, c.y);
+        }
+    }
+    for w in &setup.wells {
+        grow(w.position[0], w.position[1]);
+    }
+    let m = (0.4 * (b[2] - b[0]).max(b[3] - b[1])).max(30.0);
+    [b[0] - m, b[1] - m, b[2] + m, b[3] + m]
+}
+
+/// The drawdown map at time t (s) on [`MAP_NODES`] nodes along the longer side of [`map_box`].
+pub fn drawdown_map(model: &Model, setup: &ProgrammeSetup, t: f64) -> DrawdownMap {
+    let b = map_box(model, setup);
+    let step = (b[2] - b[0]).max(b[3] - b[1]) / (MAP_NODES - 1) as f64;
+    let nx = ((b[2] - b[0]) / step).ceil() as usize + 1;
+    let ny = ((b[3] - b[1]) / step).ceil() as usize + 1;
+    let pts: Vec<[f64; 2]> = (0..nx * ny)
+        .map(|k| [b[0] + (k % nx) as f64 * step, b[1] + (k / nx) as f64 * step])
+        .collect();
+    let drawdown = setup
+        .model
+        .drawdowns(&pts, &[t])
+        .into_iter()
+        .map(|v| v[0])
+        .collect();
+    DrawdownMap {
+        time: t,
+        origin: [b[0], b[1]],
+        step,
+        nx,
+        ny,
+        drawdown,
+    }
+}
