@@ -249,6 +249,9 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         uplift,
         units: output.and_then(|o| o.units).unwrap_or_default(),
         map_quantity,
+        output: crate::input::validate::output::output_settings(rep, output)?,
+        crs: crate::input::validate::output::site_crs(rep, raw.site.crs.as_deref())?,
+        import_notes: Vec::new(),
     })
 }
 

@@ -4,10 +4,12 @@
 //!
 //! `file` reads and parses and assembles the model from the parts: `shapes` (outlines, lines,
 //! boundaries, keep-out zones), `aquifer` (aquifer and radius-of-influence method), `wells`
-//! (well specification and layout), `neighbours` (buildings and the base-uplift check).
+//! (well specification and layout), `neighbours` (buildings and the base-uplift check), `output` (map extent, contour
+//! interval, section line, site coordinate system).
 
 pub mod aquifer;
 pub mod file;
 pub mod neighbours;
+pub mod output;
 pub mod shapes;
 pub mod wells;
