@@ -6,6 +6,7 @@ pub mod estimate_text;
 pub mod files;
 pub mod format;
 pub mod geojson_out;
+pub mod geojson_wgs84;
 pub mod html;
 pub mod map;
 pub mod neighbours;

@@ -49,6 +49,14 @@ pub fn from_str(path: &Path, source: &str) -> Result<Model, InputError> {
             "the file holds binary data; a design file is TOML text",
         ));
     }
+    if let Some(r) = crate::input::import::resolve::resolve(path, source)? {
+        let rep = Reporter::new(path, &r.text);
+        let raw: DesignFile =
+            toml::from_str(&r.text).map_err(|e| parse_error(&rep, &r.text, &e))?;
+        let mut model = validate(path, &rep, raw)?;
+        model.import_notes = r.notes;
+        return Ok(model);
+    }
     let raw: DesignFile = toml::from_str(source).map_err(|e| parse_error(&rep, source, &e))?;
     validate(path, &rep, raw)
 }
