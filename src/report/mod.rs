@@ -89,7 +89,10 @@ pub fn check_files_for(
     ]
     .into_iter()
     .chain(neighbours::files::files(run)?)
-    .chain(map::render::files(run))
+    .chain(map::render::files_for(
+        run,
+        if design.is_some() { "design" } else { "check" },
+    ))
     .collect();
     let f = format::Fmt::new(run.model.units, run.model.ground_level);
     let section = section_svg::section_of(run);

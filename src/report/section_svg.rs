@@ -15,6 +15,8 @@ const LEFT: f64 = 80.0;
 const RIGHT: f64 = 80.0;
 const TOP: f64 = 56.0;
 const BOTTOM: f64 = 96.0;
+/// Most wells drawn on one section.
+const MAX_WELLS: usize = 40;
 
 fn nice_step(range: f64, ticks: f64) -> f64 {
     let raw = (range / ticks).max(1e-9);
@@ -118,7 +120,7 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             H - BOTTOM,
             H - BOTTOM + 5.0,
             H - BOTTOM + 18.0,
-            f.length_value(c)
+            format!("{:.*}", if ch_disp >= 1.0 { 0 } else { 1 }, f.units.length(c))
         );
         c += ch_step;
     }
@@ -140,7 +142,7 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             (px(n.to) - px(n.from)).max(1.0),
             py(zf) - py(ground) + 24.0,
             (px(n.from) + px(n.to)) / 2.0,
-            py(ground) - 28.0,
+            py(zf) + 13.0,
             esc(&format!("{} — foundation {}", n.name, n.level.map_or("not given".into(), |z| f.level(z))))
         );
     }
@@ -203,8 +205,11 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         o,
         r##"<path d="{path}" fill="none" stroke="#1f5fbf" stroke-width="2.2"/>"##
     );
-    // Wells: casing from ground, screen thick, intake triangle.
-    for w in &s.wells {
+    // Wells: casing from ground, screen thick, intake triangle; at most MAX_WELLS drawn (every
+    // k-th along the line), names only when few.
+    let k = s.wells.len().div_ceil(MAX_WELLS).max(1);
+    let named = s.wells.len() <= 24;
+    for w in s.wells.iter().step_by(k) {
         let x = px(w.chainage);
         let _ = write!(
             o,
@@ -216,7 +221,7 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             x,
             py(w.pump_intake) - 4.0,
             py(ground) - 4.0,
-            esc(&w.name)
+            if named { esc(&w.name) } else { String::new() }
         );
     }
     // Legend.
@@ -246,8 +251,13 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         r##"<text x="{LEFT}" y="{:.1}" font-size="10" fill="#555">{}</text></svg>"##,
         H - 8.0,
         esc(&format!(
-            "levels above {}; wells within {} of the line are shown at their foot on it; vertical scale exaggerated",
+            "levels above {}; {} within {} of the line shown at their foot on it; vertical scale exaggerated",
             model.datum,
+            if k > 1 {
+                format!("every {k}th of {} wells", s.wells.len())
+            } else {
+                "wells".to_string()
+            },
             f.length(crate::check::section::well_band(length))
         ))
     );

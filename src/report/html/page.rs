@@ -96,7 +96,7 @@ pub fn document(site: &str, date: &str, title: &str, parts: &[Part]) -> String {
         esc(site)
     ));
     out.push_str(&format!(
-        "<header class=\"page\"><span class=\"site\">{}</span><span>drydig design report · {}</span></header>\n<h1>{}</h1>\n",
+        "<header class=\"page\"><span class=\"site\">{}</span><span>drydig report · {}</span></header>\n<h1>{}</h1>\n",
         esc(site),
         esc(date),
         esc(title)

@@ -6,6 +6,9 @@ use super::page::{facts, inline_svg, table, Part};
 use crate::field::checkpoints::PointKind;
 use crate::report::format::esc;
 
+/// Wells listed in full up to this many; beyond it, half as many with the least headroom.
+const MAX_WELL_ROWS: usize = 60;
+
 /// The quick estimate beside the superposition result.
 pub fn estimate(cx: &Context) -> Part {
     let f = &cx.f;
@@ -73,10 +76,21 @@ pub fn section(cx: &Context) -> Part {
 /// Every well: position, rate, level in the well with its depth, limits.
 pub fn wells(cx: &Context) -> Part {
     let f = &cx.f;
-    let rows: Vec<Vec<String>> = cx
-        .run
-        .evaluation
-        .wells
+    let all = &cx.run.evaluation.wells;
+    // A long line of wellpoints: the wells with the least headroom (water level above the
+    // lowest level allowed), problems first; every well stays in wells.csv.
+    let mut shown: Vec<&crate::check::evaluate::WellResult> = all.iter().collect();
+    let cut = all.len() > MAX_WELL_ROWS;
+    if cut {
+        shown.sort_by(|a, b| {
+            a.problems.is_empty().cmp(&b.problems.is_empty()).then(
+                (a.level_m.unwrap_or(f64::NEG_INFINITY) - a.lowest_allowed_level_m)
+                    .total_cmp(&(b.level_m.unwrap_or(f64::NEG_INFINITY) - b.lowest_allowed_level_m)),
+            )
+        });
+        shown.truncate(MAX_WELL_ROWS / 2);
+    }
+    let rows: Vec<Vec<String>> = shown
         .iter()
         .map(|w| {
             vec![
@@ -110,7 +124,15 @@ pub fn wells(cx: &Context) -> Part {
         "status".to_string(),
     ];
     let head: Vec<&str> = head.iter().map(String::as_str).collect();
-    let mut body = table(&head, &rows);
+    let mut body = String::new();
+    if cut {
+        body.push_str(&format!(
+            "<p>{} wells; the {} with the least headroom above their lowest allowed level are listed.</p>",
+            all.len(),
+            shown.len()
+        ));
+    }
+    body.push_str(&table(&head, &rows));
     for n in &cx.run.placement.notes {
         body.push_str(&format!("<p class=\"note\">{}</p>", esc(n)));
     }
