@@ -58,8 +58,10 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             units,
             size_recharge,
         } => {
-            let model = model::load(&file)?;
+            let mut model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
+            // The files (report, maps) follow `--units` too.
+            model.units = units;
             let (run, recharge) = if size_recharge {
                 let (run, sizing) =
                     drydig::optimise::recharge::run_sized(&model, wells.as_deref())?;
@@ -85,8 +87,9 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             rates,
             units,
         } => {
-            let model = model::load(&file)?;
+            let mut model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
+            model.units = units;
             let design = drydig::optimise::search::design(&model, rates.into())?;
             let run = drydig::optimise::outcome::final_run(&model, &design);
             let files = report::design_text::files(&model, &design, run.as_ref())?;

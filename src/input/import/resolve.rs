@@ -203,6 +203,18 @@ fn polygon_from(
     }
     let r = reference(design, &f, &v)?;
     let got = read(design, &f, &r, false)?;
+    if got.polygons.is_empty() && !got.lines.is_empty() {
+        let names: Vec<&str> = got.lines.iter().map(|l| l.name.as_str()).collect();
+        return Err(err(
+            design,
+            &f,
+            format!(
+                "{} holds only open lines there ({}); an outline must be a closed polyline — close it in the drawing (last vertex joined to the first)",
+                r.shown,
+                names.join(", ")
+            ),
+        ));
+    }
     let s = pick(design, &f, &r, &got.polygons, "outline")?;
     note(notes, &f, &r, &got, &format!("\"{}\" ({})", s.name, s.source));
     t.insert(target.into(), ring(&s.geometry));

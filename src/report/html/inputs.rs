@@ -70,11 +70,19 @@ pub fn summary(cx: &Context) -> Part {
         ),
         (
             "radius of influence used",
-            format!(
-                "{} ({})",
-                f.length(e.radius_of_influence_m),
-                e.radius_of_influence_basis
-            ),
+            match f.units {
+                // The basis text is written in metres by the engine.
+                crate::input::units::UnitSystem::Si => format!(
+                    "{} ({})",
+                    f.length(e.radius_of_influence_m),
+                    e.radius_of_influence_basis
+                ),
+                crate::input::units::UnitSystem::Us => format!(
+                    "{} ({})",
+                    f.length(e.radius_of_influence_m),
+                    run.model.influence.name()
+                ),
+            },
         ),
     ];
     if e.total_recharge_m3_per_s > 0.0 {

@@ -119,8 +119,12 @@ pub fn bid(cx: &Context) -> Part {
         rows.push(("header length", f.length(h)));
     }
     let mut body = facts(&rows);
-    for s in &b.basis {
-        body.push_str(&format!("<p class=\"note\">{}</p>", esc(s)));
+    if f.units == crate::input::units::UnitSystem::Si {
+        for s in &b.basis {
+            body.push_str(&format!("<p class=\"note\">{}</p>", esc(s)));
+        }
+    } else {
+        body.push_str("<p class=\"note\">drydig design writes how each figure was found beside it in bid.csv.</p>");
     }
     Part::new("bid", "Bid quantities", body)
 }
