@@ -85,8 +85,14 @@ fn report_has_every_section_and_nothing_external() {
         );
         assert!(!html.contains("src=\""), "{name}: no external source");
         assert!(html.contains("@page"), "{name}: print CSS");
-        assert!(html.contains("href=\"checkpoints.csv\""), "{name}: link to the CSV");
-        assert!(html.contains("Dewatering check report"), "{name}: titled for check");
+        assert!(
+            html.contains("href=\"checkpoints.csv\""),
+            "{name}: link to the CSV"
+        );
+        assert!(
+            html.contains("Dewatering check report"),
+            "{name}: titled for check"
+        );
         // Two drawings inline: the map and the section; ids unique over the page.
         assert!(html.matches("<svg").count() >= 2, "{name}");
         let mut ids: Vec<&str> = html
@@ -118,7 +124,12 @@ fn us_demo_report_and_map_show_no_si_unit() {
     let files = files_of(&run);
     let html = file(&files, "report.html");
     // Snapshot of the wells table's head and first row's position and rate.
-    assert!(html.contains("<th class=\"n\">x (ft)</th><th class=\"n\">y (ft)</th><th class=\"n\">rate (gpm)</th>"), "wells head");
+    assert!(
+        html.contains(
+            "<th class=\"n\">x (ft)</th><th class=\"n\">y (ft)</th><th class=\"n\">rate (gpm)</th>"
+        ),
+        "wells head"
+    );
     assert!(
         html.contains("<td>W01</td><td class=\"n\">-9.8</td><td class=\"n\">68.9</td><td class=\"n\">71.3</td>"),
         "W01 row"
@@ -139,9 +150,15 @@ fn us_demo_report_and_map_show_no_si_unit() {
     let map = file(&files, "map.svg");
     assert!(map.contains("Legend — drawdown (ft)"), "legend");
     assert!(map.contains("71.3 gpm"), "well label");
-    assert!(!map.contains("L/s") && !map.contains("m³"), "no SI flow on the map");
+    assert!(
+        !map.contains("L/s") && !map.contains("m³"),
+        "no SI flow on the map"
+    );
     let section = file(&files, "section.svg");
-    assert!(section.contains("level (ft)") && !section.contains("(m)"), "section axes");
+    assert!(
+        section.contains("level (ft)") && !section.contains("(m)"),
+        "section axes"
+    );
 }
 
 #[test]
@@ -212,10 +229,18 @@ section = [[0, 0], [200, 0]]
     let r0 = run.field.radius_of_influence();
     let s = section::section(&run, m.output.section.unwrap(), "given");
     let t = 1e-4 * 20.0;
-    for smp in s.samples.iter().filter(|p| p.chainage > 1.0 && p.chainage < r0) {
+    for smp in s
+        .samples
+        .iter()
+        .filter(|p| p.chainage > 1.0 && p.chainage < r0)
+    {
         let thiem = 8.0 - 0.010 / (2.0 * std::f64::consts::PI * t) * (r0 / smp.chainage).ln();
         let z = smp.level.unwrap();
-        assert!((z - thiem).abs() < 1e-6, "r = {}: {z} vs {thiem}", smp.chainage);
+        assert!(
+            (z - thiem).abs() < 1e-6,
+            "r = {}: {z} vs {thiem}",
+            smp.chainage
+        );
     }
 }
 
@@ -280,8 +305,14 @@ rate = "3 L/s"
     );
     // The CSVs keep the grid coordinates.
     let csv = String::from_utf8(drydig::report::tables::checkpoints_csv(&run).unwrap()).unwrap();
-    assert!(csv.contains("651409.9") || csv.contains("651410"), "grid metres in the CSV");
+    assert!(
+        csv.contains("651409.9") || csv.contains("651410"),
+        "grid metres in the CSV"
+    );
     // Same value as the reprojector alone.
-    let (l2, b2) = Reprojector::new("EPSG:27700").unwrap().to_wgs84(e, n).unwrap();
+    let (l2, b2) = Reprojector::new("EPSG:27700")
+        .unwrap()
+        .to_wgs84(e, n)
+        .unwrap();
     assert!((l2 - lon).abs() < 1e-8 && (b2 - lat).abs() < 1e-8);
 }

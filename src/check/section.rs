@@ -81,10 +81,7 @@ pub fn well_band(length: f64) -> f64 {
 pub fn default_line(run: &CheckRun, toward: Option<[f64; 2]>) -> ([[f64; 2]; 2], String) {
     let e = &run.model.excavations[0];
     let ring: Vec<[f64; 2]> = e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect();
-    let c = e
-        .outline
-        .centroid()
-        .map_or(ring[0], |p| [p.x(), p.y()]);
+    let c = e.outline.centroid().map_or(ring[0], |p| [p.x(), p.y()]);
     let mut longest = (0.0, [1.0, 0.0]);
     for a in &ring {
         for b in &ring {
@@ -100,15 +97,12 @@ pub fn default_line(run: &CheckRun, toward: Option<[f64; 2]>) -> ([[f64; 2]; 2],
             let d = (t[0] - c[0]).hypot(t[1] - c[1]);
             (
                 [(t[0] - c[0]) / d, (t[1] - c[1]) / d],
-                "through the excavation towards the neighbour with the largest drawdown".to_string(),
+                "through the excavation towards the neighbour with the largest drawdown"
+                    .to_string(),
                 d,
             )
         }
-        _ => (
-            axis,
-            "along the excavation's longest axis".to_string(),
-            0.0,
-        ),
+        _ => (axis, "along the excavation's longest axis".to_string(), 0.0),
     };
     // Extent of the outline along the direction.
     let along: Vec<f64> = ring

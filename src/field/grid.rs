@@ -179,8 +179,16 @@ pub fn reach_margin(run: &GridSource, f: &Bounds) -> f64 {
         let a = k as f64 * std::f64::consts::PI / 8.0;
         let (dx, dy) = (a.cos(), a.sin());
         // Distance from the centre to the box edge in this direction.
-        let to_edge = (if dx.abs() > 1e-12 { hw / dx.abs() } else { f64::INFINITY })
-            .min(if dy.abs() > 1e-12 { hh / dy.abs() } else { f64::INFINITY });
+        let to_edge = (if dx.abs() > 1e-12 {
+            hw / dx.abs()
+        } else {
+            f64::INFINITY
+        })
+        .min(if dy.abs() > 1e-12 {
+            hh / dy.abs()
+        } else {
+            f64::INFINITY
+        });
         let mut d = step;
         while d <= r {
             let p = [c[0] + (to_edge + d) * dx, c[1] + (to_edge + d) * dy];

@@ -7,10 +7,7 @@ use crate::input::units::{m3s_to_gpm, UnitSystem};
 fn flow(q: f64, units: UnitSystem) -> String {
     match units {
         UnitSystem::Si => format!("{} m³/day ({:.1} L/s)", thousands(q * 86_400.0, 0), q * 1e3),
-        UnitSystem::Us => format!(
-            "{} US gpm",
-            thousands(m3s_to_gpm(q), 0)
-        ),
+        UnitSystem::Us => format!("{} US gpm", thousands(m3s_to_gpm(q), 0)),
     }
 }
 

@@ -20,7 +20,10 @@ fn num(v: f64, decimals: usize) -> String {
     }
     let s = format!("{v:.decimals$}");
     // "-0.00" reads as a sign error.
-    if s.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+    if s.trim_start_matches('-')
+        .chars()
+        .all(|c| c == '0' || c == '.')
+    {
         s.trim_start_matches('-').to_string()
     } else {
         s
@@ -111,7 +114,11 @@ impl Fmt {
     }
     /// A map coordinate (easting or northing) with its unit: "1 040.0 m".
     pub fn coordinate(&self, m: f64) -> String {
-        format!("{} {}", super::thousands(self.units.length(m), 1), self.lu())
+        format!(
+            "{} {}",
+            super::thousands(self.units.length(m), 1),
+            self.lu()
+        )
     }
 }
 

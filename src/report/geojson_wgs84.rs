@@ -35,9 +35,9 @@ fn geometry(r: &Reprojector, g: &mut G) -> bool {
         G::MultiPoint { coordinates: ps } | G::LineString { coordinates: ps } => {
             ps.iter_mut().all(|p| position(r, p))
         }
-        G::MultiLineString { coordinates: ls } | G::Polygon { coordinates: ls } => ls
-            .iter_mut()
-            .all(|l| l.iter_mut().all(|p| position(r, p))),
+        G::MultiLineString { coordinates: ls } | G::Polygon { coordinates: ls } => {
+            ls.iter_mut().all(|l| l.iter_mut().all(|p| position(r, p)))
+        }
         G::MultiPolygon { coordinates: pls } => pls
             .iter_mut()
             .all(|pl| pl.iter_mut().all(|l| l.iter_mut().all(|p| position(r, p)))),
@@ -51,7 +51,11 @@ fn geometry(r: &Reprojector, g: &mut G) -> bool {
 /// that say so: `coordinate_system` becomes "WGS84 longitude/latitude (RFC 7946)" and
 /// `source_crs` names the site's CRS. A feature whose position would not convert is left out
 /// and counted in `features_not_converted`.
-pub fn reproject(run: &CheckRun, features: Vec<Feature>, mut members: Value) -> (Vec<Feature>, Value) {
+pub fn reproject(
+    run: &CheckRun,
+    features: Vec<Feature>,
+    mut members: Value,
+) -> (Vec<Feature>, Value) {
     let Some(crs) = run.model.crs.as_deref() else {
         return (features, members);
     };
@@ -62,7 +66,10 @@ pub fn reproject(run: &CheckRun, features: Vec<Feature>, mut members: Value) -> 
     let out: Vec<Feature> = features
         .into_iter()
         .filter_map(|mut f| {
-            let ok = f.geometry.as_mut().is_none_or(|g| geometry(&r, &mut g.value));
+            let ok = f
+                .geometry
+                .as_mut()
+                .is_none_or(|g| geometry(&r, &mut g.value));
             ok.then_some(f)
         })
         .collect();

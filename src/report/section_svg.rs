@@ -48,7 +48,10 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         o,
         r##"<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 {W} {H}" width="100%" font-family="Helvetica, Arial, sans-serif" font-size="12" role="img" aria-label="cross-section">"##
     );
-    let _ = write!(o, r##"<rect x="0" y="0" width="{W}" height="{H}" fill="#fff"/>"##);
+    let _ = write!(
+        o,
+        r##"<rect x="0" y="0" width="{W}" height="{H}" fill="#fff"/>"##
+    );
     let _ = write!(
         o,
         r##"<text x="{LEFT}" y="22" font-size="16" font-weight="bold">{}</text><text x="{LEFT}" y="40" fill="#444">{}</text>"##,
@@ -114,13 +117,14 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     let mut c = 0.0;
     while c <= length + 1e-9 {
         let x = px(c);
+        let dec = if ch_disp >= 1.0 { 0 } else { 1 };
         let _ = write!(
             o,
-            r##"<line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#333"/><text x="{x:.1}" y="{:.1}" text-anchor="middle">{}</text>"##,
+            r##"<line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#333"/><text x="{x:.1}" y="{:.1}" text-anchor="middle">{:.dec$}</text>"##,
             H - BOTTOM,
             H - BOTTOM + 5.0,
             H - BOTTOM + 18.0,
-            format!("{:.*}", if ch_disp >= 1.0 { 0 } else { 1 }, f.units.length(c))
+            f.units.length(c)
         );
         c += ch_step;
     }
@@ -143,7 +147,11 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             py(zf) - py(ground) + 24.0,
             (px(n.from) + px(n.to)) / 2.0,
             py(zf) + 13.0,
-            esc(&format!("{} — foundation {}", n.name, n.level.map_or("not given".into(), |z| f.level(z))))
+            esc(&format!(
+                "{} — foundation {}",
+                n.name,
+                n.level.map_or("not given".into(), |z| f.level(z))
+            ))
         );
     }
     // Excavations: cut from ground to formation, target dashed.
@@ -228,7 +236,7 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     let ly = H - 30.0;
     let items: [(&str, &str, &str); 6] = [
         ("#5a3d1e", "none", "ground, aquifer top and base"),
-        ("#1f5fbf", "8 4", &"water level before pumping"),
+        ("#1f5fbf", "8 4", "water level before pumping"),
         ("#1f5fbf", "none", "water level while pumping"),
         ("#c00", "6 3", "target level"),
         ("#222", "2 1.5", "well screen"),

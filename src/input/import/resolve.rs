@@ -56,7 +56,11 @@ fn reference(design: &Path, field: &str, v: &Value) -> Result<Reference, InputEr
         .as_table()
         .ok_or_else(|| err(design, field, format!("expected a table; {help}")))?;
     for k in t.keys() {
-        if !["file", "layer", "property", "value", "name", "units", "rate"].contains(&k.as_str()) {
+        if ![
+            "file", "layer", "property", "value", "name", "units", "rate",
+        ]
+        .contains(&k.as_str())
+        {
             return Err(err(
                 design,
                 &format!("{field}.{k}"),
@@ -65,7 +69,13 @@ fn reference(design: &Path, field: &str, v: &Value) -> Result<Reference, InputEr
         }
     }
     let s = |k: &str| t.get(k).and_then(Value::as_str).map(str::to_string);
-    let shown = s("file").ok_or_else(|| err(design, &format!("{field}.file"), format!("missing `file`; {help}")))?;
+    let shown = s("file").ok_or_else(|| {
+        err(
+            design,
+            &format!("{field}.file"),
+            format!("missing `file`; {help}"),
+        )
+    })?;
     let base = design.parent().unwrap_or(Path::new("."));
     let units = match s("units") {
         None => None,
@@ -80,13 +90,11 @@ fn reference(design: &Path, field: &str, v: &Value) -> Result<Reference, InputEr
     let property = match (s("property"), s("value")) {
         (Some(p), Some(v)) => Some((p, v)),
         (None, None) => None,
-        _ => {
-            return Err(err(
-                design,
-                field,
-                "give both `property` and `value` (e.g. property = \"layer\", value = \"excavation\")",
-            ))
-        }
+        _ => return Err(err(
+            design,
+            field,
+            "give both `property` and `value` (e.g. property = \"layer\", value = \"excavation\")",
+        )),
     };
     Ok(Reference {
         file: base.join(&shown),
@@ -108,7 +116,11 @@ fn read(design: &Path, field: &str, r: &Reference, lines: bool) -> Result<Drawin
     match ext.as_str() {
         "dxf" => {
             let layer = r.layer.clone().ok_or_else(|| {
-                err(design, &format!("{field}.layer"), "a DXF reference needs `layer` (the CAD layer holding the item)")
+                err(
+                    design,
+                    &format!("{field}.layer"),
+                    "a DXF reference needs `layer` (the CAD layer holding the item)",
+                )
             })?;
             let mut o = DxfOptions::layer(layer);
             o.unit = r.units;
@@ -146,14 +158,34 @@ fn pick<'a, T>(
             .iter()
             .find(|s| s.name.eq_ignore_ascii_case(n))
             .ok_or_else(|| {
-                err(design, &format!("{field}.name"), format!("no {what} named \"{n}\" in {}; found: {}", r.shown, names.join(", ")))
+                err(
+                    design,
+                    &format!("{field}.name"),
+                    format!(
+                        "no {what} named \"{n}\" in {}; found: {}",
+                        r.shown,
+                        names.join(", ")
+                    ),
+                )
             }),
         None if items.len() == 1 => Ok(&items[0]),
-        None if items.is_empty() => Err(err(design, field, format!("no closed {what} found in {} with that layer or property", r.shown))),
+        None if items.is_empty() => Err(err(
+            design,
+            field,
+            format!(
+                "no closed {what} found in {} with that layer or property",
+                r.shown
+            ),
+        )),
         None => Err(err(
             design,
             &format!("{field}.name"),
-            format!("{} holds {} {what}s ({}); pick one with `name = \"…\"`", r.shown, items.len(), names.join(", ")),
+            format!(
+                "{} holds {} {what}s ({}); pick one with `name = \"…\"`",
+                r.shown,
+                items.len(),
+                names.join(", ")
+            ),
         )),
     }
 }
@@ -199,7 +231,11 @@ fn polygon_from(
     };
     let f = format!("{field}.{key}");
     if t.contains_key(target) {
-        return Err(err(design, &f, format!("give either `{target}` or `{key}`, not both")));
+        return Err(err(
+            design,
+            &f,
+            format!("give either `{target}` or `{key}`, not both"),
+        ));
     }
     let r = reference(design, &f, &v)?;
     let got = read(design, &f, &r, false)?;
@@ -216,7 +252,13 @@ fn polygon_from(
         ));
     }
     let s = pick(design, &f, &r, &got.polygons, "outline")?;
-    note(notes, &f, &r, &got, &format!("\"{}\" ({})", s.name, s.source));
+    note(
+        notes,
+        &f,
+        &r,
+        &got,
+        &format!("\"{}\" ({})", s.name, s.source),
+    );
     t.insert(target.into(), ring(&s.geometry));
     Ok(())
 }
@@ -241,15 +283,26 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             for (i, item) in items.iter_mut().enumerate() {
                 if let Some(t) = item.as_table_mut() {
                     any |= t.contains_key(key);
-                    polygon_from(design, &format!("{section}[{}]", i + 1), t, key, target, &mut notes)?;
+                    polygon_from(
+                        design,
+                        &format!("{section}[{}]", i + 1),
+                        t,
+                        key,
+                        target,
+                        &mut notes,
+                    )?;
                 }
             }
         }
     }
     if let Some(Value::Array(items)) = doc.get_mut("boundary") {
         for (i, item) in items.iter_mut().enumerate() {
-            let Some(t) = item.as_table_mut() else { continue };
-            let Some(v) = t.remove("line_from") else { continue };
+            let Some(t) = item.as_table_mut() else {
+                continue;
+            };
+            let Some(v) = t.remove("line_from") else {
+                continue;
+            };
             any = true;
             let f = format!("boundary[{}].line_from", i + 1);
             let r = reference(design, &f, &v)?;
@@ -257,7 +310,13 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             let s = pick(design, &f, &r, &got.lines, "line")?;
             let pts = &s.geometry.0;
             let (a, b) = (pts[0], pts[pts.len() - 1]);
-            note(&mut notes, &f, &r, &got, &format!("\"{}\" (straight from its first to its last point)", s.name));
+            note(
+                &mut notes,
+                &f,
+                &r,
+                &got,
+                &format!("\"{}\" (straight from its first to its last point)", s.name),
+            );
             t.insert("line".into(), coords([(a.x, a.y), (b.x, b.y)].into_iter()));
         }
     }
@@ -267,11 +326,22 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             let f = "layout.wells_from";
             let r = reference(design, f, &v)?;
             let rate = v.get("rate").and_then(Value::as_str).ok_or_else(|| {
-                err(design, &format!("{f}.rate"), "give the rate of every well read from the drawing, e.g. rate = \"4 L/s\"")
+                err(
+                    design,
+                    &format!("{f}.rate"),
+                    "give the rate of every well read from the drawing, e.g. rate = \"4 L/s\"",
+                )
             })?;
             let got = read(design, f, &r, false)?;
             if got.points.is_empty() {
-                return Err(err(design, f, format!("no wells (points, circles or block inserts) found in {}", r.shown)));
+                return Err(err(
+                    design,
+                    f,
+                    format!(
+                        "no wells (points, circles or block inserts) found in {}",
+                        r.shown
+                    ),
+                ));
             }
             let mut wells = Vec::new();
             for m in &got.points {
@@ -286,7 +356,9 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
                 wells.push(Value::Table(w));
             }
             note(&mut notes, f, &r, &got, &format!("{} wells", wells.len()));
-            let list = doc.entry("well").or_insert_with(|| Value::Array(Vec::new()));
+            let list = doc
+                .entry("well")
+                .or_insert_with(|| Value::Array(Vec::new()));
             if let Value::Array(a) = list {
                 a.extend(wells);
             }
@@ -295,6 +367,12 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
     if !any {
         return Ok(None);
     }
-    let text = toml::to_string(&doc).map_err(|e| err(design, "", format!("cannot rewrite the design file after reading its drawings: {e}")))?;
+    let text = toml::to_string(&doc).map_err(|e| {
+        err(
+            design,
+            "",
+            format!("cannot rewrite the design file after reading its drawings: {e}"),
+        )
+    })?;
     Ok(Some(Resolved { text, notes }))
 }

@@ -95,7 +95,8 @@ pub fn summary(cx: &Context) -> Part {
             format!(
                 "{}: water at {}, margin {}",
                 p.point.name,
-                p.level_m.map_or("dry (aquifer base)".into(), |z| f.level(z)),
+                p.level_m
+                    .map_or("dry (aquifer base)".into(), |z| f.level(z)),
                 p.margin_m.map_or("—".into(), |m| f.length(m))
             ),
         ));
@@ -119,9 +120,17 @@ pub fn inputs(cx: &Context) -> Part {
     add(
         "coordinate system",
         m.crs.clone().unwrap_or_else(|| m.grid.clone()),
-        if m.crs.is_some() { "[site] crs" } else { "[site] grid" },
+        if m.crs.is_some() {
+            "[site] crs"
+        } else {
+            "[site] grid"
+        },
     );
-    add("ground level", f.length(m.ground_level), "[site] ground_level");
+    add(
+        "ground level",
+        f.length(m.ground_level),
+        "[site] ground_level",
+    );
     add("aquifer", aq.describe().to_string(), "[aquifer] kind");
     add(
         "hydraulic conductivity",
@@ -133,13 +142,21 @@ pub fn inputs(cx: &Context) -> Part {
         f.level(aq.initial_level),
         "[aquifer] groundwater_level",
     );
-    add("aquifer base", f.level(aq.base_level), "[aquifer] base_level");
+    add(
+        "aquifer base",
+        f.level(aq.base_level),
+        "[aquifer] base_level",
+    );
     if let Some(t) = aq.top_level {
         add("aquifer top", f.level(t), "[aquifer] top_level");
     }
     if let AquiferKind::Leaky { .. } = aq.kind {
         if let Some(b) = aq.leakage_factor() {
-            add("leakage factor B", f.length(b), "[aquifer] leakage_factor / aquitard_resistance");
+            add(
+                "leakage factor B",
+                f.length(b),
+                "[aquifer] leakage_factor / aquitard_resistance",
+            );
         }
     }
     for e in &m.excavations {
@@ -159,7 +176,11 @@ pub fn inputs(cx: &Context) -> Part {
             "formation − target_margin",
         );
     }
-    add("influence method", m.influence.name().to_string(), "[influence] method");
+    add(
+        "influence method",
+        m.influence.name().to_string(),
+        "[influence] method",
+    );
     add(
         "contingency on flow",
         format!("{:.0} %", m.contingency * 100.0),
@@ -189,9 +210,13 @@ pub fn inputs(cx: &Context) -> Part {
         add(
             &format!("boundary: {}", b.name),
             match b.kind {
-            crate::physics::images::BoundaryKind::ConstantHead => "constant head (image recharge well)".to_string(),
-            crate::physics::images::BoundaryKind::Barrier => "barrier (image pumping well)".to_string(),
-        },
+                crate::physics::images::BoundaryKind::ConstantHead => {
+                    "constant head (image recharge well)".to_string()
+                }
+                crate::physics::images::BoundaryKind::Barrier => {
+                    "barrier (image pumping well)".to_string()
+                }
+            },
             "[[boundary]]",
         );
     }
@@ -273,10 +298,7 @@ pub fn methods(cx: &Context) -> Part {
             "superposition is linear in Φ (Strack 1989)",
         ]);
     }
-    let rows: Vec<Vec<String>> = rows
-        .iter()
-        .map(|[a, b]| vec![esc(a), esc(b)])
-        .collect();
+    let rows: Vec<Vec<String>> = rows.iter().map(|[a, b]| vec![esc(a), esc(b)]).collect();
     let mut body = table(&["method", "source"], &rows);
     body.push_str("<h3>Assumptions</h3>\n<p>Homogeneous, isotropic ground of constant thickness; steady flow; straight boundaries; wells fully effective over their screens. Real ground is layered and variable: confirm by site investigation and pumping tests, and monitor during the works.</p>\n");
     Part::new("methods", "Methods and assumptions", body)

@@ -148,10 +148,7 @@ pub fn table(head: &[&str], rows: &[Vec<String>]) -> String {
 
 /// A two-column table of (label, value) pairs, both plain text.
 pub fn facts(rows: &[(&str, String)]) -> String {
-    let rows: Vec<Vec<String>> = rows
-        .iter()
-        .map(|(k, v)| vec![esc(k), esc(v)])
-        .collect();
+    let rows: Vec<Vec<String>> = rows.iter().map(|(k, v)| vec![esc(k), esc(v)]).collect();
     table(&["item", "value"], &rows)
 }
 

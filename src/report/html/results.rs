@@ -19,14 +19,23 @@ pub fn estimate(cx: &Context) -> Part {
     for x in &est.excavations {
         rows.push(vec![
             esc(&x.name),
-            esc(&format!("{:?}", x.flow_method).replace("EquivalentWell", "equivalent well").replace("LineSlot", "line slot").replace("NoneNeeded", "none needed")),
+            esc(&format!("{:?}", x.flow_method)
+                .replace("EquivalentWell", "equivalent well")
+                .replace("LineSlot", "line slot")
+                .replace("NoneNeeded", "none needed")),
             esc(&f.length(x.radius_of_influence_m)),
             esc(&f.flow(x.total_flow_m3_per_day / 86_400.0)),
             format!("{}", x.rough_well_count),
         ]);
     }
     let mut body = table(
-        &["excavation", "method", "#radius of influence", "#steady flow", "#rough well count"],
+        &[
+            "excavation",
+            "method",
+            "#radius of influence",
+            "#steady flow",
+            "#rough well count",
+        ],
         &rows,
     );
     let ratio = if quick > 0.0 {
@@ -36,13 +45,19 @@ pub fn estimate(cx: &Context) -> Part {
     };
     body.push_str(&facts(&[
         ("quick estimate, total", f.flow(quick)),
-        ("this layout by superposition", f.flow(e.total_abstraction_m3_per_s)),
+        (
+            "this layout by superposition",
+            f.flow(e.total_abstraction_m3_per_s),
+        ),
         ("layout ÷ estimate", ratio),
         (
             "wells: estimate / layout",
             format!(
                 "{} / {}",
-                est.excavations.iter().map(|x| x.rough_well_count).sum::<u32>(),
+                est.excavations
+                    .iter()
+                    .map(|x| x.rough_well_count)
+                    .sum::<u32>(),
                 cx.run.placement.wells.len()
             ),
         ),
@@ -84,8 +99,9 @@ pub fn wells(cx: &Context) -> Part {
     if cut {
         shown.sort_by(|a, b| {
             a.problems.is_empty().cmp(&b.problems.is_empty()).then(
-                (a.level_m.unwrap_or(f64::NEG_INFINITY) - a.lowest_allowed_level_m)
-                    .total_cmp(&(b.level_m.unwrap_or(f64::NEG_INFINITY) - b.lowest_allowed_level_m)),
+                (a.level_m.unwrap_or(f64::NEG_INFINITY) - a.lowest_allowed_level_m).total_cmp(
+                    &(b.level_m.unwrap_or(f64::NEG_INFINITY) - b.lowest_allowed_level_m),
+                ),
             )
         });
         shown.truncate(MAX_WELL_ROWS / 2);
@@ -136,7 +152,9 @@ pub fn wells(cx: &Context) -> Part {
     for n in &cx.run.placement.notes {
         body.push_str(&format!("<p class=\"note\">{}</p>", esc(n)));
     }
-    body.push_str("<p class=\"note\">Every well is also in <a href=\"wells.csv\">wells.csv</a>.</p>");
+    body.push_str(
+        "<p class=\"note\">Every well is also in <a href=\"wells.csv\">wells.csv</a>.</p>",
+    );
     Part::new("wells", "Wells", body).on_new_page()
 }
 
@@ -167,7 +185,10 @@ pub fn checkpoints(cx: &Context) -> Part {
                 esc(&p.point.name),
                 esc(&f.length_value(p.point.position[0])),
                 esc(&f.length_value(p.point.position[1])),
-                esc(&p.point.target_level.map_or("report only".into(), |z| f.level(z))),
+                esc(&p
+                    .point
+                    .target_level
+                    .map_or("report only".into(), |z| f.level(z))),
                 esc(&p.level_m.map_or("dry".into(), |z| f.level(z))),
                 esc(&p.margin_m.map_or("—".into(), |m| f.length_value(m))),
                 match p.met {

@@ -32,13 +32,23 @@ pub fn neighbours(cx: &Context) -> Part {
                     "settlement" => f.small_length(x),
                     _ => f.length(x),
                 };
-                format!("{} {} of {} ({:.0} %)", c.quantity, v(c.value), v(c.limit), c.utilisation * 100.0)
+                format!(
+                    "{} {} of {} ({:.0} %)",
+                    c.quantity,
+                    v(c.value),
+                    v(c.limit),
+                    c.utilisation * 100.0
+                )
             })
             .collect();
         rows.push(vec![
             esc(&n.name),
             esc(&f.length(n.worst_drawdown.drawdown_m)),
-            esc(&n.worst_settlement.as_ref().and_then(|s| s.settlement_m).map_or("—".into(), |s| f.small_length(s))),
+            esc(&n
+                .worst_settlement
+                .as_ref()
+                .and_then(|s| s.settlement_m)
+                .map_or("—".into(), |s| f.small_length(s))),
             esc(&checks.join("; ")),
             if n.status == crate::safety::neighbours::Status::Fail {
                 format!("<span class=\"bad\">{}</span>", n.status.word())
@@ -85,10 +95,21 @@ pub fn uplift(cx: &Context) -> Part {
         })
         .collect();
     let mut body = table(
-        &["excavation", "layer top (depth)", "#FoS before", "#FoS required", "head needed (depth)", "#FoS after", "result"],
+        &[
+            "excavation",
+            "layer top (depth)",
+            "#FoS before",
+            "#FoS required",
+            "head needed (depth)",
+            "#FoS after",
+            "result",
+        ],
         &rows,
     );
-    body.push_str(&format!("<p class=\"note\">{}</p>", esc(crate::safety::uplift::METHOD)));
+    body.push_str(&format!(
+        "<p class=\"note\">{}</p>",
+        esc(crate::safety::uplift::METHOD)
+    ));
     Part::new("uplift", "Base uplift", body)
 }
 
@@ -131,7 +152,10 @@ pub fn bid(cx: &Context) -> Part {
 
 /// The caution every output carries, and what the run noted.
 pub fn cautions(cx: &Context) -> Part {
-    let mut body = format!("<p class=\"caution\">{}</p>\n", esc(crate::caution::CAUTION));
+    let mut body = format!(
+        "<p class=\"caution\">{}</p>\n",
+        esc(crate::caution::CAUTION)
+    );
     let mut notes: Vec<String> = cx.run.placement.notes.clone();
     if let Some(d) = cx.design {
         notes.extend(d.notes.iter().cloned());

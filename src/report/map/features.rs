@@ -112,7 +112,14 @@ pub(super) fn draw_excavations(
         );
         let name = e.name.clone();
         let u = run.model.units;
-        let (lu, dl) = (u.length_unit(), if u == crate::input::units::UnitSystem::Us { 1 } else { 2 });
+        let (lu, dl) = (
+            u.length_unit(),
+            if u == crate::input::units::UnitSystem::Us {
+                1
+            } else {
+                2
+            },
+        );
         let target = format!("target ≤ {} {lu}", signed(u.length(e.target_level()), dl));
         let formation = format!("formation {} {lu}", signed(u.length(e.formation_level), dl));
         let (s1, s2) = (13.0, 11.0);

@@ -11,7 +11,13 @@ use svg::node::element::{Circle, Path};
 
 const NAMED: &str = "#5b2a86";
 
-fn label_near(occ: &mut Occupied, area: [f64; 4], q: [f64; 2], label: &str, size: f64) -> Option<[f64; 2]> {
+fn label_near(
+    occ: &mut Occupied,
+    area: [f64; 4],
+    q: [f64; 2],
+    label: &str,
+    size: f64,
+) -> Option<[f64; 2]> {
     let bw = text_width(label, size) + 6.0;
     let bh = size + 4.0;
     let cands: Vec<[f64; 2]> = [[1.0, 0.0], [-1.0, 0.0], [0.0, -1.0], [0.0, 1.0]]
@@ -32,7 +38,9 @@ pub(super) fn draw_named(
     area: [f64; 4],
     only: Option<[f64; 4]>,
 ) {
-    let inside = |q: [f64; 2]| only.is_none_or(|w| q[0] >= w[0] && q[0] <= w[2] && q[1] >= w[1] && q[1] <= w[3]);
+    let inside = |q: [f64; 2]| {
+        only.is_none_or(|w| q[0] >= w[0] && q[0] <= w[2] && q[1] >= w[1] && q[1] <= w[3])
+    };
     let mut g = std::mem::replace(&mut lay.failed, group("failed-points"));
     let size = 10.5;
     for p in &run.evaluation.points {
@@ -78,7 +86,11 @@ pub(super) fn draw_named(
                 );
                 let label = format!(
                     "least margin: {:.*} {} below target",
-                    if u == crate::input::units::UnitSystem::Us { 1 } else { 2 },
+                    if u == crate::input::units::UnitSystem::Us {
+                        1
+                    } else {
+                        2
+                    },
                     u.length(m),
                     u.length_unit()
                 );
