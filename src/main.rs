@@ -59,8 +59,10 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             units,
             size_recharge,
         } => {
-            let model = model::load(&file)?;
+            let mut model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
+            // The files (report, maps) follow `--units` too.
+            model.units = units;
             let (run, recharge) = if size_recharge {
                 let (run, sizing) =
                     drydig::optimise::recharge::run_sized(&model, wells.as_deref())?;
@@ -89,7 +91,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             prices,
             by_day,
         } => {
-            let model = model::load(&file)?;
+            let mut model = model::load(&file)?;
             if let Some(day) = by_day {
                 let d = drydig::transient::by_date::design_by_day(&model, day)?;
                 let files = vec![("by_day.csv".to_string(), report::by_day_text::to_csv(&d))];
@@ -104,6 +106,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 });
             }
             let units = units.map(Into::into).unwrap_or(model.units);
+            model.units = units;
             let prices = prices
                 .as_deref()
                 .map(drydig::input::prices::read)

@@ -604,6 +604,7 @@ fn neighbour_statuses_reach_the_legend() {
             NeighbourStatus::OverLimit,
             NeighbourStatus::WithinLimits,
         ]),
+        command: None,
     };
     let facts = parse_svg(&map_svg_with(&r, &grid, "2025-01-31", &opts));
     let legend = texts_in(&facts, "legend");
@@ -615,6 +616,7 @@ fn neighbour_statuses_reach_the_legend() {
     assert!(!legend.contains(&"neighbour near a limit"), "{legend:?}");
     let wrong = MapOptions {
         neighbour_status: Some(vec![NeighbourStatus::OverLimit]),
+        command: None,
     };
     let facts = parse_svg(&map_svg_with(&r, &grid, "2025-01-31", &wrong));
     let legend = texts_in(&facts, "legend");

@@ -69,6 +69,10 @@ pub struct LevelGrid {
     boundaries: Vec<[[f64; 2]; 2]>,
     /// A point on the aquifer side (centre of the excavations).
     inside: [f64; 2],
+    /// Contour interval from `[output] contour_interval`, m.
+    pub interval: Option<f64>,
+    /// Metres per display length unit (1, or 0.3048 for US output), for round contour steps.
+    pub unit: f64,
 }
 
 /// Axis-aligned box [xmin, ymin, xmax, ymax].
@@ -153,11 +157,60 @@ pub fn margin(extent: f64, radius: f64) -> f64 {
     m.min(cap)
 }
 
+/// Drawdown the default map reaches out to, m (the 0.5 m contour; common practice (no source):
+/// the edge of the cone people ask about for neighbours and services).
+pub const REACH_DRAWDOWN: f64 = 0.5;
+
+/// How far beyond the feature box `f` the drawdown stays above [`REACH_DRAWDOWN`], m: the
+/// largest such distance over 16 directions from the box centre, sampled in 1/60 of the radius
+/// of influence, and never beyond that radius.
+pub fn reach_margin(run: &GridSource, f: &Bounds) -> f64 {
+    let r = run.field.radius_of_influence();
+    if !r.is_finite() || r <= 0.0 || run.placement.wells.is_empty() {
+        return 0.0;
+    }
+    let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
+    let aq = run.field.aquifer();
+    let c = [(f[0] + f[2]) / 2.0, (f[1] + f[3]) / 2.0];
+    let (hw, hh) = ((f[2] - f[0]) / 2.0, (f[3] - f[1]) / 2.0);
+    let step = r / 60.0;
+    let mut best: f64 = 0.0;
+    for k in 0..16 {
+        let a = k as f64 * std::f64::consts::PI / 8.0;
+        let (dx, dy) = (a.cos(), a.sin());
+        // Distance from the centre to the box edge in this direction.
+        let to_edge = (if dx.abs() > 1e-12 {
+            hw / dx.abs()
+        } else {
+            f64::INFINITY
+        })
+        .min(if dy.abs() > 1e-12 {
+            hh / dy.abs()
+        } else {
+            f64::INFINITY
+        });
+        let mut d = step;
+        while d <= r {
+            let p = [c[0] + (to_edge + d) * dx, c[1] + (to_edge + d) * dy];
+            let z = run.field.level(p, &rates).or_base(aq.base_level);
+            if aq.initial_level - z < REACH_DRAWDOWN {
+                break;
+            }
+            d += step;
+        }
+        best = best.max(d.min(r));
+    }
+    best
+}
+
 /// The area the map covers, by the rule in the module notes.
 pub fn map_bounds(run: &GridSource) -> Bounds {
     let f = feature_bounds(run);
     let extent = (f[2] - f[0]).max(f[3] - f[1]);
-    let m = margin(extent, run.field.radius_of_influence());
+    let m = match run.model.output.map_extent {
+        Some(e) => e,
+        None => margin(extent, run.field.radius_of_influence()).max(reach_margin(run, &f)),
+    };
     let mut b = [f[0] - m, f[1] - m, f[2] + m, f[3] + m];
     let centre = [(f[0] + f[2]) / 2.0, (f[1] + f[3]) / 2.0];
     for bd in &run.model.boundaries {
@@ -250,6 +303,8 @@ impl LevelGrid {
             base_level: aq.base_level,
             boundaries: run.model.boundaries.iter().map(|b| b.line).collect(),
             inside: inside_point(run.model),
+            interval: run.model.output.contour_interval,
+            unit: run.model.units.length(1.0).recip(),
         }
     }
 
@@ -532,7 +587,11 @@ impl LevelGrid {
                 lines: Vec::new(),
             };
         };
-        let interval = nice_interval(range[0], range[1], skip);
+        let interval = self.interval.unwrap_or_else(|| {
+            // Round steps in the unit people read: feet for US output.
+            let u = self.unit;
+            u * nice_interval(range[0] / u, range[1] / u, skip / u)
+        });
         let levels = thresholds(range[0], range[1], interval, skip);
         let lines = self.lines_at(&values, &levels);
         ContourSet {

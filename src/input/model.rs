@@ -73,6 +73,25 @@ pub struct Model {
     pub design: DesignSettings,
     /// The pumping programme in time, when given.
     pub programme: Option<Programme>,
+    /// Map extent, contour interval and the section line of `[output]`.
+    pub output: OutputSettings,
+    /// The site's coordinate system (`[site] crs`: an EPSG code or a proj string), when given.
+    pub crs: Option<String>,
+    /// What was done to geometry read from drawings (arcs flattened, units converted).
+    pub import_notes: Vec<String>,
+}
+
+/// Output settings of `[output]` beyond units and map quantity, in SI.
+#[derive(Debug, Clone, Default)]
+pub struct OutputSettings {
+    /// Half-width of the map around the features, m (default: reaches the 0.5 m drawdown
+    /// contour or the radius of influence).
+    pub map_extent: Option<f64>,
+    /// Contour interval, m (default: a round step for the range).
+    pub contour_interval: Option<f64>,
+    /// Section line `[[x1, y1], [x2, y2]]`, m (default: through the excavation towards the
+    /// worst neighbour, or along its longest axis).
+    pub section: Option<[[f64; 2]; 2]>,
 }
 
 /// Default operating margin below every target that `design` keeps, m (common practice (no

@@ -109,6 +109,9 @@ pub struct Site {
     /// "local".
     #[serde(default)]
     pub grid: Option<String>,
+    /// Coordinate system of the site grid for GIS output: "EPSG:27700" or a proj string.
+    #[serde(default)]
+    pub crs: Option<String>,
 }
 
 /// `[aquifer]`
@@ -485,6 +488,15 @@ pub struct Output {
     /// Map shows "drawdown" or "water-level".
     #[serde(default)]
     pub map: Option<String>,
+    /// How far the map reaches beyond the excavations, wells and neighbours.
+    #[serde(default)]
+    pub map_extent: Option<Length>,
+    /// Contour interval of the map.
+    #[serde(default)]
+    pub contour_interval: Option<Length>,
+    /// Cross-section line `[[x1, y1], [x2, y2]]`, m in the site grid.
+    #[serde(default)]
+    pub section: Option<toml::Spanned<Vec<Vec<f64>>>>,
 }
 
 /// `[programme]`: the pumping programme in time.

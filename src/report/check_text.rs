@@ -7,11 +7,7 @@ use crate::input::units::{m3s_to_gpm, UnitSystem};
 fn flow(q: f64, units: UnitSystem) -> String {
     match units {
         UnitSystem::Si => format!("{} m³/day ({:.1} L/s)", thousands(q * 86_400.0, 0), q * 1e3),
-        UnitSystem::Us => format!(
-            "{} US gpm ({} m³/day)",
-            thousands(m3s_to_gpm(q), 0),
-            thousands(q * 86_400.0, 0)
-        ),
+        UnitSystem::Us => format!("{} US gpm", thousands(m3s_to_gpm(q), 0)),
     }
 }
 
@@ -119,28 +115,30 @@ pub fn well_table(run: &CheckRun, units: UnitSystem) -> String {
     let e = &run.evaluation;
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
+    let f = super::format::Fmt::new(units, run.model.ground_level);
+    let ru = f.rate_unit();
     let mut out = String::new();
     out.push_str(&format!(
         "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>11} {:>9}  {}\n",
         "well",
         "x",
         "y",
-        "rate L/s",
+        format!("rate {ru}"),
         &format!("level {lu}"),
         &format!("lowest {lu}"),
-        "cap L/s",
+        format!("cap {ru}"),
         "status"
     ));
     for (w, r) in run.placement.wells.iter().zip(&e.wells) {
         out.push_str(&format!(
-            "{:<10} {:>11.1} {:>11.1} {:>9.2} {:>11} {:>11.2} {:>9.2}  {}\n",
+            "{:<10} {:>11.1} {:>11.1} {:>9} {:>11} {:>11.2} {:>9}  {}\n",
             w.name,
             w.position[0],
             w.position[1],
-            w.rate * 1e3,
+            f.rate_value(w.rate),
             r.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
             l(r.lowest_allowed_level_m),
-            r.capacity_m3_per_s * 1e3,
+            f.rate_value(r.capacity_m3_per_s),
             if r.problems.is_empty() {
                 "ok".to_string()
             } else {

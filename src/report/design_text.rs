@@ -182,7 +182,7 @@ pub fn files(
     prices: Option<&[Price]>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let mut out = match run {
-        Some(r) => super::check_files(r, None)?,
+        Some(r) => super::check_files_for(r, None, Some(design))?,
         None => Vec::new(),
     };
     out.push((

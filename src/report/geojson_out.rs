@@ -4,7 +4,8 @@
 //! not shifted and not reprojected; computed positions (wells, set-out lines, contours) are
 //! rounded to 0.1 mm, the user's outlines are written as given. RFC 7946 asks for longitude/latitude; a local or projected
 //! grid is written as is, and the collection carries `coordinate_system` and `units` members
-//! saying so, for the reader to set the layer's CRS.
+//! saying so, for the reader to set the layer's CRS. With `[site] crs` every position is
+//! reprojected to WGS84 longitude/latitude ([`super::geojson_wgs84`]).
 
 use crate::check::run::CheckRun;
 use crate::field::grid::LevelGrid;
@@ -139,7 +140,8 @@ pub fn layout_geojson(run: &CheckRun) -> String {
             json!({ "kind": "keep-out", "name": k.name }),
         ));
     }
-    collection(features, members(run))
+    let (features, members) = super::geojson_wgs84::reproject(run, features, members(run));
+    collection(features, members)
 }
 
 /// Contour lines of the design file's map quantity over `grid`: one feature per value, a
@@ -180,5 +182,6 @@ pub fn contours_geojson(run: &CheckRun, grid: &LevelGrid) -> String {
         map.insert("interval_m".into(), json!(set.interval));
         map.insert("grid_step_m".into(), json!(round(grid.step, 4)));
     }
+    let (features, m) = super::geojson_wgs84::reproject(run, features, m);
     collection(features, m)
 }

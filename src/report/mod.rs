@@ -6,13 +6,17 @@ pub mod check_text;
 pub mod design_text;
 pub mod estimate_text;
 pub mod files;
+pub mod format;
 pub mod geojson_out;
+pub mod geojson_wgs84;
+pub mod html;
 pub mod map;
 pub mod neighbours;
 pub mod programme_charts;
 pub mod programme_map;
 pub mod programme_text;
 pub mod pumping_test_text;
+pub mod section_svg;
 pub mod sweep_chart;
 pub mod tables;
 
@@ -71,7 +75,17 @@ pub fn check_files(
     run: &crate::check::run::CheckRun,
     recharge: Option<&crate::optimise::recharge::RechargeSizing>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
-    Ok(vec![
+    check_files_for(run, recharge, None)
+}
+
+/// Every file `check` writes, with `report.html` titled and filled for `design` when a design
+/// is given.
+pub fn check_files_for(
+    run: &crate::check::run::CheckRun,
+    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
+    design: Option<&crate::optimise::outcome::Design>,
+) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
+    let mut files: Vec<(String, Vec<u8>)> = vec![
         (
             "summary.json".into(),
             serde_json::to_vec_pretty(&tables::summary_json(run, recharge))?,
@@ -81,6 +95,30 @@ pub fn check_files(
     ]
     .into_iter()
     .chain(neighbours::files::files(run)?)
-    .chain(map::render::files(run))
-    .collect())
+    .chain(map::render::files_for(
+        run,
+        if design.is_some() { "design" } else { "check" },
+    ))
+    .collect();
+    let f = format::Fmt::new(run.model.units, run.model.ground_level);
+    let section = section_svg::section_of(run);
+    let title = format!("Section — {}", run.model.name);
+    let section_svg = section_svg::render(run.model, &section, &f, &title);
+    let map_svg = files
+        .iter()
+        .find(|(n, _)| n == "map.svg")
+        .map(|(_, b)| String::from_utf8_lossy(b).into_owned())
+        .unwrap_or_default();
+    let cx = html::build::Context {
+        run,
+        design,
+        command: if design.is_some() { "design" } else { "check" },
+        f,
+        map_svg,
+        section_svg: section_svg.clone(),
+        date: map::date::today(),
+    };
+    files.push(("section.svg".into(), section_svg.into_bytes()));
+    files.push(("report.html".into(), html::build::report(&cx).into_bytes()));
+    Ok(files)
 }

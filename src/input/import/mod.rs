@@ -1,6 +1,7 @@
 //! Reading site drawings and site coordinates: GeoJSON ([`geojson_in`]) and DXF ([`dxf_in`])
 //! outlines, lines and points in a projected or local grid (x east, y north, metres), and
-//! reprojection of site coordinates to WGS84 ([`crs`]).
+//! reprojection of site coordinates to WGS84 ([`crs`]), and the design file's references to
+//! drawings replaced by the geometry they name ([`resolve`]).
 //!
 //! Both readers return a [`Drawing`]: what was picked, in metres, each item named and traced to
 //! where it came from, plus notes on anything done to the geometry (arcs flattened, units
@@ -10,6 +11,7 @@
 pub mod crs;
 pub mod dxf_in;
 pub mod geojson_in;
+pub mod resolve;
 
 use geo::{LineString, Point, Polygon};
 

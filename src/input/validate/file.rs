@@ -72,6 +72,14 @@ pub fn from_str(path: &Path, source: &str) -> Result<Model, InputError> {
             "the file holds binary data; a design file is TOML text",
         ));
     }
+    if let Some(r) = crate::input::import::resolve::resolve(path, source)? {
+        let rep = Reporter::new(path, &r.text);
+        let raw: DesignFile =
+            toml::from_str(&r.text).map_err(|e| parse_error(&rep, &r.text, &e))?;
+        let mut model = validate(path, &rep, raw)?;
+        model.import_notes = r.notes;
+        return Ok(model);
+    }
     let raw: DesignFile = toml::from_str(source).map_err(|e| parse_error(&rep, source, &e))?;
     validate(path, &rep, raw)
 }
@@ -293,6 +301,9 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         as_built,
         design,
         programme,
+        output: crate::input::validate::output::output_settings(rep, output)?,
+        crs: crate::input::validate::output::site_crs(rep, raw.site.crs.as_deref())?,
+        import_notes: Vec::new(),
     };
     crate::input::validate::sides::check_points_and_neighbours(&model)?;
     let listed: Vec<(&str, [f64; 2], f64)> = model

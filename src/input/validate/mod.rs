@@ -9,7 +9,8 @@
 //! formulas compute from them: distance of influence, leakage factor, equivalent radius, the
 //! number of check points), `as_built` (screens, well losses, header level, spacing limits,
 //! recharge limits), `sides` (everything on the aquifer side of every boundary),
-//! `design_settings` (operating margin, capacity fraction, one well out, pumps).
+//! `design_settings` (operating margin, capacity fraction, one well out, pumps),
+//! `output` (map extent, contour interval, section line, site coordinate system).
 
 pub mod aquifer;
 pub mod as_built;
@@ -17,6 +18,7 @@ pub mod derived;
 pub mod design_settings;
 pub mod file;
 pub mod neighbours;
+pub mod output;
 pub mod programme;
 pub mod ranges;
 pub mod shapes;

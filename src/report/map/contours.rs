@@ -124,13 +124,13 @@ pub(super) fn draw_contour_labels(
     occ: &mut Occupied,
     area: [f64; 4],
 ) {
-    let d = decimals(set.interval);
+    let d = decimals(set.interval / grid.unit).min(3);
     let size = 11.0;
     let inset = [area[0] + 4.0, area[1] + 4.0, area[2] - 4.0, area[3] - 4.0];
     let spacing = 300.0;
     let mut g = std::mem::replace(&mut lay.contour_labels, group("contour-labels"));
     for line in &set.lines {
-        let label = signed(line.value, d);
+        let label = signed(line.value / grid.unit, d);
         let w = text_width(&label, size) + 6.0;
         let h = size + 2.0;
         for part in &line.parts {

@@ -111,8 +111,17 @@ pub(super) fn draw_excavations(
                 .set("stroke-linejoin", "miter"),
         );
         let name = e.name.clone();
-        let target = format!("target ≤ {} m", signed(e.target_level(), 2));
-        let formation = format!("formation {} m", signed(e.formation_level, 2));
+        let u = run.model.units;
+        let (lu, dl) = (
+            u.length_unit(),
+            if u == crate::input::units::UnitSystem::Us {
+                1
+            } else {
+                2
+            },
+        );
+        let target = format!("target ≤ {} {lu}", signed(u.length(e.target_level()), dl));
+        let formation = format!("formation {} {lu}", signed(u.length(e.formation_level), dl));
         let (s1, s2) = (13.0, 11.0);
         let w = text_width(&name, s1).max(text_width(&formation, s2)) + 8.0;
         let h = s1 + 2.0 * s2 + 10.0;

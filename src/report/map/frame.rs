@@ -94,7 +94,11 @@ pub(super) fn draw_frame(lay: &mut Layers, view: &View, plan: [f64; 4]) {
     );
 }
 
-pub(super) fn scale_and_north(view: &View, top: f64) -> (Group, Group) {
+pub(super) fn scale_and_north(
+    view: &View,
+    top: f64,
+    u: crate::input::units::UnitSystem,
+) -> (Group, Group) {
     let height = 96.0;
     let frame = Rectangle::new()
         .set("x", r1(PANEL[0]))
@@ -105,7 +109,8 @@ pub(super) fn scale_and_north(view: &View, top: f64) -> (Group, Group) {
         .set("stroke", INK)
         .set("stroke-width", 1);
     // Scale bar: a round length no longer than 200 px, in four blocks.
-    let len_m = nice_below(200.0 / view.scale);
+    let per_unit = 1.0 / u.length(1.0);
+    let len_m = nice_below(200.0 / view.scale / per_unit) * per_unit;
     let len_px = len_m * view.scale;
     let x0 = PANEL[0] + 18.0;
     let y0 = top + 52.0;
@@ -123,12 +128,12 @@ pub(super) fn scale_and_north(view: &View, top: f64) -> (Group, Group) {
                 .set("stroke-width", 0.8),
         );
     }
-    let d = decimals(len_m / 2.0).min(2);
+    let d = decimals(u.length(len_m) / 2.0).min(2);
     for (t, v) in [(0.0, 0.0), (0.5, len_m / 2.0), (1.0, len_m)] {
         let label = if t == 1.0 {
-            format!("{} m", signed(v, d))
+            format!("{} {}", signed(u.length(v), d), u.length_unit())
         } else {
-            signed(v, d)
+            signed(u.length(v), d)
         };
         bar = bar.add(
             text(x0 + len_px * t, y0 + 22.0, 11.0, label)

@@ -136,7 +136,9 @@ pub(super) fn detail_plan(
                 .set("fill", INK),
         );
     // Its own scale bar, above its top right corner.
-    let len_m = nice_below(150.0 / view.scale);
+    let u = run.model.units;
+    let per_unit = 1.0 / u.length(1.0);
+    let len_m = nice_below(150.0 / view.scale / per_unit) * per_unit;
     let len_px = len_m * view.scale;
     let right = view.px([fb[2], fb[3]]);
     let x0 = right[0] - len_px - 30.0;
@@ -159,7 +161,11 @@ pub(super) fn detail_plan(
             x0 + len_px + 6.0,
             y0,
             11.0,
-            format!("{} m", signed(len_m, decimals(len_m).min(2))),
+            format!(
+                "{} {}",
+                signed(u.length(len_m), decimals(u.length(len_m)).min(2)),
+                u.length_unit()
+            ),
         )
         .set("fill", INK),
     );

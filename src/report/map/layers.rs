@@ -10,6 +10,8 @@ use svg::node::element::{ClipPath, Definitions, Group, Path, Rectangle};
 
 /// Everything drawn, layer by layer.
 pub(super) struct Layers {
+    /// Prefix of every id in this plan ("" for the main plan), so a detail's ids differ.
+    pub(super) prefix: String,
     pub(super) defs: Definitions,
     /// `url(#…)` of the clip to the plan's rectangle.
     pub(super) plan_clip: String,
@@ -58,6 +60,7 @@ impl Layers {
             );
         let plan_clip = format!("url(#{plan_clip})");
         Layers {
+            prefix: prefix.to_string(),
             defs,
             aquifer_clip: format!("url(#{aquifer_clip})"),
             bands: group(&id("bands")),

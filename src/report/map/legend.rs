@@ -14,7 +14,7 @@ use crate::report::map::page::{
     BARRIER, CONSTANT_HEAD, CONTOUR, EXCAVATION, FAIL, INK, KEEP_OUT, PANEL, PLAN,
 };
 use crate::report::map::symbols::well_symbol;
-use crate::report::map::text::{decimals, quantity_words, r1, signed, text};
+use crate::report::map::text::{decimals, r1, signed, text};
 use svg::node::element::{Group, Line, Path, Rectangle};
 
 /// One legend row: a symbol drawn in a 34 × 16 box at (x, y) and words beside it.
@@ -74,8 +74,11 @@ pub(super) fn legend(
         }
         g
     };
-    let (what, unit) = quantity_words(set.quantity);
-    let dec = decimals(set.interval);
+    let u = model.units;
+    let (what, unit) = crate::report::map::text::quantity_words_in(set.quantity, u);
+    let lu = u.length_unit();
+    let dec = decimals(u.length(set.interval)).min(3);
+    let ul = |v: f64| u.length(v);
     // Band ramp with its end values.
     if !set.lines.is_empty() {
         let mut ramp = Group::new();
@@ -110,7 +113,11 @@ pub(super) fn legend(
                 x,
                 y,
                 ramp,
-                &format!("{words} {} … {} m", signed(*light, dec), signed(*dark, dec)),
+                &format!(
+                    "{words} {} … {} {lu}",
+                    signed(ul(*light), dec),
+                    signed(ul(*dark), dec)
+                ),
             ));
             y += row;
         }
@@ -134,14 +141,14 @@ pub(super) fn legend(
             x,
             y,
             line(CONTOUR, 0.8, None),
-            &format!("contour every {} m", signed(set.interval, dec)),
+            &format!("contour every {} {lu}", signed(ul(set.interval), dec)),
         ));
         y += row;
         rows = rows.add(legend_row(
             x,
             y,
             line(CONTOUR, 1.6, None),
-            &format!("bold every {} m", signed(5.0 * set.interval, dec)),
+            &format!("bold every {} {lu}", signed(ul(5.0 * set.interval), dec)),
         ));
         y += row;
     }

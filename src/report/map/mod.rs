@@ -14,7 +14,7 @@
 //! so projected coordinates (x ≈ 500 000 m) lose nothing in the `svg` crate's f32 storage.
 //!
 //! One idea per file: [`render`] assembles the page from [`plan`] (one plan's layers, drawn by
-//! [`contours`], [`features`], [`wells`], [`points`] and [`frame`]), [`inset`] (the detail plan),
+//! [`contours`], [`features`], [`wells`], [`points`], [`named`] and [`frame`]), [`inset`] (the detail plan),
 //! [`legend`] and [`title`]; [`view`] turns site metres into pixels, [`labels`] keeps labels
 //! apart, [`symbols`] sizes the well and point marks, [`text`] writes numbers and text,
 //! [`page`] holds the page geometry and palette, [`options`] the caller's choices, and [`date`]
@@ -28,6 +28,7 @@ pub mod inset;
 pub mod labels;
 pub mod layers;
 pub mod legend;
+pub mod named;
 pub mod options;
 pub mod page;
 pub mod plan;

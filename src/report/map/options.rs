@@ -45,6 +45,8 @@ pub struct MapOptions {
     /// One status per neighbour, in the design file's order, to colour their footprints.
     /// `None` (or a list of the wrong length): one neutral colour for all.
     pub neighbour_status: Option<Vec<NeighbourStatus>>,
+    /// The command that drew the map ("check", "design"); `None`: "check".
+    pub command: Option<&'static str>,
 }
 
 /// The map's colouring of the neighbours by their status ([`neighbours::neighbour_status`]).
@@ -62,5 +64,6 @@ pub fn map_options(run: &CheckRun) -> MapOptions {
                 })
                 .collect(),
         ),
+        command: None,
     }
 }

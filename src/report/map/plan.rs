@@ -50,6 +50,7 @@ pub(super) fn draw_plan(
     draw_boundaries(&mut lay, run, grid, view, &mut occ, plan_px);
     draw_dry(&mut lay, grid, view);
     let failed = draw_failed(&mut lay, run, view, &mut occ, plan_px, only);
+    crate::report::map::named::draw_named(&mut lay, run, view, &mut occ, plan_px, only);
     draw_contour_labels(&mut lay, set, grid, view, &mut occ, plan_px);
     draw_frame(&mut lay, view, plan_px);
     (lay, omitted, failed)

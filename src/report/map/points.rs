@@ -65,7 +65,12 @@ pub(super) fn draw_failed(
     {
         if let Some(m) = w.margin_m.filter(|m| *m < 0.0) {
             let q = view.px(w.point.position);
-            let label = format!("worst: {} m above target", signed(-m, 2));
+            let u = run.model.units;
+            let label = format!(
+                "worst: {} {} above target",
+                signed(u.length(-m), 2),
+                u.length_unit()
+            );
             let size = 11.0;
             let bw = text_width(&label, size) + 6.0;
             let bh = size + 4.0;

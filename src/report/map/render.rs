@@ -11,7 +11,7 @@ use crate::report::map::legend::legend;
 use crate::report::map::options::{map_options, MapOptions};
 use crate::report::map::page::{BARRIER, FONT, KEEP_OUT, PAGE_H, PAGE_W, PLAN};
 use crate::report::map::plan::draw_plan;
-use crate::report::map::text::{quantity_words, r1};
+use crate::report::map::text::r1;
 use crate::report::map::title::{caution_footer, title_block};
 use crate::report::map::view::View;
 use svg::node::element::{Definitions, Line, Pattern, Rectangle, Title};
@@ -45,11 +45,11 @@ pub fn map_svg_with(run: &CheckRun, grid: &LevelGrid, date: &str, opts: &MapOpti
         legend_bottom = bottom;
         g
     };
-    let (scale_bar, north) = scale_and_north(&view, legend_bottom + 14.0);
+    let (scale_bar, north) = scale_and_north(&view, legend_bottom + 14.0, model.units);
     let title = title_block(run, &set, date, opts);
     let caution = caution_footer();
 
-    let (what, unit) = quantity_words(quantity);
+    let (what, unit) = crate::report::map::text::quantity_words_in(quantity, model.units);
     let mut doc = Document::new()
         .set("xmlns", "http://www.w3.org/2000/svg")
         .set("width", PAGE_W)
@@ -57,10 +57,11 @@ pub fn map_svg_with(run: &CheckRun, grid: &LevelGrid, date: &str, opts: &MapOpti
         .set("viewBox", (0, 0, PAGE_W, PAGE_H))
         .set("font-family", FONT)
         .add(Title::new(format!(
-            "{} — {} ({}) — drydig check",
+            "{} — {} ({}) — drydig {}",
             model.name,
             what.to_lowercase(),
-            unit
+            unit,
+            opts.command.unwrap_or("check")
         )))
         .add(defs);
     if let Some((_, d)) = &detail_parts {
@@ -110,11 +111,18 @@ fn hatch(id: &str, colour: &str, angle: f64, gap: f64) -> Pattern {
 /// The map and GeoJSON files of `check`: `map.svg`, `layout.geojson`, `contours.geojson`
 /// (one level grid for all three).
 pub fn files(run: &CheckRun) -> Vec<(String, Vec<u8>)> {
+    files_for(run, "check")
+}
+
+/// As [`files`], the map titled for `command` ("check", "design").
+pub fn files_for(run: &CheckRun, command: &'static str) -> Vec<(String, Vec<u8>)> {
     let grid = LevelGrid::for_run(&run.grid_source());
+    let mut opts = map_options(run);
+    opts.command = Some(command);
     vec![
         (
             "map.svg".into(),
-            map_svg_with(run, &grid, &today(), &map_options(run)).into_bytes(),
+            map_svg_with(run, &grid, &today(), &opts).into_bytes(),
         ),
         (
             "layout.geojson".into(),

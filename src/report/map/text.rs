@@ -3,6 +3,7 @@
 //! boxes, wrapped lines, the quantity's words, and the plain and haloed text elements.
 
 use crate::input::model::MapQuantity;
+use crate::input::units::UnitSystem;
 use svg::node::element::Text;
 
 /// A number rounded to 0.1, without "-0".
@@ -90,6 +91,26 @@ pub(super) fn lines_of(text: &str, width: usize) -> Vec<String> {
         .lines()
         .map(str::to_string)
         .collect()
+}
+
+/// A rate per well in the output units: L/s (SI) or US gpm.
+pub(super) fn rate_text_in(q_m3s: f64, u: UnitSystem) -> String {
+    match u {
+        UnitSystem::Si => rate_text(q_m3s),
+        UnitSystem::Us => {
+            let g = crate::input::units::m3s_to_gpm(q_m3s);
+            format!("{} gpm", signed(g, if g.abs() < 10.0 { 2 } else { 1 }))
+        }
+    }
+}
+
+/// The quantity's words and unit for titles, in the output units.
+pub(super) fn quantity_words_in(q: MapQuantity, u: UnitSystem) -> (&'static str, &'static str) {
+    match (q, u) {
+        (_, UnitSystem::Si) => quantity_words(q),
+        (MapQuantity::Drawdown, UnitSystem::Us) => ("Drawdown", "ft"),
+        (MapQuantity::WaterLevel, UnitSystem::Us) => ("Water level", "ft above datum"),
+    }
 }
 
 /// The quantity's words and unit for titles.

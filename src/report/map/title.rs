@@ -7,7 +7,7 @@ use crate::field::grid::ContourSet;
 use crate::report::map::layers::group;
 use crate::report::map::options::{MapOptions, NeighbourStatus};
 use crate::report::map::page::{FAIL, FOOTER_TOP, INK, PANEL, PLAN};
-use crate::report::map::text::{decimals, lines_of, quantity_words, r1, rate_text, signed, text};
+use crate::report::map::text::{decimals, lines_of, r1, signed, text};
 use crate::report::{thousands, CAUTION};
 use svg::node::element::{Group, Line, Rectangle};
 
@@ -19,8 +19,11 @@ pub(super) fn title_block(
 ) -> Group {
     let model = run.model;
     let e = &run.evaluation;
-    let (what, unit) = quantity_words(set.quantity);
-    let dec = decimals(set.interval);
+    let u = model.units;
+    let (what, unit) = crate::report::map::text::quantity_words_in(set.quantity, u);
+    let lu = u.length_unit();
+    let dec = decimals(u.length(set.interval)).min(3);
+    let fl = crate::report::format::Fmt::new(u, model.ground_level);
     let x = PANEL[0] + 12.0;
     let bottom = PLAN[3];
     let mut raw: Vec<(f64, String, bool)> = Vec::new();
@@ -28,8 +31,8 @@ pub(super) fn title_block(
     raw.push((
         12.0,
         format!(
-            "{what}, {unit}: contours every {} m",
-            signed(set.interval, dec)
+            "{what}, {unit}: contours every {} {lu}",
+            signed(u.length(set.interval), dec)
         ),
         false,
     ));
@@ -47,27 +50,35 @@ pub(super) fn title_block(
     let wells = if recharging > 0 {
         format!("Wells: {pumping} pumping, {recharging} recharge")
     } else if same && pumping > 1 {
-        format!("Wells: {pumping}, {} each", rate_text(first_rate))
+        format!(
+            "Wells: {pumping}, {} each",
+            crate::report::map::text::rate_text_in(first_rate, u)
+        )
     } else {
         format!("Wells: {pumping}")
     };
     raw.push((12.0, wells, false));
     raw.push((
         12.0,
-        format!(
-            "Total flow: {} L/s ({} m³/day)",
-            thousands(e.total_abstraction_m3_per_s * 1e3, 1),
-            thousands(e.total_abstraction_m3_per_s * 86_400.0, 0)
-        ),
+        match u {
+            crate::input::units::UnitSystem::Si => format!(
+                "Total flow: {} L/s ({} m³/day)",
+                thousands(e.total_abstraction_m3_per_s * 1e3, 1),
+                thousands(e.total_abstraction_m3_per_s * 86_400.0, 0)
+            ),
+            crate::input::units::UnitSystem::Us => {
+                format!("Total flow: {}", fl.flow(e.total_abstraction_m3_per_s))
+            }
+        },
         true,
     ));
     if e.total_recharge_m3_per_s > 0.0 {
         raw.push((
             12.0,
             format!(
-                "Recharge: {} L/s; net {} L/s",
-                thousands(e.total_recharge_m3_per_s * 1e3, 1),
-                thousands(e.net_flow_m3_per_s * 1e3, 1)
+                "Recharge: {}; net {}",
+                fl.rate(e.total_recharge_m3_per_s),
+                fl.rate(e.net_flow_m3_per_s)
             ),
             false,
         ));
@@ -75,9 +86,9 @@ pub(super) fn title_block(
     raw.push((
         12.0,
         format!(
-            "Design flow (+{:.0} %): {} L/s",
+            "Design flow (+{:.0} %): {}",
             model.contingency * 100.0,
-            thousands(e.design_flow_m3_per_s * 1e3, 1)
+            fl.flow(e.design_flow_m3_per_s)
         ),
         false,
     ));
@@ -106,8 +117,8 @@ pub(super) fn title_block(
             raw.push((
                 11.0,
                 format!(
-                    "Worst: {} m above target at ({:.1}, {:.1})",
-                    signed(-m, 2),
+                    "Worst: {} {lu} above target at ({:.1}, {:.1})",
+                    signed(u.length(-m), 2),
                     w.point.position[0],
                     w.point.position[1]
                 ),
@@ -122,7 +133,11 @@ pub(super) fn title_block(
         .map_or_else(String::new, |f| f.to_string_lossy().into_owned());
     raw.push((11.0, format!("Date: {date}"), false));
     raw.push((11.0, format!("Design file: {file}"), false));
-    raw.push((11.0, "Drawn by drydig check".to_string(), false));
+    raw.push((
+        11.0,
+        format!("Drawn by drydig {}", opts.command.unwrap_or("check")),
+        false,
+    ));
     // Wrap each row to the column's width.
     let avail = PANEL[1] - PANEL[0] - 24.0;
     let mut rows: Vec<(f64, String, bool, &str)> = Vec::new();

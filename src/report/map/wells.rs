@@ -7,7 +7,7 @@ use crate::report::map::labels::{place, Occupied};
 use crate::report::map::layers::{group, Layers};
 use crate::report::map::page::{FAIL, FONT, INK, RECHARGE, WELL};
 use crate::report::map::symbols::{well_radius, well_symbol};
-use crate::report::map::text::{halo, r1, rate_text, text, text_width};
+use crate::report::map::text::{halo, r1, text, text_width};
 use crate::report::map::view::View;
 use geo::Centroid;
 use svg::node::element::Group;
@@ -32,8 +32,8 @@ pub(super) fn draw_wells(
         .filter_map(|e| e.outline.centroid().map(|c| [c.x(), c.y()]))
         .collect();
     // Symbols first, so labels keep clear of every symbol.
-    let mut symbols = Group::new().set("id", "well-symbols");
-    let mut over = Group::new().set("id", "wells-over-limit");
+    let mut symbols = Group::new().set("id", format!("{}well-symbols", lay.prefix));
+    let mut over = Group::new().set("id", format!("{}wells-over-limit", lay.prefix));
     for (i, w) in run.placement.wells.iter().enumerate() {
         if !shown(w.position) {
             continue;
@@ -87,7 +87,7 @@ pub(super) fn draw_wells(
         ));
     }
     let mut labels = Group::new()
-        .set("id", "well-labels")
+        .set("id", format!("{}well-labels", lay.prefix))
         .set("font-family", FONT)
         .set("text-anchor", "middle");
     let mut omitted = 0;
@@ -109,7 +109,7 @@ pub(super) fn draw_wells(
         let rate = if crate::optimise::standby::is_standby(w) {
             "standby".to_string()
         } else {
-            rate_text(w.rate)
+            crate::report::map::text::rate_text_in(w.rate, run.model.units)
         };
         let bw = text_width(&name, s1).max(text_width(&rate, s2)) + 4.0;
         let bh = s1 + s2 + 4.0;

@@ -1,0 +1,238 @@
+//! A vertical section along a straight line: the water level from the superposition sampled
+//! along it, and where the line crosses excavations, neighbours and passes wells, so that a
+//! drawing only formats what is found here.
+
+use crate::check::run::CheckRun;
+use crate::physics::potential::Level;
+use geo::{Centroid, Contains, Point};
+
+/// Samples along the section line.
+pub const SAMPLES: usize = 241;
+
+/// One sample along the line.
+#[derive(Debug, Clone)]
+pub struct SectionSample {
+    /// Distance from the start of the line, m.
+    pub chainage: f64,
+    /// Position, m.
+    pub position: [f64; 2],
+    /// Lowered water level, m (`None`: pumped dry to the aquifer base).
+    pub level: Option<f64>,
+}
+
+/// A well near the line, projected onto it.
+#[derive(Debug, Clone)]
+pub struct SectionWell {
+    /// Name.
+    pub name: String,
+    /// Chainage of its foot on the line, m.
+    pub chainage: f64,
+    /// Distance off the line, m.
+    pub offset: f64,
+    /// Screen top and base, pump intake, m.
+    pub screen_top: f64,
+    /// Screen base, m.
+    pub screen_base: f64,
+    /// Pump intake, m.
+    pub pump_intake: f64,
+}
+
+/// A stretch of line inside a polygon (excavation, neighbour footprint).
+#[derive(Debug, Clone)]
+pub struct Crossing {
+    /// Name.
+    pub name: String,
+    /// First and last chainage inside, m.
+    pub from: f64,
+    /// Last chainage inside, m.
+    pub to: f64,
+    /// Formation level (excavation) or foundation level (neighbour), m.
+    pub level: Option<f64>,
+    /// Target level (excavation), m.
+    pub target: Option<f64>,
+}
+
+/// The section: line, levels along it and what it crosses.
+#[derive(Debug, Clone)]
+pub struct Section {
+    /// Start and end, m.
+    pub line: [[f64; 2]; 2],
+    /// How the line was chosen, in words.
+    pub basis: String,
+    /// Levels along the line.
+    pub samples: Vec<SectionSample>,
+    /// Wells within [`well_band`] of the line.
+    pub wells: Vec<SectionWell>,
+    /// Excavations crossed.
+    pub excavations: Vec<Crossing>,
+    /// Neighbours crossed.
+    pub neighbours: Vec<Crossing>,
+}
+
+/// Wells this close to a line of length `l` (m) are drawn on it: max(3 m, l/30).
+pub fn well_band(length: f64) -> f64 {
+    (length / 30.0).max(3.0)
+}
+
+/// The default section line: from beyond the far side of the first excavation, through its
+/// centroid, to beyond `toward` (the worst neighbour's centroid); without one, along the
+/// outline's longest axis (its longest vertex-to-vertex chord). Ends reach 30 % of the
+/// excavation's length past the outline (and past the neighbour).
+pub fn default_line(run: &CheckRun, toward: Option<[f64; 2]>) -> ([[f64; 2]; 2], String) {
+    let e = &run.model.excavations[0];
+    let ring: Vec<[f64; 2]> = e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect();
+    let c = e.outline.centroid().map_or(ring[0], |p| [p.x(), p.y()]);
+    let mut longest = (0.0, [1.0, 0.0]);
+    for a in &ring {
+        for b in &ring {
+            let d = (b[0] - a[0]).hypot(b[1] - a[1]);
+            if d > longest.0 {
+                longest = (d, [(b[0] - a[0]) / d, (b[1] - a[1]) / d]);
+            }
+        }
+    }
+    let (size, axis) = longest;
+    let (dir, basis, far) = match toward {
+        Some(t) if (t[0] - c[0]).hypot(t[1] - c[1]) > 1e-6 => {
+            let d = (t[0] - c[0]).hypot(t[1] - c[1]);
+            (
+                [(t[0] - c[0]) / d, (t[1] - c[1]) / d],
+                "through the excavation towards the neighbour with the largest drawdown"
+                    .to_string(),
+                d,
+            )
+        }
+        _ => (axis, "along the excavation's longest axis".to_string(), 0.0),
+    };
+    // Extent of the outline along the direction.
+    let along: Vec<f64> = ring
+        .iter()
+        .map(|p| (p[0] - c[0]) * dir[0] + (p[1] - c[1]) * dir[1])
+        .collect();
+    let lo = along.iter().cloned().fold(f64::INFINITY, f64::min);
+    let hi = along.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+    let pad = 0.3 * size.max(1.0);
+    let t0 = lo - pad;
+    let t1 = hi.max(far + 0.2 * size) + pad;
+    (
+        [
+            [c[0] + t0 * dir[0], c[1] + t0 * dir[1]],
+            [c[0] + t1 * dir[0], c[1] + t1 * dir[1]],
+        ],
+        basis,
+    )
+}
+
+fn crossings<'a>(
+    items: impl Iterator<Item = (&'a str, &'a geo::Polygon<f64>, Option<f64>, Option<f64>)>,
+    samples: &[SectionSample],
+) -> Vec<Crossing> {
+    let mut out = Vec::new();
+    for (name, poly, level, target) in items {
+        let mut run: Option<(f64, f64)> = None;
+        for s in samples {
+            let inside = poly.contains(&Point::new(s.position[0], s.position[1]));
+            match (inside, run) {
+                (true, None) => run = Some((s.chainage, s.chainage)),
+                (true, Some((a, _))) => run = Some((a, s.chainage)),
+                (false, Some((a, b))) => {
+                    out.push(Crossing {
+                        name: name.to_string(),
+                        from: a,
+                        to: b,
+                        level,
+                        target,
+                    });
+                    run = None;
+                }
+                (false, None) => {}
+            }
+        }
+        if let Some((a, b)) = run {
+            out.push(Crossing {
+                name: name.to_string(),
+                from: a,
+                to: b,
+                level,
+                target,
+            });
+        }
+    }
+    out
+}
+
+/// The section along `line` for the run's wells and rates: levels h(x) from
+/// [`crate::field::influence::Field::levels`] (the superposition of every well and image) at
+/// [`SAMPLES`] equally spaced points, wells within [`well_band`] projected onto the line, and the
+/// stretches inside excavations and neighbour footprints.
+pub fn section(run: &CheckRun, line: [[f64; 2]; 2], basis: &str) -> Section {
+    let [a, b] = line;
+    let length = (b[0] - a[0]).hypot(b[1] - a[1]);
+    let positions: Vec<[f64; 2]> = (0..SAMPLES)
+        .map(|i| {
+            let t = i as f64 / (SAMPLES - 1) as f64;
+            [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]
+        })
+        .collect();
+    let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
+    let levels = run.field.levels(&positions, &rates);
+    let samples: Vec<SectionSample> = positions
+        .iter()
+        .zip(levels)
+        .enumerate()
+        .map(|(i, (p, lv))| SectionSample {
+            chainage: length * i as f64 / (SAMPLES - 1) as f64,
+            position: *p,
+            level: match lv {
+                Level::Wet(z) => Some(z),
+                Level::Dry => None,
+            },
+        })
+        .collect();
+    let band = well_band(length);
+    let u = [(b[0] - a[0]) / length, (b[1] - a[1]) / length];
+    let wells = run
+        .placement
+        .wells
+        .iter()
+        .filter_map(|w| {
+            let d = [w.position[0] - a[0], w.position[1] - a[1]];
+            let ch = d[0] * u[0] + d[1] * u[1];
+            let off = (d[1] * u[0] - d[0] * u[1]).abs();
+            (off <= band && (0.0..=length).contains(&ch)).then(|| SectionWell {
+                name: w.name.clone(),
+                chainage: ch,
+                offset: off,
+                screen_top: w.screen_top,
+                screen_base: w.screen_base,
+                pump_intake: w.pump_intake,
+            })
+        })
+        .collect();
+    let m = run.model;
+    let excavations = crossings(
+        m.excavations.iter().map(|e| {
+            (
+                e.name.as_str(),
+                &e.outline,
+                Some(e.formation_level),
+                Some(e.target_level()),
+            )
+        }),
+        &samples,
+    );
+    let neighbours = crossings(
+        m.neighbours
+            .iter()
+            .map(|n| (n.name.as_str(), &n.footprint, n.foundation_level, None)),
+        &samples,
+    );
+    Section {
+        line,
+        basis: basis.to_string(),
+        samples,
+        wells,
+        excavations,
+        neighbours,
+    }
+}

@@ -1,0 +1,378 @@
+//! Geometry taken from drawings named in the design file: `outline_from` (excavations),
+//! `footprint_from` (neighbours), `line_from` (boundaries), `outline_from` (keep-out zones) and
+//! `[layout] wells_from` (given wells), each `{ file = "drawings/site.dxf", layer = "EXCAVATION" }`
+//! for a DXF drawing or `{ file = "site.geojson", property = "layer", value = "excavation" }`
+//! for GeoJSON, with optional `name` (pick one of several items), `units` (a unitless DXF) and,
+//! for wells, `rate`. Paths are relative to the design file.
+//!
+//! The design text is rewritten before it is parsed: each `…_from` table is replaced by the
+//! coordinates it names, so validation sees an ordinary design file. What the readers did (arcs
+//! flattened, units converted) comes back as notes for the report.
+
+use super::dxf_in::{self, DrawingUnit, DxfOptions};
+use super::geojson_in::{self, PropertyFilter};
+use super::Drawing;
+use crate::input::error::InputError;
+use std::path::{Path, PathBuf};
+use toml::{Table, Value};
+
+/// The design text with every drawing reference replaced, and the readers' notes.
+#[derive(Debug, Clone)]
+pub struct Resolved {
+    /// The rewritten design text (TOML).
+    pub text: String,
+    /// What was read from where, and what was done to it.
+    pub notes: Vec<String>,
+}
+
+fn err(file: &Path, field: &str, message: impl Into<String>) -> InputError {
+    InputError {
+        file: file.to_path_buf(),
+        field: field.to_string(),
+        line: None,
+        message: message.into(),
+    }
+}
+
+const KEYS: [&str; 4] = ["outline_from", "footprint_from", "line_from", "wells_from"];
+
+/// True when the text may name a drawing (a cheap test before parsing twice).
+pub fn mentions_drawings(source: &str) -> bool {
+    KEYS.iter().any(|k| source.contains(k))
+}
+
+struct Reference {
+    file: PathBuf,
+    shown: String,
+    layer: Option<String>,
+    property: Option<(String, String)>,
+    name: Option<String>,
+    units: Option<DrawingUnit>,
+}
+
+fn reference(design: &Path, field: &str, v: &Value) -> Result<Reference, InputError> {
+    let help = "give { file = \"drawings/site.dxf\", layer = \"EXCAVATION\" } for a DXF drawing or { file = \"site.geojson\", property = \"layer\", value = \"excavation\" } for GeoJSON (optional: name, units)";
+    let t = v
+        .as_table()
+        .ok_or_else(|| err(design, field, format!("expected a table; {help}")))?;
+    for k in t.keys() {
+        if ![
+            "file", "layer", "property", "value", "name", "units", "rate",
+        ]
+        .contains(&k.as_str())
+        {
+            return Err(err(
+                design,
+                &format!("{field}.{k}"),
+                format!("unknown key `{k}`; valid keys: file, layer, property, value, name, units (and rate for wells)"),
+            ));
+        }
+    }
+    let s = |k: &str| t.get(k).and_then(Value::as_str).map(str::to_string);
+    let shown = s("file").ok_or_else(|| {
+        err(
+            design,
+            &format!("{field}.file"),
+            format!("missing `file`; {help}"),
+        )
+    })?;
+    let base = design.parent().unwrap_or(Path::new("."));
+    let units = match s("units") {
+        None => None,
+        Some(u) => Some(DrawingUnit::parse(&u).ok_or_else(|| {
+            err(
+                design,
+                &format!("{field}.units"),
+                format!("unknown drawing unit \"{u}\"; valid: mm, cm, m, ft, in"),
+            )
+        })?),
+    };
+    let property = match (s("property"), s("value")) {
+        (Some(p), Some(v)) => Some((p, v)),
+        (None, None) => None,
+        _ => return Err(err(
+            design,
+            field,
+            "give both `property` and `value` (e.g. property = \"layer\", value = \"excavation\")",
+        )),
+    };
+    Ok(Reference {
+        file: base.join(&shown),
+        shown,
+        layer: s("layer"),
+        property,
+        name: s("name"),
+        units,
+    })
+}
+
+fn read(design: &Path, field: &str, r: &Reference, lines: bool) -> Result<Drawing, InputError> {
+    let ext = r
+        .file
+        .extension()
+        .and_then(|e| e.to_str())
+        .unwrap_or("")
+        .to_ascii_lowercase();
+    match ext.as_str() {
+        "dxf" => {
+            let layer = r.layer.clone().ok_or_else(|| {
+                err(
+                    design,
+                    &format!("{field}.layer"),
+                    "a DXF reference needs `layer` (the CAD layer holding the item)",
+                )
+            })?;
+            let mut o = DxfOptions::layer(layer);
+            o.unit = r.units;
+            o.open_as_lines = lines;
+            dxf_in::read(&r.file, &o)
+        }
+        "geojson" | "json" => {
+            let filter = match (&r.property, &r.layer) {
+                (Some((p, v)), _) => PropertyFilter::new(p, v),
+                (None, Some(l)) => PropertyFilter::new("layer", l),
+                (None, None) => {
+                    return Err(err(design, field, "a GeoJSON reference needs `property` and `value` (or `layer`, read as the property \"layer\")"))
+                }
+            };
+            geojson_in::read(&r.file, &filter)
+        }
+        _ => Err(err(
+            design,
+            &format!("{field}.file"),
+            format!("\"{}\": expected a .dxf or .geojson file", r.shown),
+        )),
+    }
+}
+
+fn pick<'a, T>(
+    design: &Path,
+    field: &str,
+    r: &Reference,
+    items: &'a [super::Shape<T>],
+    what: &str,
+) -> Result<&'a super::Shape<T>, InputError> {
+    let names: Vec<&str> = items.iter().map(|s| s.name.as_str()).collect();
+    match &r.name {
+        Some(n) => items
+            .iter()
+            .find(|s| s.name.eq_ignore_ascii_case(n))
+            .ok_or_else(|| {
+                err(
+                    design,
+                    &format!("{field}.name"),
+                    format!(
+                        "no {what} named \"{n}\" in {}; found: {}",
+                        r.shown,
+                        names.join(", ")
+                    ),
+                )
+            }),
+        None if items.len() == 1 => Ok(&items[0]),
+        None if items.is_empty() => Err(err(
+            design,
+            field,
+            format!(
+                "no closed {what} found in {} with that layer or property",
+                r.shown
+            ),
+        )),
+        None => Err(err(
+            design,
+            &format!("{field}.name"),
+            format!(
+                "{} holds {} {what}s ({}); pick one with `name = \"…\"`",
+                r.shown,
+                items.len(),
+                names.join(", ")
+            ),
+        )),
+    }
+}
+
+fn coords(c: impl Iterator<Item = (f64, f64)>) -> Value {
+    Value::Array(
+        c.map(|(x, y)| Value::Array(vec![Value::Float(x), Value::Float(y)]))
+            .collect(),
+    )
+}
+
+fn ring(p: &geo::Polygon<f64>) -> Value {
+    let mut v: Vec<(f64, f64)> = p.exterior().0.iter().map(|c| (c.x, c.y)).collect();
+    if v.len() > 1 && v.first() == v.last() {
+        v.pop();
+    }
+    coords(v.into_iter())
+}
+
+fn note(notes: &mut Vec<String>, field: &str, r: &Reference, got: &Drawing, item: &str) {
+    let mut s = format!("{field}: {item} read from {}", r.shown);
+    if let Some(l) = &r.layer {
+        s.push_str(&format!(", layer {l}"));
+    }
+    for n in &got.notes {
+        s.push_str("; ");
+        s.push_str(n);
+    }
+    notes.push(s);
+}
+
+/// Replace `key` (a drawing reference) in `t` by `target` geometry.
+fn polygon_from(
+    design: &Path,
+    field: &str,
+    t: &mut Table,
+    key: &str,
+    target: &str,
+    notes: &mut Vec<String>,
+) -> Result<(), InputError> {
+    let Some(v) = t.remove(key) else {
+        return Ok(());
+    };
+    let f = format!("{field}.{key}");
+    if t.contains_key(target) {
+        return Err(err(
+            design,
+            &f,
+            format!("give either `{target}` or `{key}`, not both"),
+        ));
+    }
+    let r = reference(design, &f, &v)?;
+    let got = read(design, &f, &r, false)?;
+    if got.polygons.is_empty() && !got.lines.is_empty() {
+        let names: Vec<&str> = got.lines.iter().map(|l| l.name.as_str()).collect();
+        return Err(err(
+            design,
+            &f,
+            format!(
+                "{} holds only open lines there ({}); an outline must be a closed polyline — close it in the drawing (last vertex joined to the first)",
+                r.shown,
+                names.join(", ")
+            ),
+        ));
+    }
+    let s = pick(design, &f, &r, &got.polygons, "outline")?;
+    note(
+        notes,
+        &f,
+        &r,
+        &got,
+        &format!("\"{}\" ({})", s.name, s.source),
+    );
+    t.insert(target.into(), ring(&s.geometry));
+    Ok(())
+}
+
+/// Rewrite `source` when it names drawings; `None` when it names none.
+pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputError> {
+    if !mentions_drawings(source) {
+        return Ok(None);
+    }
+    // A file that does not parse is left to the ordinary parser, which explains why.
+    let Ok(mut doc) = source.parse::<Table>() else {
+        return Ok(None);
+    };
+    let mut notes = Vec::new();
+    let mut any = false;
+    for (section, key, target) in [
+        ("excavation", "outline_from", "outline"),
+        ("neighbour", "footprint_from", "footprint"),
+        ("keep_out", "outline_from", "outline"),
+    ] {
+        if let Some(Value::Array(items)) = doc.get_mut(section) {
+            for (i, item) in items.iter_mut().enumerate() {
+                if let Some(t) = item.as_table_mut() {
+                    any |= t.contains_key(key);
+                    polygon_from(
+                        design,
+                        &format!("{section}[{}]", i + 1),
+                        t,
+                        key,
+                        target,
+                        &mut notes,
+                    )?;
+                }
+            }
+        }
+    }
+    if let Some(Value::Array(items)) = doc.get_mut("boundary") {
+        for (i, item) in items.iter_mut().enumerate() {
+            let Some(t) = item.as_table_mut() else {
+                continue;
+            };
+            let Some(v) = t.remove("line_from") else {
+                continue;
+            };
+            any = true;
+            let f = format!("boundary[{}].line_from", i + 1);
+            let r = reference(design, &f, &v)?;
+            let got = read(design, &f, &r, true)?;
+            let s = pick(design, &f, &r, &got.lines, "line")?;
+            let pts = &s.geometry.0;
+            let (a, b) = (pts[0], pts[pts.len() - 1]);
+            note(
+                &mut notes,
+                &f,
+                &r,
+                &got,
+                &format!("\"{}\" (straight from its first to its last point)", s.name),
+            );
+            t.insert("line".into(), coords([(a.x, a.y), (b.x, b.y)].into_iter()));
+        }
+    }
+    if let Some(layout) = doc.get_mut("layout").and_then(Value::as_table_mut) {
+        if let Some(v) = layout.remove("wells_from") {
+            any = true;
+            let f = "layout.wells_from";
+            let r = reference(design, f, &v)?;
+            let rate = v.get("rate").and_then(Value::as_str).ok_or_else(|| {
+                err(
+                    design,
+                    &format!("{f}.rate"),
+                    "give the rate of every well read from the drawing, e.g. rate = \"4 L/s\"",
+                )
+            })?;
+            let got = read(design, f, &r, false)?;
+            if got.points.is_empty() {
+                return Err(err(
+                    design,
+                    f,
+                    format!(
+                        "no wells (points, circles or block inserts) found in {}",
+                        r.shown
+                    ),
+                ));
+            }
+            let mut wells = Vec::new();
+            for m in &got.points {
+                let mut w = Table::new();
+                w.insert("name".into(), Value::String(m.name.clone()));
+                w.insert("x".into(), Value::Float(m.at.x()));
+                w.insert("y".into(), Value::Float(m.at.y()));
+                w.insert("rate".into(), Value::String(rate.to_string()));
+                if let Some(rad) = m.radius {
+                    w.insert("radius".into(), Value::String(format!("{rad} m")));
+                }
+                wells.push(Value::Table(w));
+            }
+            note(&mut notes, f, &r, &got, &format!("{} wells", wells.len()));
+            let list = doc
+                .entry("well")
+                .or_insert_with(|| Value::Array(Vec::new()));
+            if let Value::Array(a) = list {
+                a.extend(wells);
+            }
+        }
+    }
+    if !any {
+        return Ok(None);
+    }
+    let text = toml::to_string(&doc).map_err(|e| {
+        err(
+            design,
+            "",
+            format!("cannot rewrite the design file after reading its drawings: {e}"),
+        )
+    })?;
+    Ok(Some(Resolved { text, notes }))
+}

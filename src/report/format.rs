@@ -1,0 +1,165 @@
+//! The one formatting layer for numbers people read: lengths, levels with their depth below
+//! ground, flows and rates per well, each in the chosen unit system (SI inside, converted only
+//! here). Conversion factors: NIST SP 811 (2008), Appendix B (1 ft = 0.3048 m, 1 US gallon =
+//! 3.785 411 784 L, 1 day = 86 400 s).
+
+use crate::input::units::{m3s_to_gpm, m3s_to_ls, m3s_to_m3d, UnitSystem};
+
+/// Formats quantities in one unit system, with levels measured against one ground level.
+#[derive(Debug, Clone, Copy)]
+pub struct Fmt {
+    /// Unit system of the output.
+    pub units: UnitSystem,
+    /// Ground level, m above datum, for depths below ground.
+    pub ground: f64,
+}
+
+fn num(v: f64, decimals: usize) -> String {
+    if !v.is_finite() {
+        return "—".into();
+    }
+    let s = format!("{v:.decimals$}");
+    // "-0.00" reads as a sign error.
+    if s.trim_start_matches('-')
+        .chars()
+        .all(|c| c == '0' || c == '.')
+    {
+        s.trim_start_matches('-').to_string()
+    } else {
+        s
+    }
+}
+
+impl Fmt {
+    /// A formatter for `units` against ground level `ground` (m).
+    pub fn new(units: UnitSystem, ground: f64) -> Fmt {
+        Fmt { units, ground }
+    }
+    /// The length unit's symbol ("m", "ft").
+    pub fn lu(&self) -> &'static str {
+        self.units.length_unit()
+    }
+    /// A length value without unit (2 decimals in m, 1 in ft).
+    pub fn length_value(&self, m: f64) -> String {
+        match self.units {
+            UnitSystem::Si => num(m, 2),
+            UnitSystem::Us => num(self.units.length(m), 1),
+        }
+    }
+    /// A length with its unit: "3.50 m", "11.5 ft".
+    pub fn length(&self, m: f64) -> String {
+        format!("{} {}", self.length_value(m), self.lu())
+    }
+    /// A level above datum with its depth below ground: "3.80 m (2.40 m bgl)". Depth d =
+    /// ground − level; a level above ground shows "agl" (above ground level).
+    pub fn level(&self, z: f64) -> String {
+        format!("{} ({})", self.length(z), self.depth(z))
+    }
+    /// The depth of level `z` below ground: "2.40 m bgl" (bgl: below ground level, the trade's
+    /// term; common practice (no source)).
+    pub fn depth(&self, z: f64) -> String {
+        let d = self.ground - z;
+        if d < -0.005 {
+            format!("{} agl", self.length(-d))
+        } else {
+            format!("{} bgl", self.length(d.max(0.0)))
+        }
+    }
+    /// A flow total: "1 234 m³/day" (SI) or "226 gpm" (US).
+    pub fn flow(&self, q: f64) -> String {
+        match self.units {
+            UnitSystem::Si => format!("{} m³/day", super::thousands(m3s_to_m3d(q), 0)),
+            UnitSystem::Us => format!("{} gpm", super::thousands(m3s_to_gpm(q), 0)),
+        }
+    }
+    /// A rate per well: "5.20 L/s" (SI) or "82.4 gpm" (US).
+    pub fn rate(&self, q: f64) -> String {
+        format!("{} {}", self.rate_value(q), self.rate_unit())
+    }
+    /// The rate per well without its unit.
+    pub fn rate_value(&self, q: f64) -> String {
+        match self.units {
+            UnitSystem::Si => num(m3s_to_ls(q), 2),
+            UnitSystem::Us => num(m3s_to_gpm(q), 1),
+        }
+    }
+    /// Unit of a rate per well ("L/s", "gpm").
+    pub fn rate_unit(&self) -> &'static str {
+        match self.units {
+            UnitSystem::Si => "L/s",
+            UnitSystem::Us => "gpm",
+        }
+    }
+    /// An area: "1 812 m²", "19 504 ft²".
+    pub fn area(&self, m2: f64) -> String {
+        format!(
+            "{} {}",
+            super::thousands(self.units.area(m2), 0),
+            self.units.area_unit()
+        )
+    }
+    /// Hydraulic conductivity: "3.0e-4 m/s" or "85.0 ft/day".
+    pub fn conductivity(&self, k: f64) -> String {
+        match self.units {
+            UnitSystem::Si => format!("{k:.1e} m/s"),
+            UnitSystem::Us => format!("{} ft/day", num(self.units.length(k) * 86_400.0, 1)),
+        }
+    }
+    /// A small length (settlement): "12.3 mm" or "0.48 in".
+    pub fn small_length(&self, m: f64) -> String {
+        match self.units {
+            UnitSystem::Si => format!("{} mm", num(m * 1e3, 1)),
+            UnitSystem::Us => format!("{} in", num(m / 0.0254, 2)),
+        }
+    }
+    /// A map coordinate (easting or northing) with its unit: "1 040.0 m".
+    pub fn coordinate(&self, m: f64) -> String {
+        format!(
+            "{} {}",
+            super::thousands(self.units.length(m), 1),
+            self.lu()
+        )
+    }
+}
+
+/// Text made safe for HTML and SVG: `&`, `<`, `>`, `"` and `'` escaped.
+pub fn esc(text: &str) -> String {
+    let mut out = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&#39;"),
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // Snapshots. Conversions: NIST SP 811 (2008) App. B: 1 ft = 0.3048 m; 1 US gal =
+    // 3.785411784 L; so 5.2 L/s = 5.2e-3·60/3.785411784e-3 = 82.42 gpm and 3.8 m = 12.47 ft.
+    #[test]
+    fn snapshots_si_and_us() {
+        let si = Fmt::new(UnitSystem::Si, 6.2);
+        assert_eq!(si.level(3.8), "3.80 m (2.40 m bgl)");
+        assert_eq!(si.rate(5.2e-3), "5.20 L/s");
+        assert_eq!(si.flow(0.1), "8\u{2009}640 m³/day");
+        assert_eq!(si.small_length(0.0123), "12.3 mm");
+        let us = Fmt::new(UnitSystem::Us, 6.2);
+        assert_eq!(us.level(3.8), "12.5 ft (7.9 ft bgl)");
+        assert_eq!(us.rate(5.2e-3), "82.4 gpm");
+        assert_eq!(us.flow(0.1), "1\u{2009}585 gpm");
+        assert_eq!(us.length(0.3048), "1.0 ft");
+        assert_eq!(us.small_length(0.0254), "1.00 in");
+        assert_eq!(us.depth(7.0), "2.6 ft agl");
+        // 1e-4 m/s = 8.64 m/day = 28.35 ft/day.
+        assert_eq!(us.conductivity(1e-4), "28.3 ft/day");
+        assert_eq!(si.length(f64::NAN), "— m");
+    }
+}

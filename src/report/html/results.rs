@@ -1,0 +1,224 @@
+//! The result parts of `report.html`: estimate against design, the map, the section, the wells
+//! table and the worst check points.
+
+use super::build::Context;
+use super::page::{facts, inline_svg, table, Part};
+use crate::field::checkpoints::PointKind;
+use crate::report::format::esc;
+
+/// Wells listed in full up to this many; beyond it, half as many with the least headroom.
+const MAX_WELL_ROWS: usize = 60;
+
+/// The quick estimate beside the superposition result.
+pub fn estimate(cx: &Context) -> Part {
+    let f = &cx.f;
+    let est = crate::estimate::estimate(cx.run.model);
+    let e = &cx.run.evaluation;
+    let quick = est.total_flow_m3_per_day / 86_400.0;
+    let mut rows: Vec<Vec<String>> = Vec::new();
+    for x in &est.excavations {
+        rows.push(vec![
+            esc(&x.name),
+            esc(&format!("{:?}", x.flow_method)
+                .replace("EquivalentWell", "equivalent well")
+                .replace("LineSlot", "line slot")
+                .replace("NoneNeeded", "none needed")),
+            esc(&f.length(x.radius_of_influence_m)),
+            esc(&f.flow(x.total_flow_m3_per_day / 86_400.0)),
+            format!("{}", x.rough_well_count),
+        ]);
+    }
+    let mut body = table(
+        &[
+            "excavation",
+            "method",
+            "#radius of influence",
+            "#steady flow",
+            "#rough well count",
+        ],
+        &rows,
+    );
+    let ratio = if quick > 0.0 {
+        format!("{:.2}", e.total_abstraction_m3_per_s / quick)
+    } else {
+        "—".into()
+    };
+    body.push_str(&facts(&[
+        ("quick estimate, total", f.flow(quick)),
+        (
+            "this layout by superposition",
+            f.flow(e.total_abstraction_m3_per_s),
+        ),
+        ("layout ÷ estimate", ratio),
+        (
+            "wells: estimate / layout",
+            format!(
+                "{} / {}",
+                est.excavations
+                    .iter()
+                    .map(|x| x.rough_well_count)
+                    .sum::<u32>(),
+                cx.run.placement.wells.len()
+            ),
+        ),
+    ]));
+    body.push_str("<p class=\"note\">The quick estimate treats the excavation as one equivalent well (or a line slot); the layout sums every well and image. A ratio far from 1 asks for a second look at the layout or the inputs.</p>");
+    Part::new("estimate", "Estimate against design", body)
+}
+
+/// The plan map (the same drawing as `map.svg`).
+pub fn map(cx: &Context) -> Part {
+    let body = format!(
+        "<figure>{}<figcaption>Plan: {} with the wells, check points and neighbours. The same drawing is written as map.svg.</figcaption></figure>",
+        inline_svg(&cx.map_svg, "map"),
+        esc(match cx.run.model.map_quantity {
+            crate::input::model::MapQuantity::Drawdown => "drawdown contours",
+            crate::input::model::MapQuantity::WaterLevel => "water-level contours",
+        })
+    );
+    Part::new("map", "Map", body).on_new_page()
+}
+
+/// The cross-section (the same drawing as `section.svg`).
+pub fn section(cx: &Context) -> Part {
+    let body = format!(
+        "<figure>{}<figcaption>Section along the line given in the design file ([output] section) or chosen by default; levels on the left, depths below ground on the right. Written as section.svg.</figcaption></figure>",
+        inline_svg(&cx.section_svg, "section")
+    );
+    Part::new("section", "Section", body)
+}
+
+/// Every well: position, rate, level in the well with its depth, limits.
+pub fn wells(cx: &Context) -> Part {
+    let f = &cx.f;
+    let all = &cx.run.evaluation.wells;
+    // A long line of wellpoints: the wells with the least headroom (water level above the
+    // lowest level allowed), problems first; every well stays in wells.csv.
+    let mut shown: Vec<&crate::check::evaluate::WellResult> = all.iter().collect();
+    let cut = all.len() > MAX_WELL_ROWS;
+    if cut {
+        shown.sort_by(|a, b| {
+            a.problems.is_empty().cmp(&b.problems.is_empty()).then(
+                (a.level_m.unwrap_or(f64::NEG_INFINITY) - a.lowest_allowed_level_m).total_cmp(
+                    &(b.level_m.unwrap_or(f64::NEG_INFINITY) - b.lowest_allowed_level_m),
+                ),
+            )
+        });
+        shown.truncate(MAX_WELL_ROWS / 2);
+    }
+    let rows: Vec<Vec<String>> = shown
+        .iter()
+        .map(|w| {
+            vec![
+                esc(&w.name),
+                esc(&f.length_value(w.position[0])),
+                esc(&f.length_value(w.position[1])),
+                esc(&f.rate_value(w.rate_m3_per_s)),
+                esc(&w.level_m.map_or("dry".into(), |z| f.level(z))),
+                esc(&f.length_value(w.drawdown_m)),
+                esc(&f.level(w.lowest_allowed_level_m)),
+                esc(&f.rate_value(w.capacity_m3_per_s)),
+                if w.problems.is_empty() {
+                    "ok".into()
+                } else {
+                    format!("<span class=\"bad\">{}</span>", esc(&w.problems.join("; ")))
+                },
+            ]
+        })
+        .collect();
+    let lu = f.lu();
+    let ru = f.rate_unit();
+    let head = [
+        "well".to_string(),
+        format!("#x ({lu})"),
+        format!("#y ({lu})"),
+        format!("#rate ({ru})"),
+        "level in well (depth)".to_string(),
+        format!("#drawdown ({lu})"),
+        "lowest allowed (depth)".to_string(),
+        format!("#capacity ({ru})"),
+        "status".to_string(),
+    ];
+    let head: Vec<&str> = head.iter().map(String::as_str).collect();
+    let mut body = String::new();
+    if cut {
+        body.push_str(&format!(
+            "<p>{} wells; the {} with the least headroom above their lowest allowed level are listed.</p>",
+            all.len(),
+            shown.len()
+        ));
+    }
+    body.push_str(&table(&head, &rows));
+    for n in &cx.run.placement.notes {
+        body.push_str(&format!("<p class=\"note\">{}</p>", esc(n)));
+    }
+    body.push_str(
+        "<p class=\"note\">Every well is also in <a href=\"wells.csv\">wells.csv</a>.</p>",
+    );
+    Part::new("wells", "Wells", body).on_new_page()
+}
+
+/// The ten check points with the lowest margin, and every named point.
+pub fn checkpoints(cx: &Context) -> Part {
+    let f = &cx.f;
+    let pts = &cx.run.evaluation.points;
+    let mut order: Vec<usize> = (0..pts.len())
+        .filter(|&i| pts[i].margin_m.is_some())
+        .collect();
+    order.sort_by(|&a, &b| {
+        pts[a]
+            .margin_m
+            .unwrap_or(f64::INFINITY)
+            .total_cmp(&pts[b].margin_m.unwrap_or(f64::INFINITY))
+    });
+    order.truncate(10);
+    for (i, p) in pts.iter().enumerate() {
+        if p.point.kind == PointKind::Named && !order.contains(&i) {
+            order.push(i);
+        }
+    }
+    let rows: Vec<Vec<String>> = order
+        .iter()
+        .map(|&i| {
+            let p = &pts[i];
+            vec![
+                esc(&p.point.name),
+                esc(&f.length_value(p.point.position[0])),
+                esc(&f.length_value(p.point.position[1])),
+                esc(&p
+                    .point
+                    .target_level
+                    .map_or("report only".into(), |z| f.level(z))),
+                esc(&p.level_m.map_or("dry".into(), |z| f.level(z))),
+                esc(&p.margin_m.map_or("—".into(), |m| f.length_value(m))),
+                match p.met {
+                    Some(true) => "met".into(),
+                    Some(false) => "<span class=\"bad\">not met</span>".into(),
+                    None => "—".into(),
+                },
+            ]
+        })
+        .collect();
+    let lu = f.lu();
+    let head = [
+        "check point".to_string(),
+        format!("#x ({lu})"),
+        format!("#y ({lu})"),
+        "target (depth)".to_string(),
+        "water level (depth)".to_string(),
+        format!("#margin ({lu})"),
+        "result".to_string(),
+    ];
+    let head: Vec<&str> = head.iter().map(String::as_str).collect();
+    let mut body = format!(
+        "<p>The ten of {} check points with the least margin below target{}. Every point is in <a href=\"checkpoints.csv\">checkpoints.csv</a>.</p>",
+        pts.len(),
+        if pts.iter().any(|p| p.point.kind == PointKind::Named) {
+            ", then every named point"
+        } else {
+            ""
+        }
+    );
+    body.push_str(&table(&head, &rows));
+    Part::new("checkpoints", "Check points", body)
+}

@@ -1,0 +1,183 @@
+//! The safety and bid parts of `report.html`: neighbours, base uplift, bid quantities, cautions.
+
+use super::build::Context;
+use super::page::{facts, table, Part};
+use crate::report::format::esc;
+
+/// Each neighbour: worst drawdown, settlement and distortion against the limits.
+pub fn neighbours(cx: &Context) -> Part {
+    let f = &cx.f;
+    let results = crate::safety::neighbours::assess_run(cx.run);
+    if results.is_empty() {
+        return Part::new(
+            "neighbours",
+            "Neighbours",
+            "<p>No neighbouring buildings are given in the design file.</p>".into(),
+        );
+    }
+    let mut rows = Vec::new();
+    for n in &results {
+        let checks: Vec<String> = n
+            .checks
+            .iter()
+            .map(|c| {
+                let v = |x: f64| match c.quantity.as_str() {
+                    "angular distortion" => {
+                        if x > 0.0 {
+                            format!("1/{:.0}", 1.0 / x)
+                        } else {
+                            "0".into()
+                        }
+                    }
+                    "settlement" => f.small_length(x),
+                    _ => f.length(x),
+                };
+                format!(
+                    "{} {} of {} ({:.0} %)",
+                    c.quantity,
+                    v(c.value),
+                    v(c.limit),
+                    c.utilisation * 100.0
+                )
+            })
+            .collect();
+        rows.push(vec![
+            esc(&n.name),
+            esc(&f.length(n.worst_drawdown.drawdown_m)),
+            esc(&n
+                .worst_settlement
+                .as_ref()
+                .and_then(|s| s.settlement_m)
+                .map_or("—".into(), |s| f.small_length(s))),
+            esc(&checks.join("; ")),
+            if n.status == crate::safety::neighbours::Status::Fail {
+                format!("<span class=\"bad\">{}</span>", n.status.word())
+            } else {
+                esc(n.status.word())
+            },
+        ]);
+    }
+    let body = table(
+        &["neighbour", "#worst drawdown", "#worst settlement", "checks against limits", "status"],
+        &rows,
+    ) + "<p class=\"note\">Every sample under each building is in neighbours.csv; settlement.svg draws them.</p>";
+    Part::new("neighbours", "Neighbours", body)
+}
+
+/// The base-uplift check of each excavation.
+pub fn uplift(cx: &Context) -> Part {
+    let f = &cx.f;
+    let results = crate::safety::uplift::assess_run(cx.run);
+    if results.is_empty() {
+        return Part::new(
+            "uplift",
+            "Base uplift",
+            "<p>No confined layer below the formation is given ([uplift]); the base-uplift check was not made.</p>".into(),
+        );
+    }
+    let fos = |x: Option<f64>| x.map_or("no uplift pressure".into(), |v| format!("{v:.2}"));
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .map(|u| {
+            vec![
+                esc(&u.excavation),
+                esc(&f.level(u.layer_top_m)),
+                esc(&fos(u.factor_of_safety_before)),
+                format!("{:.2}", u.factor_of_safety_required),
+                esc(&f.level(u.required_head_m)),
+                esc(&fos(u.factor_of_safety_after)),
+                match u.pass_after {
+                    Some(true) => "pass".into(),
+                    Some(false) => "<span class=\"bad\">FAIL</span>".into(),
+                    None => "—".into(),
+                },
+            ]
+        })
+        .collect();
+    let mut body = table(
+        &[
+            "excavation",
+            "layer top (depth)",
+            "#FoS before",
+            "#FoS required",
+            "head needed (depth)",
+            "#FoS after",
+            "result",
+        ],
+        &rows,
+    );
+    body.push_str(&format!(
+        "<p class=\"note\">{}</p>",
+        esc(crate::safety::uplift::METHOD)
+    ));
+    Part::new("uplift", "Base uplift", body)
+}
+
+/// The quantities a bid needs.
+pub fn bid(cx: &Context) -> Part {
+    let f = &cx.f;
+    let b = crate::optimise::bid::bid_of(cx.run.model, cx.run);
+    let mut rows = vec![
+        ("working wells", b.working_wells.to_string()),
+        ("standby wells placed", b.standby_placed.len().to_string()),
+        ("depth per well", f.length(b.depth_per_well_m)),
+        ("drilling, total", f.length(b.drilling_m)),
+        ("jetting, total", f.length(b.jetting_m)),
+        ("screen, total", f.length(b.screen_m)),
+        ("total flow", f.flow(b.total_flow_m3_per_s)),
+        ("design flow", f.flow(b.design_flow_m3_per_s)),
+    ];
+    for p in &b.pumps {
+        rows.push((
+            "pumps",
+            format!(
+                "{} × duty {} at {} head, {:.1} kW shaft each",
+                p.count,
+                f.rate(p.duty_l_per_s / 1e3),
+                f.length(p.head_m),
+                p.shaft_power_kw
+            ),
+        ));
+    }
+    if b.standby_pumps > 0 {
+        rows.push(("standby pumps", b.standby_pumps.to_string()));
+    }
+    if b.header_length_m > 0.0 {
+        rows.push(("header length", f.length(b.header_length_m)));
+    }
+    rows.push((
+        "power installed / running",
+        format!("{:.1} / {:.1} kW", b.power_installed_kw, b.power_running_kw),
+    ));
+    rows.push(("energy per day", format!("{:.0} kWh", b.energy_per_day_kwh)));
+    let mut body = facts(&rows);
+    if f.units == crate::input::units::UnitSystem::Si {
+        for s in &b.basis {
+            body.push_str(&format!("<p class=\"note\">{}</p>", esc(s)));
+        }
+    } else {
+        body.push_str("<p class=\"note\">drydig design writes how each figure was found beside it in bid.csv.</p>");
+    }
+    Part::new("bid", "Bid quantities", body)
+}
+
+/// The caution every output carries, and what the run noted.
+pub fn cautions(cx: &Context) -> Part {
+    let mut body = format!(
+        "<p class=\"caution\">{}</p>\n",
+        esc(crate::caution::CAUTION)
+    );
+    let mut notes: Vec<String> = cx.run.placement.notes.clone();
+    if let Some(d) = cx.design {
+        notes.extend(d.notes.iter().cloned());
+    }
+    notes.extend(cx.run.model.import_notes.iter().cloned());
+    if !notes.is_empty() {
+        body.push_str("<ul>\n");
+        for n in notes {
+            body.push_str(&format!("<li>{}</li>\n", esc(&n)));
+        }
+        body.push_str("</ul>\n");
+    }
+    Part::new("cautions", "Cautions", body)
+}
