@@ -79,10 +79,16 @@ fn riverside_design_keeps_margin_capacity_fraction_and_one_well_out() {
     let big_r = run.evaluation.radius_of_influence_m;
     let river = Some(-45.0);
     let wells: Vec<Well> = run.placement.wells.clone();
-    assert!(wells.iter().all(|w| w.rate > 0.0 || is_standby(w)), "no idle well is left in the layout");
+    assert!(
+        wells.iter().all(|w| w.rate > 0.0 || is_standby(w)),
+        "no idle well is left in the layout"
+    );
     let points = check_points(&model);
     let margin = model.design.operating_margin;
-    assert_eq!(margin, 0.3, "default operating margin, common practice (no source)");
+    assert_eq!(
+        margin, 0.3,
+        "default operating margin, common practice (no source)"
+    );
     // Every target with every well on: at least the operating margin below it.
     let mut lowest = f64::INFINITY;
     for p in points.iter().filter(|p| p.target_level.is_some()) {
@@ -97,7 +103,13 @@ fn riverside_design_keeps_margin_capacity_fraction_and_one_well_out() {
         let wetted = (z.min(2.0) - (-10.0)).max(0.0);
         let sichardt = 2.0 * PI * 0.15 * wetted * k.sqrt() / 15.0;
         let cap = sichardt.min(8e-3);
-        assert!(w.rate <= 0.8 * cap * (1.0 + 1e-6), "{}: {} of {}", w.name, w.rate, cap);
+        assert!(
+            w.rate <= 0.8 * cap * (1.0 + 1e-6),
+            "{}: {} of {}",
+            w.name,
+            w.rate,
+            cap
+        );
     }
     // Any one working well out (the others at their rates): every target still met.
     let mut worst = (f64::INFINITY, String::new());
@@ -112,10 +124,20 @@ fn riverside_design_keeps_margin_capacity_fraction_and_one_well_out() {
             }
         }
     }
-    assert!(worst.0 >= -TOL, "with {} out the margin is {}", worst.1, worst.0);
+    assert!(
+        worst.0 >= -TOL,
+        "with {} out the margin is {}",
+        worst.1,
+        worst.0
+    );
     let o = d.finish.one_out.as_ref().expect("one-well-out report");
     assert_eq!(o.worst_well, worst.1);
-    assert!((o.margin_without_m - worst.0).abs() < 1e-3, "{} vs {}", o.margin_without_m, worst.0);
+    assert!(
+        (o.margin_without_m - worst.0).abs() < 1e-3,
+        "{} vs {}",
+        o.margin_without_m,
+        worst.0
+    );
     // The two standby wells of the design file are placed and carry no rate.
     assert_eq!(d.finish.standby.len(), 2);
     assert_eq!(wells.iter().filter(|w| is_standby(w)).count(), 2);
@@ -188,7 +210,10 @@ fn phase_search_finds_a_ring_the_fixed_start_misses() {
     let placement = generate(&model, &fixed, 0.0).expect("ring");
     assert_eq!(placement.wells.len(), n);
     let rates = LayoutRates::new(&model, &points, placement.wells);
-    assert!(!rates.individual().met, "the fixed start of {n} wells must fail");
+    assert!(
+        !rates.individual().met,
+        "the fixed start of {n} wells must fail"
+    );
     assert!(!rates.uniform().met);
     // The design tried it and says what it tried.
     assert!(d
@@ -201,7 +226,10 @@ fn phase_search_finds_a_ring_the_fixed_start_misses() {
     let base = -12.0;
     let phi0 = 0.5 * k * 15.0f64.powi(2);
     let big_r = run.evaluation.radius_of_influence_m;
-    for p in check_points(&model).iter().filter(|p| p.target_level.is_some()) {
+    for p in check_points(&model)
+        .iter()
+        .filter(|p| p.target_level.is_some())
+    {
         let z = unconfined_level(
             phi0 + delta_phi(p.position, &run.placement.wells, big_r, Some(-30.0)),
             k,
@@ -218,7 +246,10 @@ fn phase_search_finds_a_ring_the_fixed_start_misses() {
 fn pump_head_and_power_match_checks_md_15() {
     let model = load(Path::new("layouts/deep_shaft.toml")).expect("demo loads");
     let p = &model.design.pumps;
-    assert_eq!((p.riser_diameter, p.hazen_williams_c, p.efficiency), (0.10, 130.0, 0.6));
+    assert_eq!(
+        (p.riser_diameter, p.hazen_williams_c, p.efficiency),
+        (0.10, 130.0, 0.6)
+    );
     // Riser 100 m long (discharge 21 m, pump at −79 m), Q = 0.01 m³/s, C = 130, d = 0.10 m
     // → 1.9017 m (checks.md §15, Hazen–Williams SI, from memory).
     let h = head(&model, 21.0 - 23.0983, 21.0 - 100.0, 0.01, 0.0, 0.0);
@@ -231,8 +262,16 @@ fn pump_head_and_power_match_checks_md_15() {
     let mut w = Well::from_spec("W1".into(), [0.0, 0.0], 0.01, &model.wells);
     w.pump_intake = 21.0 - 100.0;
     let b = bid(&model, &[w], &[], &[Some(21.0 - 23.0983)]);
-    assert!((b.power_running_kw - 4.0875).abs() < 2e-3, "{}", b.power_running_kw);
-    assert!((b.energy_per_day_kwh - 98.1).abs() < 0.05, "{}", b.energy_per_day_kwh);
+    assert!(
+        (b.power_running_kw - 4.0875).abs() < 2e-3,
+        "{}",
+        b.power_running_kw
+    );
+    assert!(
+        (b.energy_per_day_kwh - 98.1).abs() < 0.05,
+        "{}",
+        b.energy_per_day_kwh
+    );
     // 10 L/s × 1.5 contingency = 15 L/s asks for more than the largest duty listed (12 L/s).
     assert!(b.pumps[0].above_list);
 }
@@ -276,7 +315,12 @@ fn deep_shaft_is_designed_to_its_relief_head() {
             let mut less = wells.clone();
             less[k].rate = 0.0;
             let h1 = head_at(p.position, &less);
-            assert!(h1 <= h_req + TOL, "{} with {} out: {h1}", p.name, wells[k].name);
+            assert!(
+                h1 <= h_req + TOL,
+                "{} with {} out: {h1}",
+                p.name,
+                wells[k].name
+            );
         }
     }
     // The bid keeps drilling and screen for working + standby wells: depth = ground 20.0 −
@@ -288,7 +332,11 @@ fn deep_shaft_is_designed_to_its_relief_head() {
     assert_eq!(b.jetting_m, 0.0);
     assert!((b.screen_m - 13.0 * built).abs() < 1e-9);
     assert!(b.power_installed_kw > b.power_running_kw && b.power_running_kw > 0.0);
-    assert!(d.finish.one_out.as_ref().is_some_and(|o| o.margin_without_m >= -TOL));
+    assert!(d
+        .finish
+        .one_out
+        .as_ref()
+        .is_some_and(|o| o.margin_without_m >= -TOL));
     // Cost lines are quantity × the user's price.
     let lines = drydig::report::bid_out::lines(&d, &b);
     let prices = [Price {

@@ -324,7 +324,9 @@ fn every_met_design_meets_its_targets_when_evaluated_afresh() {
 /// does either rate option meet every target as the design judges it (operating margin,
 /// capacity fraction, one well out)?
 fn ring_meets(m: &Model, n: u32, chosen: Option<&LayoutSpec>) -> (bool, bool, LpStatus) {
-    let mut spec = chosen.cloned().unwrap_or_else(|| m.layout.clone().expect("layout"));
+    let mut spec = chosen
+        .cloned()
+        .unwrap_or_else(|| m.layout.clone().expect("layout"));
     if let LayoutKind::Ring { count, .. } = &mut spec.kind {
         *count = RingCount::Count(n);
     }

@@ -45,14 +45,26 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
         let rec = rec.map_err(|e| err(line, "", format!("unreadable row: {e}")))?;
         let item = rec.get(ci).unwrap_or("").to_string();
         if item.is_empty() {
-            return Err(err(line, "item", "give the bid item this price is for".into()));
+            return Err(err(
+                line,
+                "item",
+                "give the bid item this price is for".into(),
+            ));
         }
         let text = rec.get(cp).unwrap_or("");
         let price: f64 = text.parse().map_err(|_| {
-            err(line, "price", format!("\"{text}\" is not a number; give the price per unit as a plain number"))
+            err(
+                line,
+                "price",
+                format!("\"{text}\" is not a number; give the price per unit as a plain number"),
+            )
         })?;
         if !(price.is_finite() && price >= 0.0) {
-            return Err(err(line, "price", format!("{price} must be a finite number of 0 or more")));
+            return Err(err(
+                line,
+                "price",
+                format!("{price} must be a finite number of 0 or more"),
+            ));
         }
         out.push(Price { item, price });
     }

@@ -159,15 +159,33 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
             let mut rng = [f64::INFINITY, 0.0f64];
             for &i in &members {
                 let q = wells[i].rate;
-                let h_duty = head(model, lowest(i), wells[i].pump_intake, duty, header_length, design_flow);
+                let h_duty = head(
+                    model,
+                    lowest(i),
+                    wells[i].pump_intake,
+                    duty,
+                    header_length,
+                    design_flow,
+                );
                 if worst.is_none_or(|w| h_duty.total() > w.total()) {
                     worst = Some(h_duty);
                 }
-                let h_run = head(model, lowest(i), wells[i].pump_intake, q, header_length, total);
+                let h_run = head(
+                    model,
+                    lowest(i),
+                    wells[i].pump_intake,
+                    q,
+                    header_length,
+                    total,
+                );
                 running_w += shaft_power(model, q, h_run.total());
                 rng = [rng[0].min(q * 1e3), rng[1].max(q * 1e3)];
             }
-            let h = worst.unwrap_or(Head { lift_m: 0.0, riser_m: 0.0, header_m: 0.0 });
+            let h = worst.unwrap_or(Head {
+                lift_m: 0.0,
+                riser_m: 0.0,
+                header_m: 0.0,
+            });
             pumps.push(PumpClass {
                 duty_l_per_s: duty * 1e3,
                 head_m: h.total(),
@@ -182,15 +200,34 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         standby_pumps = standby_placed.len().max(spec.standby as usize) as u32;
     } else {
         // Header pump sets by length: each serves `wellpoint_set_length` m of header.
-        let n = ((line_length / ps.wellpoint_set_length).ceil() as usize).max(usize::from(total > 0.0));
+        let n =
+            ((line_length / ps.wellpoint_set_length).ceil() as usize).max(usize::from(total > 0.0));
         if n > 0 {
             let per_set = total / n as f64;
             let low = idx.iter().map(|&i| lowest(i)).fold(f64::INFINITY, f64::min);
-            let low = if low.is_finite() { low } else { model.ground_level - spec.suction_limit };
+            let low = if low.is_finite() {
+                low
+            } else {
+                model.ground_level - spec.suction_limit
+            };
             let (duty, above) = duty_for(model, per_set);
             let set_len = line_length / n as f64;
-            let h_duty = head(model, low, model.ground_level, duty, 0.5 * set_len, per_set * (1.0 + f));
-            let h_run = head(model, low, model.ground_level, per_set, 0.5 * set_len, per_set);
+            let h_duty = head(
+                model,
+                low,
+                model.ground_level,
+                duty,
+                0.5 * set_len,
+                per_set * (1.0 + f),
+            );
+            let h_run = head(
+                model,
+                low,
+                model.ground_level,
+                per_set,
+                0.5 * set_len,
+                per_set,
+            );
             running_w = n as f64 * shaft_power(model, per_set, h_run.total());
             pumps.push(PumpClass {
                 duty_l_per_s: duty * 1e3,

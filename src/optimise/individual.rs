@@ -314,7 +314,8 @@ impl LayoutRates<'_> {
                     }
                 }
             }
-            let mut constraints: Vec<Constraint> = rows.iter().map(|r| self.row(*r, goal)).collect();
+            let mut constraints: Vec<Constraint> =
+                rows.iter().map(|r| self.row(*r, goal)).collect();
             constraints.extend(extra.iter().map(|e| self.fold_row(e, costs.len())));
             let problem = RateProblem {
                 costs: costs.clone(),

@@ -69,13 +69,21 @@ impl LayoutRates<'_> {
             rounds += 1;
             let x = &ind.rates;
             let free: Vec<f64> = (0..n)
-                .map(|k| if self.group_of[k].is_some() { x[k] } else { 0.0 })
+                .map(|k| {
+                    if self.group_of[k].is_some() {
+                        x[k]
+                    } else {
+                        0.0
+                    }
+                })
                 .collect();
             // Φ at each target with every well on, and the worst point per well out.
             let phi: Vec<f64> = u
                 .iter()
                 .enumerate()
-                .map(|(t, row)| self.base_t[t] + row.iter().zip(&free).map(|(a, q)| a * q).sum::<f64>())
+                .map(|(t, row)| {
+                    self.base_t[t] + row.iter().zip(&free).map(|(a, q)| a * q).sum::<f64>()
+                })
                 .collect();
             let mut added = 0;
             for k in (0..n).filter(|&k| free[k] > 0.0) {
@@ -117,8 +125,12 @@ impl LayoutRates<'_> {
             let x = &ind.rates;
             for e in &extra {
                 let lhs: f64 = e.per_well.iter().zip(x).map(|(c, q)| c * q).sum();
-                let size: f64 =
-                    e.rhs.abs() + e.per_well.iter().zip(x).map(|(c, q)| (c * q).abs()).sum::<f64>();
+                let size: f64 = e.rhs.abs()
+                    + e.per_well
+                        .iter()
+                        .zip(x)
+                        .map(|(c, q)| (c * q).abs())
+                        .sum::<f64>();
                 if (lhs - e.rhs).abs() <= 1e-6 * size {
                     ind.binding.push(e.label.clone());
                 }
@@ -142,7 +154,11 @@ pub fn one_out_report(layout: &LayoutRates, rates: &[f64]) -> Option<OneOut> {
         let m = e.points[i].margin_m.unwrap_or(0.0);
         by_well.push((layout.wells[k].name.clone(), m));
         if worst.as_ref().is_none_or(|w| m < w.0) {
-            worst = Some((m, layout.wells[k].name.clone(), e.points[i].point.name.clone()));
+            worst = Some((
+                m,
+                layout.wells[k].name.clone(),
+                e.points[i].point.name.clone(),
+            ));
         }
     }
     worst.map(|(m, w, p)| OneOut {

@@ -33,6 +33,10 @@ pub const MIN_SPACING_WELLPOINT: f64 = 0.5;
 /// Most wells the count search places, to bound the work.
 pub const MAX_WELLS: usize = 2000;
 
+/// What the search below a count found gives: the smallest index met, what was tried (in
+/// words) and the run of a placement found below (none: the cached run stands).
+type Fewer = (Option<usize>, Vec<String>, Option<TrialRun>);
+
 /// The layout family the search varies.
 enum Family {
     /// Ring by count, from `min` to `max` wells.
@@ -112,8 +116,7 @@ impl Search<'_, '_> {
         }
         if let Some(t) = self.cache.get_mut(&n) {
             if with_lp && t.individual.is_none() && !t.placement.wells.is_empty() {
-                let rates =
-                    LayoutRates::new(self.model, self.points, t.placement.wells.clone());
+                let rates = LayoutRates::new(self.model, self.points, t.placement.wells.clone());
                 let ind = solve_individual(self.model, &rates);
                 t.set_individual(ind);
             }
@@ -145,7 +148,10 @@ impl Search<'_, '_> {
                     out.push(v);
                 }
                 let mut v = base.clone();
-                if let LayoutKind::Ring { corner_wells: c, .. } = &mut v.kind {
+                if let LayoutKind::Ring {
+                    corner_wells: c, ..
+                } = &mut v.kind
+                {
                     *c = !*corner_wells;
                 }
                 out.push(v);
@@ -178,7 +184,7 @@ impl Search<'_, '_> {
         ok: fn(&Trial) -> bool,
         with_lp: bool,
         others: &mut Vec<TrialRun>,
-    ) -> Result<(Option<usize>, Vec<String>, Option<TrialRun>), InputError> {
+    ) -> Result<Fewer, InputError> {
         let Some(mut best) = found else {
             return Ok((None, Vec::new(), None));
         };
@@ -392,8 +398,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     // positions (and the other corner option) of the same count.
     let mut others: Vec<TrialRun> = Vec::new();
     let mut tried_words = Vec::new();
-    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed)
-    {
+    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed) {
         (smallest_individual, smallest_uniform, None, None)
     } else {
         let (i, wi, ri) = search_state.fewer_by_variants(

@@ -18,7 +18,10 @@ pub const STANDBY_NOTE: &str = "standby";
 
 /// Whether `w` is a placed standby well.
 pub fn is_standby(w: &Well) -> bool {
-    w.rate == 0.0 && w.note.as_deref().is_some_and(|n| n.starts_with(STANDBY_NOTE))
+    w.rate == 0.0
+        && w.note
+            .as_deref()
+            .is_some_and(|n| n.starts_with(STANDBY_NOTE))
 }
 
 /// What finishing did.

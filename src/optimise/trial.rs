@@ -1,14 +1,14 @@
 //! One layout tried: its row of the count table (and of the sweep), with the words for how it
 //! ended, and the lengths its spacing is measured on.
 
+use crate::check::evaluate::TARGET_TOLERANCE;
 use crate::field::checkpoints::CheckPoint;
 use crate::field::layout::{self, Placement};
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model};
-use crate::check::evaluate::TARGET_TOLERANCE;
 use crate::optimise::individual::Individual;
-use crate::optimise::one_out::one_out_report;
 use crate::optimise::lp_problem::LpStatus;
+use crate::optimise::one_out::one_out_report;
 use crate::optimise::rates::LayoutRates;
 use crate::optimise::uniform::Uniform;
 use serde::Serialize;

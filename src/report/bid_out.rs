@@ -34,7 +34,11 @@ fn line(item: impl Into<String>, quantity: f64, unit: &str, basis: impl Into<Str
 /// The lines of the bid sheet.
 pub fn lines(design: &Design, bid: &Bid) -> Vec<BidLine> {
     let mut out = Vec::new();
-    let what = if bid.wellpoints { "wellpoints" } else { "wells" };
+    let what = if bid.wellpoints {
+        "wellpoints"
+    } else {
+        "wells"
+    };
     out.push(line(
         format!("working {what}"),
         bid.working_wells as f64,
@@ -72,7 +76,12 @@ pub fn lines(design: &Design, bid: &Bid) -> Vec<BidLine> {
         bid.depth_per_well_m
     );
     if bid.wellpoints {
-        out.push(line("jetting", bid.jetting_m, "m", format!("wellpoints: {depth}")));
+        out.push(line(
+            "jetting",
+            bid.jetting_m,
+            "m",
+            format!("wellpoints: {depth}"),
+        ));
     } else {
         out.push(line(
             "drilling",
@@ -116,7 +125,11 @@ pub fn lines(design: &Design, bid: &Bid) -> Vec<BidLine> {
     }
     if bid.header_length_m > 0.0 {
         out.push(line(
-            if bid.wellpoints { "wellpoint header" } else { "collecting main" },
+            if bid.wellpoints {
+                "wellpoint header"
+            } else {
+                "collecting main"
+            },
             bid.header_length_m,
             "m",
             "along the well lines",
@@ -144,7 +157,10 @@ pub fn lines(design: &Design, bid: &Bid) -> Vec<BidLine> {
         "total flow",
         bid.total_flow_m3_per_s * DAY,
         "m³/day",
-        format!("sum of the well rates, {:.2} L/s", bid.total_flow_m3_per_s * 1e3),
+        format!(
+            "sum of the well rates, {:.2} L/s",
+            bid.total_flow_m3_per_s * 1e3
+        ),
     ));
     out.push(line(
         "design flow",
@@ -174,10 +190,18 @@ pub fn lines(design: &Design, bid: &Bid) -> Vec<BidLine> {
     out
 }
 
+/// Cost lines (item, quantity, unit price, cost), their total, and the prices not used.
+pub type Costs = (Vec<(String, f64, f64, f64)>, f64, Vec<String>);
+
 /// Cost lines: every bid line that has a price (matched by item, case and spaces ignored),
 /// quantity × price, and the total. Prices without a bid line are listed as unused.
-pub fn costs(lines: &[BidLine], prices: &[Price]) -> (Vec<(String, f64, f64, f64)>, f64, Vec<String>) {
-    let key = |s: &str| s.split_whitespace().collect::<Vec<_>>().join(" ").to_lowercase();
+pub fn costs(lines: &[BidLine], prices: &[Price]) -> Costs {
+    let key = |s: &str| {
+        s.split_whitespace()
+            .collect::<Vec<_>>()
+            .join(" ")
+            .to_lowercase()
+    };
     let mut out = Vec::new();
     for l in lines {
         if let Some(p) = prices.iter().find(|p| key(&p.item) == key(&l.item)) {
@@ -220,7 +244,14 @@ pub fn bid_csv(lines: &[BidLine], prices: Option<&[Price]>) -> anyhow::Result<Ve
         }
     }
     if let Some((_, total, _)) = &priced {
-        w.write_record(["total of the priced lines", "", "", "your unit prices", "", &format!("{total:.2}")])?;
+        w.write_record([
+            "total of the priced lines",
+            "",
+            "",
+            "your unit prices",
+            "",
+            &format!("{total:.2}"),
+        ])?;
     }
     Ok(w.into_inner()?)
 }
@@ -259,9 +290,14 @@ pub fn bid_text(lines: &[BidLine], prices: Option<&[Price]>) -> String {
         let (c, total, unused) = costs(lines, p);
         out.push_str("\ncost lines (your unit prices)\n");
         for (item, q, price, cost) in &c {
-            out.push_str(&format!("  {item:<34} {q:>12.1} × {price:>10.2} = {cost:>12.2}\n"));
+            out.push_str(&format!(
+                "  {item:<34} {q:>12.1} × {price:>10.2} = {cost:>12.2}\n"
+            ));
         }
-        out.push_str(&format!("  {:<34} {:>40.2}\n", "total of the priced lines", total));
+        out.push_str(&format!(
+            "  {:<34} {:>40.2}\n",
+            "total of the priced lines", total
+        ));
         if !unused.is_empty() {
             out.push_str(&format!(
                 "  prices with no bid line of that name: {}\n",

@@ -5,8 +5,8 @@
 use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
 use crate::input::model::{LayoutKind, Model};
-use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::input::prices::Price;
+use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::optimise::bid::bid_of;
 use crate::optimise::individual::summarise_binding;
 use crate::optimise::outcome::{is_met, Design, Outcome};
@@ -369,7 +369,10 @@ pub fn to_text(
         ));
         out.push_str(&allowance_text(model, design, r, units));
         let b = bid_of(model, r);
-        out.push_str(&super::bid_out::bid_text(&super::bid_out::lines(design, &b), prices));
+        out.push_str(&super::bid_out::bid_text(
+            &super::bid_out::lines(design, &b),
+            prices,
+        ));
         for n in &r.placement.notes {
             out.push_str(&wrap(&format!("note: {n}"), 96, ""));
         }
@@ -447,8 +450,9 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
             o.get("well").and_then(Value::as_str).unwrap_or("")
         ));
     }
-    match (&design.finish.one_out, d.one_well_out) {
-        (Some(o), on) => out.push_str(&wrap(
+    if let Some(o) = &design.finish.one_out {
+        let on = d.one_well_out;
+        out.push_str(&wrap(
             &format!(
                 "one well out          {}: losing {} hurts most — lowest margin without it {:.2} {lu} {} target at \"{}\"",
                 if on { "planned for" } else { "not planned for (allowances.one_well_out = false)" },
@@ -459,8 +463,7 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
             ),
             96,
             "",
-        )),
-        (None, _) => {}
+        ));
     }
     if !design.finish.standby.is_empty() {
         out.push_str(&format!(

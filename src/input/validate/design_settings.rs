@@ -11,7 +11,8 @@ use crate::input::schema::DesignFile;
 
 /// Default standard pump duties, L/s: a short list of round sizes to pick the next one up
 /// from (common practice (no source); not a maker's catalogue — give your supplier's list).
-pub const DEFAULT_DUTIES_L_PER_S: [f64; 10] = [1.0, 2.0, 3.0, 5.0, 8.0, 12.0, 16.0, 25.0, 40.0, 60.0];
+pub const DEFAULT_DUTIES_L_PER_S: [f64; 10] =
+    [1.0, 2.0, 3.0, 5.0, 8.0, 12.0, 16.0, 25.0, 40.0, 60.0];
 /// Default pump efficiency (common practice (no source): small submersibles 0.5–0.7).
 pub const DEFAULT_EFFICIENCY: f64 = 0.6;
 /// Default discharge level above ground, m (common practice (no source): a settling tank or
@@ -53,7 +54,9 @@ pub fn design_settings(
         return Err(rep.error(
             "allowances.capacity_fraction",
             frac.and_then(|r| r.span.clone()),
-            format!("{capacity_fraction} is outside 0 … 1 (a fraction of the capacity: 0.8 = 80 %)"),
+            format!(
+                "{capacity_fraction} is outside 0 … 1 (a fraction of the capacity: 0.8 = 80 %)"
+            ),
         ));
     }
     // One well out is the default for deep wells; a wellpoint line loses its pump set, not a
@@ -65,14 +68,21 @@ pub fn design_settings(
     let mut duties: Vec<f64> = match p.and_then(|p| p.duties.as_ref()) {
         Some(list) => {
             if list.is_empty() {
-                return Err(rep.error("pumps.duties", None, "give at least one pump duty, e.g. [\"5 L/s\", \"8 L/s\"]"));
+                return Err(rep.error(
+                    "pumps.duties",
+                    None,
+                    "give at least one pump duty, e.g. [\"5 L/s\", \"8 L/s\"]",
+                ));
             }
             for q in list {
                 if !(q.si.is_finite() && q.si > 0.0 && q.si <= 1.0) {
                     return Err(rep.error(
                         "pumps.duties",
                         q.span.clone(),
-                        format!("{} L/s is not a pump duty; give rates above 0 and at most 1000 L/s", q.si * 1e3),
+                        format!(
+                            "{} L/s is not a pump duty; give rates above 0 and at most 1000 L/s",
+                            q.si * 1e3
+                        ),
                     ));
                 }
             }
@@ -86,7 +96,11 @@ pub fn design_settings(
         .and_then(|p| p.efficiency.as_ref())
         .map_or(DEFAULT_EFFICIENCY, |r| r.value);
     if !(efficiency > 0.05 && efficiency <= 1.0) {
-        return Err(rep.error("pumps.efficiency", None, format!("{efficiency} is outside 0.05 … 1 (as a fraction: 0.6 = 60 %)")));
+        return Err(rep.error(
+            "pumps.efficiency",
+            None,
+            format!("{efficiency} is outside 0.05 … 1 (as a fraction: 0.6 = 60 %)"),
+        ));
     }
     let discharge_level = p
         .and_then(|p| p.discharge_level.as_ref())
@@ -99,30 +113,58 @@ pub fn design_settings(
         if d.is_finite() && (0.01..=2.0).contains(&d) {
             Ok(d)
         } else {
-            Err(rep.error(format!("pumps.{name}"), None, format!("{d} m is outside 0.01 … 2 m (an internal pipe diameter, e.g. \"100 mm\")")))
+            Err(rep.error(
+                format!("pumps.{name}"),
+                None,
+                format!("{d} m is outside 0.01 … 2 m (an internal pipe diameter, e.g. \"100 mm\")"),
+            ))
         }
     };
-    let riser_diameter = diameter("riser_diameter", p.and_then(|p| p.riser_diameter.as_ref()).map(|q| q.si), DEFAULT_RISER_DIAMETER)?;
-    let header_diameter = diameter("header_diameter", p.and_then(|p| p.header_diameter.as_ref()).map(|q| q.si), DEFAULT_HEADER_DIAMETER)?;
-    let hazen_williams_c = p.and_then(|p| p.hazen_williams_c).unwrap_or(DEFAULT_HAZEN_WILLIAMS_C);
+    let riser_diameter = diameter(
+        "riser_diameter",
+        p.and_then(|p| p.riser_diameter.as_ref()).map(|q| q.si),
+        DEFAULT_RISER_DIAMETER,
+    )?;
+    let header_diameter = diameter(
+        "header_diameter",
+        p.and_then(|p| p.header_diameter.as_ref()).map(|q| q.si),
+        DEFAULT_HEADER_DIAMETER,
+    )?;
+    let hazen_williams_c = p
+        .and_then(|p| p.hazen_williams_c)
+        .unwrap_or(DEFAULT_HAZEN_WILLIAMS_C);
     if !(60.0..=160.0).contains(&hazen_williams_c) {
         return Err(rep.error("pumps.hazen_williams_c", None, format!("{hazen_williams_c} is outside 60 … 160 (Hazen–Williams C: 130 for plastics and new steel, about 100 for old iron)")));
     }
     let hours_per_day = p.and_then(|p| p.hours_per_day).unwrap_or(24.0);
     if !(hours_per_day > 0.0 && hours_per_day <= 24.0) {
-        return Err(rep.error("pumps.hours_per_day", None, format!("{hours_per_day} is outside 0 … 24 hours a day")));
+        return Err(rep.error(
+            "pumps.hours_per_day",
+            None,
+            format!("{hours_per_day} is outside 0 … 24 hours a day"),
+        ));
     }
     let class_tolerance = p
         .and_then(|p| p.class_tolerance.as_ref())
         .map_or(DEFAULT_CLASS_TOLERANCE, |r| r.value);
     if !(0.0..1.0).contains(&class_tolerance) {
-        return Err(rep.error("pumps.class_tolerance", None, format!("{class_tolerance} is outside 0 … 1 (0.25 = rates within 25 % share a pump class)")));
+        return Err(rep.error(
+            "pumps.class_tolerance",
+            None,
+            format!(
+                "{class_tolerance} is outside 0 … 1 (0.25 = rates within 25 % share a pump class)"
+            ),
+        ));
     }
     let wellpoint_set_length = p
         .and_then(|p| p.wellpoint_set_length.as_ref())
         .map_or(DEFAULT_WELLPOINT_SET_LENGTH, |q| q.si);
     if !(5.0..=2000.0).contains(&wellpoint_set_length) {
-        return Err(rep.error("pumps.wellpoint_set_length", None, format!("{wellpoint_set_length} m is outside 5 … 2000 m of header per pump set")));
+        return Err(rep.error(
+            "pumps.wellpoint_set_length",
+            None,
+            format!("{wellpoint_set_length} m is outside 5 … 2000 m of header per pump set"),
+        ));
     }
     Ok(DesignSettings {
         operating_margin,
