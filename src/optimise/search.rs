@@ -643,6 +643,7 @@ fn not_met(
         }
     }
     let worst = e.worst_point.map(|i| &e.points[i]);
+    notes.push(allowance_note(model, &best.placement.wells));
     notes.push(format!(
         "the best layout tried has {} wells; shown with {}",
         n,
@@ -673,4 +674,27 @@ fn not_met(
         notes,
         ..empty
     })
+}
+
+/// Why a layout that is not met may still be close: the design's allowances in words, and
+/// whether the same wells meet every target without them (then the layout has no reserve).
+fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String {
+    let d = &model.design;
+    let mut bare = model.clone();
+    bare.design.operating_margin = 0.0;
+    bare.design.capacity_fraction = 1.0;
+    bare.design.one_well_out = false;
+    let points = check_points(&bare);
+    let plain = LayoutRates::new(&bare, &points, wells.to_vec()).individual();
+    format!(
+        "the design keeps {:.2} m below every target with every well running, uses at most {:.0} % of each well's capacity{} (allowances.operating_margin, capacity_fraction, one_well_out); {}",
+        d.operating_margin,
+        d.capacity_fraction * 100.0,
+        if d.one_well_out { " and plans for any one well out" } else { "" },
+        if plain.met {
+            "without these allowances the same wells meet every target, with no reserve: add wells, or relax an allowance if the engineer accepts less reserve"
+        } else {
+            "the same wells do not meet every target even without them"
+        }
+    )
 }
