@@ -423,7 +423,8 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         trial_extra.push(r.trial.clone());
     }
     if !tried_words.is_empty() {
-        tried_words.dedup();
+        let mut seen = std::collections::HashSet::new();
+        tried_words.retain(|w| seen.insert(w.clone()));
         notes.push(format!(
             "below the count found with the design file's placement, also tried: {}",
             tried_words.join("; ")
