@@ -92,6 +92,8 @@ const CASES: &[Case] = &[
     case("unknown_influence_method.toml", Slot("influence.method"), "valid: \"sichardt\"", None),
     // Allowances, wells, layout.
     case("contingency_out_of_range.toml", Slot("allowances.contingency"), "0.5 = 50 %", Some("contingency = ")),
+    case("capacity_fraction_out_of_range.toml", Slot("allowances.capacity_fraction"), "0.8 = 80 %", Some("capacity_fraction = ")),
+    case("relieve_without_uplift.toml", Slot("excavation[1].control"), "needs an [uplift] section", None),
     case("well_radius_too_big.toml", Slot("wells.radius"), "0.025 … 0.5 m", Some("radius = ")),
     case("screen_base_above_top.toml", Slot("wells.screen_base"), "below the screen top", Some("screen_base = ")),
     case("screen_top_above_ground.toml", Slot("wells.screen_top"), "at or below ground", Some("screen_top = ")),

@@ -10,7 +10,7 @@
 //! [`LayoutRates`]).
 
 use crate::optimise::limits::CAPACITY_SAFETY;
-use crate::optimise::lp::{self, Solver};
+use crate::optimise::lp;
 use crate::optimise::lp_problem::{Constraint, LpSolution, LpStatus, RateProblem, Sense};
 use crate::optimise::rates::LayoutRates;
 
@@ -101,12 +101,13 @@ impl LayoutRates<'_> {
     pub fn individual_with(&self, extra: &[WellRow]) -> Individual {
         let (sol, rows, rounds) = self.solve(Goal::MinFlow, extra);
         if matches!(sol.status, LpStatus::Failed(_)) && self.groups.len() >= 16 {
-            let coarser = LayoutRates::with_groups(
+            let mut coarser = LayoutRates::with_groups(
                 self.model,
                 self.points,
                 self.wells.clone(),
                 self.groups.len() / 2,
             );
+            coarser.solver = self.solver;
             return coarser.individual_with(extra);
         }
         if sol.status != LpStatus::Optimal {
@@ -344,7 +345,7 @@ impl LayoutRates<'_> {
             };
             // The simplex, and the interior point when the simplex fails numerically: a solver
             // fault must not count as a layout that cannot work.
-            let sol = lp::solve_with(&problem, Solver::SimplexThenInteriorPoint);
+            let sol = lp::solve_with(&problem, self.solver);
             if sol.status != LpStatus::Optimal || full {
                 return (sol, rows, rounds);
             }

@@ -6,6 +6,9 @@
 //! (one layout tried) → `precheck` (reasons nothing can work) and `search` (the fewest wells,
 //! `drydig design`) → `outcome` (how it ended, whether it is met) and `bid` (the quantities);
 //! `sweep` (a range of counts or spacings) and `recharge` (sizing recharge wells for neighbours).
+//! `one_out` (the rows for any one well out of service), `standby` (finishing a met design:
+//! idle wells dropped, the worst loss, standby wells placed) and `pumps` (pump classes, heads
+//! and power for the bid).
 
 pub mod bid;
 pub mod clarabel;

@@ -87,6 +87,9 @@ pub struct LayoutRates<'a> {
     pub(super) base_t: Vec<f64>,
     /// Φ₀ plus the effect of the recharge wells at each well.
     pub(super) base_w: Vec<f64>,
+    /// The solver of the linear programmes (the simplex, then the interior point when the
+    /// simplex fails numerically, unless set otherwise for a comparison).
+    pub solver: crate::optimise::lp::Solver,
 }
 
 /// Unit rows folded by rate group.
@@ -219,6 +222,7 @@ impl<'a> LayoutRates<'a> {
             phi0,
             base_t,
             base_w,
+            solver: crate::optimise::lp::Solver::SimplexThenInteriorPoint,
         }
     }
 

@@ -33,6 +33,10 @@ pub const MIN_SPACING_WELLPOINT: f64 = crate::input::model::DEFAULT_MIN_SPACING_
 /// Most wells the count search places, to bound the work.
 pub const MAX_WELLS: usize = 2000;
 
+/// What the search below a count found gives: the smallest index met, what was tried (in
+/// words) and the run of a placement found below (none: the cached run stands).
+type Fewer = (Option<usize>, Vec<String>, Option<TrialRun>);
+
 /// The layout family the search varies.
 enum Family {
     /// Ring by count, from `min` to `max` wells.
@@ -186,7 +190,7 @@ impl Search<'_, '_> {
         ok: fn(&Trial) -> bool,
         with_lp: bool,
         others: &mut Vec<TrialRun>,
-    ) -> Result<(Option<usize>, Vec<String>, Option<TrialRun>), InputError> {
+    ) -> Result<Fewer, InputError> {
         let Some(mut best) = found else {
             return Ok((None, Vec::new(), None));
         };
@@ -431,7 +435,8 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         trial_extra.push(r.trial.clone());
     }
     if !tried_words.is_empty() {
-        tried_words.dedup();
+        let mut seen = std::collections::HashSet::new();
+        tried_words.retain(|w| seen.insert(w.clone()));
         notes.push(format!(
             "below the count found with the design file's placement, also tried: {}",
             tried_words.join("; ")
@@ -651,6 +656,7 @@ fn not_met(
         }
     }
     let worst = e.worst_point.map(|i| &e.points[i]);
+    notes.push(allowance_note(model, &best.placement.wells));
     notes.push(format!(
         "the best layout tried has {} wells; shown with {}",
         n,
@@ -681,4 +687,27 @@ fn not_met(
         notes,
         ..empty
     })
+}
+
+/// Why a layout that is not met may still be close: the design's allowances in words, and
+/// whether the same wells meet every target without them (then the layout has no reserve).
+fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String {
+    let d = &model.design;
+    let mut bare = model.clone();
+    bare.design.operating_margin = 0.0;
+    bare.design.capacity_fraction = 1.0;
+    bare.design.one_well_out = false;
+    let points = check_points(&bare);
+    let plain = LayoutRates::new(&bare, &points, wells.to_vec()).individual();
+    format!(
+        "the design keeps {:.2} m below every target with every well running, uses at most {:.0} % of each well's capacity{} (allowances.operating_margin, capacity_fraction, one_well_out); {}",
+        d.operating_margin,
+        d.capacity_fraction * 100.0,
+        if d.one_well_out { " and plans for any one well out" } else { "" },
+        if plain.met {
+            "without these allowances the same wells meet every target, with no reserve: add wells, or relax an allowance if the engineer accepts less reserve"
+        } else {
+            "the same wells do not meet every target even without them"
+        }
+    )
 }

@@ -1,7 +1,6 @@
 //! `sweep`: the same layout tried over a range of well counts (ring) or spacings (trench line),
 //! each with both rate options, so an engineer sees the trade-off between wells and flow.
 
-use crate::field::checkpoints::check_points;
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
 use crate::optimise::trial::{try_layout, Trial};
@@ -180,7 +179,8 @@ pub fn plan(model: &Model, from: f64, to: f64, step: Option<f64>) -> Result<Plan
 
 /// Run every layout of the plan (in parallel), calling `progress` after each.
 pub fn run(model: &Model, plan: &Plan, progress: &(dyn Fn() + Sync)) -> Result<Sweep, InputError> {
-    let points = check_points(model);
+    // The targets as `design` works to them: less the operating margin.
+    let points = crate::optimise::search::design_points(model);
     let trials = plan
         .specs
         .par_iter()

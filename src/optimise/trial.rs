@@ -85,6 +85,17 @@ pub fn try_layout(
     ))
 }
 
+/// Both rate options of one layout as the design judges them (one well out when the design
+/// file asks for it): whether one rate in every well meets, and the individual rates. `rates`
+/// should be built on [`crate::optimise::search::design_points`].
+pub fn judge(model: &Model, rates: &LayoutRates) -> (bool, Individual) {
+    let mut uniform = rates.uniform();
+    if model.design.one_well_out && !rates.wells.is_empty() {
+        one_out_uniform(rates, &mut uniform, model.design.operating_margin);
+    }
+    (uniform.met, solve_individual(model, rates))
+}
+
 /// The individual rates of `rates` as the design asks: with one well out when the design file
 /// asks for it (the operating margin given back with the well out).
 pub(super) fn solve_individual(model: &Model, rates: &LayoutRates) -> Individual {

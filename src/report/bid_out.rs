@@ -190,12 +190,12 @@ pub fn lines(design: &Design, bid: &Bid) -> Vec<BidLine> {
     out
 }
 
+/// Cost lines (item, quantity, unit price, cost), their total, and the prices not used.
+pub type Costs = (Vec<(String, f64, f64, f64)>, f64, Vec<String>);
+
 /// Cost lines: every bid line that has a price (matched by item, case and spaces ignored),
 /// quantity × price, and the total. Prices without a bid line are listed as unused.
-pub fn costs(
-    lines: &[BidLine],
-    prices: &[Price],
-) -> (Vec<(String, f64, f64, f64)>, f64, Vec<String>) {
+pub fn costs(lines: &[BidLine], prices: &[Price]) -> Costs {
     let key = |s: &str| {
         s.split_whitespace()
             .collect::<Vec<_>>()

@@ -450,11 +450,12 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
             o.get("well").and_then(Value::as_str).unwrap_or("")
         ));
     }
-    match (&design.finish.one_out, d.one_well_out) {
-        (Some(o), on) => out.push_str(&wrap(
+    if let Some(o) = &design.finish.one_out {
+        let on = d.one_well_out;
+        out.push_str(&wrap(
             &format!(
                 "one well out          {}: losing {} hurts most — lowest margin without it {:.2} {lu} {} target at \"{}\"",
-                if on { "planned for" } else { "not planned for (allowances.one_well_out = false)" },
+                if on { "planned for" } else if model.wells.kind == crate::input::model::WellKind::Wellpoint { "not planned for (off by default for wellpoints: a line is lost with its pump set, not one point at a time; common practice (no source); allowances.one_well_out = true asks for it) — for information" } else { "not planned for (allowances.one_well_out = false) — for information" },
                 o.worst_well,
                 units.length(o.margin_without_m.abs()),
                 if o.margin_without_m >= -crate::check::evaluate::TARGET_TOLERANCE { "below" } else { "ABOVE" },
@@ -462,8 +463,7 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
             ),
             96,
             "",
-        )),
-        (None, _) => {}
+        ));
     }
     if !design.finish.standby.is_empty() {
         out.push_str(&format!(
