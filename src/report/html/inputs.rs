@@ -13,7 +13,10 @@ pub fn summary(cx: &Context) -> Part {
     let e = &run.evaluation;
     let f = &cx.f;
     let neighbours_ok = crate::safety::neighbours::all_pass(run);
-    let ok = e.targets_met && e.wells_ok && neighbours_ok;
+    let ok = match cx.design {
+        Some(d) => crate::optimise::outcome::is_met(d, Some(run)) && neighbours_ok,
+        None => e.targets_met && e.wells_ok && neighbours_ok,
+    };
     let mut body = String::new();
     let verdict = match cx.design {
         Some(d) => match &d.outcome {
@@ -47,6 +50,11 @@ pub fn summary(cx: &Context) -> Part {
             }
             format!("Not met: {}.", why.join(", "))
         }
+    };
+    let verdict = if cx.design.is_some() && !neighbours_ok {
+        format!("{verdict} A neighbour is over a limit (see Neighbours).")
+    } else {
+        verdict
     };
     body.push_str(&format!(
         "<p class=\"result{}\">{}</p>\n",
