@@ -118,7 +118,6 @@ pub fn inputs(cx: &Context) -> Part {
     let m = cx.run.model;
     let f = &cx.f;
     let aq = &m.aquifer;
-    let src = "design file";
     let mut rows: Vec<Vec<String>> = Vec::new();
     let mut add = |item: &str, value: String, source: &str| {
         rows.push(vec![esc(item), esc(&value), esc(source)]);
@@ -231,7 +230,6 @@ pub fn inputs(cx: &Context) -> Part {
     for n in &m.import_notes {
         add("drawing import", n.clone(), "outline read from a drawing");
     }
-    let _ = src;
     let mut body = table(&["item", "value", "source"], &rows);
     body.push_str(&format!(
         "<p class=\"note\">Levels are above {}; depths (bgl) are below the ground level given.</p>",
