@@ -160,7 +160,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 ),
                 (
                     "sweep.svg".to_string(),
-                    report::sweep_chart::render(&model.name, &sweep).into_bytes(),
+                    report::sweep_chart::render_in(&model.name, &sweep, units).into_bytes(),
                 ),
             ];
             let inputs = report::files::inputs_of(&model, None);

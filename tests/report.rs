@@ -316,3 +316,60 @@ rate = "3 L/s"
         .unwrap();
     assert!((l2 - lon).abs() < 1e-8 && (b2 - lat).abs() < 1e-8);
 }
+
+// The default map reaches the 0.5 m drawdown contour (common practice (no source): the edge of
+// the cone asked about for neighbours and services), or the radius of influence.
+#[test]
+fn default_map_reaches_half_a_metre_of_drawdown() {
+    let m = model::load(&demo("riverside_basement.toml")).unwrap();
+    let run = check::run(&m, None).unwrap();
+    let grid = drydig::field::grid::LevelGrid::for_run(&run.grid_source());
+    let dd = grid.drawdowns();
+    let mut edge_max: f64 = 0.0;
+    for j in 0..grid.ny {
+        for i in 0..grid.nx {
+            let border = i == 0 || j == 0 || i == grid.nx - 1 || j == grid.ny - 1;
+            if border && grid.on_aquifer_side(grid.node(i, j)) {
+                edge_max = edge_max.max(dd[j * grid.nx + i]);
+            }
+        }
+    }
+    assert!(edge_max < 0.6, "drawdown at the map edge {edge_max} m");
+}
+
+#[test]
+fn output_settings_are_used_and_checked() {
+    let base = std::fs::read_to_string(demo("riverside_basement.toml")).unwrap();
+    let text = base.replace(
+        "map = \"drawdown\"",
+        "map = \"drawdown\"\ncontour_interval = \"0.25 m\"\nmap_extent = \"40 m\"",
+    );
+    let m = model::from_str(Path::new("x.toml"), &text).unwrap();
+    assert_eq!(m.output.contour_interval, Some(0.25));
+    let run = check::run(&m, None).unwrap();
+    let grid = drydig::field::grid::LevelGrid::for_run(&run.grid_source());
+    let set = grid.contours(m.map_quantity);
+    assert_eq!(set.interval, 0.25);
+    // 40 m beyond the feature box (the basement, wells and neighbours span x −4 … 90 m).
+    let b = grid.bounds();
+    assert!(b[0] < -43.0 && b[0] > -60.0, "{b:?}");
+    for (bad, field) in [
+        ("section = [[0, 0]]", "output.section"),
+        ("section = [[0, 0], [0.5, 0]]", "output.section"),
+        ("contour_interval = \"-1 m\"", "output.contour_interval"),
+        ("map_extent = \"0 m\"", "output.map_extent"),
+    ] {
+        let t = base.replace("map = \"drawdown\"", &format!("map = \"drawdown\"\n{bad}"));
+        let e = model::from_str(Path::new("x.toml"), &t).unwrap_err();
+        assert_eq!(e.field, field, "{e}");
+    }
+    let t = base.replace(
+        "grid = \"local site grid\"",
+        "grid = \"local site grid\"\ncrs = \"EPSG:4326\"",
+    );
+    let e = model::from_str(Path::new("x.toml"), &t).unwrap_err();
+    assert!(
+        e.field == "site.crs" && e.message.contains("projected"),
+        "{e}"
+    );
+}

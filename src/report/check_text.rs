@@ -119,24 +119,26 @@ pub fn well_table(run: &CheckRun, units: UnitSystem) -> String {
     let ru = f.rate_unit();
     let mut out = String::new();
     out.push_str(&format!(
-        "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>11} {:>9}  {}\n",
+        "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
         "well",
         "x",
         "y",
         format!("rate {ru}"),
         &format!("level {lu}"),
+        &format!("depth {lu}"),
         &format!("lowest {lu}"),
         format!("cap {ru}"),
         "status"
     ));
     for (w, r) in run.placement.wells.iter().zip(&e.wells) {
         out.push_str(&format!(
-            "{:<10} {:>11.1} {:>11.1} {:>9} {:>11} {:>11.2} {:>9}  {}\n",
+            "{:<10} {:>11.1} {:>11.1} {:>9} {:>11} {:>9} {:>11.2} {:>9}  {}\n",
             w.name,
             w.position[0],
             w.position[1],
             f.rate_value(w.rate),
             r.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
+            r.level_m.map_or("—".into(), |z| f.depth_value(z)),
             l(r.lowest_allowed_level_m),
             f.rate_value(r.capacity_m3_per_s),
             if r.problems.is_empty() {

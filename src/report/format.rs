@@ -65,6 +65,11 @@ impl Fmt {
             format!("{} bgl", self.length(d.max(0.0)))
         }
     }
+    /// The depth below ground of level `z` as a bare number in the length unit (negative above
+    /// ground), for table columns headed "depth bgl".
+    pub fn depth_value(&self, z: f64) -> String {
+        self.length_value(self.ground - z)
+    }
     /// A flow total: "1 234 m³/day" (SI) or "226 gpm" (US).
     pub fn flow(&self, q: f64) -> String {
         match self.units {

@@ -138,14 +138,19 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     // Neighbours' foundations: a block from ground to the foundation level.
     for n in &s.neighbours {
         let zf = n.level.unwrap_or(ground - 1.0);
+        // The label runs away from the nearer end of the drawing so it stays on the page.
+        let (lx, anchor) = if (px(n.from) + px(n.to)) / 2.0 > W / 2.0 {
+            (px(n.to).min(W - RIGHT), "end")
+        } else {
+            (px(n.from).max(LEFT), "start")
+        };
         let _ = write!(
             o,
-            r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{:.1}" y="{:.1}" text-anchor="middle" font-size="11">{}</text>"##,
+            r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{lx:.1}" y="{:.1}" text-anchor="{anchor}" font-size="11">{}</text>"##,
             px(n.from),
             py(ground) - 24.0,
             (px(n.to) - px(n.from)).max(1.0),
             py(zf) - py(ground) + 24.0,
-            (px(n.from) + px(n.to)) / 2.0,
             py(zf) + 13.0,
             esc(&format!(
                 "{} — foundation {}",

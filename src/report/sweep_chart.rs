@@ -86,6 +86,12 @@ fn polyline(points: &[(f64, f64)], colour: &str, dash: Option<&str>) -> Option<P
 
 /// The chart as SVG text.
 pub fn render(title: &str, sweep: &Sweep) -> String {
+    render_in(title, sweep, crate::input::units::UnitSystem::Si)
+}
+
+/// The sweep chart in `units`: flows in m³/day (SI) or US gpm, margins and spacings in m or ft.
+pub fn render_in(title: &str, sweep: &Sweep, units: crate::input::units::UnitSystem) -> String {
+    let us = units == crate::input::units::UnitSystem::Us;
     let plot_w = WIDTH - LEFT - RIGHT;
     let (x_of, x_name): (Box<dyn Fn(usize) -> f64>, &str) = match sweep.axis {
         Axis::Count => (
@@ -93,8 +99,12 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
             "wells in the ring",
         ),
         Axis::Spacing => (
-            Box::new(|i| sweep.trials[i].spacing_m),
-            "spacing along the line, m",
+            Box::new(move |i| units.length(sweep.trials[i].spacing_m)),
+            if us {
+                "spacing along the line, ft"
+            } else {
+                "spacing along the line, m"
+            },
         ),
     };
     let n = sweep.trials.len();
@@ -111,7 +121,12 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
         x_lo -= 1.0;
         x_hi += 1.0;
     }
-    let day = 86_400.0;
+    // Flow scale: m³/s → m³/day, or → US gpm.
+    let day = if us {
+        crate::input::units::m3s_to_gpm(1.0)
+    } else {
+        86_400.0
+    };
     let flows: Vec<f64> = sweep
         .trials
         .iter()
@@ -120,7 +135,11 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
         .map(|q| q * day)
         .collect();
     let f_hi = flows.iter().fold(0.0f64, |a, b| a.max(*b)).max(1.0) * 1.08;
-    let margins: Vec<f64> = sweep.trials.iter().map(|t| t.lowest_margin_m).collect();
+    let margins: Vec<f64> = sweep
+        .trials
+        .iter()
+        .map(|t| units.length(t.lowest_margin_m))
+        .collect();
     let m_lo = margins.iter().fold(0.0f64, |a, b| a.min(*b));
     let m_hi = margins.iter().fold(0.0f64, |a, b| a.max(*b));
     let pad = ((m_hi - m_lo) * 0.08).max(0.05);
@@ -224,16 +243,40 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
             "middle",
             x_name,
         ))
-        .add(text(0.0, 0.0, 13.0, "middle", "total flow, m³/day").set(
-            "transform",
-            format!(
-                "translate({},{}) rotate(-90)",
-                r1(26.0),
-                r1(TOP + PLOT_HEIGHT / 2.0)
-            ),
-        ))
         .add(
-            text(0.0, 0.0, 13.0, "middle", "lowest margin below target, m").set(
+            text(
+                0.0,
+                0.0,
+                13.0,
+                "middle",
+                if us {
+                    "total flow, US gpm"
+                } else {
+                    "total flow, m³/day"
+                },
+            )
+            .set(
+                "transform",
+                format!(
+                    "translate({},{}) rotate(-90)",
+                    r1(26.0),
+                    r1(TOP + PLOT_HEIGHT / 2.0)
+                ),
+            ),
+        )
+        .add(
+            text(
+                0.0,
+                0.0,
+                13.0,
+                "middle",
+                if us {
+                    "lowest margin below target, ft"
+                } else {
+                    "lowest margin below target, m"
+                },
+            )
+            .set(
                 "transform",
                 format!(
                     "translate({},{}) rotate(90)",
@@ -274,7 +317,12 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
     let mut series = Group::new().set("id", "series");
     let margin_pts: Vec<(f64, f64)> = order
         .iter()
-        .map(|&i| (px(xs[i]), py_margin(sweep.trials[i].lowest_margin_m)))
+        .map(|&i| {
+            (
+                px(xs[i]),
+                py_margin(units.length(sweep.trials[i].lowest_margin_m)),
+            )
+        })
         .collect();
     if let Some(p) = polyline(&margin_pts, MARGIN, Some("6 4")) {
         series = series.add(p);
@@ -332,7 +380,7 @@ pub fn render(title: &str, sweep: &Sweep) -> String {
         series = series.add(
             Circle::new()
                 .set("cx", r1(x))
-                .set("cy", r1(py_margin(t.lowest_margin_m)))
+                .set("cy", r1(py_margin(units.length(t.lowest_margin_m))))
                 .set("r", 2.5)
                 .set("fill", MARGIN),
         );

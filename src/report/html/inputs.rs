@@ -13,7 +13,10 @@ pub fn summary(cx: &Context) -> Part {
     let e = &run.evaluation;
     let f = &cx.f;
     let neighbours_ok = crate::safety::neighbours::all_pass(run);
-    let ok = e.targets_met && e.wells_ok && neighbours_ok;
+    let ok = match cx.design {
+        Some(d) => crate::optimise::outcome::is_met(d, Some(run)) && neighbours_ok,
+        None => e.targets_met && e.wells_ok && neighbours_ok,
+    };
     let mut body = String::new();
     let verdict = match cx.design {
         Some(d) => match &d.outcome {
@@ -47,6 +50,11 @@ pub fn summary(cx: &Context) -> Part {
             }
             format!("Not met: {}.", why.join(", "))
         }
+    };
+    let verdict = if cx.design.is_some() && !neighbours_ok {
+        format!("{verdict} A neighbour is over a limit (see Neighbours).")
+    } else {
+        verdict
     };
     body.push_str(&format!(
         "<p class=\"result{}\">{}</p>\n",
@@ -110,7 +118,6 @@ pub fn inputs(cx: &Context) -> Part {
     let m = cx.run.model;
     let f = &cx.f;
     let aq = &m.aquifer;
-    let src = "design file";
     let mut rows: Vec<Vec<String>> = Vec::new();
     let mut add = |item: &str, value: String, source: &str| {
         rows.push(vec![esc(item), esc(&value), esc(source)]);
@@ -223,7 +230,6 @@ pub fn inputs(cx: &Context) -> Part {
     for n in &m.import_notes {
         add("drawing import", n.clone(), "outline read from a drawing");
     }
-    let _ = src;
     let mut body = table(&["item", "value", "source"], &rows);
     body.push_str(&format!(
         "<p class=\"note\">Levels are above {}; depths (bgl) are below the ground level given.</p>",

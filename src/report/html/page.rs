@@ -62,7 +62,7 @@ h3 { font-size: 11pt; margin: 4mm 0 1mm; }
 p { margin: 1.5mm 0; line-height: 1.35; }
 table { border-collapse: collapse; width: 100%; max-width: 100%; table-layout: fixed; margin: 2mm 0 3mm; font-size: 9pt; }
 th, td { border: 0.5pt solid var(--rule); padding: 1mm 1.5mm; text-align: left; vertical-align: top; overflow-wrap: anywhere; }
-th { background: var(--head); font-weight: bold; }
+th { background: var(--head); font-weight: bold; font-size: 8pt; overflow-wrap: normal; hyphens: auto; }
 td.n, th.n { text-align: right; font-variant-numeric: tabular-nums; }
 tr { break-inside: avoid; }
 thead { display: table-header-group; }

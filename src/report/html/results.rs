@@ -114,9 +114,11 @@ pub fn wells(cx: &Context) -> Part {
                 esc(&f.length_value(w.position[0])),
                 esc(&f.length_value(w.position[1])),
                 esc(&f.rate_value(w.rate_m3_per_s)),
-                esc(&w.level_m.map_or("dry".into(), |z| f.level(z))),
+                esc(&w.level_m.map_or("dry".into(), |z| f.length_value(z))),
+                esc(&w.level_m.map_or("—".into(), |z| f.depth_value(z))),
                 esc(&f.length_value(w.drawdown_m)),
-                esc(&f.level(w.lowest_allowed_level_m)),
+                esc(&f.length_value(w.lowest_allowed_level_m)),
+                esc(&f.depth_value(w.lowest_allowed_level_m)),
                 esc(&f.rate_value(w.capacity_m3_per_s)),
                 if w.problems.is_empty() {
                     "ok".into()
@@ -133,9 +135,11 @@ pub fn wells(cx: &Context) -> Part {
         format!("#x ({lu})"),
         format!("#y ({lu})"),
         format!("#rate ({ru})"),
-        "level in well (depth)".to_string(),
+        format!("#level in well ({lu})"),
+        format!("#depth bgl ({lu})"),
         format!("#drawdown ({lu})"),
-        "lowest allowed (depth)".to_string(),
+        format!("#lowest allowed ({lu})"),
+        format!("#its depth bgl ({lu})"),
         format!("#capacity ({ru})"),
         "status".to_string(),
     ];
@@ -188,8 +192,13 @@ pub fn checkpoints(cx: &Context) -> Part {
                 esc(&p
                     .point
                     .target_level
-                    .map_or("report only".into(), |z| f.level(z))),
-                esc(&p.level_m.map_or("dry".into(), |z| f.level(z))),
+                    .map_or("report only".into(), |z| f.length_value(z))),
+                esc(&p
+                    .point
+                    .target_level
+                    .map_or("—".into(), |z| f.depth_value(z))),
+                esc(&p.level_m.map_or("dry".into(), |z| f.length_value(z))),
+                esc(&p.level_m.map_or("—".into(), |z| f.depth_value(z))),
                 esc(&p.margin_m.map_or("—".into(), |m| f.length_value(m))),
                 match p.met {
                     Some(true) => "met".into(),
@@ -204,8 +213,10 @@ pub fn checkpoints(cx: &Context) -> Part {
         "check point".to_string(),
         format!("#x ({lu})"),
         format!("#y ({lu})"),
-        "target (depth)".to_string(),
-        "water level (depth)".to_string(),
+        format!("#target ({lu})"),
+        format!("#target depth bgl ({lu})"),
+        format!("#water level ({lu})"),
+        format!("#water depth bgl ({lu})"),
         format!("#margin ({lu})"),
         "result".to_string(),
     ];

@@ -26,14 +26,18 @@ pub(super) struct Detail {
 }
 
 /// A detail plan for long, crowded layouts (a line of wellpoints along a trench): when the
-/// whole plan is a thin strip and wells stand less than 8 px apart on it, the strip moves to
-/// the top and a larger-scale detail around the worst check point fills the space below.
+/// whole plan is a strip and wells stand less than 8 px apart on it, or the strip is under a
+/// third of the plan's height, the strip moves to the top as a key plan and a larger-scale
+/// detail around the worst check point fills the space below.
 pub(super) fn plan_detail(run: &CheckRun, gb: [f64; 4]) -> Option<(View, Detail)> {
     let full = View::fit(gb, PLAN);
     let strip_h = (gb[3] - gb[1]) * full.scale;
     let spacing = nearest_well_spacing(run);
     let gap_px = spacing * full.scale;
-    if strip_h > 0.5 * (PLAN[3] - PLAN[1]) || gap_px.is_nan() || gap_px >= 8.0 {
+    // A strip under a third of the page leaves most of it blank even when the wells stand
+    // apart: it becomes a key plan above an enlarged panel too.
+    let thin = strip_h < 0.33 * (PLAN[3] - PLAN[1]);
+    if strip_h > 0.5 * (PLAN[3] - PLAN[1]) || gap_px.is_nan() || (gap_px >= 8.0 && !thin) {
         return None;
     }
     let top_area = [PLAN[0], PLAN[1], PLAN[2], PLAN[1] + strip_h];

@@ -113,7 +113,11 @@ pub(super) fn title_block(
         ));
     }
     if let Some(w) = e.worst_point.and_then(|i| e.points.get(i)) {
-        if let Some(m) = w.margin_m.filter(|m| *m < 0.0) {
+        // Short by less than the tolerance counts as met: not reported as "0.00 above".
+        if let Some(m) = w
+            .margin_m
+            .filter(|m| *m < -crate::check::evaluate::TARGET_TOLERANCE)
+        {
             raw.push((
                 11.0,
                 format!(

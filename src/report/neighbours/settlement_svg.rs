@@ -21,6 +21,15 @@ use svg::Document;
 /// outlined in its status colour.
 pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
     let model = run.model;
+    let u = model.units;
+    let us = u == crate::input::units::UnitSystem::Us;
+    let lu = u.length_unit();
+    // Settlement in mm (SI) or inches (US): 1 in = 0.0254 m (NIST SP 811, App. B).
+    let (sc, su) = if us {
+        (1.0 / 0.0254, "in")
+    } else {
+        (1e3, "mm")
+    };
     let aq = run.field.aquifer();
     let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
     // Extent: neighbours and excavations, and wells.
@@ -92,7 +101,7 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
             .iter()
             .map(|lv| {
                 neighbours::settlement_at(model, n, h0, lv.or_base(aq.base_level)).unwrap_or(0.0)
-                    * 1e3
+                    * sc
             })
             .collect();
         max_rho = values.iter().copied().fold(max_rho, f64::max);
@@ -132,7 +141,7 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
         )
         .set("font-weight", "bold"),
     );
-    doc = doc.add(label(MARGIN, 45.0, 11.5, "Bands: settlement (mm) under each building from its own soil profile (1D consolidation). Grey dashed lines: drawdown (m)."));
+    doc = doc.add(label(MARGIN, 45.0, 11.5, &format!("Bands: settlement ({su}) under each building from its own soil profile (1D consolidation). Grey dashed lines: drawdown ({lu}).")));
     doc = doc.add(
         Rectangle::new()
             .set("x", MARGIN)
@@ -235,7 +244,11 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
                         x + 2.0,
                         y - 2.0,
                         9.0,
-                        &format!("{} m", fmt_value(line.threshold(), dstep)),
+                        &if us {
+                            format!("{:.1} {lu}", u.length(line.threshold()))
+                        } else {
+                            format!("{} m", fmt_value(line.threshold(), dstep))
+                        },
                     )
                     .set("fill", "#6f6f6f"),
                 );
@@ -319,7 +332,7 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
             .worst_settlement
             .as_ref()
             .and_then(|s| s.settlement_m)
-            .map_or("no profile".into(), |s| format!("max {:.1} mm", s * 1e3));
+            .map_or("no profile".into(), |s| format!("max {:.1} {su}", s * sc));
         let words = format!("{} — {} — {}", r.name, rho, r.status.word());
         // Keep the label inside the plot (about 0.6 em a character).
         let width = words.chars().count() as f64 * 11.0 * 0.6;
@@ -366,18 +379,18 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
     }
 
     // Scale bar and north arrow.
-    let bar = nice_step((xmax - xmin) / 6.0, 1);
+    let bar = nice_step(u.length(xmax - xmin) / 6.0, 1);
     let (bx, by) = (MARGIN + 12.0, TITLE_H + 22.0);
     doc = doc.add(
         Line::new()
             .set("x1", bx)
             .set("y1", by)
-            .set("x2", format!("{:.1}", bx + bar * scale))
+            .set("x2", format!("{:.1}", bx + bar / u.length(1.0) * scale))
             .set("y2", by)
             .set("stroke", "#222")
             .set("stroke-width", 2.0),
     );
-    doc = doc.add(label(bx, by - 4.0, 10.0, &format!("{bar:.0} m")));
+    doc = doc.add(label(bx, by - 4.0, 10.0, &format!("{bar:.0} {lu}")));
     let (nx0, ny0) = (MARGIN + PLOT_W - 22.0, TITLE_H + 16.0);
     doc = doc.add(
         SvgPath::new()
@@ -389,7 +402,8 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
     // Legend panel.
     let lx = MARGIN * 1.5 + PLOT_W;
     let mut ly = TITLE_H + 6.0;
-    doc = doc.add(label(lx, ly + 8.0, 12.0, "settlement, mm").set("font-weight", "bold"));
+    doc =
+        doc.add(label(lx, ly + 8.0, 12.0, &format!("settlement, {su}")).set("font-weight", "bold"));
     ly += 18.0;
     for k in (0..n_bands).rev() {
         let mid = (k as f64 + 0.5) * step;
@@ -473,15 +487,15 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
     for r in results {
         let line = match (&r.worst_settlement, r.max_distortion) {
             (Some(s), Some(b)) => format!(
-                "{}: {:.1} mm, β {}",
+                "{}: {:.1} {su}, β {}",
                 truncate(&r.name, 18),
-                s.settlement_m.unwrap_or(0.0) * 1e3,
+                s.settlement_m.unwrap_or(0.0) * sc,
                 ratio_text(b)
             ),
             _ => format!(
-                "{}: {:.2} m drawdown",
+                "{}: {:.2} {lu} drawdown",
                 truncate(&r.name, 18),
-                r.worst_drawdown.drawdown_m
+                u.length(r.worst_drawdown.drawdown_m)
             ),
         };
         doc = doc.add(label(lx, ly, 10.0, &line).set("fill", status_colour(r.status)));

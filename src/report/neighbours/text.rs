@@ -20,8 +20,20 @@ pub(super) fn ratio_text(beta: f64) -> String {
     }
 }
 
-fn mm(x: f64) -> String {
-    format!("{:.1} mm", x * 1e3)
+/// A settlement in mm (SI) or inches (US; 1 in = 0.0254 m, NIST SP 811 App. B): value, unit.
+fn small(x: f64, units: UnitSystem) -> (f64, &'static str) {
+    match units {
+        UnitSystem::Si => (x * 1e3, "mm"),
+        UnitSystem::Us => (x / 0.0254, "in"),
+    }
+}
+
+fn mm(x: f64, units: UnitSystem) -> String {
+    let (v, u) = small(x, units);
+    match units {
+        UnitSystem::Si => format!("{v:.1} {u}"),
+        UnitSystem::Us => format!("{v:.2} {u}"),
+    }
 }
 
 /// The checks of a neighbour in one line: "drawdown 1.62/1.50 m FAIL; …".
@@ -36,7 +48,7 @@ fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
                     units.length(c.limit),
                     units.length_unit()
                 ),
-                "settlement" => format!("{} of {}", mm(c.value), mm(c.limit)),
+                "settlement" => format!("{} of {}", mm(c.value, units), mm(c.limit, units)),
                 _ => format!("{} of {}", ratio_text(c.value), ratio_text(c.limit)),
             };
             let basis = if c.basis == "design file" {
@@ -78,10 +90,11 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
             let lim_dd = find("drawdown").map_or("—".into(), |c| format!("{:.2}", l(c.limit)));
             let (rho, lim_rho) = match (&r.worst_settlement, find("settlement")) {
                 (Some(s), Some(c)) => (
-                    format!("{:.1} mm", s.settlement_m.unwrap_or(0.0) * 1e3),
+                    mm(s.settlement_m.unwrap_or(0.0), units),
                     format!(
-                        "{:.1}{}",
-                        c.limit * 1e3,
+                        "{:.*}{}",
+                        if units == UnitSystem::Us { 2 } else { 1 },
+                        small(c.limit, units).0,
                         if c.basis == "design file" { "" } else { "*" }
                     ),
                 ),
@@ -148,8 +161,8 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
                     c.position[1],
                     l(c.drawdown_m),
                     c.settlement_m.map_or(String::new(), |s| format!(
-                        "  settlement {:>6.1} mm",
-                        s * 1e3
+                        "  settlement {:>9}",
+                        mm(s, units)
                     ))
                 ));
             }
@@ -160,16 +173,16 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
                 w.position[1],
                 l(w.drawdown_m),
                 w.settlement_m
-                    .map_or(String::new(), |s| format!("  settlement {:>6.1} mm", s * 1e3)),
+                    .map_or(String::new(), |s| format!("  settlement {:>9}", mm(s, units))),
                 w.name,
                 r.sample_count
             ));
             for s in &r.sides {
                 out.push_str(&format!(
-                    "    side {:<11} L {:>6.1} {lu}  Δρ {:>5.1} mm  β {}\n",
+                    "    side {:<11} L {:>6.1} {lu}  Δρ {:>8}  β {}\n",
                     s.name,
                     l(s.length_m),
-                    s.differential_m * 1e3,
+                    mm(s.differential_m, units),
                     ratio_text(s.distortion)
                 ));
             }
