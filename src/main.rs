@@ -89,10 +89,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let model = model::load(&file)?;
             if let Some(day) = by_day {
                 let d = drydig::transient::by_date::design_by_day(&model, day)?;
-                let files = vec![(
-                    "by_day.csv".to_string(),
-                    report::by_day_text::to_csv(&d),
-                )];
+                let files = vec![("by_day.csv".to_string(), report::by_day_text::to_csv(&d))];
                 report::files::write_all(&out, &files)?;
                 print(&report::by_day_text::to_text(&model, &d))?;
                 print(&format!("outputs written to {}\n", out.display()))?;
@@ -214,7 +211,10 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 })
                 .transpose()?;
             let fits = report::pumping_test_text::fits(&data, recovery);
-            report::files::write_all(&out, &report::pumping_test_text::files(&data, &fits, prefer))?;
+            report::files::write_all(
+                &out,
+                &report::pumping_test_text::files(&data, &fits, prefer),
+            )?;
             print(&report::pumping_test_text::to_text(&data, &fits, prefer))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             Ok(if fits.iter().any(|(_, f)| f.is_ok()) {
@@ -267,11 +267,14 @@ fn pumping_test_data(
     };
     let rate = parse::<FlowKind>(rate).map_err(|e| bad_arg("--rate", e))?;
     if !(rate > 0.0) {
-        return Err(bad_arg("--rate", "the pumping rate must be greater than 0".into()));
+        return Err(bad_arg(
+            "--rate",
+            "the pumping rate must be greater than 0".into(),
+        ));
     }
-    let name = file
-        .file_stem()
-        .map_or("observation".to_string(), |s| s.to_string_lossy().into_owned());
+    let name = file.file_stem().map_or("observation".to_string(), |s| {
+        s.to_string_lossy().into_owned()
+    });
     let series = drydig::test_analysis::csv_input::read_observations(&text, &name).map_err(err)?;
     let mut named = Vec::new();
     let mut plain = None;

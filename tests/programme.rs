@@ -77,8 +77,14 @@ fn staged_programme_days_to_dig_match_a_hand_theis_computation() {
     assert_eq!(a.stages.len(), 2);
     let t1 = a.stages[0].earliest.unwrap();
     let t2 = a.stages[1].earliest.unwrap();
-    assert!((t1 - reference("stage1_time_s")).abs() < 2.0, "stage 1 {t1}");
-    assert!((t2 - reference("stage2_time_s")).abs() < 2.0, "stage 2 {t2}");
+    assert!(
+        (t1 - reference("stage1_time_s")).abs() < 2.0,
+        "stage 1 {t1}"
+    );
+    assert!(
+        (t2 - reference("stage2_time_s")).abs() < 2.0,
+        "stage 2 {t2}"
+    );
     assert!(a.stages[0].critical_point.contains("corner"));
     // every check point's final target (3.0 m) is met by stage 2's time, the corners last
     let last = a
@@ -101,7 +107,11 @@ fn volumes_are_the_integral_of_the_flow() {
     assert!((a.total_volume - 4406.4).abs() < 1e-6);
     let last = *a.volumes.last().unwrap();
     assert!((last - 4406.4).abs() < 1e-6, "volume after recovery {last}");
-    let k = a.times.iter().position(|t| (*t - 1.5 * DAY).abs() < 1.0).unwrap();
+    let k = a
+        .times
+        .iter()
+        .position(|t| (*t - 1.5 * DAY).abs() < 1.0)
+        .unwrap();
     assert!((a.volumes[k] - 0.003 * 1.5 * DAY).abs() < 1e-6);
     assert!((a.flows[k] - 0.003).abs() < 1e-15);
     // after switch-off the flow is 0 and the levels recover (Theis recovery: the residual
@@ -115,9 +125,21 @@ fn volumes_are_the_integral_of_the_flow() {
 fn bad_programme_names_the_field() {
     let (path, text) = staged_pit();
     let cases = [
-        ("start = \"3 days\"", "start = \"12 days\"", "programme.stage[2].start"),
-        ("rate = \"6 L/s\"", "rate = \"6 m\"", "programme.stage[2].rate"),
-        ("duration = \"10 days\"", "duration = \"-1 days\"", "programme.duration"),
+        (
+            "start = \"3 days\"",
+            "start = \"12 days\"",
+            "programme.stage[2].start",
+        ),
+        (
+            "rate = \"6 L/s\"",
+            "rate = \"6 m\"",
+            "programme.stage[2].rate",
+        ),
+        (
+            "duration = \"10 days\"",
+            "duration = \"-1 days\"",
+            "programme.duration",
+        ),
         ("storativity = 1e-3\n", "\n", "aquifer.storativity"),
         (
             "formation_level = \"4.5 m\"",
@@ -165,13 +187,23 @@ fn programme_command_on_the_demo() {
         dir.path().to_str().unwrap(),
     ]);
     assert!(code == 0 || code == 3, "exit {code}: {err}");
-    for want in ["can dig from day", "TIME TO FLOOD", "volume pumped in total", "CAUTION"] {
+    for want in [
+        "can dig from day",
+        "TIME TO FLOOD",
+        "volume pumped in total",
+        "CAUTION",
+    ] {
         assert!(out.contains(want), "{want} missing from:\n{out}");
     }
     let csv = read(dir.path(), "programme.csv");
     assert!(csv.starts_with("time_s,day,stage,total_flow_l_per_s,volume_m3"));
     assert!(csv.contains("Piezometer BH3"));
-    for f in ["hydrographs.svg", "wells.svg", "flow.svg", "map_day_7.0.svg"] {
+    for f in [
+        "hydrographs.svg",
+        "wells.svg",
+        "flow.svg",
+        "map_day_7.0.svg",
+    ] {
         let svg = read(dir.path(), f);
         assert!(svg.starts_with("<svg"), "{f}");
         assert!(!svg.contains("NaN") && !svg.contains("inf"), "{f}");
@@ -194,7 +226,10 @@ fn programme_command_on_the_test_case_prints_the_hand_days() {
     let d1 = format!("{:.1}", reference("stage1_time_s") / DAY);
     let d2 = format!("{:.1}", reference("stage2_time_s") / DAY);
     assert!(out.contains(&d1) && out.contains(&d2), "{out}");
-    assert!(out.contains("778") && out.contains("3\u{2009}629"), "volumes by hand: {out}");
+    assert!(
+        out.contains("778") && out.contains("3\u{2009}629"),
+        "volumes by hand: {out}"
+    );
 }
 
 #[test]

@@ -52,7 +52,11 @@ pub fn to_text(model: &Model, d: &DatedDesign) -> String {
         }
         s.push_str(&format!(
             "\n  RESULT: {} by day {}\n",
-            if d.met { "met" } else { "NOT met on re-evaluation" },
+            if d.met {
+                "met"
+            } else {
+                "NOT met on re-evaluation"
+            },
             d.day
         ));
     }

@@ -146,12 +146,10 @@ fn chart(
         "middle",
         "days from the start of pumping",
     ));
-    doc = doc.add(
-        text(18.0, TOP + PLOT_H / 2.0, 12.0, "middle", y_label).set(
-            "transform",
-            format!("rotate(-90 18 {})", r1(TOP + PLOT_H / 2.0)),
-        ),
-    );
+    doc = doc.add(text(18.0, TOP + PLOT_H / 2.0, 12.0, "middle", y_label).set(
+        "transform",
+        format!("rotate(-90 18 {})", r1(TOP + PLOT_H / 2.0)),
+    ));
     for (d, name) in marks {
         doc = doc
             .add(
@@ -315,7 +313,10 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
     let flow_ls: Vec<f64> = a.flows.iter().map(|q| q * 1e3).collect();
     let vol_k: Vec<f64> = a.volumes.iter().map(|v| v / 1e3).collect();
     let flow = chart(
-        &format!("{} — flow (L/s) and volume pumped (thousand m³)", model.name),
+        &format!(
+            "{} — flow (L/s) and volume pumped (thousand m³)",
+            model.name
+        ),
         "L/s   |   thousand m³",
         &days,
         &[

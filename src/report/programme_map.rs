@@ -48,7 +48,10 @@ pub fn map_svg(model: &Model, map: &DrawdownMap, wells: &[[f64; 2]]) -> String {
         .fold(0.0_f64, f64::max)
         .max(1e-6);
     let mut doc = Document::new()
-        .set("viewBox", (0, 0, SIZE + 2.0 * PAD + LEGEND, SIZE + 2.0 * PAD + 60.0))
+        .set(
+            "viewBox",
+            (0, 0, SIZE + 2.0 * PAD + LEGEND, SIZE + 2.0 * PAD + 60.0),
+        )
         .add(
             Rectangle::new()
                 .set("width", SIZE + 2.0 * PAD + LEGEND)
@@ -59,11 +62,7 @@ pub fn map_svg(model: &Model, map: &DrawdownMap, wells: &[[f64; 2]]) -> String {
             PAD,
             30.0,
             15.0,
-            format!(
-                "{} — drawdown on day {:.1} (m)",
-                model.name,
-                map.time / DAY
-            ),
+            format!("{} — drawdown on day {:.1} (m)", model.name, map.time / DAY),
         ));
     let cell = map.step * scale;
     for j in 0..map.ny {

@@ -63,7 +63,11 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             if st.ready() {
                 "ready".to_string()
             } else if let Some(t) = st.earliest {
-                format!("waits {} days for the water (last point: {})", days(t - st.planned_start), st.critical_point)
+                format!(
+                    "waits {} days for the water (last point: {})",
+                    days(t - st.planned_start),
+                    st.critical_point
+                )
             } else {
                 format!("NOT REACHED (furthest: {})", st.critical_point)
             }
@@ -100,9 +104,10 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             ));
             s.push_str(&format!(
                 "    every pump off:      {}\n",
-                f.all_off.map_or("water stays below formation for a year".into(), |t| {
-                    format!("water above formation after {}", duration_words(t))
-                })
+                f.all_off
+                    .map_or("water stays below formation for a year".into(), |t| {
+                        format!("water above formation after {}", duration_words(t))
+                    })
             ));
             s.push_str(&format!(
                 "    well {} off alone: {}\n",

@@ -3,21 +3,20 @@
 
 use super::{wrap, CAUTION};
 use crate::test_analysis::{
-    Method,
     aquifer_lines, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown, fit_hantush,
-    fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, PumpingTestData,
+    fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
 };
 
 /// The fits that apply to `data`: recovery only when `recovery_after` (s of pumping) is given;
 /// otherwise Theis, Cooper–Jacob, Hantush, unconfined Theis (with a thickness) and
 /// distance–drawdown (two or more wells). Each entry is the method's name and its fit or the
 /// reason it could not be made.
-pub fn fits(data: &PumpingTestData, recovery_after: Option<f64>) -> Vec<(String, Result<Fit, String>)> {
+pub fn fits(
+    data: &PumpingTestData,
+    recovery_after: Option<f64>,
+) -> Vec<(String, Result<Fit, String>)> {
     if let Some(tp) = recovery_after {
-        return vec![(
-            "Theis recovery".into(),
-            fit_theis_recovery(data, tp, 0.0),
-        )];
+        return vec![("Theis recovery".into(), fit_theis_recovery(data, tp, 0.0))];
     }
     let mut out = vec![
         ("Theis".to_string(), fit_theis(data)),

@@ -280,9 +280,7 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
             PointTime {
                 name: p.name.clone(),
                 target_level: target,
-                time: first_crossing(&times, &met, |t| {
-                    tm.drawdown_at(p.position, t) >= need
-                }),
+                time: first_crossing(&times, &met, |t| tm.drawdown_at(p.position, t) >= need),
             }
         })
         .collect();
@@ -441,11 +439,7 @@ fn flood(
         .par_iter()
         .map(|&(j, k, i, margin)| {
             let t = times[j];
-            let sch: Vec<_> = setup
-                .schedules
-                .iter()
-                .map(|s| switched_off(s, t))
-                .collect();
+            let sch: Vec<_> = setup.schedules.iter().map(|s| switched_off(s, t)).collect();
             let ttf = setup.with_schedules(sch).ok().and_then(|m| {
                 time_until_below(
                     &m,
@@ -458,12 +452,10 @@ fn flood(
             (j, k, i, margin, ttf)
         })
         .collect();
-    let &(j, k, i, margin, all_off) = results
-        .iter()
-        .min_by(|a, b| {
-            a.4.unwrap_or(f64::INFINITY)
-                .total_cmp(&b.4.unwrap_or(f64::INFINITY))
-        })?;
+    let &(j, k, i, margin, all_off) = results.iter().min_by(|a, b| {
+        a.4.unwrap_or(f64::INFINITY)
+            .total_cmp(&b.4.unwrap_or(f64::INFINITY))
+    })?;
     let t = times[j];
     let p = points[i].position;
     // The most important well: the most drawdown at p at t from its own sources.

@@ -94,7 +94,10 @@ fn rates_at(model: &Model, aq: &TransientAquifer, wells: &[Well], t: f64) -> Opt
     let pts = check_points(model);
     let targets: Vec<(&str, [f64; 2], f64)> = pts
         .iter()
-        .filter_map(|p| p.target_level.map(|z| (p.name.as_str(), p.position, h0 - z)))
+        .filter_map(|p| {
+            p.target_level
+                .map(|z| (p.name.as_str(), p.position, h0 - z))
+        })
         .filter(|p| p.2 > 0.0)
         .collect();
     let positions: Vec<[f64; 2]> = targets.iter().map(|p| p.1).collect();

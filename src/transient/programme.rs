@@ -18,9 +18,9 @@
 
 use crate::field::layout;
 use crate::field::wells::Well;
+use crate::geometry::mirror_point;
 use crate::input::error::InputError;
 use crate::input::model::{Model, Programme, StageRate};
-use crate::geometry::mirror_point;
 use crate::physics::images::{image_set, image_sign};
 use crate::physics::potential::AquiferKind;
 use crate::transient::{RateSchedule, TransientAquifer, TransientModel, TransientSource};
@@ -168,10 +168,7 @@ pub fn setup(model: &Model) -> Result<ProgrammeSetup, InputError> {
     if wells.is_empty() {
         return Err(err(model, "layout", "the layout places no wells".into()));
     }
-    let as_designed = prog
-        .stages
-        .iter()
-        .any(|s| s.rate == StageRate::AsDesigned);
+    let as_designed = prog.stages.iter().any(|s| s.rate == StageRate::AsDesigned);
     if as_designed && wells.iter().all(|w| w.rate == 0.0) {
         return Err(err(
             model,

@@ -30,7 +30,20 @@ pub fn days_from_date(text: &str) -> Option<i64> {
     let m: i64 = parts[1].parse().ok()?;
     let d: i64 = parts[2].parse().ok()?;
     let leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
-    let days_in = [31, if leap { 29 } else { 28 }, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+    let days_in = [
+        31,
+        if leap { 29 } else { 28 },
+        31,
+        30,
+        31,
+        30,
+        31,
+        31,
+        30,
+        31,
+        30,
+        31,
+    ];
     if !(1..=12).contains(&m) || d < 1 || d > days_in[(m - 1) as usize] {
         return None;
     }
@@ -155,41 +168,40 @@ pub fn programme(
         if s.name.trim().is_empty() {
             return Err(rep.error(format!("{f}.name"), None, "must not be empty"));
         }
-        let start = match (&s.start, &s.date) {
-            (Some(q), None) => duration(rep, &format!("{f}.start"), q, true)?,
-            (None, Some(d)) => {
-                let day = days_from_date(d).ok_or_else(|| {
-                    rep.error(
-                        format!("{f}.date"),
-                        None,
-                        format!("\"{d}\" is not a date written YYYY-MM-DD"),
-                    )
-                })?;
-                let Some(d0) = start_day else {
-                    return Err(rep.error(
-                        format!("{f}.date"),
-                        None,
-                        "a stage given by date needs programme.start_date (day 0)",
-                    ));
-                };
-                if day < d0 {
-                    return Err(rep.error(
-                        format!("{f}.date"),
-                        None,
-                        format!("{d} is before programme.start_date"),
-                    ));
+        let start =
+            match (&s.start, &s.date) {
+                (Some(q), None) => duration(rep, &format!("{f}.start"), q, true)?,
+                (None, Some(d)) => {
+                    let day = days_from_date(d).ok_or_else(|| {
+                        rep.error(
+                            format!("{f}.date"),
+                            None,
+                            format!("\"{d}\" is not a date written YYYY-MM-DD"),
+                        )
+                    })?;
+                    let Some(d0) = start_day else {
+                        return Err(rep.error(
+                            format!("{f}.date"),
+                            None,
+                            "a stage given by date needs programme.start_date (day 0)",
+                        ));
+                    };
+                    if day < d0 {
+                        return Err(rep.error(
+                            format!("{f}.date"),
+                            None,
+                            format!("{d} is before programme.start_date"),
+                        ));
+                    }
+                    (day - d0) as f64 * DAY
                 }
-                (day - d0) as f64 * DAY
-            }
-            (None, None) if i == 0 => 0.0,
-            _ => {
-                return Err(rep.error(
+                (None, None) if i == 0 => 0.0,
+                _ => return Err(rep.error(
                     format!("{f}.start"),
                     None,
                     "give either start (\"21 days\") or date (\"2027-03-22\"), not both or neither",
-                ))
-            }
-        };
+                )),
+            };
         if let Some(prev) = stages.last() {
             if start <= prev.start {
                 return Err(rep.error(
