@@ -35,8 +35,9 @@
 pub mod answers;
 pub mod by_date;
 pub mod programme;
+pub mod well_function;
 
-use crate::physics::special::{exp1, hantush_w};
+use crate::physics::special::hantush_w;
 use rayon::prelude::*;
 use std::f64::consts::PI;
 
@@ -239,7 +240,7 @@ impl TransientAquifer {
         let w = if inv_b > 0.0 {
             hantush_w(u, r2.sqrt() * inv_b)
         } else {
-            exp1(u)
+            well_function::theis_w(u)
         };
         if w.is_finite() {
             w / (4.0 * PI * t)
