@@ -127,7 +127,11 @@ fn write_npy(path: &Path, values: &[f64], ny: usize, nx: usize) -> std::io::Resu
 fn main() {
     let args: Vec<String> = std::env::args().collect();
     if args.len() < 3 {
-        fail("usage: bench_kernel basement|trench DIR [GRID]".into());
+        fail("usage: bench_kernel basement|trench|transient|programme DIR [GRID]".into());
+    }
+    if args[1] == "transient" || args[1] == "programme" {
+        transient_case(&args);
+        return;
     }
     let (case, text) = match args[1].as_str() {
         "basement" => ("basement", BASEMENT),
@@ -216,6 +220,146 @@ fn main() {
             "case": case,
             "wells": wells.len(),
             "points": points.len(),
+            "threads": rayon::current_num_threads(),
+            "kernel_seconds": best,
+        })
+    );
+}
+
+/// The transient cases: the 60-well basement on a GRID × GRID map at 10 output times, by Theis
+/// superposition in time with Jacob's correction (unconfined). `transient`: every well at its
+/// own constant rate from day 0, times 1 … 10 days. `programme`: three stages — every other
+/// well from day 0, every well from day 4, every well at 1.3× from day 9 — times 1, 3 … 19 days.
+/// Writes `transient.json` (aquifer, grid, times), `schedules.csv` (well, x, y, t_k s, ΔQ_k m³/s
+/// for each rate change) and `drawdowns.npy` (times × GRID × GRID), and prints the kernel time.
+fn transient_case(args: &[String]) {
+    use drydig::transient::programme::transient_aquifer;
+    use drydig::transient::{RateSchedule, TransientModel, TransientSource};
+    let case = args[1].as_str();
+    let dir = PathBuf::from(&args[2]);
+    let n: usize = args.get(3).and_then(|s| s.parse().ok()).unwrap_or(500);
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| fail(e.to_string()));
+    let model =
+        from_str(&dir.join("design.toml"), BASEMENT).unwrap_or_else(|e| fail(e.to_string()));
+    let spec = model
+        .layout
+        .clone()
+        .unwrap_or_else(|| fail("no layout".into()));
+    let wells = generate(&model, &spec, 0.0)
+        .unwrap_or_else(|e| fail(e.to_string()))
+        .wells;
+    let base_rate = spec.rate.unwrap_or(1e-3);
+    let day = 86_400.0;
+    let (times, schedules): (Vec<f64>, Vec<RateSchedule>) = if case == "transient" {
+        (
+            (1..=10).map(|k| k as f64 * day).collect(),
+            (0..wells.len())
+                .map(|k| {
+                    let q = base_rate * (1.0 + 0.3 * (k as f64 * 0.7).sin());
+                    RateSchedule::constant(0.0, q).expect("finite")
+                })
+                .collect(),
+        )
+    } else {
+        (
+            (0..10).map(|k| (1 + 2 * k) as f64 * day).collect(),
+            (0..wells.len())
+                .map(|k| {
+                    let q = base_rate * (1.0 + 0.3 * (k as f64 * 0.7).sin());
+                    let first = if k % 2 == 0 { q } else { 0.0 };
+                    RateSchedule::new(vec![(0.0, first), (4.0 * day, q), (9.0 * day, 1.3 * q)])
+                        .expect("valid steps")
+                })
+                .collect(),
+        )
+    };
+    let aquifer = transient_aquifer(&model).unwrap_or_else(|e| fail(e.to_string()));
+    let sources: Vec<TransientSource> = wells
+        .iter()
+        .zip(&schedules)
+        .map(|(w, s)| TransientSource {
+            x: w.position[0],
+            y: w.position[1],
+            schedule: s.clone(),
+            sign: 1.0,
+        })
+        .collect();
+    let radius = model.wells.radius;
+    let (mut x0, mut y0, mut x1, mut y1) = (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
+    for w in &wells {
+        x0 = x0.min(w.position[0]);
+        y0 = y0.min(w.position[1]);
+        x1 = x1.max(w.position[0]);
+        y1 = y1.max(w.position[1]);
+    }
+    let margin = 40.0;
+    let (x0, y0, x1, y1) = (x0 - margin, y0 - margin, x1 + margin, y1 + margin);
+    let (dx, dy) = ((x1 - x0) / (n - 1) as f64, (y1 - y0) / (n - 1) as f64);
+    let points: Vec<[f64; 2]> = (0..n * n)
+        .map(|i| [x0 + (i % n) as f64 * dx, y0 + (i / n) as f64 * dy])
+        .collect();
+    let mut best = f64::INFINITY;
+    let mut d = Vec::new();
+    for _ in 0..3 {
+        let t = Instant::now();
+        let m = TransientModel::new(aquifer, radius, sources.clone()).unwrap_or_else(|e| fail(e));
+        d = m.drawdowns(&points, &times);
+        best = best.min(t.elapsed().as_secs_f64());
+    }
+    let nt = times.len();
+    let mut values = vec![0.0; nt * n * n];
+    for (i, row) in d.iter().enumerate() {
+        for (k, v) in row.iter().enumerate() {
+            values[k * n * n + i] = *v;
+        }
+    }
+    let dict = format!("{{'descr': '<f8', 'fortran_order': False, 'shape': ({nt}, {n}, {n}), }}");
+    let unpadded = 10 + dict.len() + 1;
+    let pad = (64 - unpadded % 64) % 64;
+    let header = format!("{dict}{}\n", " ".repeat(pad));
+    let mut bytes = b"\x93NUMPY\x01\x00".to_vec();
+    bytes.extend_from_slice(&(header.len() as u16).to_le_bytes());
+    bytes.extend_from_slice(header.as_bytes());
+    for v in &values {
+        bytes.extend_from_slice(&v.to_le_bytes());
+    }
+    std::fs::write(dir.join("drawdowns.npy"), bytes).unwrap_or_else(|e| fail(e.to_string()));
+    let mut csv = String::from("well,x,y,radius_m,t_s,dq_m3_per_s\n");
+    for (k, (w, s)) in wells.iter().zip(&schedules).enumerate() {
+        let mut prev = 0.0;
+        for &(t, q) in s.steps() {
+            if q != prev {
+                csv.push_str(&format!(
+                    "{k},{:.17e},{:.17e},{:.17e},{:.17e},{:.17e}\n",
+                    w.position[0],
+                    w.position[1],
+                    radius,
+                    t,
+                    q - prev
+                ));
+            }
+            prev = q;
+        }
+    }
+    std::fs::write(dir.join("schedules.csv"), csv).unwrap_or_else(|e| fail(e.to_string()));
+    let aq = &model.aquifer;
+    let info = serde_json::json!({
+        "case": case,
+        "kind": "transient",
+        "transmissivity_m2_per_s": aq.transmissivity(),
+        "storage": aq.storage(),
+        "saturated_thickness_m": aq.initial_saturated_thickness(),
+        "unconfined": true,
+        "times_s": times,
+        "grid": {"x0": x0, "y0": y0, "dx": dx, "dy": dy, "nx": n, "ny": n},
+    });
+    std::fs::write(dir.join("case.json"), info.to_string()).unwrap_or_else(|e| fail(e.to_string()));
+    println!(
+        "{}",
+        serde_json::json!({
+            "case": case,
+            "wells": wells.len(),
+            "points": points.len() * nt,
             "threads": rayon::current_num_threads(),
             "kernel_seconds": best,
         })

@@ -8,6 +8,9 @@
 # For each case: drydig's kernel time (best of 5; all threads, then one thread), NumPy's time
 # (best of 3), the largest level difference (must be ≤ 1e-9 m) and the ratio NumPy / drydig.
 # Then `drydig design` on the basement (best of 3, wall clock, including writing every output).
+# Transient cases (Theis superposition in space and time, NumPy with scipy.special.exp1, timed
+# once): transient — the 60 wells at constant rates, 500 × 500 map, 10 output times (1 … 10 days);
+# programme — the same basement in 3 stages (half the wells, then all, then all at 1.3×).
 #
 # Usage: scripts/bench.sh [GRID]   (GRID nodes per side, default 500). Needs python3 with numpy.
 set -euo pipefail
@@ -18,7 +21,7 @@ work="$(mktemp -d)"
 trap 'rm -rf "$work"' EXIT
 bin=./target/release/examples/bench_kernel
 
-for case in basement trench; do
+for case in basement trench transient programme; do
     "$bin" "$case" "$work/$case" "$grid" > "$work/$case.rust.json"
     RAYON_NUM_THREADS=1 "$bin" "$case" "$work/$case.one" "$grid" > "$work/$case.rust1.json"
     python3 scripts/bench_numpy.py "$work/$case" > "$work/$case.numpy.json"
@@ -27,17 +30,17 @@ done
 python3 - "$work" <<'PY'
 import json, subprocess, sys, time
 work = sys.argv[1]
-print(f"{'case':<9} {'wells':>6} {'nodes':>8} {'drydig s':>10} {'threads':>7} {'1 thread s':>10} "
+print(f"{'case':<10} {'wells':>6} {'nodes':>8} {'drydig s':>10} {'threads':>7} {'1 thread s':>10} "
       f"{'numpy s':>9} {'ratio':>7} {'ratio/1t':>8} {'max diff m':>11}  agree")
 ok = True
-for case in ["basement", "trench"]:
+for case in ["basement", "trench", "transient", "programme"]:
     r = json.load(open(f"{work}/{case}.rust.json"))
     r1 = json.load(open(f"{work}/{case}.rust1.json"))
     n = json.load(open(f"{work}/{case}.numpy.json"))
     ratio = n["numpy_seconds"] / r["kernel_seconds"]
     ratio1 = n["numpy_seconds"] / r1["kernel_seconds"]
     ok &= n["agree_to_1e-9"]
-    print(f"{case:<9} {r['wells']:>6} {r['points']:>8} {r['kernel_seconds']:>10.4f} {r['threads']:>7} "
+    print(f"{case:<10} {r['wells']:>6} {r['points']:>8} {r['kernel_seconds']:>10.4f} {r['threads']:>7} "
           f"{r1['kernel_seconds']:>10.4f} {n['numpy_seconds']:>9.4f} {ratio:>6.1f}x {ratio1:>7.1f}x "
           f"{n['max_abs_difference_m']:>11.2e}  {'yes' if n['agree_to_1e-9'] else 'NO'}")
 best = float("inf")

@@ -19,6 +19,15 @@
 //!   (the saturated thickness in u is H, not the pumped one), which is good while s ≪ H; where
 //!   2s′ > H the aquifer is pumped dry there and the drawdown returned is H.
 //!
+//! No radius of influence is used in time. The steady designs relate through the long-time
+//! limit: for small u, W(u) → −γ − ln u and the Theis drawdown is Thiem's with
+//! R = √(2.25·T·t/S) (Cooper & Jacob 1946; tested in `tests/programme.rs`), which is the
+//! radius the steady `cooper-jacob` influence method uses for its pumping time.
+//!
+//! The pumping programme of the design file is set up in [`programme`], answered in
+//! [`answers`]; designing for a date (the transient unit matrix in the linear programme) is in
+//! [`by_date`].
+//!
 //! Guards: distances below the well radius use the well radius; a step contributes nothing
 //! until t > t_k; a term with u > 700 (E₁ below 1e-307) is skipped; no NaN reaches an output.
 //! Units SI: m, s, m³/s (positive = abstraction), m²/s.
@@ -26,8 +35,9 @@
 pub mod answers;
 pub mod by_date;
 pub mod programme;
+pub mod well_function;
 
-use crate::physics::special::{exp1, hantush_w};
+use crate::physics::special::hantush_w;
 use rayon::prelude::*;
 use std::f64::consts::PI;
 
@@ -230,7 +240,7 @@ impl TransientAquifer {
         let w = if inv_b > 0.0 {
             hantush_w(u, r2.sqrt() * inv_b)
         } else {
-            exp1(u)
+            well_function::theis_w(u)
         };
         if w.is_finite() {
             w / (4.0 * PI * t)

@@ -292,7 +292,7 @@ impl ProgrammeSetup {
 
 /// ∫ₐᵇ Q(t) dt of one step schedule, m³ (rate m³/s, times s).
 pub fn schedule_volume(s: &RateSchedule, a: f64, b: f64) -> f64 {
-    if !(b > a) {
+    if b.is_nan() || a.is_nan() || b <= a {
         return 0.0;
     }
     let steps = s.steps();

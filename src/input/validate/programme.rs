@@ -267,7 +267,7 @@ pub fn programme(
                         format!("{e}; or write \"as designed\""),
                     )
                 })?;
-                if !(q > 0.0) {
+                if q.is_nan() || q <= 0.0 {
                     return Err(rep.error(
                         format!("{f}.rate"),
                         None,
