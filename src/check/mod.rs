@@ -1,8 +1,10 @@
 //! Stage 5, check: one layout evaluated.
 //!
 //! `evaluate` compares levels at check points and in wells with their targets and limits;
-//! `run` places the wells, builds the field and evaluates it into a [`run::CheckRun`] that the
+//! `consistent_radius` takes a drawdown-dependent radius of influence at the drawdown the wells
+//! produce; `run` places the wells, builds the field and evaluates it into a [`run::CheckRun`] that the
 //! later stages read.
 
+pub mod consistent_radius;
 pub mod evaluate;
 pub mod run;

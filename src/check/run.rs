@@ -1,7 +1,7 @@
 //! `check`: evaluate one layout — place the wells, build the field, evaluate every check point
 //! and well.
 
-use crate::check::evaluate::{evaluate, Evaluation};
+use crate::check::evaluate::Evaluation;
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::field::influence::Field;
 use crate::field::layout::{self, Placement};
@@ -65,12 +65,24 @@ pub fn evaluation_level(model: &Model) -> f64 {
     model.excavations[idx].target_level()
 }
 
-/// Evaluate a placement.
+/// Build the field for `wells` in `model` with radius of influence `r` (m).
+pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
+    Field::new(
+        &model.aquifer,
+        r,
+        wells,
+        &model.boundaries,
+        site_origin(model),
+    )
+    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+}
+
+/// Evaluate a placement (with the radius of influence taken at the drawdown the wells produce,
+/// where it depends on drawdown: [`crate::check::consistent_radius`]).
 pub fn evaluate_placement(model: &Model, placement: Placement) -> CheckRun<'_> {
-    let field = field_for(model, &placement.wells);
     let points = check_points(model);
-    let mut evaluation = evaluate(model, &field, &placement.wells, &points);
-    evaluation.radius_of_influence_basis = design_radius(model).1;
+    let (field, evaluation) =
+        crate::check::consistent_radius::evaluate_consistent(model, &placement.wells, &points);
     CheckRun {
         model,
         placement,
