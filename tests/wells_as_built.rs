@@ -255,3 +255,54 @@ drawdown = "{:.9} m"
     assert!((radius / r_big - 1.0).abs() < 1e-6, "R = {radius}");
     assert!((transmissivity / (k * h) - 1.0).abs() < 1e-6);
 }
+
+// The block sum of the map (Field::levels) is a shortcut: with the partial-penetration term it
+// must equal the per-point R-tree sum (Field::level) on the pipeline demo, wells among the points.
+#[test]
+fn map_levels_with_partial_penetration_equal_the_plain_sum() {
+    // a ring of 24 wells 12 m across (every source within the radius of influence: the block
+    // path), and the pipeline demo (sources beyond it: the R-tree path)
+    let ring: String = (0..24)
+        .map(|k| {
+            let a = k as f64 * std::f64::consts::TAU / 24.0;
+            format!(
+                "[[well]]\nname = \"R{k}\"\nx = {:.4}\ny = {:.4}\nrate = \"0.3 L/s\"\n",
+                12.0 * a.cos(),
+                12.0 * a.sin()
+            )
+        })
+        .collect();
+    let ring_text = confined_one_well("", "").replace("[checks]", &format!("{ring}\n[checks]"));
+    for (text, span) in [
+        (ring_text, [-40.0, 80.0, -40.0, 80.0]),
+        (
+            std::fs::read_to_string("layouts/pipeline_trench.toml").unwrap(),
+            [-30.0, 460.0, -25.0, 50.0],
+        ),
+    ] {
+        check_map_levels(&model(&text), span);
+    }
+}
+
+fn check_map_levels(m: &Model, span: [f64; 4]) {
+    let wells = from_model(m, None).unwrap().wells;
+    let field = field_for(m, &wells);
+    assert!(field.has_partial_penetration());
+    let rates: Vec<f64> = wells.iter().map(|w| w.rate).collect();
+    let mut pts: Vec<[f64; 2]> = (0..3000)
+        .map(|i| {
+            let t = i as f64;
+            [
+                span[0] + (t * 0.1527 * span[1] / 460.0) % span[1],
+                span[2] + (t * 7.31) % span[3],
+            ]
+        })
+        .collect();
+    pts.extend(wells.iter().take(50).map(|w| w.position));
+    let fast = field.levels(&pts, &rates);
+    for (p, lv) in pts.iter().zip(fast) {
+        let a = lv.or_base(2.0);
+        let b = field.level(*p, &rates).or_base(2.0);
+        assert!((a - b).abs() < 1e-9, "{p:?}: {a} vs {b}");
+    }
+}

@@ -296,10 +296,86 @@ impl NearField {
         }
     }
 
-    /// Whether local point `p` is within the cut-off of any partially penetrating source.
-    pub fn touches(&self, p: [f64; 2]) -> bool {
-        let (ci, cj) = cell_index(p, self.cell);
-        (-1..=1).any(|di| (-1..=1).any(|dj| self.grid.contains_key(&(ci + di, cj + dj))))
+    /// ΔΦ of the near-field term at many local points `pts` for `rates` (m³/s), added to
+    /// `delta`. Points are taken in square blocks; each block gathers once the sources within
+    /// the cut-off of any of its points, then sums −sign·q·Δ(r)/(2π) over them point by point.
+    /// Returns the points that stand inside a well (r ≤ r_w of a real source): those need
+    /// [`NearField::for_each`] (the screen-averaged Δ_w) and are left unchanged here.
+    pub fn add_levels(&self, pts: &[[f64; 2]], rates: &[f64], delta: &mut [f64]) -> Vec<usize> {
+        use rayon::prelude::*;
+        if pts.is_empty() {
+            return Vec::new();
+        }
+        let ws: Vec<f64> = self
+            .sources
+            .iter()
+            .map(|s| -s.sign * rates[s.well] / (2.0 * PI))
+            .collect();
+        let side = (0.25 * self.cutoff).max(1e-3);
+        let mut blocks: HashMap<(i64, i64), Vec<usize>> = HashMap::new();
+        for (i, p) in pts.iter().enumerate() {
+            blocks.entry(cell_index(*p, side)).or_default().push(i);
+        }
+        let blocks: Vec<((i64, i64), Vec<usize>)> = blocks.into_iter().collect();
+        let reach = self.cutoff + side * std::f64::consts::FRAC_1_SQRT_2;
+        let results: Vec<(Vec<(usize, f64)>, Vec<usize>)> = blocks
+            .par_iter()
+            .map(|((bi, bj), members)| {
+                let c = [(*bi as f64 + 0.5) * side, (*bj as f64 + 0.5) * side];
+                // candidate sources for the whole block
+                let (ci, cj) = cell_index(c, self.cell);
+                let mut cand: Vec<usize> = Vec::new();
+                for di in -1..=1 {
+                    for dj in -1..=1 {
+                        if let Some(v) = self.grid.get(&(ci + di, cj + dj)) {
+                            for &k in v {
+                                let s = &self.sources[k];
+                                let d = (s.position[0] - c[0]).hypot(s.position[1] - c[1]);
+                                if d < reach && ws[k] != 0.0 {
+                                    cand.push(k);
+                                }
+                            }
+                        }
+                    }
+                }
+                let mut out = Vec::with_capacity(members.len());
+                let mut slow = Vec::new();
+                for &i in members {
+                    let p = pts[i];
+                    let mut acc = 0.0;
+                    let mut inside = false;
+                    for &k in &cand {
+                        let s = &self.sources[k];
+                        let cl = &self.classes[s.class];
+                        let dx = s.position[0] - p[0];
+                        let dy = s.position[1] - p[1];
+                        let r2 = dx * dx + dy * dy;
+                        if r2 >= cl.cutoff * cl.cutoff {
+                            continue;
+                        }
+                        if s.real && r2 <= s.radius * s.radius * (1.0 + 2e-9) {
+                            inside = true;
+                            break;
+                        }
+                        acc += ws[k] * cl.at_points.at(r2.sqrt().max(s.radius));
+                    }
+                    if inside {
+                        slow.push(i);
+                    } else {
+                        out.push((i, acc));
+                    }
+                }
+                (out, slow)
+            })
+            .collect();
+        let mut slow_all = Vec::new();
+        for (out, slow) in results {
+            for (i, v) in out {
+                delta[i] += v;
+            }
+            slow_all.extend(slow);
+        }
+        slow_all
     }
 }
 
