@@ -77,6 +77,9 @@ impl Table {
 
 type Key = [u64; 6];
 
+/// Per block of points: (point, ΔΦ) summed, and the points that stand inside a well.
+type BlockSums = (Vec<(usize, f64)>, Vec<usize>);
+
 fn cache() -> &'static Mutex<HashMap<Key, Arc<Table>>> {
     static CACHE: OnceLock<Mutex<HashMap<Key, Arc<Table>>>> = OnceLock::new();
     CACHE.get_or_init(|| Mutex::new(HashMap::new()))
@@ -318,7 +321,7 @@ impl NearField {
         }
         let blocks: Vec<((i64, i64), Vec<usize>)> = blocks.into_iter().collect();
         let reach = self.cutoff + side * std::f64::consts::FRAC_1_SQRT_2;
-        let results: Vec<(Vec<(usize, f64)>, Vec<usize>)> = blocks
+        let results: Vec<BlockSums> = blocks
             .par_iter()
             .map(|((bi, bj), members)| {
                 let c = [(*bi as f64 + 0.5) * side, (*bj as f64 + 0.5) * side];
