@@ -12,7 +12,7 @@
 //! made. The basis text says which drawdown R was taken at and how the iteration ended.
 
 use crate::check::evaluate::{evaluate, Evaluation};
-use crate::check::run::field_with_radius;
+use crate::check::field_build::field_with_radius;
 use crate::field::checkpoints::CheckPoint;
 use crate::field::influence::Field;
 use crate::field::radius::{depends_on_drawdown, design_radius, radius_at};

@@ -2,6 +2,7 @@
 //! and well.
 
 use crate::check::evaluate::Evaluation;
+pub use crate::check::field_build::{evaluation_level, field_with_radius, site_origin};
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::field::influence::Field;
 use crate::field::layout::{self, Placement};
@@ -9,7 +10,6 @@ use crate::field::radius::design_radius;
 use crate::field::wells::Well;
 use crate::input::error::InputError;
 use crate::input::model::Model;
-use geo::Centroid;
 use std::path::Path;
 
 /// Everything one evaluated layout needs for its outputs.
@@ -37,44 +37,9 @@ impl CheckRun<'_> {
     }
 }
 
-/// A working origin near the site, so that projected coordinates keep their precision.
-pub fn site_origin(model: &Model) -> [f64; 2] {
-    model.excavations[0]
-        .outline
-        .centroid()
-        .map_or([0.0, 0.0], |c| [c.x(), c.y()])
-}
-
 /// Build the field for `wells` in `model`.
 pub fn field_for(model: &Model, wells: &[Well]) -> Field {
-    let (r, _) = design_radius(model);
-    Field::new(
-        &model.aquifer,
-        r,
-        wells,
-        &model.boundaries,
-        site_origin(model),
-    )
-    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
-}
-
-/// The level check points and the map are evaluated at for partial penetration, m: the served
-/// excavation's target level (where the water must be drawn to; clamped to the layer inside).
-pub fn evaluation_level(model: &Model) -> f64 {
-    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
-    model.excavations[idx].target_level()
-}
-
-/// Build the field for `wells` in `model` with radius of influence `r` (m).
-pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
-    Field::new(
-        &model.aquifer,
-        r,
-        wells,
-        &model.boundaries,
-        site_origin(model),
-    )
-    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+    field_with_radius(model, wells, design_radius(model).0)
 }
 
 /// Evaluate a placement (with the radius of influence taken at the drawdown the wells produce,
