@@ -6,7 +6,9 @@
 //! R(s_k), take s_{k+1} = the least drawdown the wells produce at the served excavation's target
 //! points (the one that decides whether the targets are met; equal to the target drawdown for a
 //! layout that just meets it, so `design` is consistent by construction), until R changes by
-//! less than [`RELATIVE_TOLERANCE`]. The iteration is a fixed point of s ↦ drawdown(R(s)); the
+//! less than [`RELATIVE_TOLERANCE`]. A layout that draws less than the target keeps R at the
+//! target drawdown (a smaller R would shrink its own drawdown further, towards the trivial fixed
+//! point of no drawdown); the basis text says so and by how much it falls short. The iteration is a fixed point of s ↦ drawdown(R(s)); the
 //! drawdown grows only with ln R, so the map contracts and it converges in a few steps. Where R
 //! does not depend on drawdown (Cooper–Jacob, fixed, pumping test, leaky B) one evaluation is
 //! made. The basis text says which drawdown R was taken at and how the iteration ended.
@@ -58,6 +60,13 @@ pub fn evaluate_consistent(
         let Some(s_new) = produced_drawdown(model, &e) else {
             break;
         };
+        if s_new < s_target && steps == 1 {
+            e.radius_of_influence_basis = format!(
+                "{}; the wells produce only {s_new:.2} m at the excavation, less than the {s_target:.2} m the target needs, so R is kept at the target drawdown",
+                radius_at(model, s_target).1
+            );
+            return (field, e);
+        }
         let (r_new, _) = radius_at(model, s_new);
         s = s_new;
         if !(r_new.is_finite() && r_new > 0.0) {
