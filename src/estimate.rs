@@ -239,6 +239,19 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             )
         }
     };
+    if method != FlowMethod::NoneNeeded {
+        notes.push(match &model.influence {
+            crate::input::model::InfluenceMethod::Sichardt { .. } | crate::input::model::InfluenceMethod::Kusakin => format!(
+                "distance of influence L₀ = {l0:.1} m by {} at the target drawdown s = {s:.2} m",
+                model.influence.name()
+            ),
+            crate::input::model::InfluenceMethod::PumpingTest { .. } => format!(
+                "distance of influence L₀ = {l0:.1} m from the pumping test's distance–drawdown line (no design drawdown enters it{})",
+                if matches!(aq.kind, AquiferKind::Unconfined) { "; unconfined: Jacob's correction s′ = s − s²/(2H) applied first" } else { "" }
+            ),
+            other => format!("distance of influence L₀ = {l0:.1} m by {} (independent of drawdown)", other.name()),
+        });
+    }
     // Boundaries: first-order images of the equivalent well at the centroid.
     let q_free = q;
     let centre = geo::Centroid::centroid(&e.outline).map_or([0.0, 0.0], |c| [c.x(), c.y()]);
@@ -259,7 +272,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     let q = q * factor;
     if !images.is_empty() && method != FlowMethod::NoneNeeded {
         notes.push(format!(
-            "boundaries: {} taken by the image of the equivalent well (r_e = {r_e:.1} m at the centroid): flow {:.2} L/s with them, {:.2} L/s without (× {factor:.2}){}",
+            "boundaries: {} taken by the image of the equivalent well (r_e = {r_e:.1} m at the centroid): flow {:.2} L/s with them, {:.2} L/s without (× {factor:.2}); wells on the boundary side stand nearer to it than the centroid, so a layout's flow can be a third or more above this{}",
             model
                 .boundaries
                 .iter()

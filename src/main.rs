@@ -283,7 +283,7 @@ fn pumping_test_data(
         message: m,
     };
     let rate = parse::<FlowKind>(rate).map_err(|e| bad_arg("--rate", e))?;
-    if !(rate > 0.0) {
+    if rate.is_nan() || rate <= 0.0 {
         return Err(bad_arg(
             "--rate",
             "the pumping rate must be greater than 0".into(),

@@ -1,7 +1,8 @@
 //! `check`: evaluate one layout — place the wells, build the field, evaluate every check point
 //! and well.
 
-use crate::check::evaluate::{evaluate, Evaluation};
+use crate::check::evaluate::Evaluation;
+pub use crate::check::field_build::{evaluation_level, field_with_radius, site_origin};
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::field::influence::Field;
 use crate::field::layout::{self, Placement};
@@ -9,7 +10,6 @@ use crate::field::radius::design_radius;
 use crate::field::wells::Well;
 use crate::input::error::InputError;
 use crate::input::model::Model;
-use geo::Centroid;
 use std::path::Path;
 
 /// Everything one evaluated layout needs for its outputs.
@@ -37,40 +37,17 @@ impl CheckRun<'_> {
     }
 }
 
-/// A working origin near the site, so that projected coordinates keep their precision.
-pub fn site_origin(model: &Model) -> [f64; 2] {
-    model.excavations[0]
-        .outline
-        .centroid()
-        .map_or([0.0, 0.0], |c| [c.x(), c.y()])
-}
-
 /// Build the field for `wells` in `model`.
 pub fn field_for(model: &Model, wells: &[Well]) -> Field {
-    let (r, _) = design_radius(model);
-    Field::new(
-        &model.aquifer,
-        r,
-        wells,
-        &model.boundaries,
-        site_origin(model),
-    )
-    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+    field_with_radius(model, wells, design_radius(model).0)
 }
 
-/// The level check points and the map are evaluated at for partial penetration, m: the served
-/// excavation's target level (where the water must be drawn to; clamped to the layer inside).
-pub fn evaluation_level(model: &Model) -> f64 {
-    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
-    model.excavations[idx].target_level()
-}
-
-/// Evaluate a placement.
+/// Evaluate a placement (with the radius of influence taken at the drawdown the wells produce,
+/// where it depends on drawdown: [`crate::check::consistent_radius`]).
 pub fn evaluate_placement(model: &Model, placement: Placement) -> CheckRun<'_> {
-    let field = field_for(model, &placement.wells);
     let points = check_points(model);
-    let mut evaluation = evaluate(model, &field, &placement.wells, &points);
-    evaluation.radius_of_influence_basis = design_radius(model).1;
+    let (field, evaluation) =
+        crate::check::consistent_radius::evaluate_consistent(model, &placement.wells, &points);
     CheckRun {
         model,
         placement,

@@ -168,6 +168,13 @@ impl Field {
         self
     }
 
+    /// The same field without the partial-penetration term (every well taken as fully
+    /// penetrating), e.g. to compare with a plain Thiem sum.
+    pub fn fully_penetrating(mut self) -> Field {
+        self.near = None;
+        self
+    }
+
     /// Whether some well is partially penetrating (a near-field term is added).
     pub fn has_partial_penetration(&self) -> bool {
         self.near.is_some()
@@ -292,18 +299,16 @@ impl Field {
             }
         }
         if let Some(n) = &self.near {
-            // the near-field term where the fast sums above left it out
-            let extra: Vec<(usize, f64)> = fast
-                .par_iter()
-                .filter(|&&i| n.touches(local[i]))
-                .map(|&i| {
-                    let mut e = 0.0;
-                    n.for_each(local[i], |w, v| e += rates[w] * v);
-                    (i, e)
-                })
-                .collect();
-            for (i, e) in extra {
-                delta[i] += e;
+            // the near-field term where the fast sums above left it out; a point inside a well
+            // is summed again in full by the R-tree path (NaN marks it)
+            let fast_pts: Vec<[f64; 2]> = fast.iter().map(|&i| local[i]).collect();
+            let mut extra = vec![0.0; fast.len()];
+            let inside = n.add_levels(&fast_pts, rates, &mut extra);
+            for (j, &i) in fast.iter().enumerate() {
+                delta[i] += extra[j];
+            }
+            for j in inside {
+                delta[fast[j]] = f64::NAN;
             }
         }
         let phi0 = self.aquifer.initial_potential();

@@ -11,14 +11,52 @@ use crate::input::model::Model;
 pub fn design_radius(model: &Model) -> (f64, String) {
     let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
     let e = &model.excavations[idx];
+    radius_at(model, model.aquifer.initial_level - e.target_level())
+}
+
+/// Whether the radius of influence depends on the drawdown (Sichardt, Kusakin) — and so should
+/// be taken at the drawdown the wells actually produce (see [`radius_at`]).
+pub fn depends_on_drawdown(model: &Model) -> bool {
+    model.aquifer.leakage_factor().is_none()
+        && matches!(
+            model.influence,
+            crate::input::model::InfluenceMethod::Sichardt { .. }
+                | crate::input::model::InfluenceMethod::Kusakin
+        )
+}
+
+/// Radius of influence used for superposition at drawdown `s` (m) at the served excavation, m,
+/// and how it was found: as [`design_radius`], with `s` in place of the target drawdown.
+pub fn radius_at(model: &Model, s: f64) -> (f64, String) {
+    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
+    let e = &model.excavations[idx];
     let aq = &model.aquifer;
-    let s = (aq.initial_level - e.target_level()).max(0.1);
+    let s = s.max(0.1);
     let r_e = crate::physics::equivalent::equivalent_radius_from_area(geo::Area::unsigned_area(
         &e.outline,
     ));
     let trench = crate::field::shape::is_trench(model, e);
     if let Some(b) = aq.leakage_factor() {
-        return (b, format!("leaky aquifer: K₀(r/B) with B = {b:.1} m (no radius of influence; cut off at 25 B)"));
+        let mut text = format!(
+            "leaky aquifer: K₀(r/B) with B = {b:.1} m (no radius of influence; cut off at 25 B)"
+        );
+        if let crate::input::model::InfluenceMethod::PumpingTest { transmissivity, .. } =
+            model.influence
+        {
+            // The steady distance–drawdown line of a leaky test does not give R; its slope gives
+            // T only where r ≪ B. Report how it compares with the aquifer inputs.
+            let t_in = aq.transmissivity();
+            text.push_str(&format!(
+                "; the pumping test's Thiem line gives T = {transmissivity:.3e} m²/s against K·D = {t_in:.3e} m²/s from the aquifer inputs ({:+.0} %), and K·D is used{}",
+                (transmissivity / t_in - 1.0) * 100.0,
+                if (transmissivity / t_in - 1.0).abs() > 0.2 {
+                    " — THEY DISAGREE by more than 20 %: check K, the thickness or the test (`drydig test` fits T, S and B from a time series)"
+                } else {
+                    ""
+                }
+            ));
+        }
+        return (b, text);
     }
     if trench {
         // A long line of wells with Thiem cut-off R draws ΔΦ = q′·R/π at the line (q′ per metre,

@@ -381,6 +381,8 @@ pub struct Neighbour {
     pub foundation_level: Option<f64>,
     /// Allowable drawdown, m.
     pub allowable_drawdown: Option<f64>,
+    /// Allowable rise above the original level, m (`None`: the rule of thumb).
+    pub allowable_rise: Option<f64>,
     /// Allowable settlement, m.
     pub allowable_settlement: Option<f64>,
     /// Allowable angular distortion.

@@ -385,6 +385,9 @@ pub struct Neighbour {
     /// Largest drawdown allowed under it.
     #[serde(default)]
     pub allowable_drawdown: Option<Length>,
+    /// Largest rise of the water above its original level (beside recharge wells).
+    #[serde(default)]
+    pub allowable_rise: Option<Length>,
     /// Largest total settlement allowed.
     #[serde(default)]
     pub allowable_settlement: Option<Length>,

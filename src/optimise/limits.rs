@@ -1,6 +1,6 @@
 //! The limits of one well, as the optimiser's programme sees them.
 //!
-//! - Level in the well (pump intake + submergence; for wellpoints also ground − suction limit):
+//! - Level in the well (pump intake + submergence; for wellpoints also header − suction limit):
 //!   Φₖ ≥ Φ(lowest level), linear in the rates and exact.
 //! - Capacity: the rate is at most the pump's capacity and Sichardt's capacity
 //!   α·h_w (α = 2π·r_w·√K/15, h_w the wetted screen, which depends on the well's own level).

@@ -45,12 +45,13 @@ pub(super) fn impossible_before_search(
     let intake = spec.pump_intake + spec.submergence;
     match spec.kind {
         WellKind::Wellpoint => {
-            let suction = model.ground_level - spec.suction_limit;
+            let suction = model.as_built.suction_floor(spec.suction_limit);
             if lowest_target < suction.max(intake) - 1e-9 {
                 return Some(format!(
-                    "wellpoints are asked for more drawdown than suction can lift: the target ({lowest_target:.2} m) is below ground − suction limit ({:.2} − {:.2} = {suction:.2} m){}; the water between wellpoints stands higher than in them, so one stage cannot reach it — use a second stage, ejectors or deep wells (common practice (no source))",
-                    model.ground_level,
+                    "wellpoints are asked for more drawdown than suction can lift: the target ({lowest_target:.2} m) is below header − suction limit ({:.2} − {:.2} = {suction:.2} m), by {:.2} m{}; the water between wellpoints stands higher than in them, so one stage cannot reach it — use a second stage, ejectors or deep wells (common practice (no source))",
+                    model.as_built.header_level,
                     spec.suction_limit,
+                    suction.max(intake) - lowest_target,
                     if intake > suction { format!(" and the intake + submergence ({intake:.2} m)") } else { String::new() }
                 ));
             }

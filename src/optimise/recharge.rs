@@ -9,8 +9,13 @@
 //!   ΔΦ ≥ Φ(h₀ − s_allow) − Φ₀, with s_allow the smaller of its allowable drawdown and the uniform
 //!   drawdown that settles it by its settlement limit ([`crate::safety::neighbours`]);
 //! - at every excavation check point with a target: level ≤ target, ΔΦ ≤ Φ(target) − Φ₀;
-//! - in every recharge well: level ≤ ground level − [`FREEBOARD`] (the mound must not overflow);
-//! - −capacity_j ≤ q_j ≤ 0, the capacity being the listed (negative) rate of the recharge well.
+//! - at the same sample points: level ≤ h₀ + the allowable rise (the neighbour's, or the rule of
+//!   thumb of [`crate::safety::neighbours::RULE_OF_THUMB_RISE`]);
+//! - in every recharge well: level ≤ its highest allowed level (`wells.max_injection_level`, or
+//!   ground − `wells.injection_margin`; with Jacob's well loss, less C·q² at the largest rate);
+//! - −capacity_j ≤ q_j ≤ 0, the capacity being the smaller of the listed (negative) rate and the
+//!   injection capacity (`wells.injection_fraction` of the well's abstraction capacity; default
+//!   a half, common practice (no source)).
 //!
 //! The abstraction is first held at its listed rates. When no recharge rates work that way, the
 //! abstraction rates join the programme too (0 … capacity, each well's level kept above its pump
@@ -32,7 +37,8 @@ use crate::safety::neighbours::{drawdown_limit_for_recharge, sample_points};
 use serde::Serialize;
 use std::path::Path;
 
-/// Water level kept below ground in a recharge well, m (common practice (no source)).
+/// Water level kept below ground in a recharge well, m, before the limit became a design-file
+/// setting (`wells.injection_margin`, default [`crate::input::model::DEFAULT_INJECTION_MARGIN`]).
 pub const FREEBOARD: f64 = 0.5;
 /// Margin the programme keeps inside every level limit, m, so the solver's round-off never puts
 /// a binding point on the wrong side.
@@ -127,6 +133,17 @@ fn abstraction_limits(model: &Model, w: &crate::field::wells::Well) -> (f64, f64
     (cap, lowest)
 }
 
+/// Injection capacity of a recharge well, m³/s: `wells.injection_fraction` of its abstraction
+/// capacity (Sichardt on the screen wetted to the initial level, or the pump), the same rule as
+/// [`crate::check::evaluate::evaluate`].
+fn injection_capacity(model: &Model, w: &crate::field::wells::Well) -> f64 {
+    let aq = &model.aquifer;
+    let wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
+    let full = crate::physics::capacity::sichardt_well_capacity(w.radius, wetted, aq.conductivity);
+    let full = model.wells.pump_capacity.map_or(full, |p| p.min(full));
+    model.as_built.injection_fraction * full
+}
+
 /// The neighbours the sizing holds: those marked `protect_with_recharge`, or every one when
 /// none is marked.
 fn protected_neighbours(model: &Model) -> Vec<&crate::input::model::Neighbour> {
@@ -180,10 +197,19 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
             let z = aq.level(phi0 + without).or_base(aq.base_level);
             worst = worst.max(aq.initial_level - z);
             constraints.push(Constraint {
-                coefficients: row,
+                coefficients: row.clone(),
                 sense: Sense::AtLeast,
                 rhs: aq.potential(level) - phi0,
                 label: format!("drawdown limit {limit:.2} m at \"{}\" {name}", n.name),
+            });
+            let rise = n
+                .allowable_rise
+                .unwrap_or(crate::safety::neighbours::RULE_OF_THUMB_RISE);
+            constraints.push(Constraint {
+                coefficients: row,
+                sense: Sense::AtMost,
+                rhs: aq.potential(aq.initial_level + rise - LP_MARGIN) - phi0,
+                label: format!("rise limit {rise:.2} m at \"{}\" {name}", n.name),
             });
         }
         protected.push(Protected {
@@ -193,15 +219,25 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
             drawdown_without_recharge_m: worst,
         });
     }
-    let cap_level = model.ground_level - FREEBOARD;
     for w in wells {
         let row = field.unit_row(w.position);
         if w.rate < 0.0 {
+            let q_max = injection_capacity(model, w);
+            let loss = match model.as_built.loss {
+                crate::input::model::WellLossSpec::Jacob(c) => {
+                    crate::physics::well_loss::jacob_loss(c, q_max)
+                }
+                _ => 0.0,
+            };
+            let cap_level = model.as_built.max_injection_level - loss - LP_MARGIN;
             constraints.push(Constraint {
                 coefficients: row,
                 sense: Sense::AtMost,
                 rhs: aq.potential(cap_level) - phi0,
-                label: format!("level in recharge well {} ≤ ground − {FREEBOARD} m", w.name),
+                label: format!(
+                    "level in recharge well {} ≤ {:.2} m ({})",
+                    w.name, model.as_built.max_injection_level, model.as_built.injection_basis
+                ),
             });
         } else if mode == Mode::Joint {
             let (_, lowest) = abstraction_limits(model, w);
@@ -219,7 +255,7 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
     let bounds = wells
         .iter()
         .map(|w| match (w.rate < 0.0, mode) {
-            (true, _) => (w.rate, 0.0),
+            (true, _) => (w.rate.max(-injection_capacity(model, w)), 0.0),
             (false, Mode::FixedAbstraction) => (w.rate, w.rate),
             (false, Mode::Joint) => (0.0, abstraction_limits(model, w).0),
         })
@@ -315,7 +351,24 @@ pub fn size(
             w.rate = if w.rate < 0.0 { q.min(0.0) } else { q.max(0.0) };
         }
     }
-    notes.push(format!("recharge wells are bounded by their listed rates and keep their water level at least {FREEBOARD} m below ground (common practice (no source)); the water injected must be clean and compatible with the aquifer, or the wells clog"));
+    notes.push(format!("recharge wells are bounded by their listed rates and by their injection capacity ({:.0} % of the abstraction capacity{}), and keep their water level at or below {:.2} m ({}); neighbours' water may rise at most their allowable_rise (default {:.2} m, common practice (no source)); the water injected must be clean and compatible with the aquifer, or the wells clog",
+        model.as_built.injection_fraction * 100.0,
+        if (model.as_built.injection_fraction - crate::input::model::DEFAULT_INJECTION_FRACTION).abs() < 1e-12 { ", common practice (no source)" } else { "" },
+        model.as_built.max_injection_level,
+        model.as_built.injection_basis,
+        crate::safety::neighbours::RULE_OF_THUMB_RISE));
+    for j in &recharge {
+        let w = &placement.wells[*j];
+        let inj = injection_capacity(model, w);
+        if -w.rate > inj * (1.0 + 1e-9) && !feasible {
+            notes.push(format!(
+                "{}: listed rate {:.2} L/s is above its injection capacity {:.2} L/s",
+                w.name,
+                -w.rate * 1e3,
+                inj * 1e3
+            ));
+        }
+    }
     placement.notes.push(if feasible {
         "rates sized by the recharge linear programme (drydig check --size-recharge)".into()
     } else {

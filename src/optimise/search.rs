@@ -468,7 +468,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     }
     if !model.boundaries.is_empty() {
         notes.push(format!(
-            "the quick estimate leaves out the design file's {} straight boundar{} (a constant-head edge such as a river feeds the wells and raises the flow; a barrier lowers it), so the two flows differ by more than usual",
+            "the quick estimate takes the design file's {} straight boundar{} by the first-order image of one equivalent well at the centroid; the wells on the boundary side stand nearer to it than the centroid (a river feeds them more, a barrier less), so the two flows differ by more than usual",
             model.boundaries.len(),
             if model.boundaries.len() == 1 { "y" } else { "ies" }
         ));

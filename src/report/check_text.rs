@@ -27,6 +27,11 @@ pub fn to_text(
         96,
         "",
     ));
+    out.push_str(&wrap(
+        &crate::report::as_built_text::as_built_lines(run, units),
+        96,
+        "",
+    ));
     out.push_str(&well_table(run, units));
     for n in &run.placement.notes {
         out.push_str(&wrap(&format!("note: {n}"), 96, ""));

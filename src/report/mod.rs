@@ -1,5 +1,6 @@
 //! Formatting results for people and programs: one file per output format.
 
+pub mod as_built_text;
 pub mod bid_out;
 pub mod by_day_text;
 pub mod check_text;

@@ -24,6 +24,8 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
         "capacity_l_per_s",
         "status",
         "note",
+        "aquifer_level_m",
+        "well_loss_m",
     ])?;
     for (well, r) in run.placement.wells.iter().zip(&run.evaluation.wells) {
         w.write_record([
@@ -48,6 +50,9 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
                 r.problems.join("; ")
             },
             well.note.clone().unwrap_or_default(),
+            r.aquifer_level_m
+                .map_or("dry".into(), |z| format!("{z:.3}")),
+            format!("{:.3}", r.well_loss_m),
         ])?;
     }
     Ok(w.into_inner()?)
@@ -133,6 +138,15 @@ pub fn model_record(model: &Model) -> Value {
             "pump_capacity_m3_per_s": model.wells.pump_capacity,
             "suction_limit_m": model.wells.suction_limit,
             "standby": model.wells.standby,
+            "header_level_m": model.as_built.header_level,
+            "suction_floor_m": model.as_built.suction_floor(model.wells.suction_limit),
+            "anisotropy_kv_kh": model.as_built.anisotropy,
+            "well_loss": format!("{:?}", model.as_built.loss),
+            "min_spacing_m": model.as_built.min_spacing,
+            "max_spacing_m": model.as_built.max_spacing,
+            "injection_fraction": model.as_built.injection_fraction,
+            "max_injection_level_m": model.as_built.max_injection_level,
+            "partial_penetration": "near-field correction (uniform flux, cosine modes) on the saturated thickness before pumping, check points at the target level",
         },
     })
 }

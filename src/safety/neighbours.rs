@@ -25,6 +25,10 @@ use serde::Serialize;
 pub const RULE_OF_THUMB_SETTLEMENT: f64 = 0.025;
 /// Rule-of-thumb angular distortion for a building on shallow footings.
 pub const RULE_OF_THUMB_DISTORTION: f64 = 1.0 / 500.0;
+/// Rule-of-thumb rise of the water above its original level under a neighbour, m, beside
+/// recharge wells (common practice (no source): cellars and services were built for the old
+/// level).
+pub const RULE_OF_THUMB_RISE: f64 = 0.3;
 /// Label carried beside every rule-of-thumb limit.
 pub const RULE_OF_THUMB_LABEL: &str =
     "rule of thumb for buildings on shallow footings, common practice (no source)";
@@ -394,6 +398,20 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
 
     let mut checks = Vec::new();
     let mut notes = Vec::new();
+    let worst_rise = samples
+        .iter()
+        .map(|s| -s.drawdown_m)
+        .fold(0.0_f64, f64::max);
+    if worst_rise > 1e-6 || n.allowable_rise.is_some() {
+        let (limit, basis) = match n.allowable_rise {
+            Some(v) => (v, "design file".to_string()),
+            None => (
+                RULE_OF_THUMB_RISE,
+                "rise above the original level, common practice (no source)".to_string(),
+            ),
+        };
+        checks.push(check("rise above original level", worst_rise, limit, basis));
+    }
     match n.allowable_drawdown {
         Some(limit) => checks.push(check(
             "drawdown",

@@ -192,7 +192,18 @@ pub fn influence(
                     check_positive(rep, &format!("{fname}.drawdown"), &o.drawdown, "steady drawdown")?,
                 ));
             }
-            match crate::physics::pumping_test::distance_drawdown_fit(&obs) {
+            // Unconfined: Jacob's correction s′ = s − s²/(2H) before the Thiem line (Kruseman &
+            // de Ridder 1994, §5.1), so the fitted R and T are those of the linear theory.
+            let fit = if matches!(aquifer.kind, AquiferKind::Unconfined) {
+                let h = aquifer.initial_saturated_thickness();
+                if obs.iter().any(|(_, s)| *s >= h) {
+                    return Err(rep.error("influence.test.observation", None, format!("a drawdown is at or beyond the saturated thickness H = {h:.2} m: that piezometer ran dry; give steady drawdowns below H")));
+                }
+                crate::physics::pumping_test::distance_drawdown_fit_unconfined(&obs, h)
+            } else {
+                crate::physics::pumping_test::distance_drawdown_fit(&obs)
+            };
+            match fit {
                 Some((r, slope)) => InfluenceMethod::PumpingTest {
                     radius: r,
                     transmissivity: q / (2.0 * std::f64::consts::PI * slope),

@@ -120,6 +120,7 @@ pub fn neighbour(
         footprint,
         foundation_level: n.foundation_level.as_ref().map(|q| q.si),
         allowable_drawdown: positive(&n.allowable_drawdown, "allowable_drawdown")?,
+        allowable_rise: positive(&n.allowable_rise, "allowable_rise")?,
         allowable_settlement: positive(&n.allowable_settlement, "allowable_settlement")?,
         allowable_distortion: n.allowable_distortion.as_ref().map(|r| r.value),
         layers,
