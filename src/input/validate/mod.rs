@@ -15,4 +15,5 @@ pub mod file;
 pub mod neighbours;
 pub mod ranges;
 pub mod shapes;
+pub mod simple;
 pub mod wells;
