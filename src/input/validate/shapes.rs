@@ -235,6 +235,10 @@ pub fn excavations(
 /// Half-length, m, of a boundary line as stored: the line is infinite, its two points only fix it.
 pub const BOUNDARY_HALF_LENGTH: f64 = 1_000.0;
 
+/// A boundary given by points farther apart (or farther from the site) than this, m, is stored
+/// normalised.
+pub const NORMALISE_BEYOND: f64 = 10_000.0;
+
 /// The centre of the first excavation's bounding box: the point boundary lines are fixed near.
 fn site_centre(excavations: &[Excavation]) -> [f64; 2] {
     use geo::BoundingRect;
@@ -251,9 +255,14 @@ fn site_centre(excavations: &[Excavation]) -> [f64; 2] {
 /// direction d = (b − a)/|b − a| and the foot f = a + ((centre − a)·d)·d (plane geometry, common
 /// practice (no source)). Every later use (images, map, outputs) then sees a line of the site's
 /// own scale whatever points were given.
+/// Points up to [`NORMALISE_BEYOND`] apart are kept as given (they are what the outputs show).
 pub fn normalised_line(a: [f64; 2], b: [f64; 2], centre: [f64; 2]) -> [[f64; 2]; 2] {
     let (dx, dy) = (b[0] - a[0], b[1] - a[1]);
     let len = dx.hypot(dy);
+    let near = |p: [f64; 2]| (p[0] - centre[0]).hypot(p[1] - centre[1]) <= NORMALISE_BEYOND;
+    if len <= NORMALISE_BEYOND && near(a) && near(b) {
+        return [a, b];
+    }
     let d = [dx / len, dy / len];
     let t = (centre[0] - a[0]) * d[0] + (centre[1] - a[1]) * d[1];
     let f = [a[0] + t * d[0], a[1] + t * d[1]];
