@@ -5,7 +5,7 @@
 
 use crate::input::model::{Control, Model, Uplift};
 use crate::physics::uplift::{overburden, required_head};
-use geo::{BoundingRect, Contains, InteriorPoint, Point};
+use geo::{BoundingRect, Contains, Point};
 use serde::Serialize;
 
 /// Where a check point comes from.
@@ -146,6 +146,30 @@ fn inside_by_crossings(crossings: &[f64], p: [f64; 2], outline: &geo::Polygon<f6
     k % 2 == 1
 }
 
+/// A point inside `poly`: its centroid when that lies inside, else the middle of the widest
+/// inside stretch of the horizontal line through the middle of its bounding box (the scanline
+/// crossings of [`row_crossings`]). Linear in the vertices and free of the degenerate cases of a
+/// sweep-line search.
+pub fn inside_point(poly: &geo::Polygon<f64>) -> Option<[f64; 2]> {
+    use geo::Centroid;
+    if let Some(c) = poly.centroid() {
+        if poly.contains(&c) {
+            return Some([c.x(), c.y()]);
+        }
+    }
+    let bb = poly.bounding_rect()?;
+    let ring = &poly.exterior().0;
+    // A row exactly through a vertex is nudged off it.
+    let mut y = 0.5 * (bb.min().y + bb.max().y);
+    if ring.iter().any(|c| c.y == y) {
+        y += 1e-6 * bb.height().max(1e-9);
+    }
+    let xs = row_crossings(ring, y);
+    xs.chunks_exact(2)
+        .max_by(|a, b| (a[1] - a[0]).total_cmp(&(b[1] - b[0])))
+        .map(|w| [0.5 * (w[0] + w[1]), y])
+}
+
 pub fn field_target(model: &Model, u: &Uplift, formation_level: f64) -> Option<f64> {
     let sigma = overburden(u.soil_unit_weight, formation_level, u.layer_top);
     let h_req = required_head(sigma, u.layer_top, u.factor_of_safety);
@@ -181,12 +205,12 @@ pub fn add_uplift_points(model: &Model, points: &mut Vec<CheckPoint>) {
                 target_level: Some(target),
             });
         }
-        if let Some(p) = e.outline.interior_point() {
+        if let Some(p) = inside_point(&e.outline) {
             extra.push(CheckPoint {
                 name: format!("{} uplift inside", e.name),
                 kind: PointKind::Uplift,
                 excavation: Some(ei),
-                position: [p.x(), p.y()],
+                position: p,
                 target_level: Some(target),
             });
         }

@@ -17,6 +17,33 @@ pub const MIN_LEAKAGE_FACTOR: f64 = 0.1;
 /// Most check points the grid, corner and edge settings may build.
 pub const MAX_CHECK_POINTS: usize = 400_000;
 
+/// Smallest ratio of the finest length drydig resolves (well radius, a tenth of the grid spacing)
+/// to the spacing of doubles at the site's coordinates: below it a result could depend on where
+/// the origin is.
+pub const MIN_RESOLUTION_ULPS: f64 = 1e6;
+
+/// Refuse coordinates so far from the origin that the finest length of the design is within
+/// [`MIN_RESOLUTION_ULPS`] spacings of doubles there (IEEE 754: the spacing at |x| is about
+/// |x|·2⁻⁵²). The superposition itself runs on coordinates shifted to a site origin.
+fn precision(rep: &Reporter, model: &Model) -> Result<(), InputError> {
+    let far = model
+        .excavations
+        .iter()
+        .flat_map(|e| e.outline.exterior().0.iter())
+        .map(|c| c.x.abs().max(c.y.abs()))
+        .fold(0.0, f64::max);
+    let ulp = far * f64::EPSILON;
+    let finest = model.wells.radius.min(0.1 * model.checks.grid_spacing);
+    if finest < MIN_RESOLUTION_ULPS * ulp {
+        return Err(rep.error(
+            "excavation[1].outline",
+            None,
+            format!("coordinates near {far:e} m keep only about {ulp:e} m precision, too coarse for a {finest} m detail; shift the coordinates to a local origin"),
+        ));
+    }
+    Ok(())
+}
+
 /// Check the derived quantities of `model`.
 pub fn check(rep: &Reporter, model: &Model) -> Result<(), InputError> {
     let aq = &model.aquifer;
@@ -76,6 +103,7 @@ pub fn check(rep: &Reporter, model: &Model) -> Result<(), InputError> {
         });
         points += vertices + perimeter / model.checks.edge_spacing + bbox;
     }
+    precision(rep, model)?;
     if points.is_nan() || points > MAX_CHECK_POINTS as f64 {
         return Err(rep.error(
             "checks.grid_spacing",

@@ -10,7 +10,8 @@
 //! number of check points), `as_built` (screens, well losses, header level, spacing limits,
 //! recharge limits), `sides` (everything on the aquifer side of every boundary),
 //! `design_settings` (operating margin, capacity fraction, one well out, pumps),
-//! `output` (map extent, contour interval, section line, site coordinate system).
+//! `simple` (outlines of many vertices: simplicity by R-tree, simplification), `output` (map
+//! extent, contour interval, section line, site coordinate system).
 
 pub mod aquifer;
 pub mod as_built;
@@ -23,4 +24,5 @@ pub mod programme;
 pub mod ranges;
 pub mod shapes;
 pub mod sides;
+pub mod simple;
 pub mod wells;

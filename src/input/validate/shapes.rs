@@ -65,6 +65,9 @@ pub fn points(
         .collect()
 }
 
+/// Outlines up to this many vertices are validated by `geo` itself.
+const SMALL_OUTLINE: usize = 2_000;
+
 /// A valid simple polygon from at least three points in projected metres.
 pub fn polygon(
     rep: &Reporter,
@@ -89,7 +92,17 @@ pub fn polygon(
     looks_geographic(&pts).map_or(Ok(()), |m| Err(rep.error(field, span.clone(), m)))?;
     let ring: LineString<f64> = pts.iter().map(|p| Coord { x: p[0], y: p[1] }).collect();
     let poly = Polygon::new(ring, vec![]);
-    if let Err(problem) = poly.check_validation() {
+    // Past a few thousand vertices `geo`'s check (which tests every pair of edges) is replaced
+    // by the R-tree test of `simple`, near-linear in the vertices.
+    if pts.len() > SMALL_OUTLINE {
+        if let Some((a, b)) = crate::input::validate::simple::first_crossing(&pts) {
+            return Err(rep.error(
+                field,
+                span,
+                format!("the outline is not a simple polygon (edges {a} and {b} meet); list the corners in order around the outline without crossing edges"),
+            ));
+        }
+    } else if let Err(problem) = poly.check_validation() {
         return Err(rep.error(
             field,
             span,
@@ -99,7 +112,33 @@ pub fn polygon(
     if poly.unsigned_area() <= 0.0 {
         return Err(rep.error(field, span, "the outline encloses no area"));
     }
-    Ok(poly)
+    Ok(simplified(poly))
+}
+
+/// Largest distance, m, by which an outline of more than [`SMALL_OUTLINE`] vertices may move
+/// when it is simplified.
+pub const SIMPLIFY_TOLERANCE: f64 = 1e-3;
+
+/// An outline of more than [`SMALL_OUTLINE`] vertices (a surveyed curve, a traced drawing) is
+/// simplified by Ramer–Douglas–Peucker (Douglas & Peucker 1973, *The Canadian Cartographer*
+/// 10(2)) to within [`SIMPLIFY_TOLERANCE`] = 1 mm of the given line, so that the layout and
+/// shape steps (convex hull, minimum rotated rectangle) stay fast; a result that is no longer
+/// simple keeps the outline as given.
+pub fn simplified(poly: Polygon<f64>) -> Polygon<f64> {
+    use geo::Simplify;
+    if poly.exterior().0.len() <= SMALL_OUTLINE + 1 {
+        return poly;
+    }
+    let s = poly.simplify(SIMPLIFY_TOLERANCE);
+    let pts: Vec<[f64; 2]> = s.exterior().0.iter().skip(1).map(|c| [c.x, c.y]).collect();
+    if pts.len() >= 3
+        && s.unsigned_area() > 0.0
+        && crate::input::validate::simple::first_crossing(&pts).is_none()
+    {
+        s
+    } else {
+        poly
+    }
 }
 
 /// Coordinates that look like longitude/latitude degrees rather than metres.
@@ -199,6 +238,47 @@ pub fn excavations(
     Ok(excavations)
 }
 
+/// Half-length, m, of a boundary line as stored: the line is infinite, its two points only fix it.
+pub const BOUNDARY_HALF_LENGTH: f64 = 1_000.0;
+
+/// A boundary given by points farther apart (or farther from the site) than this, m, is stored
+/// normalised.
+pub const NORMALISE_BEYOND: f64 = 10_000.0;
+
+/// The centre of the first excavation's bounding box: the point boundary lines are fixed near.
+fn site_centre(excavations: &[Excavation]) -> [f64; 2] {
+    use geo::BoundingRect;
+    excavations
+        .first()
+        .and_then(|e| e.outline.bounding_rect())
+        .map_or([0.0, 0.0], |b| {
+            [0.5 * (b.min().x + b.max().x), 0.5 * (b.min().y + b.max().y)]
+        })
+}
+
+/// The straight line through `a` and `b`, however far apart, as two points
+/// [`BOUNDARY_HALF_LENGTH`] either side of the foot of the perpendicular from `centre`: the unit
+/// direction d = (b − a)/|b − a| and the foot f = a + ((centre − a)·d)·d (plane geometry, common
+/// practice (no source)). Every later use (images, map, outputs) then sees a line of the site's
+/// own scale whatever points were given.
+/// Points up to [`NORMALISE_BEYOND`] apart are kept as given (they are what the outputs show).
+pub fn normalised_line(a: [f64; 2], b: [f64; 2], centre: [f64; 2]) -> [[f64; 2]; 2] {
+    let (dx, dy) = (b[0] - a[0], b[1] - a[1]);
+    let len = dx.hypot(dy);
+    let near = |p: [f64; 2]| (p[0] - centre[0]).hypot(p[1] - centre[1]) <= NORMALISE_BEYOND;
+    if len <= NORMALISE_BEYOND && near(a) && near(b) {
+        return [a, b];
+    }
+    let d = [dx / len, dy / len];
+    let t = (centre[0] - a[0]) * d[0] + (centre[1] - a[1]) * d[1];
+    let f = [a[0] + t * d[0], a[1] + t * d[1]];
+    let h = BOUNDARY_HALF_LENGTH;
+    [
+        [f[0] - h * d[0], f[1] - h * d[1]],
+        [f[0] + h * d[0], f[1] + h * d[1]],
+    ]
+}
+
 /// Boundary lines and keep-out zones.
 pub fn boundaries_and_keep_outs(
     rep: &Reporter,
@@ -237,7 +317,7 @@ pub fn boundaries_and_keep_outs(
         boundaries.push(Boundary {
             name: b.name.clone(),
             kind,
-            line: [pts[0], pts[1]],
+            line: normalised_line(pts[0], pts[1], site_centre(excavations)),
         });
     }
 

@@ -6,7 +6,7 @@
 use crate::check::run::CheckRun;
 use crate::report::map::symbols::{cross_size, well_radius};
 use crate::report::map::view::View;
-use geo::{Centroid, InteriorPoint, Polygon};
+use geo::{Centroid, Polygon};
 
 /// Axis-aligned boxes already taken by labels and symbols: [x0, y0, x1, y1], px. `soft` boxes
 /// (failed check points) keep every label off except an excavation's own name, which may sit
@@ -128,7 +128,7 @@ pub(super) fn place_with(
 pub(super) fn poly_label_candidates(view: &View, poly: &Polygon<f64>, h: f64) -> Vec<[f64; 2]> {
     use geo::{BoundingRect, Contains};
     let mut c = Vec::new();
-    let home = poly.interior_point().map(|p| [p.x(), p.y()]);
+    let home = crate::field::checkpoints::inside_point(poly);
     if let Some(p) = home {
         c.push(view.px(p));
     }
