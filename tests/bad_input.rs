@@ -149,7 +149,6 @@ const CASES: &[Case] = &[
     case("standby_a_hundred_million.toml", Slot("wells.standby"), "usual 1 … 3", None),
     case("grid_of_a_kilometre_pit_at_0_1_m.toml", Slot("checks.grid_spacing"), "give a larger checks.grid_spacing", None),
     case("neighbour_with_300_layers.toml", Slot("neighbour[1].layer"), "give fewer soil layers", None),
-    case("eleven_thousand_named_points.toml", Slot("checks.point"), "give fewer named points", None),
     case("outline_at_1e300.toml", Slot("excavation[1].outline"), "beyond ±1e7 m", Some("outline = ")),
     case("outline_at_1e154.toml", Slot("excavation[1].outline"), "projected coordinates", Some("outline = ")),
     case("listed_well_at_1e154.toml", Slot("well[1].x"), "beyond ±1e7 m", None),

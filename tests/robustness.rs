@@ -117,6 +117,28 @@ fn dev_zero_and_a_huge_file_are_refused_quickly_with_the_cap() {
 }
 
 #[test]
+fn eleven_thousand_named_points_are_refused_naming_the_list() {
+    let d = tempfile::tempdir().unwrap();
+    let points: String = (0..11_000)
+        .map(|i| {
+            format!(
+                "\n[[checks.point]]\nname = \"P{i}\"\nx = {}\ny = {}\n",
+                i % 100,
+                i / 100
+            )
+        })
+        .collect();
+    let p = write(d.path(), "points.toml", &pit(&points));
+    let run = drydig(&["estimate", p.to_str().unwrap()]);
+    assert_clean_exit(&run, &[2], "11 000 points");
+    let err = text(&run.stderr);
+    assert!(
+        err.contains("checks.point") && err.contains("11000"),
+        "{err}"
+    );
+}
+
+#[test]
 fn layouts_too_big_to_build_are_refused_naming_the_setting() {
     let d = tempfile::tempdir().unwrap();
     // common practice (no source): no site needs 10⁵ wells; a 1 mm spacing is a unit slip.

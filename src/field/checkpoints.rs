@@ -231,3 +231,49 @@ pub fn add_uplift_points(model: &Model, points: &mut Vec<CheckPoint>) {
     }
     points.extend(extra);
 }
+
+#[cfg(test)]
+mod scanline_tests {
+    use super::*;
+    use geo::{Coord, LineString, Polygon};
+
+    /// The scanline shortcut against the plain test (`geo`'s `Contains`) on an L-shaped outline
+    /// and a rotated one, at points on and off the grid.
+    #[test]
+    fn scanline_agrees_with_contains() {
+        let shapes = [
+            vec![
+                [0.0, 0.0],
+                [56.0, 0.0],
+                [56.0, 22.0],
+                [30.0, 22.0],
+                [30.0, 44.0],
+                [0.0, 44.0],
+            ],
+            vec![
+                [0.3, -7.1],
+                [40.2, 3.3],
+                [31.7, 29.9],
+                [12.1, 15.2],
+                [-8.4, 22.8],
+            ],
+        ];
+        for pts in shapes {
+            let mut ring: Vec<Coord<f64>> =
+                pts.iter().map(|p| Coord { x: p[0], y: p[1] }).collect();
+            ring.push(ring[0]);
+            let poly = Polygon::new(LineString(ring.clone()), vec![]);
+            for j in 0..97 {
+                let y = -10.0 + 0.57 * j as f64;
+                let xs = row_crossings(&ring, y);
+                for i in 0..131 {
+                    let p = [-12.0 + 0.53 * i as f64, y];
+                    let plain = poly.contains(&Point::new(p[0], p[1]));
+                    assert_eq!(inside_by_crossings(&xs, p, &poly), plain, "{p:?}");
+                }
+            }
+            let inside = inside_point(&poly).unwrap();
+            assert!(poly.contains(&Point::new(inside[0], inside[1])));
+        }
+    }
+}

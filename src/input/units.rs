@@ -355,8 +355,11 @@ impl<'de> Deserialize<'de> for Ratio {
             )))
             }
         };
-        if !value.is_finite() {
-            return Err(serde::de::Error::custom("expected a finite number"));
+        if !value.is_finite() || value.abs() > RatioKind::MAX_SI {
+            return Err(serde::de::Error::custom(format!(
+                "expected a finite ratio of magnitude at most {:e}",
+                RatioKind::MAX_SI
+            )));
         }
         Ok(Ratio { value, span })
     }
@@ -447,6 +450,19 @@ mod tests {
         assert!(e.contains("unknown unit"), "{e}");
         let e = parse::<LengthKind>("2 mn").unwrap_err();
         assert!(e.contains("did you mean"), "{e}");
+    }
+
+    // IEEE 754 doubles overflow past about 1.8e308 (so 1e306 km is infinite in metres);
+    // common practice (no source) that no soil conducts 1e-20 m/s as a deliberate value.
+    #[test]
+    fn values_out_of_bounds_after_units_are_refused() {
+        let e = parse::<LengthKind>("1e306 km").unwrap_err();
+        assert!(e.contains("beyond the largest"), "{e}");
+        let e = parse::<ConductivityKind>("1e-20 m/s").unwrap_err();
+        assert!(e.contains("below the smallest"), "{e}");
+        assert_eq!(parse::<LengthKind>("0 m").unwrap(), 0.0);
+        assert!(parse::<FlowKind>("1e300 m3/h").is_err());
+        assert!(parse::<TimeKind>("1e306 weeks").is_err());
     }
 
     #[test]

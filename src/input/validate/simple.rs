@@ -121,4 +121,35 @@ mod tests {
         let spike = [[0.0, 0.0], [2.0, 0.0], [1.0, 0.0], [1.0, 1.0]];
         assert!(first_crossing(&spike).is_some());
     }
+
+    /// The shortcut against the plain test: `geo`'s validation of every pair of edges, on rings
+    /// of random points (most of which cross themselves) and on star shapes (simple).
+    #[test]
+    fn agrees_with_geo_validation_on_random_rings() {
+        use geo::{Coord, LineString, Polygon, Validation};
+        let mut seed: u64 = 12345;
+        let mut next = || {
+            seed = seed
+                .wrapping_mul(6364136223846793005)
+                .wrapping_add(1442695040888963407);
+            (seed >> 11) as f64 / (1u64 << 53) as f64
+        };
+        for case in 0..300 {
+            let n = 3 + case % 9;
+            let pts: Vec<[f64; 2]> = if case % 3 == 0 {
+                (0..n)
+                    .map(|i| {
+                        let a = std::f64::consts::TAU * i as f64 / n as f64;
+                        let r = 5.0 + 5.0 * next();
+                        [r * a.cos(), r * a.sin()]
+                    })
+                    .collect()
+            } else {
+                (0..n).map(|_| [10.0 * next(), 10.0 * next()]).collect()
+            };
+            let ring: LineString<f64> = pts.iter().map(|p| Coord { x: p[0], y: p[1] }).collect();
+            let geo_ok = Polygon::new(ring, vec![]).is_valid();
+            assert_eq!(first_crossing(&pts).is_none(), geo_ok, "{pts:?}");
+        }
+    }
 }
