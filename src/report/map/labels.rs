@@ -162,6 +162,18 @@ pub(super) fn poly_label_candidates(view: &View, poly: &Polygon<f64>, h: f64) ->
             c.push([top[0], top[1] - h / 2.0 - gap]);
             c.push([bottom[0], bottom[1] + h / 2.0 + gap]);
         }
+        // Beside the outline, then further out: a neighbour's name is never left off for want
+        // of room next to the pit's own labels.
+        let left = view.px([r.min().x, (r.min().y + r.max().y) / 2.0]);
+        let right = view.px([r.max().x, (r.min().y + r.max().y) / 2.0]);
+        for gap in [60.0, 90.0, 130.0] {
+            c.push([right[0] + gap, right[1]]);
+            c.push([left[0] - gap, left[1]]);
+        }
+        for gap in [76.0, 104.0] {
+            c.push([top[0], top[1] - h / 2.0 - gap]);
+            c.push([bottom[0], bottom[1] + h / 2.0 + gap]);
+        }
     }
     c
 }
