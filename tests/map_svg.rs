@@ -496,8 +496,8 @@ distance = "200 m"
 [wells]
 kind = "deep-well"
 radius = "0.15 m"
-screen_top = "-1.0 m"
-screen_base = "-19.0 m"
+screen_top = "0.0 m"                # screened over the whole layer: Thiem, no partial penetration
+screen_base = "-20.0 m"
 pump_intake = "-18.0 m"
 submergence = "1.0 m"
 

@@ -254,8 +254,8 @@ distance = "300 m"
 [wells]
 kind = "deep-well"
 radius = "0.15 m"
-screen_top = "-1 m"
-screen_base = "-19 m"
+screen_top = "0 m"                    # the whole layer: fully penetrating, Thiem exactly
+screen_base = "-20 m"
 pump_intake = "-18 m"
 submergence = "1 m"
 
