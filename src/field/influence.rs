@@ -214,6 +214,14 @@ impl Field {
 
     /// Add `f(well, ΔΦ per unit rate)` for every source in range of `point` (site coordinates).
     fn for_each_in_range(&self, point: [f64; 2], mut f: impl FnMut(usize, f64)) {
+        self.for_each_thiem(point, &mut f);
+        if let Some(n) = &self.near {
+            n.for_each(self.local(point), f);
+        }
+    }
+
+    /// As [`Field::for_each_in_range`], the Thiem / Hantush part only (no near-field term).
+    fn for_each_thiem(&self, point: [f64; 2], mut f: impl FnMut(usize, f64)) {
         let p = self.local(point);
         for item in self
             .tree
@@ -222,9 +230,6 @@ impl Field {
             let s = &self.sources[item.data];
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
             f(s.well, s.sign * self.unit_potential(r, s.radius));
-        }
-        if let Some(n) = &self.near {
-            n.for_each(p, f);
         }
     }
 
@@ -298,28 +303,28 @@ impl Field {
                 delta[i] = v - offset;
             }
         }
+        // the near-field term at every point, block by block; a point inside a well is summed
+        // again in full by the R-tree path
+        let mut near = vec![0.0; points.len()];
+        let mut inside = vec![false; points.len()];
         if let Some(n) = &self.near {
-            // the near-field term where the fast sums above left it out; a point inside a well
-            // is summed again in full by the R-tree path (NaN marks it)
-            let fast_pts: Vec<[f64; 2]> = fast.iter().map(|&i| local[i]).collect();
-            let mut extra = vec![0.0; fast.len()];
-            let inside = n.add_levels(&fast_pts, rates, &mut extra);
-            for (j, &i) in fast.iter().enumerate() {
-                delta[i] += extra[j];
-            }
-            for j in inside {
-                delta[fast[j]] = f64::NAN;
+            for j in n.add_levels(&local, rates, &mut near) {
+                inside[j] = true;
             }
         }
         let phi0 = self.aquifer.initial_potential();
-        points
-            .par_iter()
-            .zip(delta.par_iter())
-            .map(|(pt, d)| {
-                let d = if d.is_nan() {
-                    self.delta_potential(*pt, rates)
+        (0..points.len())
+            .into_par_iter()
+            .map(|i| {
+                let pt = points[i];
+                let d = if inside[i] {
+                    self.delta_potential(pt, rates)
+                } else if delta[i].is_nan() {
+                    let mut sum = 0.0;
+                    self.for_each_thiem(pt, |w, v| sum += rates[w] * v);
+                    sum + near[i]
                 } else {
-                    *d
+                    delta[i] + near[i]
                 };
                 self.aquifer.level(phi0 + d)
             })
