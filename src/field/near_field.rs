@@ -235,10 +235,15 @@ impl NearField {
                     at_points: table(&s, z_rel, r_lo),
                     at_screen_of: mids.iter().map(|&m| table(&s, m, r_lo)).collect(),
                     own: well_correction(&s, w.radius),
-                    cutoff: cutoff_radius(&s, NEAR_FIELD_TOLERANCE),
+                    cutoff: 0.0,
                 }
             })
             .collect();
+        let mut classes = classes;
+        for c in &mut classes {
+            // the cut-off was found once with the table (cached with it)
+            c.cutoff = c.at_points.cutoff;
+        }
         let cutoff = classes.iter().map(|c| c.cutoff).fold(0.0, f64::max);
         let list: Vec<PartialSource> = sources
             .iter()
@@ -375,7 +380,9 @@ impl NearField {
                             inside = true;
                             break;
                         }
-                        acc += w * self.classes[class].at_points.at_log(0.5 * r2.max(rw2).ln());
+                        acc += w * self.classes[class]
+                            .at_points
+                            .at_log(0.5 * crate::field::fast_log::ln_fast(r2.max(rw2)));
                     }
                     if inside {
                         slow.push(i);
