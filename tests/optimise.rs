@@ -448,8 +448,8 @@ sichardt_c_line = 1500
 [wells]
 kind = "wellpoint"
 radius = "0.05 m"
-screen_top = "6.0 m"
-screen_base = "1.0 m"
+screen_top = "10.0 m"                 # the whole layer: fully penetrating, as the line slot
+screen_base = "0.0 m"
 pump_intake = "1.0 m"
 submergence = "0.3 m"
 suction_limit = "7.0 m"

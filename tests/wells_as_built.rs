@@ -306,3 +306,76 @@ fn check_map_levels(m: &Model, span: [f64; 4]) {
         assert!((a - b).abs() < 1e-9, "{p:?}: {a} vs {b}");
     }
 }
+
+// Jacob's loss in the linear programme (checks.md §13: loss C·Q²): the chords of the loss floor
+// are safe, so the least-flow rates, re-evaluated by the plain sum with the loss, keep every
+// well at or above its lowest level; with a large C (a clogged well, above Walton's 3 800 s²/m⁵)
+// the loss is what binds, and it costs flow against the same wells without it.
+#[test]
+fn well_loss_in_the_programme_is_safe_and_binds() {
+    use drydig::optimise::rates::LayoutRates;
+    let base = |extra: &str| {
+        format!(
+            r#"
+[site]
+name = "Loss pit"
+ground_level = "1.0 m"
+
+[aquifer]
+kind = "unconfined"
+conductivity = "2e-4 m/s"
+base_level = "-12.0 m"
+groundwater_level = "0.0 m"
+
+[[excavation]]
+name = "Pit"
+outline = [[0, 0], [20, 0], [20, 12], [0, 12]]
+formation_level = "-4.0 m"
+target_margin = "0.5 m"
+
+[influence]
+method = "fixed"
+distance = "150 m"
+
+[wells]
+kind = "deep-well"
+radius = "0.15 m"
+screen_top = "-1.0 m"
+screen_base = "-12.0 m"
+pump_intake = "-7.0 m"
+submergence = "1.0 m"
+{extra}
+
+[layout]
+kind = "ring"
+offset = "2 m"
+count = 10
+"#
+        )
+    };
+    let flow = |extra: &str| {
+        let m = model(&base(extra));
+        let points = check_points(&m);
+        let placement = from_model(&m, None).unwrap();
+        let rates = LayoutRates::new(&m, &points, placement.wells);
+        let ind = rates.individual();
+        assert!(ind.met, "{extra}: {:?}", ind.status);
+        let e = rates.evaluate(&ind.rates);
+        for w in &e.wells {
+            assert!(
+                w.level_m.unwrap() >= w.lowest_allowed_level_m - 1e-3,
+                "{}",
+                w.name
+            );
+        }
+        (ind.total, ind.binding, e)
+    };
+    let (q0, _, _) = flow("");
+    let (q1, binding, e) = flow("loss_coefficient = 100000");
+    assert!(
+        binding.iter().any(|b| b.contains("well loss")),
+        "{binding:?}"
+    );
+    assert!(e.wells.iter().any(|w| w.well_loss_m > 0.5));
+    assert!(q1 >= q0 - 1e-9, "{q1} vs {q0}");
+}

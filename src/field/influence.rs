@@ -13,6 +13,7 @@
 //! rate ([`crate::field::near_field`], partial penetration): set with
 //! [`Field::with_partial_penetration`].
 
+use crate::field::fast_log::ln_fast;
 use crate::field::near_field::{NearField, WellScreen};
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
@@ -214,6 +215,14 @@ impl Field {
 
     /// Add `f(well, ΔΦ per unit rate)` for every source in range of `point` (site coordinates).
     fn for_each_in_range(&self, point: [f64; 2], mut f: impl FnMut(usize, f64)) {
+        self.for_each_thiem(point, &mut f);
+        if let Some(n) = &self.near {
+            n.for_each(self.local(point), f);
+        }
+    }
+
+    /// As [`Field::for_each_in_range`], the Thiem / Hantush part only (no near-field term).
+    fn for_each_thiem(&self, point: [f64; 2], mut f: impl FnMut(usize, f64)) {
         let p = self.local(point);
         for item in self
             .tree
@@ -222,9 +231,6 @@ impl Field {
             let s = &self.sources[item.data];
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
             f(s.well, s.sign * self.unit_potential(r, s.radius));
-        }
-        if let Some(n) = &self.near {
-            n.for_each(p, f);
         }
     }
 
@@ -298,28 +304,28 @@ impl Field {
                 delta[i] = v - offset;
             }
         }
+        // the near-field term at every point, block by block; a point inside a well is summed
+        // again in full by the R-tree path
+        let mut near = vec![0.0; points.len()];
+        let mut inside = vec![false; points.len()];
         if let Some(n) = &self.near {
-            // the near-field term where the fast sums above left it out; a point inside a well
-            // is summed again in full by the R-tree path (NaN marks it)
-            let fast_pts: Vec<[f64; 2]> = fast.iter().map(|&i| local[i]).collect();
-            let mut extra = vec![0.0; fast.len()];
-            let inside = n.add_levels(&fast_pts, rates, &mut extra);
-            for (j, &i) in fast.iter().enumerate() {
-                delta[i] += extra[j];
-            }
-            for j in inside {
-                delta[fast[j]] = f64::NAN;
+            for j in n.add_levels(&local, rates, &mut near) {
+                inside[j] = true;
             }
         }
         let phi0 = self.aquifer.initial_potential();
-        points
-            .par_iter()
-            .zip(delta.par_iter())
-            .map(|(pt, d)| {
-                let d = if d.is_nan() {
-                    self.delta_potential(*pt, rates)
+        (0..points.len())
+            .into_par_iter()
+            .map(|i| {
+                let pt = points[i];
+                let d = if inside[i] {
+                    self.delta_potential(pt, rates)
+                } else if delta[i].is_nan() {
+                    let mut sum = 0.0;
+                    self.for_each_thiem(pt, |w, v| sum += rates[w] * v);
+                    sum + near[i]
                 } else {
-                    *d
+                    delta[i] + near[i]
                 };
                 self.aquifer.level(phi0 + d)
             })
@@ -494,37 +500,9 @@ impl Flat {
     }
 }
 
-/// Natural logarithm of a positive, finite, normal `x` by arithmetic only (so loops over it
-/// vectorise): x = m·2^e with m in [√½, √2), ln m = 2·atanh(t), t = (m − 1)/(m + 1), |t| < 0.172,
-/// by its series to t²¹ (truncation below 1e-17 relative).
-#[inline]
-fn ln_fast(x: f64) -> f64 {
-    let bits = x.to_bits();
-    let mut e = ((bits >> 52) & 0x7ff) as i64 - 1023;
-    let mut m = f64::from_bits((bits & 0x000f_ffff_ffff_ffff) | 0x3ff0_0000_0000_0000);
-    if m > std::f64::consts::SQRT_2 {
-        m *= 0.5;
-        e += 1;
-    }
-    let t = (m - 1.0) / (m + 1.0);
-    let t2 = t * t;
-    let p = 1.0 / 21.0;
-    let p = p * t2 + 1.0 / 19.0;
-    let p = p * t2 + 1.0 / 17.0;
-    let p = p * t2 + 1.0 / 15.0;
-    let p = p * t2 + 1.0 / 13.0;
-    let p = p * t2 + 1.0 / 11.0;
-    let p = p * t2 + 1.0 / 9.0;
-    let p = p * t2 + 1.0 / 7.0;
-    let p = p * t2 + 1.0 / 5.0;
-    let p = p * t2 + 1.0 / 3.0;
-    let p = p * t2 + 1.0;
-    e as f64 * std::f64::consts::LN_2 + 2.0 * t * p
-}
-
 #[cfg(test)]
 mod tests {
-    use super::ln_fast;
+    use crate::field::fast_log::ln_fast;
 
     // Against the platform's libm logarithm (f64::ln), over the range of r² the kernel meets
     // (1e-12 m² … 1e14 m²) and beyond: within 4 ulp-scale relative error (absolute near x = 1).

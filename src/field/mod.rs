@@ -7,6 +7,7 @@
 //! (with `near_field`, partial penetration near the wells) → `grid` (the regular grid of levels behind the maps).
 
 pub mod checkpoints;
+pub mod fast_log;
 pub mod grid;
 pub mod influence;
 pub mod layout;

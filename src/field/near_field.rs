@@ -235,10 +235,15 @@ impl NearField {
                     at_points: table(&s, z_rel, r_lo),
                     at_screen_of: mids.iter().map(|&m| table(&s, m, r_lo)).collect(),
                     own: well_correction(&s, w.radius),
-                    cutoff: cutoff_radius(&s, NEAR_FIELD_TOLERANCE),
+                    cutoff: 0.0,
                 }
             })
             .collect();
+        let mut classes = classes;
+        for c in &mut classes {
+            // the cut-off was found once with the table (cached with it)
+            c.cutoff = c.at_points.cutoff;
+        }
         let cutoff = classes.iter().map(|c| c.cutoff).fold(0.0, f64::max);
         let list: Vec<PartialSource> = sources
             .iter()
@@ -326,11 +331,7 @@ impl NearField {
             .map(|s| -s.sign * rates[s.well] / (2.0 * PI))
             .collect();
         let side = (0.25 * self.cutoff).max(1e-3);
-        let mut blocks: HashMap<(i64, i64), Vec<usize>> = HashMap::new();
-        for (i, p) in pts.iter().enumerate() {
-            blocks.entry(cell_index(*p, side)).or_default().push(i);
-        }
-        let blocks: Vec<((i64, i64), Vec<usize>)> = blocks.into_iter().collect();
+        let blocks = blocks_of(pts, side);
         let reach = self.cutoff + side * std::f64::consts::FRAC_1_SQRT_2;
         let results: Vec<BlockSums> = blocks
             .par_iter()
@@ -379,7 +380,9 @@ impl NearField {
                             inside = true;
                             break;
                         }
-                        acc += w * self.classes[class].at_points.at_log(0.5 * r2.max(rw2).ln());
+                        acc += w * self.classes[class]
+                            .at_points
+                            .at_log(0.5 * crate::field::fast_log::ln_fast(r2.max(rw2)));
                     }
                     if inside {
                         slow.push(i);
@@ -399,6 +402,39 @@ impl NearField {
         }
         slow_all
     }
+}
+
+/// Points grouped by square block of side `side`: (block index, members). A counting sort over
+/// the points' bounding box (a map grid fills it), or a hash map for scattered points.
+fn blocks_of(pts: &[[f64; 2]], side: f64) -> Vec<((i64, i64), Vec<usize>)> {
+    let (mut x0, mut y0, mut x1, mut y1) = (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
+    for p in pts {
+        x0 = x0.min(p[0]);
+        y0 = y0.min(p[1]);
+        x1 = x1.max(p[0]);
+        y1 = y1.max(p[1]);
+    }
+    let (i0, j0) = cell_index([x0, y0], side);
+    let (i1, j1) = cell_index([x1, y1], side);
+    let (nx, ny) = ((i1 - i0 + 1) as usize, (j1 - j0 + 1) as usize);
+    if nx.saturating_mul(ny) > 4 * pts.len() + 1024 {
+        let mut map: HashMap<(i64, i64), Vec<usize>> = HashMap::new();
+        for (i, p) in pts.iter().enumerate() {
+            map.entry(cell_index(*p, side)).or_default().push(i);
+        }
+        return map.into_iter().collect();
+    }
+    let mut cells: Vec<Vec<usize>> = vec![Vec::new(); nx * ny];
+    for (i, p) in pts.iter().enumerate() {
+        let (ci, cj) = cell_index(*p, side);
+        cells[(cj - j0) as usize * nx + (ci - i0) as usize].push(i);
+    }
+    cells
+        .into_iter()
+        .enumerate()
+        .filter(|(_, v)| !v.is_empty())
+        .map(|(k, v)| ((i0 + (k % nx) as i64, j0 + (k / nx) as i64), v))
+        .collect()
 }
 
 fn cell_index(p: [f64; 2], cell: f64) -> (i64, i64) {

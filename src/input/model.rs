@@ -474,9 +474,9 @@ pub const DEFAULT_MIN_SPACING_WELLPOINT: f64 = 0.75;
 pub const DEFAULT_MAX_SPACING_WELLPOINT: f64 = 3.0;
 /// Default closest deep-well spacing, m (common practice (no source): rigs and pipework).
 pub const DEFAULT_MIN_SPACING_DEEP_WELL: f64 = 3.0;
-/// Default widest deep-well spacing, m (common practice (no source): a ring of deep wells
-/// rarely stands more than about 30 m apart).
-pub const DEFAULT_MAX_SPACING_DEEP_WELL: f64 = 30.0;
+/// Default widest deep-well spacing, m (common practice (no source): deep wells stand some
+/// 10–50 m apart; wider gaps leave the ground between them undrained).
+pub const DEFAULT_MAX_SPACING_DEEP_WELL: f64 = 50.0;
 
 /// The loss inside a pumped well over the aquifer just outside its screen.
 #[derive(Debug, Clone, Copy, PartialEq)]
