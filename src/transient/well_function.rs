@@ -1,7 +1,7 @@
 //! The Theis well function W(u) = E₁(u) for the inner loop of the superposition in time.
 //!
 //! For u ≤ 1 the convergent series E₁(u) = −γ − ln u + Σₖ (−1)^(k+1)·uᵏ/(k·k!) (Abramowitz &
-//! Stegun 1964, eq. 5.1.11) is summed to k = 20 by Horner's rule with fixed coefficients (the
+//! Stegun 1964, eq. 5.1.11) is summed to k = 20 by Horner's rule (plain multiply-add: `mul_add` is a library call without FMA hardware flags) with fixed coefficients (the
 //! first term left out is below 2e-20, far under the double-precision step of E₁ ≥ 0.219
 //! there); above 1 the Cephes `expn(1, u)` of [`crate::physics::special::exp1`] is used. The same
 //! function, about five times cheaper where most pairs of a map lie (u small), which is where
@@ -37,7 +37,7 @@ pub fn theis_w(u: f64) -> f64 {
     if u > 0.0 && u <= 1.0 {
         let mut s = C[TERMS - 1];
         for k in (0..TERMS - 1).rev() {
-            s = s.mul_add(u, C[k]);
+            s = s * u + C[k];
         }
         -EULER_GAMMA - u.ln() + u * s
     } else {
