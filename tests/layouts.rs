@@ -14,7 +14,8 @@
 //!
 //! The geometry facts are plane geometry (common practice (no source)).
 
-use drydig::field::layout::{from_model, generate, line, read_csv, ring, Placement};
+use drydig::field::layout::{from_model, generate, line, ring, Placement};
+use drydig::field::wells_csv::read_csv;
 use drydig::input::model::{LayoutKind, Model, RingCount};
 use drydig::input::validate::file::from_str;
 use std::f64::consts::SQRT_2;

@@ -15,3 +15,4 @@ pub mod near_field;
 pub mod radius;
 pub mod shape;
 pub mod wells;
+pub mod wells_csv;

@@ -31,7 +31,7 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
         w.write_record([
             // Name, position, rate and radius in full (shortest round-trip) precision, so that
             // `check --wells wells.csv` reproduces the run.
-            crate::field::layout::csv_text(&well.name),
+            crate::field::wells_csv::csv_text(&well.name),
             format!("{}", well.position[0]),
             format!("{}", well.position[1]),
             format!("{}", well.rate * 1e3),
@@ -74,7 +74,7 @@ pub fn checkpoints_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
     ])?;
     for p in &run.evaluation.points {
         w.write_record([
-            crate::field::layout::csv_text(&p.point.name),
+            crate::field::wells_csv::csv_text(&p.point.name),
             format!("{:?}", p.point.kind).to_lowercase(),
             format!("{:.3}", p.point.position[0]),
             format!("{:.3}", p.point.position[1]),

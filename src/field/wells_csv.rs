@@ -1,0 +1,146 @@
+//! Wells read from a CSV file (`check --wells`, `[layout] kind = "csv"`), and the CSV text
+//! rules drydig's own tables follow so that its `wells.csv` reads back to the same wells:
+//! size-capped, row-capped, names free of control characters, cells that a spreadsheet would
+//! take for a formula or a reader for a comment prefixed with an apostrophe.
+
+use crate::field::wells::Well;
+use crate::input::error::InputError;
+use crate::input::model::Model;
+use crate::input::validate::ranges::MAX_WELLS;
+use std::path::Path;
+
+/// Largest wells CSV read, bytes.
+pub const MAX_CSV_BYTES: u64 = 16 << 20;
+
+/// Wells from a CSV file with columns `name,x,y,rate_l_per_s` and optional `radius_m`.
+pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
+    let err = |line: Option<usize>, field: &str, message: String| InputError {
+        file: path.to_path_buf(),
+        field: field.to_string(),
+        line,
+        message,
+    };
+    let bytes = crate::input::validate::file::read_capped(path, MAX_CSV_BYTES, "wells CSV")?;
+    let mut reader = csv::ReaderBuilder::new()
+        .trim(csv::Trim::All)
+        .comment(Some(b'#'))
+        .from_reader(bytes.as_slice());
+    // Line of the last byte the reader has taken, i.e. the line the row just read ends on.
+    // (A record's own position points at any comment or blank lines skipped before it.)
+    let line_now = |r: &csv::Reader<&[u8]>| {
+        let end = (r.position().byte() as usize).clamp(1, bytes.len().max(1)) - 1;
+        bytes[..end].iter().filter(|b| **b == b'\n').count() + 1
+    };
+    let headers = reader
+        .headers()
+        .map_err(|e| err(Some(1), "", format!("cannot read the header row: {e}")))?
+        .clone();
+    let col = |name: &str| headers.iter().position(|h| h.eq_ignore_ascii_case(name));
+    let (Some(ci_name), Some(ci_x), Some(ci_y), Some(ci_rate)) =
+        (col("name"), col("x"), col("y"), col("rate_l_per_s"))
+    else {
+        return Err(err(
+            Some(line_now(&reader)),
+            "header",
+            format!(
+                "the header must have name, x, y, rate_l_per_s (optional radius_m); found: {}",
+                headers.iter().collect::<Vec<_>>().join(", ")
+            ),
+        ));
+    };
+    let ci_radius = col("radius_m");
+    let mut wells = Vec::new();
+    let mut names = std::collections::HashSet::new();
+    let mut rec = csv::StringRecord::new();
+    loop {
+        match reader.read_record(&mut rec) {
+            Ok(true) => {}
+            Ok(false) => break,
+            Err(e) => return Err(err(Some(line_now(&reader)), "", format!("bad row: {e}"))),
+        }
+        let line = line_now(&reader);
+        let num = |ci: usize, field: &str| -> Result<f64, InputError> {
+            let t = rec.get(ci).unwrap_or("");
+            t.parse::<f64>()
+                .ok()
+                .filter(|v| v.is_finite())
+                .ok_or_else(|| err(Some(line), field, format!("\"{t}\" is not a finite number")))
+        };
+        if wells.len() >= MAX_WELLS {
+            return Err(err(
+                Some(line),
+                "",
+                format!("the wells CSV holds more than {MAX_WELLS} wells, the most drydig builds; split the field or give fewer wells"),
+            ));
+        }
+        let name = csv_name(rec.get(ci_name).unwrap_or(""));
+        if let Some(c) = name.chars().find(|c| c.is_control()) {
+            return Err(err(
+                Some(line),
+                "name",
+                format!("the name holds a control character (U+{:04X})", c as u32),
+            ));
+        }
+        if name.is_empty() || !names.insert(name.clone()) {
+            return Err(err(
+                Some(line),
+                "name",
+                format!("well name \"{name}\" is empty or repeated; each well needs its own name"),
+            ));
+        }
+        let (x, y) = (num(ci_x, "x")?, num(ci_y, "y")?);
+        let max = crate::input::validate::ranges::MAX_COORD;
+        if x.abs() > max || y.abs() > max {
+            return Err(err(
+                Some(line),
+                "x",
+                format!("({x:e}, {y:e}) lies beyond ±{max:e} m of the grid origin; give projected coordinates in metres"),
+            ));
+        }
+        let rate = num(ci_rate, "rate_l_per_s")?;
+        if rate.abs() > 1e5 {
+            return Err(err(
+                Some(line),
+                "rate_l_per_s",
+                format!("{rate} L/s is more than any well pumps (at most 1e5 L/s)"),
+            ));
+        }
+        let mut w = Well::from_spec(name, [x, y], rate / 1e3, &model.wells);
+        if let Some(ci) = ci_radius {
+            let r = num(ci, "radius_m")?;
+            if !(r > 0.0 && r <= 2.0) {
+                return Err(err(
+                    Some(line),
+                    "radius_m",
+                    format!("{r} m is outside 0 … 2 m"),
+                ));
+            }
+            w.radius = r;
+        }
+        wells.push(w);
+    }
+    if wells.is_empty() {
+        return Err(err(None, "", "the wells CSV has no rows".into()));
+    }
+    Ok(wells)
+}
+
+/// A name cell as written by drydig's own tables: a leading apostrophe before `=`, `+`, `-`, `@`
+/// or `#` (put there so that spreadsheets do not read the cell as a formula and CSV readers not as
+/// a comment) is removed again. OWASP, "CSV Injection" (prefixing such cells with `'`).
+pub fn csv_name(cell: &str) -> String {
+    match cell.strip_prefix('\'') {
+        Some(rest) if rest.starts_with(['=', '+', '-', '@', '#']) => rest.to_string(),
+        _ => cell.to_string(),
+    }
+}
+
+/// The inverse of [`csv_name`]: a text cell safe for a spreadsheet and for a CSV reader that
+/// skips `#` lines.
+pub fn csv_text(text: &str) -> String {
+    if text.starts_with(['=', '+', '-', '@', '#']) {
+        format!("'{text}")
+    } else {
+        text.to_string()
+    }
+}
