@@ -17,7 +17,9 @@ use crate::check::evaluate::{evaluate, Evaluation};
 use crate::check::field_build::field_with_radius;
 use crate::field::checkpoints::CheckPoint;
 use crate::field::influence::Field;
-use crate::field::radius::{depends_on_drawdown, design_radius, radius_at};
+use crate::field::radius::{
+    depends_on_drawdown, design_drawdown, design_radius, radius_at, serves_trench,
+};
 use crate::field::wells::Well;
 use crate::input::model::Model;
 
@@ -48,6 +50,16 @@ pub fn evaluate_consistent(
     let mut e = evaluate(model, &field, wells, points);
     if !depends_on_drawdown(model) || wells.iter().all(|w| w.rate <= 0.0) {
         e.radius_of_influence_basis = basis0;
+        return (field, e);
+    }
+    if serves_trench(model) {
+        // Flow to a line: ΔΦ at the line is q′·R/π, in proportion to R, and Sichardt's L₀ is in
+        // proportion to s, so s ↦ drawdown(R(s)) has slope (produced / asked) and no stable
+        // fixed point once a layout overdraws. R stays at the design drawdown, and says so.
+        e.radius_of_influence_basis = format!(
+            "{basis0}; taken at the design drawdown (target + operating margin = {:.2} m) and not iterated: for flow to a line the drawdown grows in proportion to R, so a radius taken from the drawdown produced has no stable value",
+            design_drawdown(model)
+        );
         return (field, e);
     }
     let idx = model.layout.as_ref().map_or(0, |l| l.excavation);

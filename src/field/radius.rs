@@ -7,11 +7,24 @@ use crate::input::model::Model;
 /// Radius of influence used for superposition, m, and how it was found.
 ///
 /// Each well is given the group radius R₀ = r_e + L₀ of the excavation it serves, with L₀ from the
-/// design file's method at that excavation's target drawdown (common practice (no source)).
+/// design file's method at the drawdown the design produces there: the target drawdown plus the
+/// operating margin the design keeps (common practice (no source)).
 pub fn design_radius(model: &Model) -> (f64, String) {
+    radius_at(model, design_drawdown(model))
+}
+
+/// The drawdown a design produces at its served excavation, m: initial level − (target −
+/// operating margin).
+pub fn design_drawdown(model: &Model) -> f64 {
     let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
     let e = &model.excavations[idx];
-    radius_at(model, model.aquifer.initial_level - e.target_level())
+    model.aquifer.initial_level - e.target_level() + model.design.operating_margin
+}
+
+/// Whether the served excavation is treated as a trench (R = π·L₀/2).
+pub fn serves_trench(model: &Model) -> bool {
+    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
+    crate::field::shape::is_trench(model, &model.excavations[idx])
 }
 
 /// Whether the radius of influence depends on the drawdown (Sichardt, Kusakin) — and so should

@@ -495,12 +495,16 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
             ));
         }
     }
-    let design = if let Some((n, used)) = pick {
+    // The run of the chosen count: kept aside when it was found, else in the cache (looked up
+    // lazily: `unwrap_or(&cache[&n])` would index the cache even when the run was found).
+    let chosen = pick.and_then(|(n, used)| {
         let found = match used {
             RateOption::Individual => run_i.as_ref(),
             RateOption::Uniform => run_u.as_ref(),
         };
-        let t = found.unwrap_or(&cache[&n]);
+        found.or_else(|| cache.get(&n)).map(|t| (n, used, t))
+    });
+    let design = if let Some((_, used, t)) = chosen {
         let (rates, binding) = match used {
             RateOption::Individual => {
                 let pumping = t.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
