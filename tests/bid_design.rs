@@ -124,12 +124,17 @@ fn riverside_design_keeps_margin_capacity_fraction_and_one_well_out() {
     }
     // Any one working well out (the others at their rates): every target still met.
     let mut worst = (f64::INFINITY, String::new());
+    let mut margin_without = std::collections::HashMap::new();
     for k_out in (0..wells.len()).filter(|&i| wells[i].rate > 0.0) {
         let mut less = wells.clone();
         less[k_out].rate = 0.0;
         for p in points.iter().filter(|p| p.target_level.is_some()) {
             let z = unconfined_level(phi0 + delta_phi(p.position, &less, big_r, river), k, base);
             let m = p.target_level.unwrap() - z;
+            let e = margin_without
+                .entry(wells[k_out].name.clone())
+                .or_insert(f64::INFINITY);
+            *e = f64::min(*e, m);
             if m < worst.0 {
                 worst = (m, wells[k_out].name.clone());
             }
@@ -142,7 +147,19 @@ fn riverside_design_keeps_margin_capacity_fraction_and_one_well_out() {
         worst.0
     );
     let o = d.finish.one_out.as_ref().expect("one-well-out report");
-    assert_eq!(o.worst_well, worst.1);
+    // The well drydig names hurts most by the plain sum too (two wells can tie within a
+    // millimetre, so the margin without it is compared, not only the name).
+    let named = margin_without
+        .get(&o.worst_well)
+        .copied()
+        .unwrap_or(f64::INFINITY);
+    assert!(
+        (named - worst.0).abs() < TOL,
+        "{} out leaves {named} m, the worst ({} out) {} m",
+        o.worst_well,
+        worst.1,
+        worst.0
+    );
     assert!(
         (o.margin_without_m - worst.0).abs() < 1e-3,
         "{} vs {}",

@@ -460,6 +460,10 @@ offset = "0.5 m"
 spacing = "1.0 m"
 sides = "both"
 
+# The LP against the line slot at the target itself: no operating margin.
+[allowances]
+operating_margin = "0 m"
+
 [checks]
 grid_spacing = "2 m"
 edge_spacing = "2 m"

@@ -211,8 +211,8 @@ method = "fixed"
 distance = "300 m"
 [wells]
 radius = "0.15 m"
-screen_top = "-2 m"
-screen_base = "-18 m"
+screen_top = "0 m"      # the whole confined layer: fully penetrating, so Thiem holds
+screen_base = "-20 m"
 pump_intake = "-17 m"
 [layout]
 kind = "listed"
