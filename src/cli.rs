@@ -126,10 +126,10 @@ pub enum Command {
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
     },
-    /// Run the design file's [programme] in time: days to dig each stage, hydrographs, flow and
+    /// Run the design file's programme section in time: days to dig each stage, hydrographs, flow and
     /// volume, maps at chosen times, recovery and time to flood; writes programme.csv and SVGs.
     Programme {
-        /// Design file (TOML) with a [programme] section.
+        /// Design file (TOML) with a programme section.
         file: PathBuf,
         /// Output folder.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
@@ -139,7 +139,7 @@ pub enum Command {
     /// Cooper–Jacob, Hantush, unconfined Theis, recovery, distance–drawdown; prints the aquifer
     /// lines to paste into a design file and writes pumping_test.svg.
     PumpingTest {
-        /// CSV with columns time_<unit>, drawdown_<unit>, optionally well and distance_<unit>.
+        /// CSV with columns time_UNIT, drawdown_UNIT, optionally well and distance_UNIT (e.g. time_min, drawdown_m).
         file: PathBuf,
         /// Constant pumping rate, with its unit ("8 L/s").
         #[arg(long)]

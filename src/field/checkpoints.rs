@@ -148,7 +148,7 @@ fn inside_by_crossings(crossings: &[f64], p: [f64; 2], outline: &geo::Polygon<f6
 
 /// A point inside `poly`: its centroid when that lies inside, else the middle of the widest
 /// inside stretch of the horizontal line through the middle of its bounding box (the scanline
-/// crossings of [`row_crossings`]). Linear in the vertices and free of the degenerate cases of a
+/// crossings of `row_crossings`). Linear in the vertices and free of the degenerate cases of a
 /// sweep-line search.
 pub fn inside_point(poly: &geo::Polygon<f64>) -> Option<[f64; 2]> {
     use geo::Centroid;

@@ -3,6 +3,7 @@
 pub mod as_built_text;
 pub mod bid_out;
 pub mod by_day_text;
+pub mod chart_axes;
 pub mod check_text;
 pub mod design_text;
 pub mod estimate_text;

@@ -115,11 +115,11 @@ pub fn polygon(
     Ok(simplified(poly))
 }
 
-/// Largest distance, m, by which an outline of more than [`SMALL_OUTLINE`] vertices may move
+/// Largest distance, m, by which an outline of more than `SMALL_OUTLINE` vertices may move
 /// when it is simplified.
 pub const SIMPLIFY_TOLERANCE: f64 = 1e-3;
 
-/// An outline of more than [`SMALL_OUTLINE`] vertices (a surveyed curve, a traced drawing) is
+/// An outline of more than `SMALL_OUTLINE` vertices (a surveyed curve, a traced drawing) is
 /// simplified by Ramer–Douglas–Peucker (Douglas & Peucker 1973, *The Canadian Cartographer*
 /// 10(2)) to within [`SIMPLIFY_TOLERANCE`] = 1 mm of the given line, so that the layout and
 /// shape steps (convex hull, minimum rotated rectangle) stay fast; a result that is no longer
