@@ -22,11 +22,21 @@ pub fn to_text(
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
     let mut out = format!("drydig check — {}\n", m.name);
-    out.push_str(&wrap(
-        &format!("radius of influence: {}", e.radius_of_influence_basis),
-        96,
-        "",
-    ));
+    // The basis text is written in metres by the engine; in US units the radius and the method
+    // are given instead (summary.json keeps the full basis).
+    let basis = match units {
+        UnitSystem::Si => e.radius_of_influence_basis.clone(),
+        UnitSystem::Us if m.aquifer.leakage_factor().is_some() => format!(
+            "none in a leaky aquifer: K₀(r/B) with leakage factor B = {:.1} {lu}",
+            l(e.radius_of_influence_m)
+        ),
+        UnitSystem::Us => format!(
+            "{:.1} {lu} ({})",
+            l(e.radius_of_influence_m),
+            m.influence.name()
+        ),
+    };
+    out.push_str(&wrap(&format!("radius of influence: {basis}"), 96, ""));
     out.push_str(&wrap(
         &crate::report::as_built_text::as_built_lines(run, units),
         96,
