@@ -14,7 +14,8 @@
 //!   head, running at each well's own rate and head; energy per day E = P_running·t.
 
 use crate::input::model::{Model, PumpSettings};
-use crate::physics::pipes::{hazen_williams_head_loss, pump_power, G, WATER_DENSITY};
+use crate::physics::pipes::{hazen_williams_head_loss, pump_power};
+use crate::physics::water::{G, WATER_DENSITY};
 
 /// The head one pump works against, m.
 #[derive(Debug, Clone, Copy, serde::Serialize)]

@@ -7,11 +7,6 @@
 
 use std::fmt;
 
-/// Standard gravity, m/s².
-pub const G: f64 = 9.81;
-/// Density of water, kg/m³.
-pub const WATER_DENSITY: f64 = 1000.0;
-
 /// A pump or pipe input that cannot be used: which one, and what would be valid.
 #[derive(Debug, Clone, PartialEq)]
 pub struct PipeInputError {
@@ -142,6 +137,7 @@ pub fn smallest_duty_at_least(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::physics::water::{G, WATER_DENSITY};
 
     // checks.md §15 "Hazen–Williams head loss (SI, from memory)": L = 100 m, Q = 0.01 m³/s,
     // C = 130, d = 0.10 m → 1.9017 m.
