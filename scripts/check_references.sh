@@ -47,4 +47,7 @@ fi
 # partial penetration (scripts/reference_partial_penetration.py, scipy and mpmath; ~4 min)
 tmp_pp="$(mktemp "${TMPDIR:-/tmp}/drydig-pp.XXXXXX.csv")"; python3 "$root/scripts/reference_partial_penetration.py" "$tmp_pp"; if diff -u "$root/tests/reference/partial_penetration.csv" "$tmp_pp"; then echo "reference table up to date: $root/tests/reference/partial_penetration.csv"; else echo "partial_penetration.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_pp"
 
+# screen-averaged partial penetration (scripts/reference_screen_average.py, scipy)
+tmp_sa="$(mktemp "${TMPDIR:-/tmp}/drydig-sa.XXXXXX.csv")"; python3 "$root/scripts/reference_screen_average.py" "$tmp_sa"; if diff -u "$root/tests/reference/screen_average.csv" "$tmp_sa"; then echo "reference table up to date: $root/tests/reference/screen_average.csv"; else echo "screen_average.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_sa"
+
 exit "$status"

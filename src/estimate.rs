@@ -16,8 +16,9 @@
 //!   trench), and both figures are reported. With several boundaries the images of images are
 //!   left out and the estimate says so.
 //!
-//! The design flow adds the contingency, and a rough well count divides it by one well's
-//! capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower).
+//! The design flow adds the contingency, and a rough well count divides it by the share of one
+//! well's capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower) that
+//! `design` lets a well use (`allowances.capacity_fraction`).
 
 use crate::field::shape::length_and_width;
 use crate::input::model::{Excavation, Model, ShapeChoice, WellKind};
@@ -100,6 +101,8 @@ pub struct ExcavationEstimate {
     pub sichardt_capacity_l_per_s: f64,
     /// Capacity used per well (lower of Sichardt and pump).
     pub well_capacity_l_per_s: f64,
+    /// Share of that capacity a well is counted at: the design's `allowances.capacity_fraction`.
+    pub capacity_fraction: f64,
     /// What limits the well capacity.
     pub well_capacity_limit: String,
     /// Rough count of working wells.
@@ -330,10 +333,12 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         _ => (sichardt, "Sichardt entrance gradient".to_string()),
     };
     let design = q * (1.0 + model.contingency);
+    // The same share of each well's capacity as `design` uses (allowances.capacity_fraction).
+    let fraction = model.design.capacity_fraction;
     let count = if design <= 0.0 || cap <= 0.0 {
         0
     } else {
-        (design / cap).ceil() as u32
+        (design / (fraction * cap)).ceil() as u32
     };
     if wetted <= 0.0 && design > 0.0 {
         notes.push("no screen lies below the target level, so a well here has no capacity: lower screen_base".into());
@@ -390,6 +395,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         sichardt_capacity_l_per_s: sichardt * 1e3,
         well_capacity_l_per_s: cap * 1e3,
         well_capacity_limit: limit,
+        capacity_fraction: fraction,
         rough_well_count: count,
         standby_wells: w.standby,
         notes,

@@ -1,30 +1,37 @@
 //! The radius of influence at the drawdown the wells actually produce.
 //!
 //! Sichardt's R = C·s·√K and Kusakin's R = 575·s·√(H·K) grow with the drawdown s. The design
-//! takes s at the target (what the excavation needs); a layout that draws the water further
-//! down spreads further, and its neighbours see more. `check` therefore iterates: evaluate with
-//! R(s_k), take s_{k+1} = the least drawdown the wells produce at the served excavation's target
-//! points (the one that decides whether the targets are met; equal to the target drawdown for a
-//! layout that just meets it, so `design` is consistent by construction), until R changes by
-//! less than [`RELATIVE_TOLERANCE`]. A layout that draws less than the target keeps R at the
-//! target drawdown (a smaller R would shrink its own drawdown further, towards the trivial fixed
-//! point of no drawdown); the basis text says so and by how much it falls short. The iteration is a fixed point of s ↦ drawdown(R(s)); the
-//! drawdown grows only with ln R, so the map contracts and it converges in a few steps. Where R
-//! does not depend on drawdown (Cooper–Jacob, fixed, pumping test, leaky B) one evaluation is
-//! made. The basis text says which drawdown R was taken at and how the iteration ended.
+//! takes s at the design drawdown s_d = target + operating margin (what the excavation needs,
+//! with the margin the design keeps); a layout that draws the water further down spreads
+//! further, and its neighbours see more. `check` therefore uses
+//!
+//! ```text
+//! R = R(s*),   s* = the least s ≥ s_d with s = s_p(R(s))
+//! ```
+//!
+//! s_p(R) the least drawdown the wells produce at the served excavation's target points with
+//! radius R. R never falls below R(s_d) (a smaller R would shrink the layout's own drawdown
+//! further, towards the trivial fixed point of no drawdown), so a layout that falls short is
+//! evaluated, and stated, at R(s_d); a layout that overdraws is evaluated at its own larger
+//! drawdown. s ↦ s_p(R(max(s, s_d))) is continuous and increasing in s and in every abstraction
+//! rate, so its least fixed point above s_d — and R with it — is continuous and never falls as a
+//! rate rises, and with pumping wells only no level rises as a rate rises (tested by a property
+//! test). The fixed point is found by the secant method on s − s_p(R(s)) (the drawdown grows
+//! only with ln R, so the map contracts), to [`DRAWDOWN_TOLERANCE`]. Where R does not depend on
+//! drawdown (Cooper–Jacob, fixed, pumping test, leaky B) or the excavation is a trench (see
+//! below) one evaluation is made at R(s_d). The basis text states the R used, the drawdown it was
+//! taken at and how the iteration ended.
 
 use crate::check::evaluate::{evaluate, Evaluation};
 use crate::check::field_build::field_with_radius;
 use crate::field::checkpoints::CheckPoint;
 use crate::field::influence::Field;
-use crate::field::radius::{
-    depends_on_drawdown, design_drawdown, design_radius, radius_at, serves_trench,
-};
+use crate::field::radius::{depends_on_drawdown, design_drawdown, radius_at, serves_trench};
 use crate::field::wells::Well;
 use crate::input::model::Model;
 
-/// Stop when R changes by less than this fraction.
-pub const RELATIVE_TOLERANCE: f64 = 1e-3;
+/// Stop when the drawdown R is taken at changes by less than this, m.
+pub const DRAWDOWN_TOLERANCE: f64 = 1e-7;
 /// Most evaluations.
 pub const MAX_ITERATIONS: usize = 30;
 
@@ -45,7 +52,8 @@ pub fn evaluate_consistent(
     wells: &[Well],
     points: &[CheckPoint],
 ) -> (Field, Evaluation) {
-    let (r0, basis0) = design_radius(model);
+    let s_d = design_drawdown(model);
+    let (r0, basis0) = radius_at(model, s_d);
     let field = field_with_radius(model, wells, r0);
     let mut e = evaluate(model, &field, wells, points);
     if !depends_on_drawdown(model) || wells.iter().all(|w| w.rate <= 0.0) {
@@ -57,47 +65,60 @@ pub fn evaluate_consistent(
         // proportion to s, so s ↦ drawdown(R(s)) has slope (produced / asked) and no stable
         // fixed point once a layout overdraws. R stays at the design drawdown, and says so.
         e.radius_of_influence_basis = format!(
-            "{basis0}; taken at the design drawdown (target + operating margin = {:.2} m) and not iterated: for flow to a line the drawdown grows in proportion to R, so a radius taken from the drawdown produced has no stable value",
-            design_drawdown(model)
+            "{basis0}; taken at the design drawdown (target + operating margin = {s_d:.2} m) and not iterated: for flow to a line the drawdown grows in proportion to R, so a radius taken from the drawdown produced has no stable value"
         );
         return (field, e);
     }
-    let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
-    let s_target = model.aquifer.initial_level - model.excavations[idx].target_level();
-    let (mut field, mut r) = (field, r0);
-    let mut s = s_target;
-    let mut steps = 1;
+    let Some(p0) = produced_drawdown(model, &e) else {
+        e.radius_of_influence_basis = basis0;
+        return (field, e);
+    };
+    if p0 <= s_d {
+        e.radius_of_influence_basis = format!(
+            "{basis0}; taken at the design drawdown (target + operating margin = {s_d:.2} m): the wells produce {p0:.2} m at the excavation, no more than that, and R is never taken below it"
+        );
+        return (field, e);
+    }
+    // secant on g(s) = s_p(R(s)) − s from s_d (g > 0) towards the least root above s_d
+    let evaluate_at = |s: f64| {
+        let (r, _) = radius_at(model, s);
+        let f = field_with_radius(model, wells, r);
+        let ev = evaluate(model, &f, wells, points);
+        let p = produced_drawdown(model, &ev).unwrap_or(s);
+        (f, ev, p)
+    };
+    let (mut s_a, mut g_a) = (s_d, p0 - s_d);
+    let mut s_b = p0;
+    let (mut field, mut e, mut p_b) = evaluate_at(s_b);
+    let mut steps = 2;
     let mut converged = false;
     while steps < MAX_ITERATIONS {
-        let Some(s_new) = produced_drawdown(model, &e) else {
-            break;
-        };
-        if s_new < s_target && steps == 1 {
-            e.radius_of_influence_basis = format!(
-                "{}; the wells produce only {s_new:.2} m at the excavation, less than the {s_target:.2} m the target needs, so R is kept at the target drawdown",
-                radius_at(model, s_target).1
-            );
-            return (field, e);
-        }
-        let (r_new, _) = radius_at(model, s_new);
-        s = s_new;
-        if !(r_new.is_finite() && r_new > 0.0) {
-            break;
-        }
-        if (r_new - r).abs() <= RELATIVE_TOLERANCE * r {
+        let g_b = p_b - s_b;
+        if g_b.abs() <= DRAWDOWN_TOLERANCE {
             converged = true;
             break;
         }
-        r = r_new;
-        field = field_with_radius(model, wells, r);
-        e = evaluate(model, &field, wells, points);
+        // the map contracts: a secant step, or a plain step where the secant is not usable
+        let next = if (g_b - g_a).abs() > 0.0 && g_b < g_a {
+            s_b - g_b * (s_b - s_a) / (g_b - g_a)
+        } else {
+            p_b
+        };
+        let next = if next.is_finite() {
+            next.max(s_d)
+        } else {
+            p_b.max(s_d)
+        };
+        (s_a, g_a) = (s_b, g_b);
+        s_b = next;
+        (field, e, p_b) = evaluate_at(s_b);
         steps += 1;
     }
-    let (_, basis) = radius_at(model, s);
+    let (r, basis) = radius_at(model, s_b);
     e.radius_of_influence_basis = format!(
-        "{basis}; taken at the drawdown the wells produce at the excavation ({s:.2} m, the target needs {s_target:.2} m): {}",
+        "{basis}; taken at the drawdown the wells produce at the excavation ({s_b:.2} m, more than the design drawdown {s_d:.2} m = target + operating margin): {}",
         if converged {
-            format!("converged in {steps} evaluation{} (R within {:.1} %)", if steps == 1 { "" } else { "s" }, RELATIVE_TOLERANCE * 100.0)
+            format!("converged in {steps} evaluations (drawdown within {:.0e} m)", DRAWDOWN_TOLERANCE)
         } else {
             format!("NOT converged after {steps} evaluations; R = {r:.1} m used")
         }

@@ -2,8 +2,9 @@
 //! and well limits.
 //!
 //! The level in a well is the aquifer level at its screen face (with partial penetration, from
-//! the kernel) less its well loss (Jacob's C·Q², or the efficiency: s_well = s_face/E; Jacob
-//! 1947, Kruseman & de Ridder 1994 ch. 14). A wellpoint's lowest level is its header level less
+//! the kernel) less its well loss (Jacob's C·Q², or the efficiency E: (1/E − 1) × the well's
+//! own drawdown at its face, its neighbours' share left out; Jacob 1947, Kruseman & de Ridder
+//! 1994 ch. 14). A recharge well's level is raised by its loss. A wellpoint's lowest level is its header level less
 //! the suction limit (the same rule in `estimate` and `design`). A recharge well (negative
 //! rate) is held below its highest allowed level (ground − margin, or given) and within its
 //! injection capacity (a fraction of its abstraction capacity; common practice (no source)).
@@ -14,7 +15,7 @@ use crate::field::wells::Well;
 use crate::input::model::{Model, WellKind, WellLossSpec};
 use crate::physics::capacity::sichardt_well_capacity;
 use crate::physics::potential::Level;
-use crate::physics::well_loss::{efficiency_loss, jacob_loss};
+use crate::physics::well_loss::{efficiency_loss_of_rate, jacob_loss};
 use serde::Serialize;
 
 /// Tolerance on targets, m: a point within a millimetre of its target counts as meeting it.
@@ -101,8 +102,8 @@ pub struct Evaluation {
 pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoint]) -> Evaluation {
     let aq = field.aquifer();
     let rates: Vec<f64> = wells.iter().map(|w| w.rate).collect();
-    let positions: Vec<[f64; 2]> = points.iter().map(|p| p.position).collect();
-    let levels = field.levels(&positions, &rates);
+    // each point at its own elevation (partial penetration depends on it)
+    let levels = crate::check::field_build::point_levels(model, field, points, &rates);
     let point_results: Vec<PointResult> = points
         .iter()
         .zip(levels)
@@ -128,12 +129,14 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
     let well_results: Vec<WellResult> = wells
         .iter()
         .zip(well_levels)
-        .map(|(w, lv)| {
+        .enumerate()
+        .map(|(k, (w, lv))| {
             let face = lv.or_base(aq.base_level);
             let loss = match model.as_built.loss {
                 WellLossSpec::Jacob(c) => jacob_loss(c, w.rate),
-                WellLossSpec::Efficiency(e) if w.rate > 0.0 => {
-                    efficiency_loss((aq.initial_level - face).max(0.0), e)
+                // the well's own drawdown (or rise) only, not its neighbours' share
+                WellLossSpec::Efficiency(e) if w.rate != 0.0 => {
+                    efficiency_loss_of_rate(aq, e, field.unit_row(w.position)[k], w.rate)
                 }
                 _ => 0.0,
             };

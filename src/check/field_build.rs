@@ -1,10 +1,14 @@
 //! The field a layout makes, as built: the superposition kernel with partial penetration of
 //! every well whose screen does not span the layer, at a given radius of influence.
 
+use crate::field::checkpoints::{CheckPoint, PointKind};
 use crate::field::influence::Field;
+use crate::field::near_field::PointTables;
 use crate::field::wells::Well;
 use crate::input::model::Model;
+use crate::physics::potential::Level;
 use geo::Centroid;
+use std::collections::HashMap;
 
 /// A working origin near the site, so that projected coordinates keep their precision.
 pub fn site_origin(model: &Model) -> [f64; 2] {
@@ -26,9 +30,70 @@ pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
     .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
 }
 
-/// The level check points and the map are evaluated at for partial penetration, m: the served
-/// excavation's target level (where the water must be drawn to; clamped to the layer inside).
+/// The level the map, sections and points without a target are evaluated at for partial
+/// penetration, m: the served excavation's target level (clamped to the layer inside).
 pub fn evaluation_level(model: &Model) -> f64 {
     let idx = model.layout.as_ref().map_or(0, |l| l.excavation);
     model.excavations[idx].target_level()
+}
+
+/// The level check point `p` is evaluated at for partial penetration, m (clamped to the
+/// saturated layer inside): its own target level, where the water must be drawn to (each
+/// excavation's grid, corners and edges at that excavation's target; a named point at its own
+/// target); an uplift point at the top of the pressurised layer, where the uplift acts; a point
+/// without a target at [`evaluation_level`].
+pub fn point_elevation(model: &Model, p: &CheckPoint) -> f64 {
+    match (p.kind, &model.uplift, p.target_level) {
+        (PointKind::Uplift, Some(u), _) => u.layer_top,
+        (_, _, Some(t)) => t,
+        _ => evaluation_level(model),
+    }
+}
+
+/// The partial-penetration tables of each point in `points` at its own elevation
+/// ([`point_elevation`]); all `None` without partial penetration.
+pub fn point_tables(
+    model: &Model,
+    field: &Field,
+    points: &[CheckPoint],
+) -> Vec<Option<PointTables>> {
+    let mut by_level: HashMap<u64, Option<PointTables>> = HashMap::new();
+    points
+        .iter()
+        .map(|p| {
+            let z = point_elevation(model, p);
+            by_level
+                .entry(z.to_bits())
+                .or_insert_with(|| field.elevation(z))
+                .clone()
+        })
+        .collect()
+}
+
+/// Levels at `points`, each at its own elevation, for `rates` (m³/s).
+pub fn point_levels(
+    model: &Model,
+    field: &Field,
+    points: &[CheckPoint],
+    rates: &[f64],
+) -> Vec<Level> {
+    let mut groups: HashMap<u64, Vec<usize>> = HashMap::new();
+    for (i, p) in points.iter().enumerate() {
+        groups
+            .entry(point_elevation(model, p).to_bits())
+            .or_default()
+            .push(i);
+    }
+    let mut out = vec![Level::Dry; points.len()];
+    for (z, idx) in groups {
+        let tables = field.elevation(f64::from_bits(z));
+        let pos: Vec<[f64; 2]> = idx.iter().map(|&i| points[i].position).collect();
+        for (i, lv) in idx
+            .iter()
+            .zip(field.levels_at(&pos, rates, tables.as_ref()))
+        {
+            out[*i] = lv;
+        }
+    }
+    out
 }

@@ -14,7 +14,7 @@
 //! [`Field::with_partial_penetration`].
 
 use crate::field::fast_log::ln_fast;
-use crate::field::near_field::{NearField, WellScreen};
+use crate::field::near_field::{NearField, PointTables, WellScreen};
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
 use crate::input::model::Boundary;
@@ -241,6 +241,23 @@ impl Field {
         row
     }
 
+    /// The partial-penetration tables at elevation `z` (m), for [`Field::unit_row_at`] and
+    /// [`Field::levels_at`] (`None` without partial penetration).
+    pub fn elevation(&self, z: f64) -> Option<PointTables> {
+        self.near.as_ref().map(|n| n.tables_at(z))
+    }
+
+    /// As [`Field::unit_row`], with partial penetration at the elevation of `tables`
+    /// ([`Field::elevation`]; `None`: the field's default elevation).
+    pub fn unit_row_at(&self, point: [f64; 2], tables: Option<&PointTables>) -> Vec<f64> {
+        let mut row = vec![0.0; self.well_count];
+        self.for_each_thiem(point, |w, v| row[w] += v);
+        if let Some(n) = &self.near {
+            n.for_each_at(self.local(point), tables, |w, v| row[w] += v);
+        }
+        row
+    }
+
     /// Same as [`Field::unit_row`] by the plain sum over every source, without the index.
     pub fn unit_row_all_pairs(&self, point: [f64; 2]) -> Vec<f64> {
         let p = self.local(point);
@@ -276,8 +293,29 @@ impl Field {
     /// block's centre, exact to ~1e-14 of the sum (`Flat::far_expansion`). Elsewhere the
     /// R-tree sum of [`Field::level`] is used.
     pub fn levels(&self, points: &[[f64; 2]], rates: &[f64]) -> Vec<Level> {
+        self.levels_at(points, rates, None)
+    }
+
+    /// As [`Field::levels`], with partial penetration at the elevation of `tables`
+    /// ([`Field::elevation`]; `None`: the field's default elevation).
+    pub fn levels_at(
+        &self,
+        points: &[[f64; 2]],
+        rates: &[f64],
+        tables: Option<&PointTables>,
+    ) -> Vec<Level> {
         if self.aquifer.leakage_factor().is_some() {
-            return points.par_iter().map(|p| self.level(*p, rates)).collect();
+            return points
+                .par_iter()
+                .map(|p| {
+                    let mut d = 0.0;
+                    self.for_each_thiem(*p, |w, v| d += rates[w] * v);
+                    if let Some(n) = &self.near {
+                        n.for_each_at(self.local(*p), tables, |w, v| d += rates[w] * v);
+                    }
+                    self.aquifer.level(self.aquifer.initial_potential() + d)
+                })
+                .collect();
         }
         let flat = Flat::new(&self.sources, rates);
         let [bx0, by0, bx1, by1] = bbox(self.sources.iter().map(|s| s.position));
@@ -309,7 +347,7 @@ impl Field {
         let mut near = vec![0.0; points.len()];
         let mut inside = vec![false; points.len()];
         if let Some(n) = &self.near {
-            for j in n.add_levels(&local, rates, &mut near) {
+            for j in n.add_levels(&local, rates, &mut near, tables) {
                 inside[j] = true;
             }
         }

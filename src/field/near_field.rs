@@ -14,9 +14,10 @@
 //!   the linearisation ΔΦ ≈ K·D·Δh of Φ = ½K·h² about the initial level;
 //! - leaky aquifers: the confined correction is used unchanged (the leaky one differs only where
 //!   r is comparable with B, far beyond the near field when B ≫ D);
-//! - check points and the map are evaluated at one elevation, the served excavation's target level
-//!   clamped to the saturated layer; a point within a well's radius is in that well and gets the
-//!   screen-averaged Δ_w of its own well and the other wells' Δ at the middle of its screen;
+//! - a check point is evaluated at its own elevation ([`NearField::tables_at`]; the caller
+//!   chooses it), the map at one elevation, both clamped to the saturated layer; a point within a
+//!   well's radius is in that well and gets the screen-averaged Δ_w of its own well and the other
+//!   wells' Δ averaged over its screen ([`crate::physics::screen_average`], Gauss–Legendre);
 //! - beyond [`cutoff_radius`] (|Δ| < [`NEAR_FIELD_TOLERANCE`] = 1e-3) the term is dropped.
 //!
 //! Δ(r) at a fixed elevation is tabulated once per screen on a uniform grid in ln r and read by
@@ -25,6 +26,7 @@
 use crate::physics::partial_penetration::{
     cutoff_radius, is_partial, point_correction, well_correction, Screen,
 };
+use crate::physics::screen_average::screen_averaged_correction;
 use std::collections::HashMap;
 use std::f64::consts::PI;
 use std::sync::{Arc, Mutex, OnceLock};
@@ -47,13 +49,14 @@ struct Table {
 }
 
 impl Table {
-    fn build(screen: &Screen, z: f64, r_lo: f64, cutoff: f64) -> Table {
+    /// Δ(r) = `value(r)` tabulated from `r_lo` to `cutoff`.
+    fn build(value: impl Fn(f64) -> f64, r_lo: f64, cutoff: f64) -> Table {
         let u0 = r_lo.ln();
         let u1 = cutoff.max(r_lo * 1.001).ln();
         let du = (u1 - u0) / (TABLE_NODES - 1) as f64;
         // one node either side for the cubic at the ends
         let values = (0..TABLE_NODES + 2)
-            .map(|i| point_correction(screen, (u0 + (i as f64 - 1.0) * du).exp(), z))
+            .map(|i| value((u0 + (i as f64 - 1.0) * du).exp()))
             .collect();
         Table {
             u0,
@@ -86,7 +89,7 @@ impl Table {
     }
 }
 
-type Key = [u64; 6];
+type Key = [u64; 7];
 
 /// Per block of points: (point, ΔΦ) summed, and the points that stand inside a well.
 type BlockSums = (Vec<(usize, f64)>, Vec<usize>);
@@ -99,12 +102,24 @@ fn cache() -> &'static Mutex<HashMap<Key, Arc<Table>>> {
 /// The table for `screen` at elevation `z`, from the cache when it was built before (the count
 /// search builds many fields with the same wells).
 fn table(screen: &Screen, z: f64, r_lo: f64) -> Arc<Table> {
+    cached_table(screen, [z, f64::NAN], r_lo)
+}
+
+/// The table for `screen` averaged over the elevations `over` = [bottom, top] (m above the base):
+/// its share in the level of a well screened there.
+fn averaged_table(screen: &Screen, over: [f64; 2], r_lo: f64) -> Arc<Table> {
+    cached_table(screen, over, r_lo)
+}
+
+/// A point table (`at[1]` NaN: at elevation `at[0]`) or a screen-averaged one, cached.
+fn cached_table(screen: &Screen, at: [f64; 2], r_lo: f64) -> Arc<Table> {
     let key = [
         screen.bottom.to_bits(),
         screen.top.to_bits(),
         screen.thickness.to_bits(),
         screen.anisotropy.to_bits(),
-        z.to_bits(),
+        at[0].to_bits(),
+        at[1].to_bits(),
         r_lo.to_bits(),
     ];
     if let Ok(c) = cache().lock() {
@@ -113,7 +128,15 @@ fn table(screen: &Screen, z: f64, r_lo: f64) -> Arc<Table> {
         }
     }
     let cutoff = cutoff_radius(screen, NEAR_FIELD_TOLERANCE);
-    let t = Arc::new(Table::build(screen, z, r_lo, cutoff));
+    let t = Arc::new(if at[1].is_nan() {
+        Table::build(|r| point_correction(screen, r, at[0]), r_lo, cutoff)
+    } else {
+        Table::build(
+            |r| screen_averaged_correction(screen, r, at[0], at[1]),
+            r_lo,
+            cutoff,
+        )
+    });
     if let Ok(mut c) = cache().lock() {
         if c.len() > 256 {
             c.clear();
@@ -134,12 +157,21 @@ struct PartialSource {
     real: bool,
 }
 
+/// Δ tables for check points at one elevation, one per screen class
+/// ([`NearField::tables_at`]).
+#[derive(Debug, Clone)]
+pub struct PointTables(Vec<Arc<Table>>);
+
 /// A screen class: the wells built alike, with their tables.
 #[derive(Debug)]
 struct Class {
-    /// Δ at the evaluation elevation.
+    /// The class's screen (relative to the base, with the anisotropy).
+    screen: Screen,
+    /// Smallest radius tabulated, m.
+    r_lo: f64,
+    /// Δ at the default evaluation elevation.
     at_points: Arc<Table>,
-    /// Δ at the middle of each class's screen (indexed by the other class).
+    /// Δ averaged over each class's screen (indexed by the other class).
     at_screen_of: Vec<Arc<Table>>,
     /// Screen-averaged Δ_w in the well itself.
     own: f64,
@@ -155,6 +187,8 @@ pub struct NearField {
     grid: HashMap<(i64, i64), Vec<usize>>,
     /// Largest cut-off over the classes, m.
     pub cutoff: f64,
+    base: f64,
+    thickness: f64,
 }
 
 /// What the near-field needs to know of one well: screen (levels, m above datum), radius.
@@ -219,11 +253,12 @@ impl NearField {
             })
             .collect();
         let z_rel = (z_eval - base).clamp(0.0, d);
-        let mids: Vec<f64> = rep
+        // each class's screen, clamped to the layer: the others' share is averaged over it
+        let rep_spans: Vec<[f64; 2]> = rep
             .iter()
             .map(|w| {
                 let s = screen_of(w);
-                0.5 * (s.bottom.clamp(0.0, d) + s.top.clamp(0.0, d))
+                [s.bottom.clamp(0.0, d), s.top.clamp(0.0, d)]
             })
             .collect();
         let classes: Vec<Class> = rep
@@ -232,8 +267,13 @@ impl NearField {
                 let s = screen_of(w);
                 let r_lo = w.radius.max(1e-6 * d);
                 Class {
+                    screen: s,
+                    r_lo,
                     at_points: table(&s, z_rel, r_lo),
-                    at_screen_of: mids.iter().map(|&m| table(&s, m, r_lo)).collect(),
+                    at_screen_of: rep_spans
+                        .iter()
+                        .map(|&span| averaged_table(&s, span, r_lo))
+                        .collect(),
                     own: well_correction(&s, w.radius),
                     cutoff: 0.0,
                 }
@@ -270,12 +310,37 @@ impl NearField {
             cell,
             grid,
             cutoff,
+            base,
+            thickness: d,
         })
     }
 
+    /// The Δ tables for check points at level `z` (m, clamped to the layer), one per class
+    /// (cached: a few elevations cost a few tables).
+    pub fn tables_at(&self, z: f64) -> PointTables {
+        let z_rel = (z - self.base).clamp(0.0, self.thickness);
+        PointTables(
+            self.classes
+                .iter()
+                .map(|c| table(&c.screen, z_rel, c.r_lo))
+                .collect(),
+        )
+    }
+
     /// Call `f(well, ΔΦ per unit rate)` for every partially penetrating source near local point
-    /// `p`: −Δ/(2π), with Δ_w for the well the point stands in.
-    pub fn for_each(&self, p: [f64; 2], mut f: impl FnMut(usize, f64)) {
+    /// `p`: −Δ/(2π), with Δ_w for the well the point stands in (at the default elevation).
+    pub fn for_each(&self, p: [f64; 2], f: impl FnMut(usize, f64)) {
+        self.for_each_at(p, None, f)
+    }
+
+    /// As [`NearField::for_each`], with the point's own elevation's `tables` (`None`: the
+    /// default elevation).
+    pub fn for_each_at(
+        &self,
+        p: [f64; 2],
+        tables: Option<&PointTables>,
+        mut f: impl FnMut(usize, f64),
+    ) {
         let (ci, cj) = cell_index(p, self.cell);
         // first: is the point inside one of the wells?
         let mut inside: Option<usize> = None;
@@ -307,7 +372,10 @@ impl NearField {
                     let delta = match inside {
                         Some(k) if k == i => c.own,
                         Some(k) => c.at_screen_of[self.sources[k].class].at(r.max(s.radius)),
-                        None => c.at_points.at(r.max(s.radius)),
+                        None => match tables {
+                            Some(t) => t.0[s.class].at(r.max(s.radius)),
+                            None => c.at_points.at(r.max(s.radius)),
+                        },
                     };
                     f(s.well, -s.sign * delta / (2.0 * PI));
                 }
@@ -320,11 +388,22 @@ impl NearField {
     /// the cut-off of any of its points, then sums −sign·q·Δ(r)/(2π) over them point by point.
     /// Returns the points that stand inside a well (r ≤ r_w of a real source): those need
     /// [`NearField::for_each`] (the screen-averaged Δ_w) and are left unchanged here.
-    pub fn add_levels(&self, pts: &[[f64; 2]], rates: &[f64], delta: &mut [f64]) -> Vec<usize> {
+    /// `tables`: the points' elevation (`None`: the default one).
+    pub fn add_levels(
+        &self,
+        pts: &[[f64; 2]],
+        rates: &[f64],
+        delta: &mut [f64],
+        tables: Option<&PointTables>,
+    ) -> Vec<usize> {
         use rayon::prelude::*;
         if pts.is_empty() {
             return Vec::new();
         }
+        let at: Vec<&Table> = match tables {
+            Some(t) => t.0.iter().map(|x| x.as_ref()).collect(),
+            None => self.classes.iter().map(|c| c.at_points.as_ref()).collect(),
+        };
         let ws: Vec<f64> = self
             .sources
             .iter()
@@ -347,7 +426,9 @@ impl NearField {
                             for &k in v {
                                 let s = &self.sources[k];
                                 let d = (s.position[0] - c[0]).hypot(s.position[1] - c[1]);
-                                if d < reach && ws[k] != 0.0 {
+                                // a real well is kept at zero rate too: a point in an
+                                // idle well reads its screen average
+                                if d < reach && (ws[k] != 0.0 || s.real) {
                                     let cut = self.classes[s.class].cutoff;
                                     cand.push((
                                         s.position[0],
@@ -380,8 +461,7 @@ impl NearField {
                             inside = true;
                             break;
                         }
-                        acc += w * self.classes[class]
-                            .at_points
+                        acc += w * at[class]
                             .at_log(0.5 * crate::field::fast_log::ln_fast(r2.max(rw2)));
                     }
                     if inside {

@@ -485,7 +485,7 @@ pub enum WellLossSpec {
     None,
     /// Jacob's C·Q², C in s²/m⁵.
     Jacob(f64),
-    /// Well efficiency E in (0, 1]: drawdown in the well = aquifer drawdown / E.
+    /// Well efficiency E in (0, 1]: loss = (1/E − 1) × the well's own drawdown at its face.
     Efficiency(f64),
 }
 

@@ -266,7 +266,7 @@ pub struct WellSpec {
     /// Jacob's well-loss coefficient C in s²/m⁵ (loss = C·Q²).
     #[serde(default)]
     pub loss_coefficient: Option<f64>,
-    /// Well efficiency E in (0, 1] (drawdown in the well = aquifer drawdown / E).
+    /// Well efficiency E in (0, 1] (loss = (1/E − 1) × the well's own drawdown at its face).
     #[serde(default)]
     pub efficiency: Option<f64>,
     /// Closest spacing the design may use.

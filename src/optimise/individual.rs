@@ -191,10 +191,7 @@ impl LayoutRates<'_> {
                         lim.floor_kind.describe(),
                         if lim.loss_c > 0.0 {
                             ", with the well loss C·Q²"
-                        } else if lim.floor_level > lim.lowest_level + 1e-9
-                            && lim.floor_kind != crate::optimise::limits::FloorKind::ScreenBase
-                            && lim.floor_kind != crate::optimise::limits::FloorKind::AquiferBase
-                        {
+                        } else if lim.efficiency.is_some() {
                             ", with the well efficiency"
                         } else {
                             ""

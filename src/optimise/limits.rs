@@ -11,10 +11,11 @@
 //!   (qₖ ≤ α·chord(Φₖ), one constraint per piece): a safe bound, never allowing more than the
 //!   true capacity, and much less pessimistic than the capacity at the lowest allowed level.
 //!   The uniform option uses the exact capacity (a monotone equation in q, solved by bisection).
-//! - Well loss (in the well only, not in the aquifer): with an efficiency E the level in the
-//!   well is z₀ − (z₀ − z_face)/E, so the floor on the screen-face level is z₀ − E·(z₀ − floor),
-//!   exact and linear. With Jacob's C·Q² the face level must stay above floor + C·q²; in Φ that
-//!   is Φₖ ≥ g(qₖ) with g(q) = Φ(floor + C·q²) convex in q. The programme uses the chords of g
+//! - Well loss (in the well only, not in the aquifer): the face level must stay above
+//!   floor + loss(q), with Jacob's loss C·q² or, for an efficiency E, (1/E − 1) × the well's own
+//!   drawdown s_own(q) = z₀ − h(Φ₀ + q·u_kk) (u_kk its own ΔΦ per unit rate at its face; linear in
+//!   q in a confined layer, convex in an unconfined one). In Φ that is Φₖ ≥ g(qₖ) with
+//!   g(q) = Φ(floor + loss(q)) convex in q. The programme uses the chords of g
 //!   between [`LOSS_PIECES`] + 1 rates from 0 to the well's capacity (one row per chord): their
 //!   maximum is the piecewise-linear interpolant of g, which lies above g, so the rows are safe
 //!   (never allow a rate whose loss would put the well below its floor) and equal g at the
@@ -23,7 +24,7 @@
 use crate::field::wells::Well;
 use crate::input::model::{Model, WellKind, WellLossSpec};
 use crate::physics::capacity::sichardt_well_capacity;
-use crate::physics::well_loss::jacob_loss;
+use crate::physics::well_loss::{efficiency_loss_of_rate, jacob_loss};
 use serde::Serialize;
 
 /// Capacities used in the programme are this fraction of the true value, so that solver
@@ -81,6 +82,10 @@ pub struct WellLimit {
     pub pump: Option<f64>,
     /// Jacob's well-loss coefficient C, s²/m⁵ (0: none).
     pub loss_c: f64,
+    /// Well efficiency E with the well's own ΔΦ per unit rate at its face (`None`: no
+    /// efficiency given).
+    pub efficiency: Option<(f64, f64)>,
+    aquifer: crate::physics::potential::Aquifer,
     /// Rows of the level floor on the screen-face potential: Φₖ ≥ φ + slope·qₖ, one per chord
     /// of the Jacob loss (a single row with slope 0 without it).
     pub(super) level_pieces: Vec<(f64, f64)>,
@@ -91,7 +96,9 @@ pub struct WellLimit {
 }
 
 impl WellLimit {
-    pub(super) fn new(model: &Model, well: &Well) -> WellLimit {
+    /// `own_unit`: ΔΦ per unit rate the well makes at its own face (its diagonal entry of the
+    /// unit matrix), used by a well efficiency.
+    pub(super) fn new(model: &Model, well: &Well, own_unit: f64) -> WellLimit {
         let aq = &model.aquifer;
         let spec = &model.wells;
         // The same rule as evaluate().
@@ -107,12 +114,9 @@ impl WellLimit {
                 }
             }
         };
-        // the floor on the level at the screen face (outside the well): an efficiency E moves it
-        let z0 = aq.initial_level;
-        let mut floor = match model.as_built.loss {
-            WellLossSpec::Efficiency(e) if lowest < z0 => z0 - e * (z0 - lowest),
-            _ => lowest,
-        };
+        // the floor on the level at the screen face (outside the well) at zero rate; the loss
+        // raises it with the rate (`face_floor`)
+        let mut floor = lowest;
         if well.screen_base > floor {
             floor = well.screen_base;
             kind = FloorKind::ScreenBase;
@@ -132,6 +136,11 @@ impl WellLimit {
                 WellLossSpec::Jacob(c) => c,
                 _ => 0.0,
             },
+            efficiency: match model.as_built.loss {
+                WellLossSpec::Efficiency(e) if e < 1.0 => Some((e, own_unit)),
+                _ => None,
+            },
+            aquifer: aq.clone(),
             level_pieces: Vec::new(),
             screen_top: well.screen_top,
             screen_base: well.screen_base,
@@ -157,7 +166,7 @@ impl WellLimit {
         }
         limit.level_pieces = vec![(limit.floor_potential, 0.0)];
         let q_hi = limit.capacity_at(top);
-        if limit.loss_c > 0.0 && q_hi > 0.0 {
+        if limit.has_rate_loss() && q_hi > 0.0 {
             let g = |q: f64| aq.potential(limit.face_floor(q));
             limit.level_pieces = (0..LOSS_PIECES)
                 .map(|i| {
@@ -174,9 +183,23 @@ impl WellLimit {
     }
 
     /// Lowest level allowed at the screen face (outside the well) at rate `q`, m: the lowest level
-    /// in the well plus Jacob's loss C·q² (Jacob 1947; see [`crate::physics::well_loss`]).
+    /// in the well plus its well loss at that rate, Jacob's C·q² or the efficiency's
+    /// (1/E − 1)·s_own(q) (Jacob 1947; see [`crate::physics::well_loss`]).
     pub fn face_floor(&self, q: f64) -> f64 {
-        (self.lowest_level + jacob_loss(self.loss_c, q)).max(self.floor_level)
+        (self.lowest_level + self.loss_at(q)).max(self.floor_level)
+    }
+
+    /// The well loss at rate `q`, m.
+    pub fn loss_at(&self, q: f64) -> f64 {
+        let eff = self.efficiency.map_or(0.0, |(e, u)| {
+            efficiency_loss_of_rate(&self.aquifer, e, u, q)
+        });
+        jacob_loss(self.loss_c, q) + eff
+    }
+
+    /// Whether the well loss grows with the rate (Jacob's C or an efficiency below 1).
+    pub fn has_rate_loss(&self) -> bool {
+        self.loss_c > 0.0 || self.efficiency.is_some()
     }
 
     /// The safe (chord) floor on the screen-face potential at rate `q`: the largest of the rows,

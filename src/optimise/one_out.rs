@@ -44,7 +44,8 @@ impl LayoutRates<'_> {
     fn unit_rows_at_targets(&self) -> Vec<Vec<f64>> {
         self.positions
             .par_iter()
-            .map(|p| self.field.unit_row(*p))
+            .zip(&self.target_tables)
+            .map(|(p, t)| self.field.unit_row_at(*p, t.as_ref()))
             .collect()
     }
 

@@ -17,6 +17,7 @@
 use crate::check::evaluate::{evaluate, Evaluation};
 use crate::field::checkpoints::CheckPoint;
 use crate::field::influence::Field;
+use crate::field::near_field::PointTables;
 use crate::field::wells::Well;
 use crate::input::model::Model;
 use crate::optimise::limits::WellLimit;
@@ -70,6 +71,9 @@ pub struct LayoutRates<'a> {
     pub(super) matrices: OnceLock<Matrices>,
     /// Positions of the target points.
     pub(super) positions: Vec<[f64; 2]>,
+    /// Partial-penetration tables of each target point at its own elevation (parallel to
+    /// `positions`; see [`crate::check::field_build::point_elevation`]).
+    pub(super) target_tables: Vec<Option<crate::field::near_field::PointTables>>,
     /// Positions of the wells.
     pub(super) well_positions: Vec<[f64; 2]>,
     /// Row sums of the unit rows at the target points (ΔΦ per unit uniform rate).
@@ -190,15 +194,40 @@ impl<'a> LayoutRates<'a> {
                 .unzip()
         };
         let positions: Vec<[f64; 2]> = targets.iter().map(|&i| points[i].position).collect();
-        let (a_sum, base_t) = sums(&positions);
+        let target_points: Vec<CheckPoint> = targets.iter().map(|&i| points[i].clone()).collect();
+        let target_tables = crate::check::field_build::point_tables(model, &field, &target_points);
+        // the target points at their own elevations
+        let (a_sum, base_t): (Vec<f64>, Vec<f64>) = positions
+            .par_iter()
+            .zip(&target_tables)
+            .map(|(p, t)| {
+                let row = field.unit_row_at(*p, t.as_ref());
+                let dot = |q: &[f64]| row.iter().zip(q).map(|(a, b)| a * b).sum::<f64>();
+                (
+                    dot(&free_ones),
+                    phi0 + if any_fixed { dot(&fixed) } else { 0.0 },
+                )
+            })
+            .unzip();
         let well_positions: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
         let (at_wells_sum, base_w) = sums(&well_positions);
         // The design runs each well at no more than the design file's capacity fraction.
         let fraction = model.design.capacity_fraction;
+        let efficiency = matches!(
+            model.as_built.loss,
+            crate::input::model::WellLossSpec::Efficiency(_)
+        );
         let limits = wells
             .iter()
-            .map(|w| {
-                let mut l = WellLimit::new(model, w);
+            .enumerate()
+            .map(|(k, w)| {
+                // a well efficiency needs the well's own ΔΦ per unit rate at its face
+                let own = if efficiency {
+                    field.unit_row(w.position)[k]
+                } else {
+                    0.0
+                };
+                let mut l = WellLimit::new(model, w, own);
                 l.capacity_per_metre *= fraction;
                 l.pump = l.pump.map(|p| p * fraction);
                 l
@@ -213,6 +242,7 @@ impl<'a> LayoutRates<'a> {
             target_phi,
             matrices: OnceLock::new(),
             positions,
+            target_tables,
             well_positions,
             a_sum,
             at_wells_sum,
@@ -229,20 +259,22 @@ impl<'a> LayoutRates<'a> {
     /// The unit rows per rate group (ΔΦ per unit rate of each group), built once.
     pub(super) fn matrices(&self) -> &Matrices {
         self.matrices.get_or_init(|| {
-            let fold = |pts: &[[f64; 2]]| -> Vec<Vec<f64>> {
+            let fold = |pts: &[[f64; 2]], tables: Option<&[Option<PointTables>]>| {
                 pts.par_iter()
-                    .map(|p| {
-                        let r = self.field.unit_row(*p);
+                    .enumerate()
+                    .map(|(i, p)| {
+                        let t = tables.and_then(|t| t[i].as_ref());
+                        let r = self.field.unit_row_at(*p, t);
                         self.groups
                             .iter()
                             .map(|m| m.iter().map(|&k| r[k]).sum())
-                            .collect()
+                            .collect::<Vec<f64>>()
                     })
-                    .collect()
+                    .collect::<Vec<Vec<f64>>>()
             };
             Matrices {
-                a: fold(&self.positions),
-                at_wells: fold(&self.well_positions),
+                a: fold(&self.positions, Some(&self.target_tables)),
+                at_wells: fold(&self.well_positions, None),
             }
         })
     }

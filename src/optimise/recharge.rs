@@ -171,7 +171,9 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
         if p.excavation.is_none() {
             continue;
         }
-        let row = field.unit_row(p.position);
+        // at the point's own elevation (partial penetration depends on it)
+        let tables = field.elevation(crate::check::field_build::point_elevation(model, &p));
+        let row = field.unit_row_at(p.position, tables.as_ref());
         let without: f64 = row.iter().zip(&abstraction_now).map(|(a, q)| a * q).sum();
         let rhs = aq.potential(t - LP_MARGIN) - phi0;
         if without > rhs + 1e-12 {
@@ -219,13 +221,17 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
             drawdown_without_recharge_m: worst,
         });
     }
-    for w in wells {
+    for (k, w) in wells.iter().enumerate() {
         let row = field.unit_row(w.position);
         if w.rate < 0.0 {
             let q_max = injection_capacity(model, w);
             let loss = match model.as_built.loss {
                 crate::input::model::WellLossSpec::Jacob(c) => {
                     crate::physics::well_loss::jacob_loss(c, q_max)
+                }
+                // (1/E − 1) × the well's own rise at its largest injection
+                crate::input::model::WellLossSpec::Efficiency(e) => {
+                    crate::physics::well_loss::efficiency_loss_of_rate(aq, e, row[k], -q_max)
                 }
                 _ => 0.0,
             };

@@ -47,8 +47,8 @@ impl LayoutRates<'_> {
                 continue;
             }
             let mut q_level = ((phi_k - lim.floor_potential) / -s).max(0.0);
-            if lim.loss_c > 0.0 {
-                // the face level must stay above floor + C·q² (monotone in q: bisection)
+            if lim.has_rate_loss() {
+                // the face level must stay above floor + loss(q) (monotone in q: bisection)
                 let aq = &self.model.aquifer;
                 let ok = |q: f64| phi_k + q * s >= aq.potential(lim.face_floor(q));
                 let (mut lo, mut hi) = (0.0, q_level);

@@ -10,6 +10,7 @@ pub mod pipes;
 pub mod potential;
 pub mod pumping_test;
 pub mod radius;
+pub mod screen_average;
 pub mod slot;
 pub mod special;
 pub mod theis;

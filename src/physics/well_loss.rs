@@ -20,6 +20,10 @@ pub fn jacob_loss(c: f64, q: f64) -> f64 {
 /// The well loss that makes `aquifer_drawdown / (aquifer_drawdown + loss)` equal the well
 /// efficiency E: loss = s·(1/E − 1), m.
 ///
+/// `aquifer_drawdown` is the well's OWN laminar drawdown at its screen face, Jacob's B·Q: the
+/// drawdown its own rate makes there (what a step test of the well alone measures), not the
+/// total drawdown with its neighbours' share (see [`efficiency_loss_of_rate`]).
+///
 /// Units: s m, E dimensionless in (0, 1] → m. Source: definition of well efficiency, Kruseman &
 /// de Ridder (1994), 2nd ed., ch. 14 (common practice). E = 1 gives 0; E outside (0, 1], s < 0 or
 /// non-finite inputs give 0 (the caller validates: E must be in (0, 1]).
@@ -33,6 +37,34 @@ pub fn efficiency_loss(aquifer_drawdown: f64, efficiency: f64) -> f64 {
         return 0.0;
     }
     aquifer_drawdown * (1.0 / efficiency - 1.0)
+}
+
+/// The well loss of a well of efficiency E pumping (q > 0) or recharging (q < 0) at rate q,
+/// m (always ≥ 0): (1/E − 1) × the well's own drawdown (or rise) at its screen face,
+/// |h₀ − h(Φ₀ + q·u)|, with u the ΔΦ per unit rate the well makes at its own face (its Thiem
+/// term, its partial penetration Δ_w and its images; negative).
+///
+/// Jacob (1947): s_w = B·Q + C·Q², and E = B·Q / s_w. For a constant E the loss
+/// C·Q² = (1/E − 1)·B·Q depends on the well's own rate only — a neighbour starting up does not
+/// change the flow through this well's screen and pack (Kruseman & de Ridder 1994, 2nd ed.,
+/// ch. 14; Houben 2015, *Hydrogeology Journal* 23, "Review: Hydraulics of water wells"). In a
+/// recharge well the loss raises the level in the well by the same rule. In a confined layer
+/// B·Q = −q·u/T exactly; in an unconfined one the own drawdown is taken through Φ = ½K·h² about
+/// the initial level h₀ (its drawdown alone, no neighbours).
+pub fn efficiency_loss_of_rate(
+    aquifer: &crate::physics::potential::Aquifer,
+    efficiency: f64,
+    own_unit: f64,
+    q: f64,
+) -> f64 {
+    if !(q.is_finite() && own_unit.is_finite()) || q == 0.0 {
+        return 0.0;
+    }
+    let h0 = aquifer.initial_level;
+    let own = aquifer
+        .level(aquifer.initial_potential() + q * own_unit)
+        .or_base(aquifer.base_level);
+    efficiency_loss((h0 - own).abs(), efficiency)
 }
 
 /// Walton's (1962) grading of a well by its loss coefficient C.

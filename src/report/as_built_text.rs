@@ -22,7 +22,7 @@ pub fn as_built_lines(run: &CheckRun, units: UnitSystem) -> String {
     }
     if run.field.has_partial_penetration() {
         parts.push(format!(
-            "partial penetration: screens short of the saturated thickness ({:.2} {lu}) add the steady correction near each well (uniform flux, cosine modes; K_v/K_h = {}; linearised on the thickness before pumping; check points taken at the target level, wells averaged over their screen)",
+            "partial penetration: screens short of the saturated thickness ({:.2} {lu}) add the steady correction near each well (uniform flux, cosine modes; K_v/K_h = {}; linearised on the thickness before pumping; each check point at its own target level, uplift points at the top of the pressurised layer, the map at the served excavation's target; in a well its own and the other wells' share averaged over its screen)",
             l(m.aquifer.initial_saturated_thickness()),
             m.as_built.anisotropy
         ));
@@ -32,7 +32,7 @@ pub fn as_built_lines(run: &CheckRun, units: UnitSystem) -> String {
             "well loss: Jacob's C·Q² with C = {c:.0} s²/m⁵, in the well only"
         )),
         WellLossSpec::Efficiency(e) => parts.push(format!(
-            "well loss: efficiency {e:.2} (drawdown in the well = aquifer drawdown / E)"
+            "well loss: efficiency {e:.2}: loss = (1/E − 1) × the well's own drawdown at its screen face (its neighbours' share left out), lowering a pumped well and raising a recharge well"
         )),
         WellLossSpec::None => {}
     }

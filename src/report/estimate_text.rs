@@ -131,8 +131,10 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
         out,
         "rough well count",
         format!(
-            "{} working + {} standby",
-            e.rough_well_count, e.standby_wells
+            "{} working + {} standby (each at {:.0} % of its capacity, as the design)",
+            e.rough_well_count,
+            e.standby_wells,
+            e.capacity_fraction * 100.0
         ),
     );
     for n in &e.notes {
