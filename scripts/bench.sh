@@ -7,7 +7,9 @@
 #   trench   — wellpoints at 4 m on both sides of a 2 km trench (about 1 000), 500 × 500 map.
 # For each case: drydig's kernel time (best of 5; all threads, then one thread), NumPy's time
 # (best of 3), the largest level difference (must be ≤ 1e-9 m) and the ratio NumPy / drydig.
-# Then `drydig design` on the basement (best of 3, wall clock, including writing every output).
+# Then `drydig check` and `drydig design -v` on the basement (best of 3) and on every demo in
+# layouts/ (once each), wall clock including writing every output, side by side with the work the
+# design did: LP solves, layouts tried, full evaluations, unit matrices built and reused.
 # Transient cases (Theis superposition in space and time, NumPy with scipy.special.exp1, timed
 # once): transient — the 60 wells at constant rates, 500 × 500 map, 10 output times (1 … 10 days);
 # programme — the same basement in 3 stages (half the wells, then all, then all at 1.3×).
@@ -43,17 +45,44 @@ for case in ["basement", "trench", "transient", "programme"]:
     print(f"{case:<10} {r['wells']:>6} {r['points']:>8} {r['kernel_seconds']:>10.4f} {r['threads']:>7} "
           f"{r1['kernel_seconds']:>10.4f} {n['numpy_seconds']:>9.4f} {ratio:>6.1f}x {ratio1:>7.1f}x "
           f"{n['max_abs_difference_m']:>11.2e}  {'yes' if n['agree_to_1e-9'] else 'NO'}")
-best = float("inf")
-code = None
-for _ in range(3):
+def timed(args):
     t = time.perf_counter()
-    p = subprocess.run(["./target/release/drydig", "design", f"{work}/basement/design.toml",
-                        "-o", f"{work}/design-out"], capture_output=True, text=True)
-    best = min(best, time.perf_counter() - t)
-    code = p.returncode
-summary = [l for l in p.stdout.splitlines() if l.startswith("RESULT")]
-print(f"\ndrydig design on the basement: {best:.3f} s (best of 3, exit {code}; "
-      f"{summary[0] if summary else 'no result line'})")
+    p = subprocess.run(args, capture_output=True, text=True)
+    return time.perf_counter() - t, p
+
+
+def work_line(stderr):
+    return next((l for l in stderr.splitlines() if l.startswith("work:")), "")
+
+
+def reuse_count(line):
+    import re
+    m = re.search(r"built (\d+) times and reused (\d+) times", line)
+    return (int(m.group(1)), int(m.group(2))) if m else (0, 0)
+
+
+# `check` and `design` on the basement (best of 3) and on every demo (once each), side by side,
+# with the work the design did (from `design -v`).
+cases = [("bench basement", f"{work}/basement/design.toml", 3)]
+cases += [(p.stem, str(p), 1) for p in sorted(__import__("pathlib").Path("layouts").glob("*.toml"))]
+print(f"\n{'design file':<34} {'check s':>8} {'design s':>9} {'LP':>5} {'trials':>6} {'evals':>6} "
+      f"{'unit built':>10} {'reused':>6}  result")
+for name, path, runs in cases:
+    tc = min(timed(["./target/release/drydig", "check", path, "-o", f"{work}/c-out"])[0]
+             for _ in range(runs))
+    best, p = None, None
+    for _ in range(runs):
+        t, q = timed(["./target/release/drydig", "design", path, "-v", "-o", f"{work}/d-out"])
+        if best is None or t < best:
+            best, p = t, q
+    w = work_line(p.stderr)
+    import re
+    nums = dict((k, int(v)) for v, k in re.findall(r"(\d+) (LP solves|layouts tried|full evaluations)", w))
+    built, reused = reuse_count(w)
+    result = next((l for l in p.stdout.splitlines() if l.startswith("RESULT")), "no result line")
+    print(f"{name:<34} {tc:>8.3f} {best:>9.3f} {nums.get('LP solves', 0):>5} "
+          f"{nums.get('layouts tried', 0):>6} {nums.get('full evaluations', 0):>6} {built:>10} "
+          f"{reused:>6}  {result[:60]}")
 if not ok:
     print("the kernels DISAGREE beyond 1e-9 m", file=sys.stderr)
     sys.exit(1)

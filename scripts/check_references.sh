@@ -46,6 +46,8 @@ else
 fi
 # partial penetration (scripts/reference_partial_penetration.py, scipy and mpmath; ~4 min)
 tmp_pp="$(mktemp "${TMPDIR:-/tmp}/drydig-pp.XXXXXX.csv")"; python3 "$root/scripts/reference_partial_penetration.py" "$tmp_pp"; if diff -u "$root/tests/reference/partial_penetration.csv" "$tmp_pp"; then echo "reference table up to date: $root/tests/reference/partial_penetration.csv"; else echo "partial_penetration.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_pp"
+# Theis well function, dense table 1 <= u <= 40 (scripts/reference_theis_w.py, scipy exp1)
+tmp_w="$(mktemp "${TMPDIR:-/tmp}/drydig-theis-w.XXXXXX.csv")"; python3 "$root/scripts/reference_theis_w.py" "$tmp_w"; if diff -u "$root/tests/reference/theis_w.csv" "$tmp_w"; then echo "reference table up to date: $root/tests/reference/theis_w.csv"; else echo "theis_w.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_w"
 
 # screen-averaged partial penetration (scripts/reference_screen_average.py, scipy)
 tmp_sa="$(mktemp "${TMPDIR:-/tmp}/drydig-sa.XXXXXX.csv")"; python3 "$root/scripts/reference_screen_average.py" "$tmp_sa"; if diff -u "$root/tests/reference/screen_average.csv" "$tmp_sa"; then echo "reference table up to date: $root/tests/reference/screen_average.csv"; else echo "screen_average.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_sa"

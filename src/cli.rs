@@ -104,6 +104,10 @@ pub enum Command {
         /// the steady state: the fewest wells and least total flow meeting every target then.
         #[arg(long = "by-day")]
         by_day: Option<f64>,
+        /// Also print, on stderr, the work the design did: linear programmes solved, layouts
+        /// tried, full evaluations, kernel sums, unit matrices built and reused.
+        #[arg(short = 'v', long)]
+        verbose: bool,
     },
     /// Try a range of well counts (ring) or spacings in m (trench line): table, sweep.csv and
     /// sweep.svg.

@@ -18,6 +18,8 @@
 //! 9. [`test_analysis`] — a constant-rate pumping test fitted for T, S (and B).
 //! 10. [`report`] — output formats only: terminal text, tables, GeoJSON, SVG maps and charts.
 //!
+//! [`work_counts`] counts the work done (LP solves, kernel sums), for `design -v`.
+//!
 //! [`cli`] holds the command-line arguments; the binary only parses, calls, prints and exits.
 #![forbid(unsafe_code)]
 
@@ -34,3 +36,4 @@ pub mod report;
 pub mod safety;
 pub mod test_analysis;
 pub mod transient;
+pub mod work_counts;

@@ -90,6 +90,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             units,
             prices,
             by_day,
+            verbose,
         } => {
             let mut model = model::load(&file)?;
             if let Some(day) = by_day {
@@ -113,6 +114,9 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 .transpose()?;
             let design = drydig::optimise::search::design(&model, rates.into())?;
             let run = drydig::optimise::outcome::final_run(&model, &design);
+            if verbose {
+                eprintln!("{}", drydig::work_counts::summary());
+            }
             let files =
                 report::design_text::files(&model, &design, run.as_ref(), prices.as_deref())?;
             let inputs = report::files::inputs_of(&model, None);

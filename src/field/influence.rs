@@ -215,6 +215,7 @@ impl Field {
 
     /// Add `f(well, ΔΦ per unit rate)` for every source in range of `point` (site coordinates).
     fn for_each_in_range(&self, point: [f64; 2], mut f: impl FnMut(usize, f64)) {
+        crate::work_counts::add(&crate::work_counts::KERNEL_SUMS, 1);
         self.for_each_thiem(point, &mut f);
         if let Some(n) = &self.near {
             n.for_each(self.local(point), f);
@@ -317,6 +318,7 @@ impl Field {
                 })
                 .collect();
         }
+        crate::work_counts::add(&crate::work_counts::KERNEL_SUMS, points.len());
         let flat = Flat::new(&self.sources, rates);
         let [bx0, by0, bx1, by1] = bbox(self.sources.iter().map(|s| s.position));
         let c2 = self.cutoff * self.cutoff;

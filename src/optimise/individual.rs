@@ -51,12 +51,17 @@ pub struct WellRow {
 }
 
 /// Which constraint a programme row stands for.
-#[derive(Debug, Clone, Copy)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 enum RowRef {
     Target(usize),
     Level(usize, usize),
     Capacity(usize, usize),
 }
+
+/// The rows a programme was last solved with: carried into the next solve of the same layout
+/// (the next round of one-well-out rows), so that row generation does not start again.
+#[derive(Debug, Clone, Default)]
+pub struct CarriedRows(Vec<RowRef>);
 
 /// What the programme minimises.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -99,7 +104,15 @@ impl LayoutRates<'_> {
     /// into the rate groups here), present from the first round: the rows for one well out
     /// ([`crate::optimise::one_out`]).
     pub fn individual_with(&self, extra: &[WellRow]) -> Individual {
-        let (sol, rows, rounds) = self.solve(Goal::MinFlow, extra);
+        self.individual_carried(extra, &mut CarriedRows::default())
+    }
+
+    /// As [`LayoutRates::individual_with`], starting from the rows in `carried` (those of an
+    /// earlier solve of this layout) and leaving there the rows this solve ended with. The
+    /// optimum is the same (row generation stops only when no row of the full programme is
+    /// violated); fewer rounds lead to it.
+    pub fn individual_carried(&self, extra: &[WellRow], carried: &mut CarriedRows) -> Individual {
+        let (sol, rows, rounds) = self.solve(Goal::MinFlow, extra, &carried.0);
         if matches!(sol.status, LpStatus::Failed(_)) && self.groups.len() >= 16 {
             let mut coarser = LayoutRates::with_groups(
                 self.model,
@@ -108,8 +121,11 @@ impl LayoutRates<'_> {
                 self.groups.len() / 2,
             );
             coarser.solver = self.solver;
+            // the rows refer to this layout's rate groups: the coarser one starts afresh
+            carried.0.clear();
             return coarser.individual_with(extra);
         }
+        carried.0.clone_from(&rows);
         if sol.status != LpStatus::Optimal {
             return Individual {
                 status: sol.status,
@@ -138,14 +154,14 @@ impl LayoutRates<'_> {
     /// Rates within every limit that make the largest shortfall (in Φ) over the targets as
     /// small as it can be: the best this layout can do when it cannot meet every target.
     pub fn least_shortfall(&self) -> Option<Vec<f64>> {
-        let (sol, _, _) = self.solve(Goal::MinShortfall, &[]);
+        let (sol, _, _) = self.solve(Goal::MinShortfall, &[], &[]);
         (sol.status == LpStatus::Optimal).then(|| self.well_rates(&sol.values))
     }
 
     /// Least total flow to meet the targets with no well limits at all, m³/s (a lower bound on
     /// what the layout needs).
     pub fn flow_without_limits(&self) -> Option<f64> {
-        let (sol, _, _) = self.solve(Goal::TargetsOnly, &[]);
+        let (sol, _, _) = self.solve(Goal::TargetsOnly, &[], &[]);
         (sol.status == LpStatus::Optimal).then(|| {
             self.well_rates(&sol.values)
                 .iter()
@@ -224,7 +240,12 @@ impl LayoutRates<'_> {
 
     /// Solve by adding violated rows until none is left. Returns the solution (values per
     /// group, then the shortfall when asked for), the rows it was solved with and the rounds.
-    fn solve(&self, goal: Goal, extra: &[WellRow]) -> (LpSolution, Vec<RowRef>, usize) {
+    fn solve(
+        &self,
+        goal: Goal,
+        extra: &[WellRow],
+        start: &[RowRef],
+    ) -> (LpSolution, Vec<RowRef>, usize) {
         let g = self.groups.len();
         let n = self.wells.len();
         let limits_on = goal != Goal::TargetsOnly;
@@ -314,6 +335,20 @@ impl LayoutRates<'_> {
             .iter()
             .map(|l| vec![false; l.pieces.len()])
             .collect();
+        // The rows carried from an earlier solve of this layout, after the seeds.
+        for &r in start {
+            let have = match r {
+                RowRef::Target(t) => have_target.get_mut(t),
+                RowRef::Level(k, i) => have_level.get_mut(k).and_then(|v| v.get_mut(i)),
+                RowRef::Capacity(k, s) => have_cap.get_mut(k).and_then(|v| v.get_mut(s)),
+            };
+            if let Some(h) = have {
+                if !*h && (limits_on || matches!(r, RowRef::Target(_))) {
+                    *h = true;
+                    rows.push(r);
+                }
+            }
+        }
         let tol = ROW_TOLERANCE * self.phi0.abs().max(1e-30);
         let mut rounds = 0;
         loop {

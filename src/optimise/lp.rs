@@ -313,6 +313,7 @@ pub enum Solver {
 /// Solve the rate problem with the chosen solver. The one hook between this module and the
 /// second solver; [`solve`] itself is unchanged.
 pub fn solve_with(problem: &RateProblem, solver: Solver) -> LpSolution {
+    crate::work_counts::add(&crate::work_counts::LP_SOLVES, 1);
     match solver {
         Solver::Simplex => solve(problem),
         Solver::InteriorPoint => crate::optimise::clarabel::solve(problem),

@@ -4,7 +4,7 @@
 //! `lp` (a small linear-programme layer, with `clarabel` as the second solver) and `limits` (what one well may give) → `rates` (one
 //! layout's field and unit rows) → `uniform` and `individual` (the two rate options) → `trial`
 //! (one layout tried) → `precheck` (reasons nothing can work) and `search` (the fewest wells,
-//! `drydig design`) → `outcome` (how it ended, whether it is met) and `bid` (the quantities);
+//! `drydig design`; `search_range`: where it starts, the cap on wells) → `outcome` (how it ended, whether it is met) and `bid` (the quantities);
 //! `sweep` (a range of counts or spacings) and `recharge` (sizing recharge wells for neighbours).
 //! `one_out` (the rows for any one well out of service), `standby` (finishing a met design:
 //! idle wells dropped, the worst loss, standby wells placed) and `pumps` (pump classes, heads
@@ -23,6 +23,7 @@ pub mod pumps;
 pub mod rates;
 pub mod recharge;
 pub mod search;
+pub mod search_range;
 pub mod standby;
 pub mod sweep;
 pub mod trial;

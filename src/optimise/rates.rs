@@ -17,7 +17,6 @@
 use crate::check::evaluate::{evaluate, Evaluation};
 use crate::field::checkpoints::CheckPoint;
 use crate::field::influence::Field;
-use crate::field::near_field::PointTables;
 use crate::field::wells::Well;
 use crate::input::model::Model;
 use crate::optimise::limits::WellLimit;
@@ -66,8 +65,11 @@ pub struct LayoutRates<'a> {
     pub(super) targets: Vec<usize>,
     /// Φ at each target level (parallel to `targets`).
     pub(super) target_phi: Vec<f64>,
-    /// Unit rows per rate group at the target points and at the wells, built when the linear
-    /// programme first needs them.
+    /// Unit rows per well at the target points and at the wells, built once when first needed
+    /// and shared by the rate options, the one-well-out rows and the one-well-out report.
+    pub(super) unit: OnceLock<UnitRows>,
+    /// Unit rows per rate group at the target points and at the wells, folded from `unit` when
+    /// the linear programme first needs them.
     pub(super) matrices: OnceLock<Matrices>,
     /// Positions of the target points.
     pub(super) positions: Vec<[f64; 2]>,
@@ -96,6 +98,14 @@ pub struct LayoutRates<'a> {
     pub solver: crate::optimise::lp::Solver,
 }
 
+/// Unit rows per well: ΔΦ per unit rate of each well.
+pub(super) struct UnitRows {
+    /// At the target points.
+    pub(super) at_targets: Vec<Vec<f64>>,
+    /// At the wells.
+    pub(super) at_wells: Vec<Vec<f64>>,
+}
+
 /// Unit rows folded by rate group.
 pub(super) struct Matrices {
     /// At the target points.
@@ -107,15 +117,24 @@ pub(super) struct Matrices {
 /// Groups of consecutive wells (indices `free` into `wells`) sharing one rate, at most `max`
 /// groups, never across a gap (a step more than three times the median step between
 /// consecutive wells).
+///
+/// A closed run (a ring: its last well as near its first as neighbours are) is cut into equal
+/// groups. An open run (a line) is cut into groups that grow from each end towards the middle:
+/// single wells at the ends, where a line needs more than its middle (fewer neighbours draw
+/// there) and where its end wells can give more before their level limit binds, and long
+/// groups in the middle, where a long line is uniform. Equal groups along a long line held each
+/// end group to its innermost member's limit, and a line of 400 m or more met no target at any
+/// spacing (issue 20).
 fn rate_groups(wells: &[Well], free: &[usize], max: usize) -> Vec<Vec<usize>> {
     let n = free.len();
     if n <= max {
         return free.iter().map(|&k| vec![k]).collect();
     }
-    let step = |i: usize| {
-        let (a, b) = (wells[free[i]].position, wells[free[i + 1]].position);
+    let dist = |a: usize, b: usize| {
+        let (a, b) = (wells[a].position, wells[b].position);
         (b[0] - a[0]).hypot(b[1] - a[1])
     };
+    let step = |i: usize| dist(free[i], free[i + 1]);
     let mut steps: Vec<f64> = (0..n - 1).map(step).collect();
     steps.sort_by(f64::total_cmp);
     let median = steps.get(steps.len() / 2).copied().unwrap_or(0.0);
@@ -128,14 +147,76 @@ fn rate_groups(wells: &[Well], free: &[usize], max: usize) -> Vec<Vec<usize>> {
             r.push(k);
         }
     }
-    let size = n.div_ceil(max.max(1)).max(1);
-    runs.into_iter()
+    let closed = runs.len() == 1 && dist(free[0], free[n - 1]) <= 3.0 * median;
+    if closed {
+        let size = n.div_ceil(max.max(1)).max(1);
+        return runs
+            .into_iter()
+            .flat_map(|run| {
+                let g = run.len().div_ceil(size).max(1);
+                let per = run.len().div_ceil(g);
+                run.chunks(per).map(<[usize]>::to_vec).collect::<Vec<_>>()
+            })
+            .collect();
+    }
+    // The budget of groups shared among the runs in proportion to their wells.
+    let budget = max.max(runs.len());
+    runs.iter()
         .flat_map(|run| {
-            let g = run.len().div_ceil(size).max(1);
-            let per = run.len().div_ceil(g);
-            run.chunks(per).map(<[usize]>::to_vec).collect::<Vec<_>>()
+            let share = (budget * run.len() / n).max(1);
+            graded_chunks(run.len(), share)
+                .into_iter()
+                .map(|(a, b)| run[a..b].to_vec())
+                .collect::<Vec<_>>()
         })
         .collect()
+}
+
+/// Cut `len` consecutive wells into at most `groups` ranges whose sizes grow geometrically from
+/// each end towards the middle (1, ρ, ρ², … rounded), ρ the least ratio that fits.
+fn graded_chunks(len: usize, groups: usize) -> Vec<(usize, usize)> {
+    if len <= groups {
+        return (0..len).map(|i| (i, i + 1)).collect();
+    }
+    let half = len / 2;
+    // Ranges from one end covering `h` wells with ratio ρ: boundaries ⌊(ρⁱ − 1)/(ρ − 1)⌋.
+    let cut = |rho: f64, h: usize| -> Vec<usize> {
+        let mut b = vec![0usize];
+        let mut i = 1;
+        while *b.last().unwrap_or(&h) < h {
+            let edge = (rho.powi(i) - 1.0) / (rho - 1.0);
+            let e = (edge.floor() as usize).min(h);
+            if e > *b.last().unwrap_or(&0) {
+                b.push(e);
+            }
+            i += 1;
+        }
+        b
+    };
+    let count = |rho: f64| cut(rho, half).len() + cut(rho, len - half).len() - 2;
+    let (mut lo, mut hi) = (1.0f64, 2.0f64);
+    while count(hi) > groups.max(2) {
+        hi *= 2.0;
+    }
+    for _ in 0..60 {
+        let mid = 0.5 * (lo + hi);
+        if count(mid) > groups.max(2) {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    let first = cut(hi, half);
+    let second = cut(hi, len - half);
+    let mut out: Vec<(usize, usize)> = first.windows(2).map(|w| (w[0], w[1])).collect();
+    // The other half, mirrored: its single wells at the far end.
+    let mut tail: Vec<(usize, usize)> = second
+        .windows(2)
+        .map(|w| (len - w[1], len - w[0]))
+        .collect();
+    tail.reverse();
+    out.extend(tail);
+    out
 }
 
 impl<'a> LayoutRates<'a> {
@@ -240,6 +321,7 @@ impl<'a> LayoutRates<'a> {
             field,
             targets,
             target_phi,
+            unit: OnceLock::new(),
             matrices: OnceLock::new(),
             positions,
             target_tables,
@@ -256,15 +338,38 @@ impl<'a> LayoutRates<'a> {
         }
     }
 
-    /// The unit rows per rate group (ΔΦ per unit rate of each group), built once.
+    /// The unit rows per well at the targets and at the wells, built once (a kernel sum per
+    /// point); every later call reuses them.
+    pub(super) fn unit(&self) -> &UnitRows {
+        use crate::work_counts::{add, UNIT_MATRIX_BUILDS, UNIT_MATRIX_REUSES};
+        let mut built = false;
+        let rows = self.unit.get_or_init(|| {
+            built = true;
+            add(&UNIT_MATRIX_BUILDS, 1);
+            UnitRows {
+                at_targets: self
+                    .positions
+                    .par_iter()
+                    .zip(&self.target_tables)
+                    .map(|(p, t)| self.field.unit_row_at(*p, t.as_ref()))
+                    .collect(),
+                at_wells: self.field.unit_matrix(&self.well_positions),
+            }
+        });
+        if !built {
+            add(&UNIT_MATRIX_REUSES, 1);
+        }
+        rows
+    }
+
+    /// The unit rows per rate group (ΔΦ per unit rate of each group), folded once from
+    /// [`LayoutRates::unit`].
     pub(super) fn matrices(&self) -> &Matrices {
         self.matrices.get_or_init(|| {
-            let fold = |pts: &[[f64; 2]], tables: Option<&[Option<PointTables>]>| {
-                pts.par_iter()
-                    .enumerate()
-                    .map(|(i, p)| {
-                        let t = tables.and_then(|t| t[i].as_ref());
-                        let r = self.field.unit_row_at(*p, t);
+            let unit = self.unit();
+            let fold = |rows: &[Vec<f64>]| -> Vec<Vec<f64>> {
+                rows.par_iter()
+                    .map(|r| {
                         self.groups
                             .iter()
                             .map(|m| m.iter().map(|&k| r[k]).sum())
@@ -273,14 +378,15 @@ impl<'a> LayoutRates<'a> {
                     .collect::<Vec<Vec<f64>>>()
             };
             Matrices {
-                a: fold(&self.positions, Some(&self.target_tables)),
-                at_wells: fold(&self.well_positions, None),
+                a: fold(&unit.at_targets),
+                at_wells: fold(&unit.at_wells),
             }
         })
     }
 
     /// Evaluate the layout at `rates` with the plain solver.
     pub fn evaluate(&self, rates: &[f64]) -> Evaluation {
+        crate::work_counts::add(&crate::work_counts::EVALUATIONS, 1);
         let wells = self.with_rates(rates);
         evaluate(self.model, &self.field, &wells, self.points)
     }
@@ -309,5 +415,84 @@ impl<'a> LayoutRates<'a> {
             .zip(&self.wells)
             .map(|(g, w)| if g.is_some() { q } else { w.rate })
             .collect()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{graded_chunks, rate_groups};
+    use crate::field::wells::Well;
+
+    fn well(x: f64, y: f64) -> Well {
+        Well {
+            name: String::new(),
+            position: [x, y],
+            rate: 0.0,
+            radius: 0.05,
+            screen_top: 0.0,
+            screen_base: -1.0,
+            pump_intake: -1.0,
+            kind: crate::input::model::WellKind::Wellpoint,
+            note: None,
+        }
+    }
+
+    // Invariants of the grouping (no reference needed: a partition): every pumping well in
+    // exactly one group, groups of consecutive wells, at most `max` groups, single wells at
+    // both ends of an open line and the largest group in its middle.
+    #[test]
+    fn graded_groups_partition_a_line_with_single_wells_at_its_ends() {
+        for len in [121, 200, 577, 1000, 2000] {
+            for groups in [16, 60, 120] {
+                let c = graded_chunks(len, groups);
+                assert!(
+                    c.len() <= groups,
+                    "{len} wells, {groups}: {} groups",
+                    c.len()
+                );
+                assert_eq!(c[0], (0, 1));
+                assert_eq!(c[c.len() - 1], (len - 1, len));
+                for w in c.windows(2) {
+                    assert_eq!(w[0].1, w[1].0, "consecutive");
+                }
+                // the largest group in the middle half of the line
+                let (big, _) = c
+                    .iter()
+                    .enumerate()
+                    .max_by_key(|(_, r)| r.1 - r.0)
+                    .expect("groups");
+                let at = (c[big].0 + c[big].1) as f64 / 2.0 / len as f64;
+                assert!(
+                    (0.25..=0.75).contains(&at),
+                    "{len}, {groups}: largest at {at}"
+                );
+            }
+        }
+        // two lines (both sides of a trench) and a ring
+        let mut wells: Vec<Well> = (0..300).map(|i| well(i as f64, -2.5)).collect();
+        wells.extend((0..300).map(|i| well(i as f64, 2.5)));
+        let free: Vec<usize> = (0..wells.len()).collect();
+        let g = rate_groups(&wells, &free, 120);
+        assert!(g.len() <= 120);
+        let mut seen: Vec<usize> = g.iter().flatten().copied().collect();
+        seen.sort_unstable();
+        assert_eq!(seen, free);
+        assert!(g
+            .iter()
+            .all(|m| m.iter().all(|&k| (k < 300) == (m[0] < 300))));
+        assert_eq!(g[0], vec![0]);
+        let ring: Vec<Well> = (0..400)
+            .map(|i| {
+                let a = i as f64 / 400.0 * std::f64::consts::TAU;
+                well(100.0 * a.cos(), 100.0 * a.sin())
+            })
+            .collect();
+        let free: Vec<usize> = (0..400).collect();
+        let g = rate_groups(&ring, &free, 120);
+        assert!(
+            g.len() <= 120
+                && g.iter()
+                    .all(|m| m.len() == g[0].len() || m.len() < g[0].len())
+        );
     }
 }

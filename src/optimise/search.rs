@@ -2,9 +2,10 @@
 //! every well limit (`drydig design`).
 //!
 //! For a ring (by count) or a trench line (by wells per side, i.e. spacing), the smallest count
-//! that meets every target within the limits: counts are tried at the smallest, then 1, 3, 7,
-//! 15 … above it, then bisected between the last failure and the first success, so the count
-//! found has been tried and the one below it has been tried and failed. The search for
+//! that meets every target within the limits: counts are tried from the quick estimate's count,
+//! then 1, 3, 7, 15 … below it (while they meet) or above it (until one meets), then bisected
+//! between the last failure and the first success, so the count found has been tried and the
+//! one below it has been tried and failed. The search for
 //! individual rates solves a programme per count; the search for one rate needs none. Outcomes
 //! are data ([`crate::optimise::outcome`]): met, not met (best layout, worst point, shortfall) or
 //! impossible (and why).
@@ -18,6 +19,7 @@ use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::precheck::impossible_before_search;
 use crate::optimise::rates::{LayoutRates, RateOption, MAX_LP_VARIABLES};
+use crate::optimise::search_range::{cap_note, seed_index};
 use crate::optimise::standby::{finish, is_standby};
 use crate::optimise::trial::{
     closed_length, line_length, solve_individual, try_layout, try_placement, Trial, TrialRun,
@@ -233,32 +235,64 @@ impl Search<'_, '_> {
         Ok((Some(best), words, chosen))
     }
 
-    /// Smallest index meeting `ok`: try min, min + 1, min + 3, min + 7 … up to max, then
-    /// bisect between the last failure and the first success. The index returned was tried
-    /// and met; the one below it was tried and failed (or is below the range).
+    /// Smallest index meeting `ok`, searched from `seed` (the quick estimate's count; the
+    /// smallest index when none): when the seed meets, try seed − 1, seed − 3, seed − 7 …
+    /// down to the smallest index until one fails; when it does not, seed + 1, seed + 3 … up to
+    /// the largest until one meets; then bisect between the last failure and the first
+    /// success. The index returned was tried and met; the one below it was tried and failed
+    /// (or is below the range).
     fn smallest(
         &mut self,
         ok: fn(&Trial) -> bool,
         with_lp: bool,
+        seed: Option<usize>,
     ) -> Result<Option<usize>, InputError> {
         let (min, max) = match *self.fam {
             Family::Ring { min, max } | Family::Line { min, max, .. } => (min, max),
             Family::Fixed => (0, 0),
         };
+        let start = seed.unwrap_or(min).clamp(min, max);
         let mut lo: Option<usize> = None;
-        let mut n = min;
-        let mut step = 1;
-        let mut hi = loop {
-            if self.meets(n, ok, with_lp)? {
-                break n;
+        let mut hi;
+        if start > min && self.meets(start, ok, with_lp)? {
+            // downwards from a seed that meets
+            hi = start;
+            let mut step = 1;
+            while hi > min {
+                let n = hi.saturating_sub(step).max(min);
+                if self.meets(n, ok, with_lp)? {
+                    hi = n;
+                    step *= 2;
+                } else {
+                    lo = Some(n);
+                    break;
+                }
             }
-            lo = Some(n);
-            if n >= max {
-                return Ok(None);
+        } else {
+            if start > min {
+                lo = Some(start);
             }
-            n = (n + step).min(max);
-            step *= 2;
-        };
+            let mut n = if start > min {
+                (start + 1).min(max)
+            } else {
+                min
+            };
+            let mut step = if start > min { 2 } else { 1 };
+            hi = loop {
+                if lo == Some(n) {
+                    return Ok(None);
+                }
+                if self.meets(n, ok, with_lp)? {
+                    break n;
+                }
+                lo = Some(n);
+                if n >= max {
+                    return Ok(None);
+                }
+                n = (n + step).min(max);
+                step *= 2;
+            };
+        }
         while let Some(l) = lo {
             if hi - l <= 1 {
                 break;
@@ -309,7 +343,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
             message: "the layout's excavation does not exist".into(),
         })?;
     let fam = family(model, &spec);
-    let mut notes = Vec::new();
+    let mut notes: Vec<String> = cap_note(model, &spec, MAX_WELLS).into_iter().collect();
     let (search, probe) = match &fam {
         Family::Ring { min, max } => (
             format!(
@@ -368,7 +402,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         smallest_individual: None,
         binding: Vec::new(),
         search: search.clone(),
-        notes: Vec::new(),
+        notes: notes.clone(),
         estimate: est.clone(),
         finish: Default::default(),
     };
@@ -402,8 +436,9 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         search_state.cache.insert(0, t);
         (i.then_some(0), u.then_some(0))
     } else {
-        let i = search_state.smallest(|t| t.individual_met, true)?;
-        let u = search_state.smallest(|t| t.uniform_met, false)?;
+        let seed = seed_index(&spec, est.rough_well_count);
+        let i = search_state.smallest(|t| t.individual_met, true, seed)?;
+        let u = search_state.smallest(|t| t.uniform_met, false, seed)?;
         (i, u)
     };
     // The real fewest: below the count found with the design file's placement, other start

@@ -152,6 +152,7 @@ pub(super) fn try_placement(
     spacing: f64,
     with_lp: bool,
 ) -> TrialRun {
+    crate::work_counts::add(&crate::work_counts::TRIALS, 1);
     let count = placement.wells.len();
     let rates = LayoutRates::new(model, points, placement.wells.clone());
     let mut uniform = rates.uniform();

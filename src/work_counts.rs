@@ -1,0 +1,39 @@
+//! Counts of the work a command did, for `drydig design -v`: linear programmes solved, layouts
+//! tried, full evaluations, kernel sums (one per point summed over the wells in range) and how
+//! often a layout's unit matrix was built and reused. Process-wide counters (relaxed atomics:
+//! exact totals, no ordering); they only report, nothing reads them to decide.
+
+use std::sync::atomic::{AtomicUsize, Ordering};
+
+/// Linear programmes handed to a solver.
+pub static LP_SOLVES: AtomicUsize = AtomicUsize::new(0);
+/// Layouts tried (rows of the count table, placements below the count found included).
+pub static TRIALS: AtomicUsize = AtomicUsize::new(0);
+/// Full evaluations of a layout at every check point and well.
+pub static EVALUATIONS: AtomicUsize = AtomicUsize::new(0);
+/// Kernel sums: points at which the effect of every well in range was summed.
+pub static KERNEL_SUMS: AtomicUsize = AtomicUsize::new(0);
+/// Unit matrices (ΔΦ per unit rate, every target and well × every well) built.
+pub static UNIT_MATRIX_BUILDS: AtomicUsize = AtomicUsize::new(0);
+/// Uses of a unit matrix already built (rate options, one-well-out rows and report).
+pub static UNIT_MATRIX_REUSES: AtomicUsize = AtomicUsize::new(0);
+
+/// Add `n` to `counter`.
+#[inline]
+pub fn add(counter: &AtomicUsize, n: usize) {
+    counter.fetch_add(n, Ordering::Relaxed);
+}
+
+/// The counts in one line.
+pub fn summary() -> String {
+    let g = |c: &AtomicUsize| c.load(Ordering::Relaxed);
+    format!(
+        "work: {} LP solves, {} layouts tried, {} full evaluations, {} kernel sums, unit matrix built {} times and reused {} times",
+        g(&LP_SOLVES),
+        g(&TRIALS),
+        g(&EVALUATIONS),
+        g(&KERNEL_SUMS),
+        g(&UNIT_MATRIX_BUILDS),
+        g(&UNIT_MATRIX_REUSES)
+    )
+}
