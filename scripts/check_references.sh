@@ -52,4 +52,7 @@ tmp_w="$(mktemp "${TMPDIR:-/tmp}/drydig-theis-w.XXXXXX.csv")"; python3 "$root/sc
 # screen-averaged partial penetration (scripts/reference_screen_average.py, scipy)
 tmp_sa="$(mktemp "${TMPDIR:-/tmp}/drydig-sa.XXXXXX.csv")"; python3 "$root/scripts/reference_screen_average.py" "$tmp_sa"; if diff -u "$root/tests/reference/screen_average.csv" "$tmp_sa"; then echo "reference table up to date: $root/tests/reference/screen_average.csv"; else echo "screen_average.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_sa"
 
+# DXF test drawings and where ezdxf places their entities (scripts/dxf_fixtures.py, ezdxf)
+tmp_dxf="$(mktemp -d "${TMPDIR:-/tmp}/drydig-dxf.XXXXXX")"; python3 "$root/scripts/dxf_fixtures.py" "$tmp_dxf"; for f in mirrored.dxf inserts.dxf; do diff -q "$root/tests/dxf/$f" "$tmp_dxf/$f" || { echo "tests/dxf/$f differs from a fresh run" >&2; status=1; }; done; if diff -u "$root/tests/reference/dxf_expected.csv" "$tmp_dxf/dxf_expected.csv"; then echo "reference table up to date: $root/tests/reference/dxf_expected.csv"; else status=1; fi; rm -rf "$tmp_dxf"
+
 exit "$status"

@@ -274,12 +274,11 @@ fn pumping_test_data(
     thickness: Option<&str>,
 ) -> anyhow::Result<drydig::test_analysis::PumpingTestData> {
     use drydig::input::units::{parse, FlowKind, LengthKind};
-    let text = std::fs::read_to_string(file).map_err(|e| InputError {
-        file: file.to_path_buf(),
-        field: String::new(),
-        line: None,
-        message: format!("cannot read the test data: {e}"),
-    })?;
+    let text = drydig::input::read::read_text_capped(
+        file,
+        drydig::input::read::MAX_PUMPING_TEST_BYTES,
+        "pumping-test data",
+    )?;
     let err = |m: String| InputError {
         file: file.to_path_buf(),
         field: String::new(),

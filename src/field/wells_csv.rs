@@ -10,7 +10,7 @@ use crate::input::validate::ranges::MAX_WELLS;
 use std::path::Path;
 
 /// Largest wells CSV read, bytes.
-pub const MAX_CSV_BYTES: u64 = 16 << 20;
+pub const MAX_CSV_BYTES: u64 = crate::input::read::MAX_WELLS_CSV_BYTES;
 
 /// Wells from a CSV file with columns `name,x,y,rate_l_per_s` and optional `radius_m`.
 pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
@@ -20,7 +20,7 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         line,
         message,
     };
-    let bytes = crate::input::validate::file::read_capped(path, MAX_CSV_BYTES, "wells CSV")?;
+    let bytes = crate::input::read::read_capped(path, MAX_CSV_BYTES, "wells CSV")?;
     let mut reader = csv::ReaderBuilder::new()
         .trim(csv::Trim::All)
         .comment(Some(b'#'))

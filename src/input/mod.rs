@@ -2,12 +2,14 @@
 //!
 //! `units` (quantity strings → SI) → `schema` (the file's serde types) → `model` (validation,
 //! the [`model::Model`] the engine computes on) with `error` for messages that name the field;
-//! `starter` writes a commented design file.
+//! `starter` writes a commented design file; `read` is the one size-capped reader of every input
+//! file (regular files only).
 
 pub mod error;
 pub mod import;
 pub mod model;
 pub mod prices;
+pub mod read;
 pub mod schema;
 pub mod starter;
 pub mod units;

@@ -79,6 +79,9 @@ pub struct Model {
     pub crs: Option<String>,
     /// What was done to geometry read from drawings (arcs flattened, units converted).
     pub import_notes: Vec<String>,
+    /// The unit of the DXF drawing the design file reads (`design.dxf` is written in it);
+    /// `None` without one (metres).
+    pub drawing_unit: Option<crate::input::import::dxf_in::DrawingUnit>,
 }
 
 /// Output settings of `[output]` beyond units and map quantity, in SI.

@@ -22,11 +22,12 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
         line,
         message,
     };
+    let bytes =
+        crate::input::read::read_capped(path, crate::input::read::MAX_PRICES_BYTES, "prices file")?;
     let mut r = csv::ReaderBuilder::new()
         .trim(csv::Trim::All)
         .flexible(true)
-        .from_path(path)
-        .map_err(|e| err(None, "", format!("cannot read the prices file: {e}")))?;
+        .from_reader(bytes.as_slice());
     let headers = r
         .headers()
         .map_err(|e| err(Some(1), "", format!("cannot read the header row: {e}")))?

@@ -6,6 +6,7 @@ pub mod by_day_text;
 pub mod chart_axes;
 pub mod check_text;
 pub mod design_text;
+pub mod dxf_out;
 pub mod estimate_text;
 pub mod files;
 pub mod format;
@@ -87,6 +88,8 @@ pub fn check_files_for(
     recharge: Option<&crate::optimise::recharge::RechargeSizing>,
     design: Option<&crate::optimise::outcome::Design>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
+    let (map_files, grid) =
+        map::render::files_and_grid(run, if design.is_some() { "design" } else { "check" });
     let mut files: Vec<(String, Vec<u8>)> = vec![
         (
             "summary.json".into(),
@@ -97,13 +100,14 @@ pub fn check_files_for(
     ]
     .into_iter()
     .chain(neighbours::files::files(run)?)
-    .chain(map::render::files_for(
-        run,
-        if design.is_some() { "design" } else { "check" },
-    ))
+    .chain(map_files)
     .collect();
     let f = format::Fmt::new(run.model.units, run.model.ground_level);
     let section = section_svg::section_of(run);
+    files.push((
+        "design.dxf".into(),
+        dxf_out::design_dxf(run, &grid, &section)?,
+    ));
     let title = format!("Section — {}", run.model.name);
     let section_svg = section_svg::render(run.model, &section, &f, &title);
     let map_svg = files

@@ -4,21 +4,33 @@
 //!   its first counts as closed). Bulges (arc segments) are flattened into straight segments no
 //!   farther than the chord tolerance from the true arc; a note says so.
 //! - Open polylines are refused, naming layer and handle, unless asked for as lines.
-//! - Lines: LINE entities (and open polylines when asked for).
-//! - Wells: POINT, INSERT (block references) and CIRCLE entities (centre and radius).
+//! - Lines: LINE and ARC entities (and open polylines when asked for).
+//! - Wells: POINT and CIRCLE entities (centre and radius) and block references (INSERT): a
+//!   block holding points or circles gives those (one symbol inserted eight times is eight
+//!   wells); a block holding neither (a cross, a hatch) gives its insertion point. Wells are
+//!   named by an attribute of the reference, else by a TEXT/MTEXT label next to them, else by
+//!   layer and number ([`super::dxf_wells`]); two wells of one name are refused.
+//! - Mirrored entities (extrusion (0, 0, −1)) and block references (scale, rotation, mirror,
+//!   nesting) are converted to world coordinates ([`super::dxf_world`]); entities drawn in a
+//!   tilted plane, SPLINE and ELLIPSE are refused, never read wrong.
+//! - The file is read through [`crate::input::read`]: a regular file of at most 64 MiB.
 //!
 //! Units come from the drawing's `$INSUNITS` header and are converted to metres; a unitless
 //! drawing is refused unless the caller states the unit. Model-space entities only.
 
-use std::f64::consts::PI;
 use std::path::Path;
 
-use dxf::entities::{Entity, EntityType};
+use dxf::entities::Entity;
 use dxf::enums::Units;
 use geo::{Coord, LineString, Point, Polygon};
 
+use super::dxf_wells as wells;
+use super::dxf_world::{self, PlacedKind};
 use super::{ring_problem, Drawing, Marker, Shape};
 use crate::input::error::InputError;
+use crate::input::read::{read_capped, MAX_DXF_BYTES};
+
+pub use super::dxf_world::flatten;
 
 /// A length unit a drawing may be in.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -64,13 +76,25 @@ impl DrawingUnit {
         })
     }
 
-    fn name(self) -> &'static str {
+    /// The short name (`mm`, `m`, `ft`).
+    pub fn name(self) -> &'static str {
         match self {
             DrawingUnit::Millimetre => "mm",
             DrawingUnit::Centimetre => "cm",
             DrawingUnit::Metre => "m",
             DrawingUnit::Foot => "ft",
             DrawingUnit::Inch => "in",
+        }
+    }
+
+    /// The `$INSUNITS` value of this unit.
+    pub fn insunits(self) -> Units {
+        match self {
+            DrawingUnit::Millimetre => Units::Millimeters,
+            DrawingUnit::Centimetre => Units::Centimeters,
+            DrawingUnit::Metre => Units::Meters,
+            DrawingUnit::Foot => Units::Feet,
+            DrawingUnit::Inch => Units::Inches,
         }
     }
 
@@ -118,23 +142,50 @@ impl DxfOptions {
     }
 }
 
-/// A polyline vertex: x, y (drawing units) and the bulge of the segment that starts there.
-type BulgeVertex = (f64, f64, f64);
-
 fn err(file: &Path, field: impl Into<String>, message: impl Into<String>) -> InputError {
     InputError::at(file, field, message)
 }
 
 /// Read `options.layer` of the DXF drawing at `path`, in metres.
 ///
-/// Errors name the file, the layer and the entity handle: unreadable file, unitless drawing
-/// without a stated unit (or a stated unit that contradicts `$INSUNITS`), an open polyline
-/// not asked for as a line, a degenerate outline, nothing on the layer (the layers present are
-/// listed), or a chord tolerance that is not a positive number.
+/// Errors name the file, the layer and the entity handle: unreadable file (or not a regular
+/// file, or larger than [`MAX_DXF_BYTES`]), unitless drawing without a stated unit (or a stated
+/// unit that contradicts `$INSUNITS`), an open polyline not asked for as a line, a degenerate
+/// outline, a tilted entity, a non-finite bulge, two wells of one name, nothing on the layer
+/// (the layers present are listed), or a chord tolerance that is not a positive number.
 pub fn read(path: &Path, options: &DxfOptions) -> Result<Drawing, InputError> {
-    let drawing = dxf::Drawing::load_file(path)
+    let bytes = read_capped(path, MAX_DXF_BYTES, "DXF drawing")?;
+    let drawing = dxf::Drawing::load(&mut std::io::Cursor::new(bytes))
         .map_err(|e| err(path, "", format!("cannot read the DXF drawing: {e}")))?;
     from_drawing(path, &drawing, options)
+}
+
+/// The unit the drawing is read in: `$INSUNITS`, or the stated unit for a unitless drawing.
+fn drawing_unit(
+    path: &Path,
+    drawing: &dxf::Drawing,
+    stated: Option<DrawingUnit>,
+) -> Result<DrawingUnit, InputError> {
+    let in_file = DrawingUnit::from_insunits(drawing.header.default_drawing_units)
+        .map_err(|m| err(path, "$INSUNITS", m))?;
+    match (in_file, stated) {
+        (Some(f), Some(c)) if f != c => Err(err(
+            path,
+            "$INSUNITS",
+            format!(
+                "the drawing says {} but {} was stated; state the drawing's own unit or none",
+                f.name(),
+                c.name()
+            ),
+        )),
+        (Some(f), _) => Ok(f),
+        (None, Some(c)) => Ok(c),
+        (None, None) => Err(err(
+            path,
+            "$INSUNITS",
+            "the drawing is unitless; state its unit (mm, cm, m, ft or in)",
+        )),
+    }
 }
 
 /// As [`read`], from a drawing already loaded (`path` names it in messages).
@@ -153,190 +204,103 @@ pub fn from_drawing(
             ),
         ));
     }
-    let in_file = DrawingUnit::from_insunits(drawing.header.default_drawing_units)
-        .map_err(|m| err(path, "$INSUNITS", m))?;
-    let unit = match (in_file, options.unit) {
-        (Some(f), Some(c)) if f != c => {
-            return Err(err(
-                path,
-                "$INSUNITS",
-                format!(
-                    "the drawing says {} but {} was stated; state the drawing's own unit or none",
-                    f.name(),
-                    c.name()
-                ),
-            ))
-        }
-        (Some(f), _) => f,
-        (None, Some(c)) => c,
-        (None, None) => {
-            return Err(err(
-                path,
-                "$INSUNITS",
-                "the drawing is unitless; state its unit (mm, cm, m, ft or in)",
-            ))
-        }
-    };
+    let unit = drawing_unit(path, drawing, options.unit)?;
     let scale = unit.metres();
-    let tol = options.chord_tolerance / scale;
     let layer = options.layer.as_str();
-    let mut out = Drawing::default();
-    let mut arcs = 0usize;
-    let mut arc_segments = 0usize;
+    let field = |source: &str| format!("layer {layer}, {source}");
+    let world = dxf_world::place(drawing, layer, options.chord_tolerance / scale)
+        .map_err(|(source, m)| err(path, field(&source), m))?;
+    let mut out = Drawing {
+        unit: Some(unit),
+        ..Drawing::default()
+    };
     let mut count = 0usize;
-    let mut layers: Vec<String> = Vec::new();
-    for e in drawing.entities() {
-        if !layers.contains(&e.common.layer) {
-            layers.push(e.common.layer.clone());
-        }
-        if e.common.is_in_paper_space || !e.common.layer.eq_ignore_ascii_case(layer) {
-            continue;
-        }
-        let field = format!(
-            "layer {}, handle {}",
-            e.common.layer,
-            e.common.handle.as_string()
-        );
-        let source = field.clone();
-        let mut next_name = || {
-            count += 1;
-            format!("{} {count}", e.common.layer)
-        };
-        let vertices: Option<(Vec<BulgeVertex>, bool)> = match &e.specific {
-            EntityType::LwPolyline(p) => Some((
-                p.vertices.iter().map(|v| (v.x, v.y, v.bulge)).collect(),
-                p.is_closed(),
-            )),
-            EntityType::Polyline(p) => {
-                if p.is_3d_polyline() || p.is_3d_polygon_mesh() || p.is_polyface_mesh() {
+    let mut found: Vec<Found> = Vec::new();
+    let mut texts: Vec<((f64, f64), f64, String)> = Vec::new();
+    for item in &world.items {
+        let source = field(&item.source);
+        match &item.kind {
+            PlacedKind::Text { at, height, text } => {
+                // Text inside a block is part of its symbol, not a label of one well.
+                if item.instance.is_none() {
+                    texts.push((*at, *height, text.clone()));
+                }
+            }
+            PlacedKind::Point { at, radius } => {
+                count += 1;
+                let (x, y) = (at.0 * scale, at.1 * scale);
+                if !x.is_finite() || !y.is_finite() {
                     return Err(err(
                         path,
-                        field,
-                        "a 3D polyline or mesh is not an outline; draw it as a 2D polyline",
+                        source,
+                        "the point's position is not a pair of finite numbers",
                     ));
                 }
-                Some((
-                    p.vertices()
-                        .map(|v| (v.location.x, v.location.y, v.bulge))
-                        .collect(),
-                    p.is_closed(),
-                ))
-            }
-            _ => None,
-        };
-        if let Some((mut v, mut closed)) = vertices {
-            if v.len() >= 3 && !closed {
-                let (a, b) = (v[0], v[v.len() - 1]);
-                if (a.0 - b.0).hypot(a.1 - b.1) <= 1e-9 * (1.0 + a.0.abs().max(a.1.abs())) {
-                    v.pop();
-                    closed = true;
-                }
-            }
-            if !closed && !options.open_as_lines {
-                return Err(err(
-                    path,
-                    field,
-                    "the polyline is open; close it in the drawing for an outline, or ask for \
-                     open polylines as lines",
-                ));
-            }
-            let (pts, n_arcs, n_segs) = flatten(&v, closed, tol);
-            arcs += n_arcs;
-            arc_segments += n_segs;
-            let pts: Vec<(f64, f64)> = pts.iter().map(|(x, y)| (x * scale, y * scale)).collect();
-            if closed {
-                if let Some(msg) = ring_problem(&pts) {
-                    return Err(err(path, field, msg));
-                }
-                out.polygons.push(Shape {
-                    name: next_name(),
-                    source,
-                    geometry: Polygon::new(line_string(&pts), vec![]),
-                });
-            } else {
-                if pts.len() < 2 || pts.iter().any(|(x, y)| !x.is_finite() || !y.is_finite()) {
-                    return Err(err(path, field, "a line needs at least 2 finite vertices"));
-                }
-                out.lines.push(Shape {
-                    name: next_name(),
-                    source,
-                    geometry: line_string(&pts),
+                found.push(Found {
+                    marker: Marker {
+                        name: format!("{} {count}", options.layer),
+                        source,
+                        at: Point::new(x, y),
+                        radius: radius.map(|r| r * scale),
+                    },
+                    drawn_at: *at,
+                    instance: item.instance,
                 });
             }
-            continue;
-        }
-        match &e.specific {
-            EntityType::Line(l) => {
-                let pts = [
-                    (l.p1.x * scale, l.p1.y * scale),
-                    (l.p2.x * scale, l.p2.y * scale),
-                ];
-                if pts.iter().any(|(x, y)| !x.is_finite() || !y.is_finite()) || pts[0] == pts[1] {
+            PlacedKind::Path {
+                points,
+                closed,
+                line_entity,
+            } => {
+                if !closed && !line_entity && !options.open_as_lines {
                     return Err(err(
                         path,
-                        field,
-                        "the line has no length or a bad coordinate",
+                        source,
+                        "the polyline is open; close it in the drawing for an outline, or ask \
+                         for open polylines as lines",
                     ));
                 }
-                out.lines.push(Shape {
-                    name: next_name(),
-                    source,
-                    geometry: line_string(&pts),
-                });
-            }
-            EntityType::ModelPoint(p) => {
-                out.points.push(marker(
-                    path,
-                    &field,
-                    next_name(),
-                    source.clone(),
-                    p.location.x,
-                    p.location.y,
-                    None,
-                    scale,
-                )?);
-            }
-            EntityType::Insert(i) => {
-                let name = if i.name.is_empty() {
-                    next_name()
+                count += 1;
+                let name = format!("{} {count}", options.layer);
+                let pts: Vec<(f64, f64)> =
+                    points.iter().map(|(x, y)| (x * scale, y * scale)).collect();
+                if *closed {
+                    if let Some(msg) = ring_problem(&pts) {
+                        return Err(err(path, source, msg));
+                    }
+                    out.polygons.push(Shape {
+                        name,
+                        source,
+                        geometry: Polygon::new(line_string(&pts), vec![]),
+                    });
                 } else {
-                    i.name.clone()
-                };
-                out.points.push(marker(
-                    path,
-                    &field,
-                    name,
-                    source.clone(),
-                    i.location.x,
-                    i.location.y,
-                    None,
-                    scale,
-                )?);
-            }
-            EntityType::Circle(c) => {
-                if !(c.radius.is_finite() && c.radius > 0.0) {
-                    return Err(err(
-                        path,
-                        field,
-                        "the circle's radius is not a positive number",
-                    ));
+                    if pts.len() < 2
+                        || pts.iter().any(|(x, y)| !x.is_finite() || !y.is_finite())
+                        || pts.windows(2).all(|w| w[0] == w[1])
+                    {
+                        return Err(err(
+                            path,
+                            source,
+                            "a line needs at least 2 distinct, finite vertices",
+                        ));
+                    }
+                    out.lines.push(Shape {
+                        name,
+                        source,
+                        geometry: line_string(&pts),
+                    });
                 }
-                out.points.push(marker(
-                    path,
-                    &field,
-                    next_name(),
-                    source.clone(),
-                    c.center.x,
-                    c.center.y,
-                    Some(c.radius * scale),
-                    scale,
-                )?);
             }
-            _ => {}
         }
     }
+    let merge = 0.001 / scale;
+    let found = merge_concentric(found, merge);
+    let named = wells::name_wells(&world, found, &texts, 2.0 / scale);
+    wells::refuse_duplicates(path, &named)?;
+    let naming = wells::how_named(&named);
+    out.points = named.into_iter().map(|(m, _)| m).collect();
     if out.is_empty() {
-        let mut listed = layers.clone();
+        let mut listed = world.layers.clone();
         listed.sort();
         return Err(err(
             path,
@@ -345,13 +309,56 @@ pub fn from_drawing(
                 "the drawing has no entities".to_string()
             } else {
                 format!(
-                    "nothing to read on this layer (polylines, lines, points, inserts, circles); \
-                     layers in the drawing: {}",
+                    "nothing to read on this layer (polylines, lines, arcs, points, circles, \
+                     block references); layers in the drawing: {}",
                     listed.join(", ")
                 )
             },
         ));
     }
+    notes(&mut out, &world, unit, options, &naming);
+    Ok(out)
+}
+
+/// A point found on the layer, before it is named.
+pub(crate) struct Found {
+    pub(crate) marker: Marker,
+    /// Position in drawing units (for the distance to labels).
+    pub(crate) drawn_at: (f64, f64),
+    pub(crate) instance: Option<usize>,
+}
+
+/// A symbol drawn as a circle and a centre point (or two concentric circles) is one well: points
+/// of one block reference closer than `within` (drawing units) are merged, the first circle's
+/// radius kept.
+fn merge_concentric(found: Vec<Found>, within: f64) -> Vec<Found> {
+    let mut out: Vec<Found> = Vec::with_capacity(found.len());
+    for f in found {
+        let twin = out.iter_mut().find(|o| {
+            f.instance.is_some()
+                && o.instance == f.instance
+                && (o.drawn_at.0 - f.drawn_at.0).hypot(o.drawn_at.1 - f.drawn_at.1) <= within
+        });
+        match twin {
+            Some(o) => {
+                if o.marker.radius.is_none() {
+                    o.marker.radius = f.marker.radius;
+                }
+            }
+            None => out.push(f),
+        }
+    }
+    out
+}
+
+fn notes(
+    out: &mut Drawing,
+    world: &dxf_world::World,
+    unit: DrawingUnit,
+    options: &DxfOptions,
+    naming: &str,
+) {
+    let layer = &options.layer;
     if unit != DrawingUnit::Metre {
         out.notes.push(format!(
             "drawing units {} converted to metres (× {})",
@@ -359,97 +366,41 @@ pub fn from_drawing(
             unit.metres()
         ));
     }
-    if arcs > 0 {
+    if world.arcs > 0 {
         out.notes.push(format!(
-            "{arcs} arc segment(s) on layer {layer} flattened into {arc_segments} straight \
-             segments, each within {} m of the true arc",
-            options.chord_tolerance
+            "{} arc(s) on layer {layer} flattened into {} straight segments, each within {} m of \
+             the true arc",
+            world.arcs, world.arc_segments, options.chord_tolerance
         ));
     }
-    Ok(out)
-}
-
-#[allow(clippy::too_many_arguments)]
-fn marker(
-    path: &Path,
-    field: &str,
-    name: String,
-    source: String,
-    x: f64,
-    y: f64,
-    radius: Option<f64>,
-    scale: f64,
-) -> Result<Marker, InputError> {
-    let (x, y) = (x * scale, y * scale);
-    if !x.is_finite() || !y.is_finite() {
-        return Err(err(
-            path,
-            field,
-            "the point's position is not a pair of finite numbers",
+    if world.inserts > 0 {
+        out.notes.push(format!(
+            "{} block reference(s) on layer {layer} expanded with their position, scale and \
+             rotation",
+            world.inserts
         ));
     }
-    Ok(Marker {
-        name,
-        source,
-        at: Point::new(x, y),
-        radius,
-    })
+    if world.mirrored > 0 {
+        out.notes.push(format!(
+            "{} mirrored entit(ies) or block reference(s) converted to world coordinates \
+             (DXF arbitrary axis algorithm)",
+            world.mirrored
+        ));
+    }
+    if world.distorted_circles > 0 {
+        out.notes.push(format!(
+            "{} circle(s) in blocks scaled unequally in x and y: their centres are taken, their \
+             radii are not",
+            world.distorted_circles
+        ));
+    }
+    if !naming.is_empty() {
+        out.notes.push(naming.to_string());
+    }
 }
 
 fn line_string(pts: &[(f64, f64)]) -> LineString<f64> {
     LineString::new(pts.iter().map(|&(x, y)| Coord { x, y }).collect())
-}
-
-/// Replace every bulged segment of a polyline (vertices (x, y, bulge), the bulge of a vertex
-/// belonging to the segment that starts there) by straight segments within `tol` of the arc.
-/// Returns the vertices (without repeating the first for a closed one), the number of arcs and
-/// the number of segments they became.
-///
-/// Geometry: bulge b = tan(θ/4) with θ the arc's included angle (positive counter-clockwise);
-/// for a chord of length c the radius is r = c/(2·|sin(θ/2)|) and the centre lies
-/// (c/2)/tan(θ/2) to the left of the chord's midpoint. A segment of angle φ strays
-/// s = r·(1 − cos(φ/2)) from the arc (its sagitta), so φ ≤ 2·acos(1 − tol/r). Source: the DXF
-/// reference's definition of the bulge (Autodesk, *DXF Reference*, LWPOLYLINE group 42) and
-/// plane geometry of the circular segment.
-pub fn flatten(v: &[(f64, f64, f64)], closed: bool, tol: f64) -> (Vec<(f64, f64)>, usize, usize) {
-    let mut out = Vec::with_capacity(v.len());
-    let (mut arcs, mut segs) = (0, 0);
-    let n = v.len();
-    let last = if closed { n } else { n.saturating_sub(1) };
-    if n > 0 {
-        out.push((v[0].0, v[0].1));
-    }
-    for i in 0..last {
-        let (x1, y1, b) = v[i];
-        let (x2, y2, _) = v[(i + 1) % n];
-        let end_is_start = closed && i + 1 == n;
-        let c = (x2 - x1).hypot(y2 - y1);
-        if b != 0.0 && b.is_finite() && c > 0.0 {
-            let theta = 4.0 * b.atan();
-            let r = c / (2.0 * (theta / 2.0).sin().abs());
-            let h = (c / 2.0) / (theta / 2.0).tan();
-            let (mx, my) = ((x1 + x2) / 2.0, (y1 + y2) / 2.0);
-            let (lx, ly) = (-(y2 - y1) / c, (x2 - x1) / c);
-            let (cx, cy) = (mx + lx * h, my + ly * h);
-            let phi_max = if tol < r {
-                2.0 * (1.0 - tol / r).acos()
-            } else {
-                PI
-            };
-            let k = ((theta.abs() / phi_max).ceil() as usize).clamp(1, 4096);
-            let a1 = (y1 - cy).atan2(x1 - cx);
-            for j in 1..k {
-                let a = a1 + theta * j as f64 / k as f64;
-                out.push((cx + r * a.cos(), cy + r * a.sin()));
-            }
-            arcs += 1;
-            segs += k;
-        }
-        if !end_is_start {
-            out.push((x2, y2));
-        }
-    }
-    (out, arcs, segs)
 }
 
 /// Write an entity list as a DXF drawing in `unit` (R2000, so LWPOLYLINE is kept). For demo
@@ -468,9 +419,11 @@ pub fn write_drawing(path: &Path, unit: Units, entities: Vec<Entity>) -> Result<
 #[cfg(test)]
 mod tests {
     use super::*;
+    use dxf::entities::EntityType;
     use dxf::entities::{Line, LwPolyline};
     use dxf::LwPolylineVertex;
     use dxf::Point as DxfPoint;
+    use std::f64::consts::PI;
 
     fn lw(layer: &str, pts: &[(f64, f64, f64)], closed: bool) -> Entity {
         let mut p = LwPolyline {
@@ -602,5 +555,46 @@ mod tests {
         let mut o = DxfOptions::layer("SKETCH");
         o.chord_tolerance = 0.0;
         assert_eq!(read(&path, &o).unwrap_err().field, "chord_tolerance");
+    }
+
+    fn memory(unit: Units, entities: Vec<Entity>) -> dxf::Drawing {
+        let mut d = dxf::Drawing::new();
+        d.header.default_drawing_units = unit;
+        for e in entities {
+            d.add_entity(e);
+        }
+        d
+    }
+
+    // #19.4: a NaN or infinite bulge is refused naming the vertex, never read as straight.
+    #[test]
+    fn import_dxf_non_finite_bulge_refused() {
+        for b in [f64::NAN, f64::INFINITY] {
+            let d = memory(
+                Units::Meters,
+                vec![lw(
+                    "PIT",
+                    &[(0.0, 0.0, 0.0), (10.0, 0.0, b), (10.0, 5.0, 0.0)],
+                    true,
+                )],
+            );
+            let e = from_drawing(Path::new("site.dxf"), &d, &DxfOptions::layer("PIT")).unwrap_err();
+            assert!(e.message.contains("bulge of vertex 2"), "{e}");
+            assert_eq!(e.file, Path::new("site.dxf"));
+        }
+    }
+
+    // #19.3: 30 000 semicircle bulges at a 1 nm chord tolerance would become 4096 segments each
+    // (1.2·10⁸ vertices, GBs): refused from the count, before any arc is expanded.
+    #[test]
+    fn import_dxf_bulge_bomb_counted_before_expansion() {
+        let pts: Vec<(f64, f64, f64)> = (0..30_000)
+            .map(|i| (i as f64, (i % 2) as f64, 1.0))
+            .collect();
+        let d = memory(Units::Meters, vec![lw("PIT", &pts, true)]);
+        let mut o = DxfOptions::layer("PIT");
+        o.chord_tolerance = 1e-9;
+        let e = from_drawing(Path::new("bomb.dxf"), &d, &o).unwrap_err();
+        assert!(e.message.contains("once its arcs are flattened"), "{e}");
     }
 }

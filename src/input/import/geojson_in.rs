@@ -59,8 +59,11 @@ fn err(file: &Path, field: impl Into<String>, message: impl Into<String>) -> Inp
 /// a bad outline (fewer than 3 distinct vertices, no area, non-finite numbers), or coordinates
 /// that look geographic (see the module notes).
 pub fn read(path: &Path, filter: &PropertyFilter) -> Result<Drawing, InputError> {
-    let text = std::fs::read_to_string(path)
-        .map_err(|e| err(path, "", format!("cannot read the file: {e}")))?;
+    let text = crate::input::read::read_text_capped(
+        path,
+        crate::input::read::MAX_GEOJSON_BYTES,
+        "GeoJSON file",
+    )?;
     parse(path, &text, filter)
 }
 

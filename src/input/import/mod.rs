@@ -10,6 +10,8 @@
 
 pub mod crs;
 pub mod dxf_in;
+pub mod dxf_wells;
+pub mod dxf_world;
 pub mod geojson_in;
 pub mod resolve;
 
@@ -50,6 +52,8 @@ pub struct Drawing {
     pub points: Vec<Marker>,
     /// What the reader did to the geometry, in words (arcs flattened, units converted).
     pub notes: Vec<String>,
+    /// The unit of a DXF drawing (`None` for GeoJSON, which is in metres).
+    pub unit: Option<dxf_in::DrawingUnit>,
 }
 
 impl Drawing {

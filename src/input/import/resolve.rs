@@ -23,6 +23,40 @@ pub struct Resolved {
     pub text: String,
     /// What was read from where, and what was done to it.
     pub notes: Vec<String>,
+    /// The unit of the first DXF drawing read (`design.dxf` is written in it).
+    pub drawing_unit: Option<DrawingUnit>,
+    /// Fields of the rewritten text that came from a drawing (`well[3]`,
+    /// `excavation[1].outline`), each with where in which drawing.
+    pub sources: Vec<(String, String)>,
+}
+
+impl Resolved {
+    /// An error found in the rewritten text, made to cite the user's files: a field read from a
+    /// drawing names the drawing and the entity (no line: the user's design file has none for
+    /// it); any other field gets the line of the user's design file (`original`) that holds the
+    /// same text, or no line.
+    pub fn locate(&self, original: &str, mut e: InputError) -> InputError {
+        let from = self
+            .sources
+            .iter()
+            .find(|(f, _)| e.field == *f || e.field.starts_with(&format!("{f}.")));
+        if let Some((_, place)) = from {
+            e.line = None;
+            e.message = format!("{} (read from {place})", e.message);
+            return e;
+        }
+        e.line = e.line.and_then(|l| {
+            let wanted = self.text.lines().nth(l.checked_sub(1)?)?.trim();
+            if wanted.is_empty() {
+                return None;
+            }
+            original
+                .lines()
+                .position(|o| o.trim() == wanted)
+                .map(|i| i + 1)
+        });
+        e
+    }
 }
 
 fn err(file: &Path, field: &str, message: impl Into<String>) -> InputError {
@@ -205,7 +239,28 @@ fn ring(p: &geo::Polygon<f64>) -> Value {
     coords(v.into_iter())
 }
 
-fn note(notes: &mut Vec<String>, field: &str, r: &Reference, got: &Drawing, item: &str) {
+/// What the readers did: notes for the report, the first DXF unit, and which rewritten fields
+/// came from where.
+#[derive(Default)]
+struct Log {
+    notes: Vec<String>,
+    unit: Option<DrawingUnit>,
+    sources: Vec<(String, String)>,
+}
+
+impl Log {
+    /// Remember that `target` (a field of the rewritten text) came from `source` of `r`.
+    fn source(&mut self, target: String, r: &Reference, source: &str) {
+        self.sources
+            .push((target, format!("{}, {source}", r.shown)));
+    }
+}
+
+fn note(log: &mut Log, field: &str, r: &Reference, got: &Drawing, item: &str) {
+    if log.unit.is_none() {
+        log.unit = got.unit;
+    }
+    let notes = &mut log.notes;
     let mut s = format!("{field}: {item} read from {}", r.shown);
     if let Some(l) = &r.layer {
         s.push_str(&format!(", layer {l}"));
@@ -224,7 +279,7 @@ fn polygon_from(
     t: &mut Table,
     key: &str,
     target: &str,
-    notes: &mut Vec<String>,
+    log: &mut Log,
 ) -> Result<(), InputError> {
     let Some(v) = t.remove(key) else {
         return Ok(());
@@ -252,13 +307,8 @@ fn polygon_from(
         ));
     }
     let s = pick(design, &f, &r, &got.polygons, "outline")?;
-    note(
-        notes,
-        &f,
-        &r,
-        &got,
-        &format!("\"{}\" ({})", s.name, s.source),
-    );
+    note(log, &f, &r, &got, &format!("\"{}\" ({})", s.name, s.source));
+    log.source(format!("{field}.{target}"), &r, &s.source);
     t.insert(target.into(), ring(&s.geometry));
     Ok(())
 }
@@ -272,7 +322,7 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
     let Ok(mut doc) = source.parse::<Table>() else {
         return Ok(None);
     };
-    let mut notes = Vec::new();
+    let mut log = Log::default();
     let mut any = false;
     for (section, key, target) in [
         ("excavation", "outline_from", "outline"),
@@ -289,7 +339,7 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
                         t,
                         key,
                         target,
-                        &mut notes,
+                        &mut log,
                     )?;
                 }
             }
@@ -311,12 +361,13 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             let pts = &s.geometry.0;
             let (a, b) = (pts[0], pts[pts.len() - 1]);
             note(
-                &mut notes,
+                &mut log,
                 &f,
                 &r,
                 &got,
                 &format!("\"{}\" (straight from its first to its last point)", s.name),
             );
+            log.source(format!("boundary[{}].line", i + 1), &r, &s.source);
             t.insert("line".into(), coords([(a.x, a.y), (b.x, b.y)].into_iter()));
         }
     }
@@ -343,8 +394,13 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
                     ),
                 ));
             }
+            let listed = doc
+                .get("well")
+                .and_then(Value::as_array)
+                .map_or(0, Vec::len);
             let mut wells = Vec::new();
             for m in &got.points {
+                log.source(format!("well[{}]", listed + wells.len() + 1), &r, &m.source);
                 let mut w = Table::new();
                 w.insert("name".into(), Value::String(m.name.clone()));
                 w.insert("x".into(), Value::Float(m.at.x()));
@@ -355,7 +411,7 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
                 }
                 wells.push(Value::Table(w));
             }
-            note(&mut notes, f, &r, &got, &format!("{} wells", wells.len()));
+            note(&mut log, f, &r, &got, &format!("{} wells", wells.len()));
             let list = doc
                 .entry("well")
                 .or_insert_with(|| Value::Array(Vec::new()));
@@ -374,5 +430,10 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             format!("cannot rewrite the design file after reading its drawings: {e}"),
         )
     })?;
-    Ok(Some(Resolved { text, notes }))
+    Ok(Some(Resolved {
+        text,
+        notes: log.notes,
+        drawing_unit: log.unit,
+        sources: log.sources,
+    }))
 }

@@ -10,32 +10,10 @@ use std::collections::HashSet;
 use std::path::Path;
 
 /// Largest design file read, bytes (16 MiB): a design file of 10⁵-vertex outlines is a few MiB.
-pub const MAX_FILE_BYTES: u64 = 16 << 20;
+pub const MAX_FILE_BYTES: u64 = crate::input::read::MAX_DESIGN_BYTES;
 
-/// Read at most `max` bytes of `path`; a longer file (or an endless one such as `/dev/zero`) is
-/// an error that names the cap, found after reading `max + 1` bytes and no more.
-pub fn read_capped(path: &Path, max: u64, what: &str) -> Result<Vec<u8>, InputError> {
-    use std::io::Read;
-    let fail = |message: String| InputError {
-        file: path.to_path_buf(),
-        field: String::new(),
-        line: None,
-        message,
-    };
-    let file =
-        std::fs::File::open(path).map_err(|e| fail(format!("cannot read the {what}: {e}")))?;
-    let mut bytes = Vec::new();
-    file.take(max + 1)
-        .read_to_end(&mut bytes)
-        .map_err(|e| fail(format!("cannot read the {what}: {e}")))?;
-    if bytes.len() as u64 > max {
-        return Err(fail(format!(
-            "the {what} is larger than {} MiB, the most drydig reads; is it the right file?",
-            max >> 20
-        )));
-    }
-    Ok(bytes)
-}
+/// The one capped reader of input files (regular files only), see [`crate::input::read`].
+pub use crate::input::read::read_capped;
 
 /// Read, parse and validate a design file.
 pub fn load(path: &Path) -> Result<Model, InputError> {
@@ -73,11 +51,13 @@ pub fn from_str(path: &Path, source: &str) -> Result<Model, InputError> {
         ));
     }
     if let Some(r) = crate::input::import::resolve::resolve(path, source)? {
+        // Errors in the rewritten text cite the user's design file or drawing, not the rewrite.
         let rep = Reporter::new(path, &r.text);
-        let raw: DesignFile =
-            toml::from_str(&r.text).map_err(|e| parse_error(&rep, &r.text, &e))?;
-        let mut model = validate(path, &rep, raw)?;
+        let raw: DesignFile = toml::from_str(&r.text)
+            .map_err(|e| r.locate(source, parse_error(&rep, &r.text, &e)))?;
+        let mut model = validate(path, &rep, raw).map_err(|e| r.locate(source, e))?;
         model.import_notes = r.notes;
+        model.drawing_unit = r.drawing_unit;
         return Ok(model);
     }
     let raw: DesignFile = toml::from_str(source).map_err(|e| parse_error(&rep, source, &e))?;
@@ -304,6 +284,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         output: crate::input::validate::output::output_settings(rep, output)?,
         crs: crate::input::validate::output::site_crs(rep, raw.site.crs.as_deref())?,
         import_notes: Vec::new(),
+        drawing_unit: None,
     };
     crate::input::validate::sides::check_points_and_neighbours(&model)?;
     let listed: Vec<(&str, [f64; 2], f64)> = model

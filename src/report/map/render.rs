@@ -116,10 +116,18 @@ pub fn files(run: &CheckRun) -> Vec<(String, Vec<u8>)> {
 
 /// As [`files`], the map titled for `command` ("check", "design").
 pub fn files_for(run: &CheckRun, command: &'static str) -> Vec<(String, Vec<u8>)> {
+    files_and_grid(run, command).0
+}
+
+/// As [`files_for`], with the level grid behind them (for other drawings of the same run).
+pub fn files_and_grid(
+    run: &CheckRun,
+    command: &'static str,
+) -> (Vec<(String, Vec<u8>)>, LevelGrid) {
     let grid = LevelGrid::for_run(&run.grid_source());
     let mut opts = map_options(run);
     opts.command = Some(command);
-    vec![
+    let files = vec![
         (
             "map.svg".into(),
             map_svg_with(run, &grid, &today(), &opts).into_bytes(),
@@ -132,5 +140,6 @@ pub fn files_for(run: &CheckRun, command: &'static str) -> Vec<(String, Vec<u8>)
             "contours.geojson".into(),
             crate::report::geojson_out::contours_geojson(run, &grid).into_bytes(),
         ),
-    ]
+    ];
+    (files, grid)
 }
