@@ -96,8 +96,9 @@ pub enum Command {
         /// Units for the terminal output.
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
-        /// Your own unit prices (CSV with columns item,price; items named as in bid.csv): adds
-        /// the cost lines to the bid sheet. No prices are built in.
+        /// Your own unit prices (CSV with columns item,price,unit; items named as in bid.csv,
+        /// the unit each price is per, e.g. ft or m): adds the cost lines to the bid sheet. No
+        /// prices are built in.
         #[arg(long)]
         prices: Option<PathBuf>,
         /// Size for levels reached by this day of pumping (Theis/Hantush in time) instead of

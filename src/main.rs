@@ -108,6 +108,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             }
             let units = units.map(Into::into).unwrap_or(model.units);
             model.units = units;
+            let prices_file = prices.clone();
             let prices = prices
                 .as_deref()
                 .map(drydig::input::prices::read)
@@ -119,7 +120,8 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             }
             let files =
                 report::design_text::files(&model, &design, run.as_ref(), prices.as_deref())?;
-            let inputs = report::files::inputs_of(&model, None);
+            let mut inputs = report::files::inputs_of(&model, None);
+            inputs.extend(prices_file.clone());
             report::files::write_set(&out, &files, &inputs)?;
             print(&report::design_text::to_text(
                 &model,

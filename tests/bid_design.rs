@@ -366,12 +366,9 @@ fn deep_shaft_is_designed_to_its_relief_head() {
         .as_ref()
         .is_some_and(|o| o.margin_without_m >= -TOL));
     // Cost lines are quantity × the user's price.
-    let lines = drydig::report::bid_out::lines(&d, &b);
-    let prices = [Price {
-        item: "Drilling".into(),
-        price: 120.0,
-    }];
-    let (c, total, unused) = drydig::report::bid_out::costs(&lines, &prices);
+    let lines = drydig::report::bid_out::lines(&d, &b, drydig::input::units::UnitSystem::Si);
+    let prices = [Price::new("Drilling", 120.0, Some("m"))];
+    let (c, total, unused) = drydig::report::bid_out::costs(&lines, &prices).expect("priced");
     assert_eq!(c.len(), 1);
     assert!((total - 120.0 * b.drilling_m).abs() < 1e-6);
     assert!(unused.is_empty());

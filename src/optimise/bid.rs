@@ -86,6 +86,40 @@ pub struct Bid {
     pub basis: Vec<String>,
 }
 
+/// Length of the shortest network joining `points` (a minimum spanning tree, Prim's algorithm
+/// in O(n²)), m: the collecting main laid from well to well. It depends on the positions only,
+/// not on their order or on how the layout was given (ring, list, CSV); for a ring it is the
+/// ring less its longest gap, for a line the line itself.
+pub fn spanning_length(points: &[[f64; 2]]) -> f64 {
+    let n = points.len();
+    if n < 2 {
+        return 0.0;
+    }
+    let mut in_tree = vec![false; n];
+    let mut best = vec![f64::INFINITY; n];
+    best[0] = 0.0;
+    let mut total = 0.0;
+    for _ in 0..n {
+        let Some(k) = (0..n)
+            .filter(|&i| !in_tree[i])
+            .min_by(|&a, &b| best[a].total_cmp(&best[b]))
+        else {
+            break;
+        };
+        in_tree[k] = true;
+        total += best[k];
+        for i in 0..n {
+            if !in_tree[i] {
+                let d = (points[i][0] - points[k][0]).hypot(points[i][1] - points[k][1]);
+                if d < best[i] {
+                    best[i] = d;
+                }
+            }
+        }
+    }
+    total
+}
+
 fn path_length(paths: &[Vec<[f64; 2]>]) -> f64 {
     let l: f64 = paths
         .iter()
@@ -117,7 +151,19 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
     let depth = model.ground_level - spec.screen_base + SUMP_ALLOWANCE;
     let screen = spec.screen_top - spec.screen_base;
     let wellpoints = spec.kind == WellKind::Wellpoint;
-    let line_length = path_length(paths);
+    // Deep wells: the collecting main joins the built wells (working and standby), whatever
+    // way the layout was given. Wellpoints: the header runs along the layout's line, or from
+    // wellpoint to wellpoint when the wells were listed.
+    let built_positions: Vec<[f64; 2]> = wells
+        .iter()
+        .filter(|w| w.rate > 1e-9 || is_standby(w))
+        .map(|w| w.position)
+        .collect();
+    let line_length = if wellpoints && !paths.is_empty() {
+        path_length(paths)
+    } else {
+        spanning_length(&built_positions)
+    };
     let lowest = |i: usize| {
         let floor = wells[i].pump_intake + spec.submergence;
         levels.get(i).copied().flatten().unwrap_or(floor)
@@ -130,6 +176,16 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
             model.ground_level, spec.screen_base
         ),
         format!("design flow = total × (1 + {f:.2}) (contingency from the design file)"),
+        if wellpoints && !paths.is_empty() {
+            "header length = the layout's wellpoint line(s)".to_string()
+        } else {
+            format!(
+                "{} length = the shortest pipe run joining the {} built {} (minimum spanning tree of their positions: the same however the wells were given)",
+                if wellpoints { "header" } else { "collecting main" },
+                built_positions.len(),
+                if wellpoints { "wellpoints" } else { "wells" }
+            )
+        },
         format!(
             "pump duty = the smallest of the standard duties [{}] L/s at least the running rate × (1 + {f:.2}){}; wells within {:.0} % of a class's largest rate share its class",
             ps.duties.iter().map(|d| format!("{}", d * 1e3)).collect::<Vec<_>>().join(", "),
@@ -293,4 +349,41 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
 pub fn bid_of(model: &Model, run: &CheckRun) -> Bid {
     let levels: Vec<Option<f64>> = run.evaluation.wells.iter().map(|w| w.level_m).collect();
     bid(model, &run.placement.wells, &run.placement.paths, &levels)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::input::validate::file::load;
+    use std::path::Path;
+
+    #[test]
+    fn spanning_length_of_hand_cases() {
+        // Hand geometry: four wells on the corners of a 10 m square are joined by three sides
+        // (30 m); five on a 40 m line 10 m apart by the line (40 m); one well needs no main.
+        let square = [[0.0, 0.0], [10.0, 0.0], [10.0, 10.0], [0.0, 10.0]];
+        assert!((spanning_length(&square) - 30.0).abs() < 1e-12);
+        let line: Vec<[f64; 2]> = (0..5).rev().map(|i| [10.0 * i as f64, 3.0]).collect();
+        assert!((spanning_length(&line) - 40.0).abs() < 1e-12);
+        assert_eq!(spanning_length(&[[1.0, 2.0]]), 0.0);
+    }
+
+    #[test]
+    fn the_same_wells_give_the_same_bid_as_a_ring_or_a_list() {
+        // Issue: listed or CSV wells (no layout path) lost the collecting main. The wells of the
+        // ring demo, given without their path and in reverse order, must bid the same main,
+        // header head and installed power.
+        let model = load(Path::new("layouts/riverside_basement.toml")).expect("demo loads");
+        let spec = model.layout.as_ref().expect("ring layout");
+        let placed = crate::field::layout::generate(&model, spec, 0.004).expect("ring");
+        let levels = vec![None; placed.wells.len()];
+        let ring = bid(&model, &placed.wells, &placed.paths, &levels);
+        let mut listed_wells = placed.wells.clone();
+        listed_wells.reverse();
+        let listed = bid(&model, &listed_wells, &[], &levels);
+        assert!(ring.header_length_m > 0.0);
+        assert!((ring.header_length_m - listed.header_length_m).abs() < 1e-9);
+        assert!((ring.power_installed_kw - listed.power_installed_kw).abs() < 1e-9);
+        assert!(listed.pumps.iter().all(|p| p.head_parts.header_m > 0.0));
+    }
 }

@@ -92,6 +92,11 @@ pub fn hantush_w(u: f64, r_over_b: f64) -> f64 {
     let y_hi = y_star + 0.5 * beta + 46.0;
     // Lower (only matters below β/2): b2/y ≥ g_min + 46 implies g(y) − g_min ≥ 46.
     let y_lo = u.max(b2 / (g_min + 46.0));
+    if y_lo <= 0.0 {
+        // β so small that β²/4 underflows (u = 0 too): the leakage term vanishes to double
+        // precision, W(u, β) = E₁(u). Without this the lower limit would be ln 0.
+        return exp1(u);
+    }
     let t_lo = y_lo.ln();
     let t_hi = y_hi.ln();
     let integrand = |t: f64| {
@@ -156,6 +161,9 @@ fn gk15<F: Fn(f64) -> f64>(f: &F, a: f64, b: f64) -> (f64, f64) {
 /// its error estimate falls below its share of `rel_tol` × (total estimate). Depth is capped, so
 /// the routine always terminates.
 fn adaptive_gauss_kronrod<F: Fn(f64) -> f64>(f: &F, a: f64, b: f64, rel_tol: f64) -> f64 {
+    if !(a.is_finite() && b.is_finite()) {
+        return f64::NAN;
+    }
     if b <= a {
         return 0.0;
     }
@@ -350,6 +358,12 @@ mod tests {
         let beta = 1.0_f64;
         let lead = (-u - beta * beta / (4.0 * u)).exp() / u;
         assert_relative_eq!(hantush_w(u, beta), lead, max_relative = 2.0 / u);
+        // u = 0 with a β whose square underflows (a fit wandering to B → ∞ and S → 0) once
+        // panicked (ln 0 as a quadrature limit): W(0, β) = 2·K₀(β) diverges like −2 ln β,
+        // and β²/4 = 0 in double precision leaves E₁(0) = ∞ (A&S 9.6.13, from memory).
+        assert_eq!(hantush_w(0.0, 1e-200), f64::INFINITY);
+        assert_eq!(hantush_w(1e-3, 1e-200), exp1(1e-3));
+        assert!(adaptive_gauss_kronrod(&|x: f64| x, f64::NEG_INFINITY, 1.0, 1e-9).is_nan());
     }
 
     #[test]

@@ -121,8 +121,10 @@ fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
     let mut g = Group::new();
     for (k, w) in wells.iter().enumerate() {
         let c = COLOURS[k % COLOURS.len()];
+        // One circle per pixel: a logger's 10⁶ readings draw as the curve they make.
+        let mut drawn = std::collections::HashSet::new();
         for &(t, s) in &w.points {
-            if ax.inside(t, s) {
+            if ax.inside(t, s) && drawn.insert((ax.px(t) as i32, ax.py(s) as i32)) {
                 g = g.add(
                     Circle::new()
                         .set("cx", r1(ax.px(t)))

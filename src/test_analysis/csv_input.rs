@@ -101,6 +101,7 @@ pub fn read_observations(text: &str, name: &str) -> Result<Vec<ObservationSeries
     let ti = ti.ok_or("CSV: no time column (e.g. 'time_min' or 'time [min]')")?;
     let si = si.ok_or("CSV: no drawdown column (e.g. 'drawdown_m' or 'drawdown [ft]')")?;
     let mut out: Vec<ObservationSeries> = Vec::new();
+    let mut index: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
     for (k, rec) in rdr.records().enumerate() {
         let rec = rec.map_err(|e| format!("CSV record {}: {e}", k + 1))?;
         let num = |i: usize, what: &str| -> Result<f64, String> {
@@ -117,7 +118,7 @@ pub fn read_observations(text: &str, name: &str) -> Result<Vec<ObservationSeries
         let s = num(si, "drawdown")? * sf;
         let d = di.map(|i| num(i, "distance")).transpose()?.map(|v| v * df);
         let well = wi.and_then(|i| rec.get(i)).unwrap_or(name).to_string();
-        match out.iter_mut().find(|o| o.name == well) {
+        match index.get(&well).map(|&i| &mut out[i]) {
             Some(o) => {
                 if let (Some(a), Some(b)) = (o.distance, d) {
                     if a != b {
@@ -128,11 +129,14 @@ pub fn read_observations(text: &str, name: &str) -> Result<Vec<ObservationSeries
                 }
                 o.points.push((t, s));
             }
-            None => out.push(ObservationSeries {
+            None => {
+                index.insert(well.clone(), out.len());
+                out.push(ObservationSeries {
                 name: well,
                 distance: d,
                 points: vec![(t, s)],
-            }),
+            });
+            }
         }
     }
     if out.is_empty() {

@@ -6,6 +6,11 @@
 //! −Jᵀr, J by central differences (h = 1e-6 in the parameter). An accepted step (lower cost)
 //! divides λ by 3, a rejected one multiplies it by 4.
 //!
+//! Bounds: each parameter is kept in a box [lo, hi]; the start and every trial step are
+//! projected onto it (a projected Levenberg–Marquardt step, as in Kanzow, Yamashita & Fukushima
+//! 2004, from memory). A parameter that ends on its bound is reported in `at_bound`, so the
+//! caller can say why the data do not determine it.
+//!
 //! Stopping rule (documented, bounded): stop as converged when an accepted step has
 //! max|δᵢ| < 1e-11, or the cost is below 1e-30, or λ exceeds 1e15 (no downhill step left:
 //! a stationary point); stop unconverged after `max_iter` iterations.
@@ -24,6 +29,14 @@ pub struct LmOutcome {
     pub iterations: usize,
     /// Whether a stopping test other than the iteration cap ended the search.
     pub converged: bool,
+    /// Per parameter: −1 on its lower bound, +1 on its upper bound, 0 inside.
+    pub at_bound: Vec<i8>,
+}
+
+fn project(p: &mut [f64], bounds: &[(f64, f64)]) {
+    for (v, &(lo, hi)) in p.iter_mut().zip(bounds) {
+        *v = v.clamp(lo, hi);
+    }
 }
 
 fn cost(r: &[f64]) -> f64 {
@@ -59,15 +72,18 @@ fn jacobian<F: Fn(&[f64], &mut [f64])>(f: &F, p: &[f64], n: usize) -> Option<DMa
     Some(j)
 }
 
-/// Minimise Σ rᵢ(p)² from `p0`; `f(p, r)` writes the `n` residuals. Never panics: a start
-/// where the residuals are not finite returns `None`.
+/// Minimise Σ rᵢ(p)² from `p0` with every parameter in `bounds` (lo ≤ hi, finite); `f(p, r)`
+/// writes the `n` residuals. Never panics: a start where the residuals are not finite returns
+/// `None`.
 pub fn minimise<F: Fn(&[f64], &mut [f64])>(
     f: F,
     p0: &[f64],
+    bounds: &[(f64, f64)],
     n: usize,
     max_iter: usize,
 ) -> Option<LmOutcome> {
     let mut p = p0.to_vec();
+    project(&mut p, bounds);
     let mut r = vec![0.0; n];
     if !eval(&f, &p, &mut r) {
         return None;
@@ -98,9 +114,14 @@ pub fn minimise<F: Fn(&[f64], &mut [f64])>(
             }
             continue;
         };
-        let q: Vec<f64> = p.iter().zip(delta.iter()).map(|(a, b)| a + b).collect();
+        let mut q: Vec<f64> = p.iter().zip(delta.iter()).map(|(a, b)| a + b).collect();
+        project(&mut q, bounds);
         if eval(&f, &q, &mut trial) && cost(&trial) < c {
-            let step = delta.amax();
+            let step = q
+                .iter()
+                .zip(&p)
+                .map(|(a, b)| (a - b).abs())
+                .fold(0.0, f64::max);
             p = q;
             std::mem::swap(&mut r, &mut trial);
             c = cost(&r);
@@ -123,7 +144,22 @@ pub fn minimise<F: Fn(&[f64], &mut [f64])>(
     }
     let jf = jacobian(&f, &p, n).unwrap_or(j);
     let jtj_inverse = (jf.transpose() * &jf).try_inverse();
+    let span = |lo: f64, hi: f64| 1e-6 * (hi - lo).max(1e-300);
+    let at_bound = p
+        .iter()
+        .zip(bounds)
+        .map(|(&v, &(lo, hi))| {
+            if v <= lo + span(lo, hi) {
+                -1
+            } else if v >= hi - span(lo, hi) {
+                1
+            } else {
+                0
+            }
+        })
+        .collect();
     Some(LmOutcome {
+        at_bound,
         params: p,
         residuals: r,
         jtj_inverse,

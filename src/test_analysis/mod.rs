@@ -18,9 +18,14 @@
 
 pub mod chart;
 pub mod csv_input;
+pub mod leaky;
 pub mod lm;
+pub mod prepare;
+
+pub use leaky::fit_hantush;
 
 use crate::physics::special::{exp1, hantush_w};
+use prepare::{plausible, prepare, Point, Prepared, S_SEARCH, T_SEARCH};
 use std::f64::consts::{LN_10, PI};
 
 /// One observation well: its distance from the pumped well and its (time s, drawdown m) data.
@@ -227,49 +232,65 @@ fn rms(res: &[f64]) -> f64 {
     (res.iter().map(|v| v * v).sum::<f64>() / res.len().max(1) as f64).sqrt()
 }
 
-/// Ordinary least-squares line y = a + m·x: (a, m, cov of (a, m), residuals).
-/// (intercept, slope, covariance of (intercept, slope), residuals).
+/// Weighted least-squares line y = a + m·x (weights w, the readings each point stands for):
+/// (intercept, slope, covariance of (intercept, slope), weighted residuals √w·(a + m·x − y)).
+/// The variance of one reading is Σ w·r² / (points − 2); with two points the line is exact
+/// and its covariance is reported as 0.
 type LineFit = (f64, f64, [[f64; 2]; 2], Vec<f64>);
 
-fn line_fit(x: &[f64], y: &[f64]) -> Option<LineFit> {
-    let n = x.len() as f64;
+fn line_fit(x: &[f64], y: &[f64], w: &[f64]) -> Option<LineFit> {
     if x.len() < 2 {
         return None;
     }
-    let mx = x.iter().sum::<f64>() / n;
-    let my = y.iter().sum::<f64>() / n;
-    let sxx: f64 = x.iter().map(|v| (v - mx).powi(2)).sum();
+    let sw: f64 = w.iter().sum();
+    let mx = x.iter().zip(w).map(|(a, b)| a * b).sum::<f64>() / sw;
+    let my = y.iter().zip(w).map(|(a, b)| a * b).sum::<f64>() / sw;
+    let sxx: f64 = x.iter().zip(w).map(|(v, wi)| wi * (v - mx).powi(2)).sum();
     if sxx <= 1e-300 {
         return None;
     }
-    let sxy: f64 = x.iter().zip(y).map(|(a, b)| (a - mx) * (b - my)).sum();
+    let sxy: f64 = x
+        .iter()
+        .zip(y)
+        .zip(w)
+        .map(|((a, b), wi)| wi * (a - mx) * (b - my))
+        .sum();
     let m = sxy / sxx;
     let a = my - m * mx;
-    let res: Vec<f64> = x.iter().zip(y).map(|(xi, yi)| a + m * xi - yi).collect();
-    let dof = (x.len() as f64 - 2.0).max(1.0);
-    let s2 = res.iter().map(|v| v * v).sum::<f64>() / dof;
+    let res: Vec<f64> = x
+        .iter()
+        .zip(y)
+        .zip(w)
+        .map(|((xi, yi), wi)| wi.sqrt() * (a + m * xi - yi))
+        .collect();
+    let s2 = if x.len() > 2 {
+        res.iter().map(|v| v * v).sum::<f64>() / (x.len() - 2) as f64
+    } else {
+        0.0
+    };
     let var_m = s2 / sxx;
-    let var_a = s2 * (1.0 / n + mx * mx / sxx);
+    let var_a = s2 * (1.0 / sw + mx * mx / sxx);
     let cov_am = -mx * s2 / sxx;
     Some((a, m, [[var_a, cov_am], [cov_am, var_m]], res))
 }
 
+fn ones(n: usize) -> Vec<f64> {
+    vec![1.0; n]
+}
+
 /// Cooper–Jacob first guess (T, S) from the later half of the points; falls back to
 /// T = 1e-3 m²/s, S = 1e-4 (common practice (no source)).
-fn first_guess(pts: &[(f64, f64, f64)], q: f64) -> (f64, f64) {
-    let mut v: Vec<(f64, f64)> = pts
-        .iter()
-        .map(|(r2, t, s)| ((t / r2).log10(), *s))
-        .collect();
+fn first_guess(pts: &[Point], q: f64) -> (f64, f64) {
+    let mut v: Vec<(f64, f64)> = pts.iter().map(|p| ((p.t / p.r2).log10(), p.s)).collect();
     v.sort_by(|a, b| a.0.total_cmp(&b.0));
     let half = &v[v.len() / 2..];
     let x: Vec<f64> = half.iter().map(|p| p.0).collect();
     let y: Vec<f64> = half.iter().map(|p| p.1).collect();
-    if let Some((a, m, _, _)) = line_fit(&x, &y) {
+    if let Some((a, m, _, _)) = line_fit(&x, &y, &ones(x.len())) {
         if m > 0.0 {
             let t = LN_10 * q / (4.0 * PI * m);
             let s = 2.25 * t * 10f64.powf(-a / m);
-            if t.is_finite() && s.is_finite() && s > 0.0 && s < 1.0 {
+            if t.is_finite() && s.is_finite() && s > 1e-8 && s < 1.0 && t > 1e-10 && t < 100.0 {
                 return (t, s);
             }
         }
@@ -278,6 +299,17 @@ fn first_guess(pts: &[(f64, f64, f64)], q: f64) -> (f64, f64) {
 }
 
 const MAX_ITER: usize = 300;
+
+/// Refuse a record whose drawdowns are all zero: nothing to fit.
+fn not_all_zero(pts: &[Point], method: Method) -> Result<(), String> {
+    if pts.iter().all(|p| p.s <= 0.0) {
+        return Err(format!(
+            "{}: data too flat to fit T: every drawdown is 0 m",
+            method.name()
+        ));
+    }
+    Ok(())
+}
 
 fn estimate_log(value_log10: f64, var_log10: Option<f64>) -> Estimate {
     let value = 10f64.powf(value_log10);
@@ -290,38 +322,44 @@ fn estimate_log(value_log10: f64, var_log10: Option<f64>) -> Estimate {
     }
 }
 
-fn theis_lsq(
-    data: &PumpingTestData,
-    pts: &[(f64, f64, f64)],
-    method: Method,
-) -> Result<Fit, String> {
+fn theis_lsq(data: &PumpingTestData, prep: &Prepared, method: Method) -> Result<Fit, String> {
+    let pts = &prep.points;
     too_few(pts.len(), 3, method.name())?;
+    not_all_zero(pts, method)?;
     let q = data.rate;
     let (t0, s0) = first_guess(pts, q);
     let f = |p: &[f64], out: &mut [f64]| {
         let tr = 10f64.powf(p[0]);
         let s = 10f64.powf(p[1]);
         let scale = q / (4.0 * PI * tr);
-        for (o, &(r2, t, obs)) in out.iter_mut().zip(pts) {
-            *o = scale * exp1(r2 * s / (4.0 * tr * t)) - obs;
+        for (o, pt) in out.iter_mut().zip(pts) {
+            *o = pt.w.sqrt() * (scale * exp1(pt.r2 * s / (4.0 * tr * pt.t)) - pt.s);
         }
     };
-    let out = lm::minimise(f, &[t0.log10(), s0.log10()], pts.len(), MAX_ITER).ok_or_else(|| {
+    let out = lm::minimise(
+        f,
+        &[t0.log10(), s0.log10()],
+        &[T_SEARCH, S_SEARCH],
+        pts.len(),
+        MAX_ITER,
+    )
+    .ok_or_else(|| {
         format!(
             "{}: the model is not finite at the first guess",
             method.name()
         )
     })?;
-    Ok(finish(data, method, pts.len(), out, 2))
+    plausible(finish(data, method, prep, out, 2))
 }
 
 fn finish(
     data: &PumpingTestData,
     method: Method,
-    n: usize,
+    prep: &Prepared,
     out: lm::LmOutcome,
     n_par: usize,
 ) -> Fit {
+    let n = prep.points.len();
     let ssr: f64 = out.residuals.iter().map(|v| v * v).sum();
     let sigma2 = if n > n_par {
         ssr / (n - n_par) as f64
@@ -338,6 +376,7 @@ fn finish(
     if out.jtj_inverse.is_none() {
         notes.push("parameters not independently determined by these data (singular JᵀJ): standard errors not available".into());
     }
+    notes.extend(prep.note());
     Fit {
         method,
         rate: data.rate,
@@ -345,8 +384,8 @@ fn finish(
         storativity: Some(estimate_log(out.params[1], var(1))),
         leakage_factor: (n_par > 2).then(|| estimate_log(out.params[2], var(2))),
         thickness: data.thickness,
-        rms: rms(&out.residuals),
-        points_used: n,
+        rms: prep.rms(&out.residuals),
+        points_used: prep.readings,
         iterations: out.iterations,
         earliest_u: None,
         at_time: None,
@@ -359,7 +398,7 @@ fn finish(
 /// (1994), §3.2.1.
 pub fn fit_theis(data: &PumpingTestData) -> Result<Fit, String> {
     check_data(data, true)?;
-    theis_lsq(data, &flatten(data), Method::Theis)
+    theis_lsq(data, &prepare(flatten(data)), Method::Theis)
 }
 
 /// Unconfined: Theis on drawdowns corrected with Jacob's s′ = s − s²/(2H), H =
@@ -380,57 +419,9 @@ pub fn fit_theis_unconfined(data: &PumpingTestData) -> Result<Fit, String> {
         }
         p.2 = crate::physics::thiem::jacob_correction(p.2, h);
     }
-    let mut fit = theis_lsq(data, &pts, Method::TheisUnconfined)?;
+    let mut fit = theis_lsq(data, &prepare(pts), Method::TheisUnconfined)?;
     fit.notes
         .push("residuals are in Jacob-corrected drawdown s′ = s − s²/(2H) (Jacob 1944)".into());
-    Ok(fit)
-}
-
-/// Hantush–Jacob leaky fit of T (m²/s), S and B (m) by Levenberg–Marquardt on their log10:
-/// s = Q/(4πT)·W(u, r/B). The search starts from the Theis fit with B = 1, 3, 10 and 30 times
-/// the largest distance and keeps the best. Source: Hantush & Jacob (1955); Kruseman & de
-/// Ridder (1994), §4.2.
-pub fn fit_hantush(data: &PumpingTestData) -> Result<Fit, String> {
-    check_data(data, true)?;
-    let pts = flatten(data);
-    too_few(pts.len(), 4, Method::Hantush.name())?;
-    let q = data.rate;
-    let theis = theis_lsq(data, &pts, Method::Theis)?;
-    let r_max = data.wells.iter().map(|w| w.distance).fold(0.0, f64::max);
-    let f = |p: &[f64], out: &mut [f64]| {
-        let tr = 10f64.powf(p[0]);
-        let s = 10f64.powf(p[1]);
-        let b = 10f64.powf(p[2]);
-        let scale = q / (4.0 * PI * tr);
-        for (o, &(r2, t, obs)) in out.iter_mut().zip(&pts) {
-            *o = scale * hantush_w(r2 * s / (4.0 * tr * t), r2.sqrt() / b) - obs;
-        }
-    };
-    let mut best: Option<lm::LmOutcome> = None;
-    for k in [1.0, 3.0, 10.0, 30.0] {
-        let p0 = [
-            theis.transmissivity.value.log10(),
-            theis.storativity.map_or(-4.0, |e| e.value.log10()),
-            (k * r_max).log10(),
-        ];
-        if let Some(o) = lm::minimise(f, &p0, pts.len(), MAX_ITER) {
-            let c: f64 = o.residuals.iter().map(|v| v * v).sum();
-            let better = best
-                .as_ref()
-                .is_none_or(|b| c < b.residuals.iter().map(|v| v * v).sum::<f64>());
-            if better {
-                best = Some(o);
-            }
-        }
-    }
-    let out = best.ok_or("Hantush–Jacob: the model is not finite at any first guess")?;
-    let mut fit = finish(data, Method::Hantush, pts.len(), out, 3);
-    if let Some(b) = fit.leakage_factor {
-        for w in &data.wells {
-            fit.notes
-                .push(format!("r/B at '{}' = {:.4}", w.name, w.distance / b.value));
-        }
-    }
     Ok(fit)
 }
 
@@ -445,64 +436,97 @@ pub fn fit_hantush(data: &PumpingTestData) -> Result<Fit, String> {
 pub fn fit_cooper_jacob(data: &PumpingTestData) -> Result<Fit, String> {
     check_data(data, true)?;
     let q = data.rate;
-    let mut v: Vec<(f64, f64)> = flatten(data)
+    let prep = prepare(flatten(data));
+    let mut v: Vec<(f64, f64, f64)> = prep
+        .points
         .iter()
-        .map(|(r2, t, s)| ((t / r2).log10(), *s))
+        .map(|p| ((p.t / p.r2).log10(), p.s, p.w))
         .collect();
     v.sort_by(|a, b| a.0.total_cmp(&b.0));
     too_few(v.len(), 3, Method::CooperJacob.name())?;
-    let mut start = 0;
-    loop {
-        let x: Vec<f64> = v[start..].iter().map(|p| p.0).collect();
-        let y: Vec<f64> = v[start..].iter().map(|p| p.1).collect();
-        let (a, m, cov, res) = line_fit(&x, &y)
-            .ok_or("Cooper–Jacob: the points do not span more than one time/distance²")?;
+    let start = late_start(&v)?;
+    let x: Vec<f64> = v[start..].iter().map(|p| p.0).collect();
+    let y: Vec<f64> = v[start..].iter().map(|p| p.1).collect();
+    let w: Vec<f64> = v[start..].iter().map(|p| p.2).collect();
+    let (a, m, cov, res) = line_fit(&x, &y, &w)
+        .ok_or("Cooper–Jacob: the points do not span more than one time/distance²")?;
+    if m.is_nan() || m <= 0.0 {
+        return Err("Cooper–Jacob: drawdown does not increase with time on the late data".into());
+    }
+    let tr = LN_10 * q / (4.0 * PI * m);
+    let s = 2.25 * tr * 10f64.powf(-a / m);
+    let u_first = s / (4.0 * tr * 10f64.powf(x[0]));
+    // delta method: ln T = c − ln m; ln S = ln 2.25 + ln T − (a/m)·ln 10
+    let se_t = tr * cov[1][1].max(0.0).sqrt() / m;
+    let g = [-LN_10 / m, -1.0 / m + a * LN_10 / (m * m)];
+    let var_ln_s =
+        g[0] * g[0] * cov[0][0] + 2.0 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1];
+    let used: f64 = w.iter().sum();
+    let mut notes = vec![format!(
+        "earliest point used has u = {u_first:.4} ({used:.0} of {} readings used)",
+        prep.readings
+    )];
+    if u_first >= 0.05 {
+        notes.push("u ≥ 0.05 at the earliest point used: the straight line is not yet valid (Cooper & Jacob 1946); use later data or the Theis fit".into());
+    }
+    notes.extend(prep.note());
+    plausible(Fit {
+        method: Method::CooperJacob,
+        rate: q,
+        transmissivity: Estimate {
+            value: tr,
+            std_error: se_t,
+        },
+        storativity: Some(Estimate {
+            value: s,
+            std_error: s * var_ln_s.max(0.0).sqrt(),
+        }),
+        leakage_factor: None,
+        thickness: data.thickness,
+        // over the readings used (bin means when binned)
+        rms: (res.iter().map(|v| v * v).sum::<f64>() / used).sqrt(),
+        points_used: used as usize,
+        iterations: 0,
+        earliest_u: Some(u_first),
+        at_time: None,
+        notes,
+    })
+}
+
+/// The first of the points `v` (x = log10(t/r²), s, weight; sorted by x) kept for the
+/// Cooper–Jacob line: the earliest is dropped while the line through the rest gives it
+/// u ≥ 0.05 and more than 3 points remain. One pass from the end builds the weighted sums of
+/// every tail (x taken about the mean for accuracy), so each candidate line costs O(1).
+fn late_start(v: &[(f64, f64, f64)]) -> Result<usize, String> {
+    let n = v.len();
+    let x0 = v.iter().map(|p| p.0).sum::<f64>() / n as f64;
+    // tails[k] = (Σw, Σwx, Σwy, Σwx², Σwxy) of v[k..]
+    let mut tails = vec![[0.0f64; 5]; n + 1];
+    for k in (0..n).rev() {
+        let (x, y, w) = (v[k].0 - x0, v[k].1, v[k].2);
+        let t = tails[k + 1];
+        tails[k] = [t[0] + w, t[1] + w * x, t[2] + w * y, t[3] + w * x * x, t[4] + w * x * y];
+    }
+    for (start, t) in tails.iter().enumerate().take(n) {
+        let [sw, sx, sy, sxx, sxy] = *t;
+        let cxx = sxx - sx * sx / sw;
+        if cxx <= 1e-300 {
+            return Err("Cooper–Jacob: the points do not span more than one time/distance²".into());
+        }
+        let m = (sxy - sx * sy / sw) / cxx;
         if m.is_nan() || m <= 0.0 {
             return Err(
                 "Cooper–Jacob: drawdown does not increase with time on the late data".into(),
             );
         }
-        let tr = LN_10 * q / (4.0 * PI * m);
-        let s = 2.25 * tr * 10f64.powf(-a / m);
-        let u_first = s / (4.0 * tr * 10f64.powf(x[0]));
-        if u_first >= 0.05 && v.len() - start > 3 {
-            start += 1;
-            continue;
+        // s = 0 where x = x0 + (mean x) − (mean y)/m; u at the first point = 2.25/4·10^(x₀ − x).
+        let x_zero = x0 + sx / sw - (sy / sw) / m;
+        let u_first = 2.25 / 4.0 * 10f64.powf(x_zero - v[start].0);
+        if !(u_first >= 0.05 && n - start > 3) {
+            return Ok(start);
         }
-        // delta method: ln T = c − ln m; ln S = ln 2.25 + ln T − (a/m)·ln 10
-        let se_t = tr * cov[1][1].max(0.0).sqrt() / m;
-        let g = [-LN_10 / m, -1.0 / m + a * LN_10 / (m * m)];
-        let var_ln_s =
-            g[0] * g[0] * cov[0][0] + 2.0 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1];
-        let mut notes = vec![format!(
-            "earliest point used has u = {u_first:.4} ({} of {} points used)",
-            v.len() - start,
-            v.len()
-        )];
-        if u_first >= 0.05 {
-            notes.push("u ≥ 0.05 at the earliest point used: the straight line is not yet valid (Cooper & Jacob 1946); use later data or the Theis fit".into());
-        }
-        return Ok(Fit {
-            method: Method::CooperJacob,
-            rate: q,
-            transmissivity: Estimate {
-                value: tr,
-                std_error: se_t,
-            },
-            storativity: Some(Estimate {
-                value: s,
-                std_error: s * var_ln_s.max(0.0).sqrt(),
-            }),
-            leakage_factor: None,
-            thickness: data.thickness,
-            rms: rms(&res),
-            points_used: v.len() - start,
-            iterations: 0,
-            earliest_u: Some(u_first),
-            at_time: None,
-            notes,
-        });
     }
+    Ok(n.saturating_sub(3))
 }
 
 /// Theis recovery: after pumping at Q for `pumping_time` (s), the residual drawdown s′ at time
@@ -522,14 +546,22 @@ pub fn fit_theis_recovery(
         ));
     }
     let q = data.rate;
-    let (x, y): (Vec<f64>, Vec<f64>) = flatten(data)
+    let prep = prepare(
+        flatten(data)
+            .into_iter()
+            .filter(|(_, tp, _)| *tp >= min_time_since_stop)
+            .collect(),
+    );
+    let pts = &prep.points;
+    let x: Vec<f64> = pts
         .iter()
-        .filter(|(_, tp, _)| *tp >= min_time_since_stop)
-        .map(|(_, tp, s)| (((pumping_time + tp) / tp).log10(), *s))
-        .unzip();
+        .map(|p| ((pumping_time + p.t) / p.t).log10())
+        .collect();
+    let y: Vec<f64> = pts.iter().map(|p| p.s).collect();
+    let w: Vec<f64> = pts.iter().map(|p| p.w).collect();
     too_few(x.len(), 3, Method::TheisRecovery.name())?;
-    let (a, m, cov, res) =
-        line_fit(&x, &y).ok_or("Theis recovery: the points do not span more than one t/t′")?;
+    let (a, m, cov, res) = line_fit(&x, &y, &w)
+        .ok_or("Theis recovery: the points do not span more than one t/t′")?;
     if m.is_nan() || m <= 0.0 {
         return Err("Theis recovery: residual drawdown does not fall as t/t′ falls".into());
     }
@@ -544,15 +576,18 @@ pub fn fit_theis_recovery(
         storativity: None,
         leakage_factor: None,
         thickness: data.thickness,
-        rms: rms(&res),
-        points_used: x.len(),
+        rms: prep.rms(&res),
+        points_used: prep.readings,
         iterations: 0,
         earliest_u: None,
         at_time: None,
-        notes: vec![format!(
+        notes: std::iter::once(format!(
             "line intercept at t/t′ = 1: {a:.4} m (0 for an ideal test)"
-        )],
+        ))
+        .chain(prep.note())
+        .collect(),
     })
+    .and_then(plausible)
 }
 
 /// Drawdown of a well at time t by linear interpolation in log t; `None` outside its data.
@@ -602,7 +637,7 @@ pub fn fit_distance_drawdown(data: &PumpingTestData) -> Result<Fit, String> {
         x.push(w.distance.ln());
         y.push(s);
     }
-    let (a, slope, cov, res) = line_fit(&x, &y)
+    let (a, slope, cov, res) = line_fit(&x, &y, &ones(x.len()))
         .ok_or("distance–drawdown: the observation wells must be at different distances")?;
     let m = -slope;
     if m.is_nan() || m <= 0.0 {
@@ -615,7 +650,7 @@ pub fn fit_distance_drawdown(data: &PumpingTestData) -> Result<Fit, String> {
     let g = [-2.0 / m, 1.0 / m - 2.0 * a / (m * m)];
     let var_ln_s =
         g[0] * g[0] * cov[0][0] + 2.0 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1];
-    Ok(Fit {
+    plausible(Fit {
         method: Method::DistanceDrawdown,
         rate: data.rate,
         transmissivity: Estimate {
@@ -633,9 +668,13 @@ pub fn fit_distance_drawdown(data: &PumpingTestData) -> Result<Fit, String> {
         iterations: 0,
         earliest_u: None,
         at_time: Some(t),
-        notes: vec![format!(
+        notes: std::iter::once(format!(
             "zero-drawdown distance R = {r0:.1} m at t = {t:.0} s"
-        )],
+        ))
+        .chain((x.len() == 2).then(|| {
+            "two wells: the line passes through both exactly, so its standard errors are not known (0 shown)".to_string()
+        }))
+        .collect(),
     })
 }
 
