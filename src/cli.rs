@@ -139,6 +139,10 @@ pub enum Command {
         /// Output folder.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
         out: PathBuf,
+        /// Take the wells from this CSV (as `check --wells`: columns name, x, y, rate_l_per_s and
+        /// optionally radius_m; a design's wells.csv) instead of the layout.
+        #[arg(long)]
+        wells: Option<PathBuf>,
     },
     /// Fit a constant-rate pumping test (CSV of time and drawdown, units in the header): Theis,
     /// Cooper–Jacob, Hantush, unconfined Theis, recovery, distance–drawdown; prints the aquifer

@@ -183,28 +183,30 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 ExitCode::from(3)
             })
         }
-        Command::Programme { file, out } => {
+        Command::Programme { file, out, wells } => {
             let model = model::load(&file)?;
-            let setup = drydig::transient::programme::setup(&model)?;
+            let setup = drydig::transient::programme::setup_from(&model, wells.as_deref())?;
             let answers = drydig::transient::answers::answer(&model, &setup);
             let mut files = vec![(
                 "programme.csv".to_string(),
                 report::programme_text::to_csv(&model, &answers),
             )];
             files.extend(report::programme_charts::charts(&model, &answers));
-            let wells: Vec<[f64; 2]> = setup.wells.iter().map(|w| w.position).collect();
+            let positions: Vec<[f64; 2]> = setup.wells.iter().map(|w| w.position).collect();
             for m in &answers.maps {
                 files.push((
                     format!("map_day_{:.1}.svg", m.time / 86_400.0),
-                    report::programme_map::map_svg(&model, m, &wells).into_bytes(),
+                    report::programme_map::map_svg(&model, m, &positions).into_bytes(),
                 ));
             }
-            let inputs = report::files::inputs_of(&model, None);
+            let inputs = report::files::inputs_of(&model, wells.as_deref());
             report::files::write_set(&out, &files, &inputs)?;
             print(&report::programme_text::to_text(&model, &answers))?;
             print(&format!("outputs written to {}\n", out.display()))?;
-            // A stage that waits for the water is information; one never reached is not met.
-            let reached = answers.stages.iter().all(|s| s.earliest.is_some());
+            // A stage that waits for the water is information; one never reached is not met,
+            // nor is a well scheduled to pump below its lowest allowed level.
+            let reached = answers.stages.iter().all(|s| s.earliest.is_some())
+                && answers.well_breaches.is_empty();
             Ok(if reached {
                 ExitCode::SUCCESS
             } else {

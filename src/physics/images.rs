@@ -40,6 +40,17 @@ pub fn image_set(
     boundaries: &[([f64; 2], [f64; 2], BoundaryKind)],
     reach: f64,
 ) -> Result<Vec<([f64; 2], f64)>, String> {
+    image_set_up_to(p, boundaries, reach, MAX_IMAGES_PER_WELL).map(|(v, _)| v)
+}
+
+/// As [`image_set`], keeping at most `max_images` images; the flag is true when the series was
+/// cut at that number before reaching `reach`.
+pub fn image_set_up_to(
+    p: [f64; 2],
+    boundaries: &[([f64; 2], [f64; 2], BoundaryKind)],
+    reach: f64,
+    max_images: usize,
+) -> Result<(Vec<([f64; 2], f64)>, bool), String> {
     let own: Vec<f64> = boundaries
         .iter()
         .map(|(a, b, _)| cross(p, *a, *b).signum())
@@ -72,14 +83,14 @@ pub fn image_set(
             if inside {
                 return Err("these boundaries meet at an angle that is not 180°/n (90°, 60°, 45°…) and are not parallel, so the method of images has no exact solution; simplify them to one line, two parallel lines or a right-angled corner".into());
             }
-            if out.len() >= MAX_IMAGES_PER_WELL {
-                return Ok(out);
+            if out.len() >= max_images {
+                return Ok((out, true));
             }
             out.push((img, img_sign));
             queue.push_back((img, img_sign, bi));
         }
     }
-    Ok(out)
+    Ok((out, false))
 }
 
 #[cfg(test)]

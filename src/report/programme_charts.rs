@@ -243,6 +243,12 @@ fn marks(model: &Model, a: &ProgrammeAnswers) -> Vec<(f64, String)> {
         .map(|s| (s.start / DAY, s.name.clone()))
         .collect();
     m.push((a.duration / DAY, "pumps off".into()));
+    if let Some(l) = &a.steady {
+        let end = a.times.last().copied().unwrap_or(a.duration);
+        if l.t_star <= end {
+            m.push((l.t_star / DAY, "t*: R(t) = steady R".into()));
+        }
+    }
     m
 }
 
@@ -275,11 +281,35 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
         &steps,
         &marks,
     );
+    let mut floors: Vec<f64> = a.well_floors.clone();
+    floors.sort_by(f64::total_cmp);
+    floors.dedup_by(|x, y| (*x - *y).abs() < 1e-6);
+    let floor_values: Vec<Vec<f64>> = floors.iter().map(|f| vec![*f; days.len()]).collect();
+    let mut well_series = mk(&[SeriesKind::Well]);
+    for (f, v) in floors.iter().zip(&floor_values) {
+        well_series.push(Series {
+            name: format!("lowest allowed {f:.2} m"),
+            values: v,
+            dashed: true,
+        });
+    }
+    let warning = match a.well_breaches.iter().min_by(|x, y| x.time.total_cmp(&y.time)) {
+        Some(b) => format!(
+            " — WARNING: {} well(s) below the lowest allowed level while pumping (first {} on day {:.1})",
+            a.well_breaches.len(),
+            b.well,
+            b.time / DAY
+        ),
+        None => String::new(),
+    };
     let wells = chart(
-        &format!("{} — water level in the wells", model.name),
+        &format!(
+            "{} — water level in the wells (after well loss){warning}",
+            model.name
+        ),
         "water level in well, m above datum",
         &days,
-        &mk(&[SeriesKind::Well]),
+        &well_series,
         &steps,
         &marks,
     );

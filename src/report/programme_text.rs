@@ -134,10 +134,75 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             r.above_formation.map_or("not within a year".into(), |t| format!("after {}", duration_words(t)))
         ));
     }
-    s.push_str("\n  Assumptions: wells at constant rate within each stage (the flow is the scheduled one); wells taken as fully penetrating in time (see transient::programme); unconfined flow linearised with T = K·H and Jacob's correction.\n");
+    s.push_str(&wells_text(a));
+    s.push_str(&steady_text(a));
+    if !model.boundaries.is_empty() {
+        s.push_str(&format!(
+            "\n  Images of the straight boundaries are kept out to {:.0} m from each well: every image beyond has u = r²S/(4T·t) > {:.0} at the last time followed, W(u) < 1.1e−19, so the omitted remainder is below 3e−15·Q/(4πT) (between two parallel boundaries the series is summed that far, not to a fixed count).\n",
+            a.image_reach, crate::transient::programme::IMAGE_U_MIN
+        ));
+        if a.images_capped > 0 {
+            s.push_str(&format!(
+                "  WARNING: for {} well(s) the image series was cut at {} images before that distance: levels late in the programme may be off.\n",
+                a.images_capped,
+                crate::transient::programme::MAX_IMAGES_IN_TIME
+            ));
+        }
+    }
+    s.push_str("\n  Assumptions: wells at constant rate within each stage (the flow is the scheduled one, not reduced when a well runs low); partial penetration as in the steady check, taken as quasi-steady (it settles within hours); well losses at each well's rate of the time; unconfined flow linearised with T = K·H and Jacob's correction.\n");
     s.push('\n');
     s.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, "  "));
     s
+}
+
+/// Wells that fall below their lowest allowed level while scheduled to pump.
+fn wells_text(a: &ProgrammeAnswers) -> String {
+    if a.well_breaches.is_empty() {
+        return "\n  wells: every pumped well stays above its lowest allowed level (level inside the well, after its loss) while it pumps\n".into();
+    }
+    let mut s = format!(
+        "\n  WARNING — {} WELL(S) BELOW THEIR LOWEST ALLOWED LEVEL WHILE SCHEDULED TO PUMP:\n",
+        a.well_breaches.len()
+    );
+    for b in &a.well_breaches {
+        s.push_str(&format!(
+            "    {} from day {}: {:.2} L/s scheduled, level falls to {:.2} m against {:.2} m ({})\n",
+            b.well,
+            days(b.time),
+            b.rate * 1e3,
+            b.lowest_reached,
+            b.lowest,
+            b.basis
+        ));
+    }
+    let first = a
+        .well_breaches
+        .iter()
+        .map(|b| b.time)
+        .fold(f64::INFINITY, f64::min);
+    s.push_str(&format!(
+        "    From day {} these wells cannot deliver their scheduled rates: the levels, days to dig and volumes after it assume they do and are too optimistic. Lower their rates (the targets then take longer or are not met), lower the pumps, or add wells.\n",
+        days(first)
+    ));
+    s
+}
+
+/// t* and how the programme compares with the steady check there.
+fn steady_text(a: &ProgrammeAnswers) -> String {
+    let Some(l) = &a.steady else {
+        return "\n  steady design: no t* (leaky aquifer: the levels settle at the steady Hantush values; or no well rates)\n".into();
+    };
+    format!(
+        "\n  STEADY DESIGN AND TIME: by Cooper–Jacob, Theis equals Thiem with R(t) = √(2.25·T·t/S). The steady check of these wells at their design rates uses R = {:.1} m ({}), reached at t* = {} days. With every well at its design rate from day 0 the programme at t* gives the steady levels within {:.3} m at the check points (largest at {}, {} compared) and {:.3} m in the wells, losses included (largest in {}); the rest is the Cooper–Jacob remainder and the wells beyond R that Thiem cuts off. After t* an unbounded aquifer keeps drawing down (about Q/(4πT)·ln(t/t*) per well; a constant-head boundary or leakage slows it), so levels later in a long programme are lower than the steady design's.\n",
+        l.radius,
+        l.radius_basis,
+        days(l.t_star),
+        l.point_difference,
+        l.point_name,
+        l.points_compared,
+        l.well_difference,
+        l.well_name
+    )
 }
 
 fn csv_field(name: &str) -> String {
@@ -152,7 +217,9 @@ fn csv_field(name: &str) -> String {
 /// far, and the water level (m above datum) at every hydrograph place.
 pub fn to_csv(model: &Model, a: &ProgrammeAnswers) -> Vec<u8> {
     let prog = model.programme.as_ref();
-    let mut s = String::from("time_s,day,stage,total_flow_l_per_s,volume_m3");
+    let mut s = String::from(
+        "time_s,day,stage,total_flow_l_per_s,volume_m3,cooper_jacob_radius_m,wells_below_lowest_level",
+    );
     for h in &a.hydrographs {
         let prefix = match h.kind {
             SeriesKind::Point => "level_m",
@@ -167,13 +234,28 @@ pub fn to_csv(model: &Model, a: &ProgrammeAnswers) -> Vec<u8> {
         let stage = a.stage_at[j]
             .and_then(|k| prog.map(|p| p.stages[k].name.clone()))
             .unwrap_or_else(|| "recovery".into());
+        let below: Vec<&str> = a
+            .well_breaches
+            .iter()
+            .filter(|b| {
+                *t >= b.time - 1.0
+                    && a.stage_at[j].is_some()
+                    && a.hydrographs
+                        .iter()
+                        .find(|h| h.kind == SeriesKind::Well && h.name == b.well)
+                        .is_some_and(|h| h.levels[j] < b.lowest - 1e-3)
+            })
+            .map(|b| b.well.as_str())
+            .collect();
         s.push_str(&format!(
-            "{:.0},{:.4},{},{:.4},{:.2}",
+            "{:.0},{:.4},{},{:.4},{:.2},{:.1},{}",
             t,
             t / DAY,
             csv_field(&stage),
             a.flows[j] * 1e3,
-            a.volumes[j]
+            a.volumes[j],
+            a.cooper_jacob_radius.get(j).copied().unwrap_or(0.0),
+            csv_field(&below.join(" "))
         ));
         for h in &a.hydrographs {
             s.push_str(&format!(",{:.4}", h.levels[j]));

@@ -11,21 +11,24 @@
 //! separate operating margin; the target margin is the one used). Volumes are ∫ Q dt of the step
 //! schedules, exact.
 //!
-//! Time to flood: at each output time while a stage's points are dry (level below that stage's
-//! formation, and after the stage's earliest day), the excavation point with the least margin
-//! is taken; every pump is switched off there and then, and the time until the water stands above
-//! formation at that point is found. The moment with the shortest time is the worst moment; the
-//! same is done there with only the most important well off (the one giving the most drawdown at
-//! that point at that moment). Searched up to [`FLOOD_SEARCH`] after the failure.
+//! Time to flood: at each moment a stage is being dug (its earliest moment or its start, and
+//! every output time after, while its points are dry), the excavation point with the least margin
+//! below formation is taken; every pump is switched off there and then, and the time until the
+//! water stands above formation at that point is found. The moment with the shortest time is
+//! then refined between its neighbouring moments by golden-section search on the time to flood
+//! (to 60 s), so the worst moment itself is found, not the nearest output time. The same is done
+//! there with only the most important well off (the one giving the most drawdown at that point at
+//! that moment). Searched up to [`FLOOD_SEARCH`] after the failure.
 
 use crate::field::checkpoints::{check_points, PointKind};
 use crate::input::model::Model;
-use crate::transient::programme::{switched_off, ProgrammeSetup, DAY};
+use crate::transient::programme::{diffusion_parameters, switched_off, ProgrammeSetup};
+use crate::transient::steady_link::{steady_link, SteadyLink};
+use crate::transient::well_levels::{breaches, level_in_well, lowest_allowed, WellBreach};
 use crate::transient::TransientModel;
 use rayon::prelude::*;
 
-/// Longest time followed after a failure, s (365 days).
-pub const FLOOD_SEARCH: f64 = 365.0 * DAY;
+pub use crate::transient::programme::FLOOD_SEARCH;
 /// Nodes along each side of a drawdown map.
 pub const MAP_NODES: usize = 101;
 
@@ -36,7 +39,7 @@ pub enum SeriesKind {
     Point,
     /// A corner of a neighbour's footprint.
     Neighbour,
-    /// In a well (fully penetrating, see the programme notes).
+    /// Inside a well: the level after the well loss (see [`crate::transient::well_levels`]).
     Well,
 }
 
@@ -175,6 +178,18 @@ pub struct ProgrammeAnswers {
     pub maps: Vec<DrawdownMap>,
     /// End of pumping, s.
     pub duration: f64,
+    /// Wells that fall below their lowest allowed level while scheduled to pump.
+    pub well_breaches: Vec<WellBreach>,
+    /// t* and the programme against the steady check there (`None`: leaky, or no rates).
+    pub steady: Option<SteadyLink>,
+    /// Wells whose image series was cut before its tolerance (see the programme notes).
+    pub images_capped: usize,
+    /// How far images are kept from each well, m ([`crate::transient::programme::image_reach`]).
+    pub image_reach: f64,
+    /// Lowest allowed level of each well (in the order of the well hydrographs), m.
+    pub well_floors: Vec<f64>,
+    /// R(t) = √(2.25·T·t/S) at each output time, m (Cooper & Jacob 1946).
+    pub cooper_jacob_radius: Vec<f64>,
 }
 
 /// Output times: 0, step, 2·step … to duration + recovery, with every stage start and the end of
@@ -364,27 +379,59 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
     for w in &setup.wells {
         places.push((w.name.clone(), SeriesKind::Well, w.position));
     }
-    let place_pos: Vec<[f64; 2]> = places.iter().map(|p| p.2).collect();
-    let hd = tm.drawdowns(&place_pos, &times);
+    let n_wells = setup.wells.len();
+    let n_other = places.len() - n_wells;
+    let place_pos: Vec<[f64; 2]> = places[..n_other].iter().map(|p| p.2).collect();
+    let mut levels: Vec<Vec<f64>> = tm
+        .drawdowns(&place_pos, &times)
+        .into_iter()
+        .map(|s| s.iter().map(|s| h0 - s).collect())
+        .collect();
+    // in the wells: the level inside, after the well loss at the rate of that time
+    let well_levels: Vec<Vec<f64>> = (0..n_wells)
+        .into_par_iter()
+        .map(|j| {
+            times
+                .iter()
+                .map(|t| level_in_well(model, tm, j, setup.wells[j].position, *t))
+                .collect()
+        })
+        .collect();
+    let well_breaches = breaches(model, tm, &setup.wells, &times, &well_levels, prog.duration);
+    levels.extend(well_levels);
     let hydrographs: Vec<Hydrograph> = places
         .into_iter()
-        .zip(hd)
-        .map(|((name, kind, position), s)| Hydrograph {
+        .zip(levels)
+        .map(|((name, kind, position), levels)| Hydrograph {
             name,
             kind,
             position,
-            levels: s.iter().map(|s| h0 - s).collect(),
+            levels,
         })
         .collect();
 
-    let flood = flood(model, setup, &times, &d, &stages, &in_exc);
+    let flood = flood(model, setup, &times, &stages, &in_exc);
     let recovery = recovery(model, setup, &times, &d, &in_exc);
     let maps = prog
         .map_times
         .iter()
         .map(|t| drawdown_map(model, setup, *t))
         .collect();
+    let steady = steady_link(model, setup);
+    let well_floors = setup
+        .wells
+        .iter()
+        .map(|w| lowest_allowed(model, w).0)
+        .collect();
+    let (tr, st) = diffusion_parameters(&setup.aquifer);
+    let cooper_jacob_radius = times.iter().map(|t| (2.25 * tr * t / st).sqrt()).collect();
     ProgrammeAnswers {
+        well_floors,
+        cooper_jacob_radius,
+        image_reach: setup.image_reach,
+        well_breaches,
+        steady,
+        images_capped: setup.images_capped,
         times,
         flows,
         volumes,
@@ -400,63 +447,127 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
     }
 }
 
+/// The failure at one moment `t` in stage `k`: the excavation point with the least margin below
+/// formation (none when the stage is not dry there), that margin, and the time until water stands
+/// above formation there with every pump off.
+type FloodMoment = (usize, f64, Option<f64>);
+
+fn flood_at(
+    model: &Model,
+    setup: &ProgrammeSetup,
+    idx: &[usize],
+    points: &[crate::field::checkpoints::CheckPoint],
+    k: usize,
+    t: f64,
+) -> Option<FloodMoment> {
+    let prog = model.programme.as_ref()?;
+    let h0 = model.aquifer.initial_level;
+    let f = prog.stages[k].formation_level;
+    let (i, margin) = idx
+        .iter()
+        .map(|&i| (i, f - (h0 - setup.model.drawdown_at(points[i].position, t))))
+        .min_by(|a, b| a.1.total_cmp(&b.1))?;
+    if margin <= 0.0 {
+        return None;
+    }
+    let sch: Vec<_> = setup.schedules.iter().map(|s| switched_off(s, t)).collect();
+    let ttf = setup
+        .with_schedules(sch)
+        .ok()
+        .and_then(|m| time_until_below(&m, points[i].position, h0 - f, t, FLOOD_SEARCH));
+    Some((i, margin, ttf))
+}
+
+/// Golden-section search for the least time to flood on [a, b] (s) in stage k, to 60 s.
+fn refine_flood(eval: impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> f64 {
+    let g = 0.5 * (5f64.sqrt() - 1.0);
+    let mut c = b - g * (b - a);
+    let mut d = a + g * (b - a);
+    let (mut fc, mut fd) = (eval(c), eval(d));
+    for _ in 0..60 {
+        if b - a <= 60.0 {
+            break;
+        }
+        if fc <= fd {
+            b = d;
+            d = c;
+            fd = fc;
+            c = b - g * (b - a);
+            fc = eval(c);
+        } else {
+            a = c;
+            c = d;
+            fc = fd;
+            d = a + g * (b - a);
+            fd = eval(d);
+        }
+    }
+    if fc <= fd {
+        c
+    } else {
+        d
+    }
+}
+
 fn flood(
     model: &Model,
     setup: &ProgrammeSetup,
     times: &[f64],
-    d: &[Vec<f64>],
     stages: &[StageAnswer],
     in_exc: &dyn Fn(usize) -> Vec<usize>,
 ) -> Option<Flood> {
     let prog = model.programme.as_ref()?;
     let h0 = model.aquifer.initial_level;
     let points = check_points(model);
-    // Candidate moments: (time index, stage, point index, margin).
-    let mut candidates = Vec::new();
-    for (j, &t) in times.iter().enumerate() {
-        if t >= prog.duration {
-            break;
-        }
-        let Some(k) = prog.stages.iter().rposition(|s| s.start <= t) else {
-            continue;
-        };
-        if stages[k].earliest.is_none_or(|e| t < e) {
+    // Moments digging is under way: every output time, each stage's start and the earliest
+    // moment it can be dug, within the stage and not before that earliest moment.
+    let mut moments: Vec<(f64, usize)> = Vec::new();
+    for (k, st) in stages.iter().enumerate() {
+        let Some(e) = st.earliest else { continue };
+        let from = e.max(st.planned_start);
+        if from >= st.end {
             continue;
         }
-        let f = prog.stages[k].formation_level;
-        let idx = in_exc(prog.stages[k].excavation);
-        let worst = idx
-            .iter()
-            .map(|&i| (i, f - (h0 - d[i][j])))
-            .min_by(|a, b| a.1.total_cmp(&b.1));
-        if let Some((i, margin)) = worst {
-            if margin > 0.0 {
-                candidates.push((j, k, i, margin));
-            }
+        moments.push((from, k));
+        moments.extend(
+            times
+                .iter()
+                .filter(|t| **t > from && **t < st.end)
+                .map(|t| (*t, k)),
+        );
+    }
+    let idx_of: Vec<Vec<usize>> = prog.stages.iter().map(|s| in_exc(s.excavation)).collect();
+    let ttf_key = |r: &Option<FloodMoment>| r.and_then(|m| m.2).unwrap_or(f64::INFINITY);
+    let results: Vec<Option<FloodMoment>> = moments
+        .par_iter()
+        .map(|&(t, k)| flood_at(model, setup, &idx_of[k], &points, k, t))
+        .collect();
+    let best = (0..moments.len())
+        .filter(|&m| results[m].is_some())
+        .min_by(|&a, &b| ttf_key(&results[a]).total_cmp(&ttf_key(&results[b])))?;
+    // The worst moment itself: between the moments either side of the best, in its stage.
+    let (tb, k) = moments[best];
+    let lo = moments[..best]
+        .iter()
+        .rev()
+        .find(|m| m.1 == k)
+        .map_or(tb, |m| m.0);
+    let hi = moments[best + 1..]
+        .iter()
+        .find(|m| m.1 == k)
+        .map_or(tb, |m| m.0);
+    let mut t = tb;
+    let mut found = results[best];
+    if hi > lo && ttf_key(&found).is_finite() {
+        let eval = |x: f64| ttf_key(&flood_at(model, setup, &idx_of[k], &points, k, x));
+        let tr = refine_flood(eval, lo, hi);
+        let r = flood_at(model, setup, &idx_of[k], &points, k, tr);
+        if ttf_key(&r) < ttf_key(&found) {
+            t = tr;
+            found = r;
         }
     }
-    let results: Vec<(usize, usize, usize, f64, Option<f64>)> = candidates
-        .par_iter()
-        .map(|&(j, k, i, margin)| {
-            let t = times[j];
-            let sch: Vec<_> = setup.schedules.iter().map(|s| switched_off(s, t)).collect();
-            let ttf = setup.with_schedules(sch).ok().and_then(|m| {
-                time_until_below(
-                    &m,
-                    points[i].position,
-                    h0 - prog.stages[k].formation_level,
-                    t,
-                    FLOOD_SEARCH,
-                )
-            });
-            (j, k, i, margin, ttf)
-        })
-        .collect();
-    let &(j, k, i, margin, all_off) = results.iter().min_by(|a, b| {
-        a.4.unwrap_or(f64::INFINITY)
-            .total_cmp(&b.4.unwrap_or(f64::INFINITY))
-    })?;
-    let t = times[j];
+    let (i, margin, all_off) = found?;
     let p = points[i].position;
     // The most important well: the most drawdown at p at t from its own sources.
     let (w_best, _) = (0..setup.wells.len())

@@ -35,11 +35,14 @@
 pub mod answers;
 pub mod by_date;
 pub mod programme;
+pub mod steady_link;
 pub mod well_function;
+pub mod well_levels;
 
 use crate::physics::special::hantush_w;
 use rayon::prelude::*;
 use std::f64::consts::PI;
+use std::sync::Arc;
 
 pub use crate::physics::radius::cooper_jacob_radius;
 
@@ -313,12 +316,40 @@ impl TransientAquifer {
     }
 }
 
+/// ΔΦ per unit rate (m³/s per m, per m³/s) of each well at a point from the partial-penetration
+/// term of the steady field (the steady kernel with partial penetration less the same kernel
+/// fully penetrating; see [`crate::field::near_field`]).
+pub type NearRows = Arc<dyn Fn([f64; 2]) -> Vec<f64> + Send + Sync>;
+
+/// The partial-penetration term in time, taken as quasi-steady: at time t each well adds
+/// −q(t)·ΔΦ_unit/T to the linear drawdown s′, with its rate at that time. The extra drawdown of a
+/// partly penetrating screen is confined to about 1.5·D·√(K_h/K_v) of the well and settles once
+/// the spreading front has passed that distance (Hantush 1961; Kruseman & de Ridder 1994, §10),
+/// within minutes to hours, much less than the programme's days.
+#[derive(Clone)]
+pub struct NearTerm {
+    /// Per-well rows at a point.
+    pub rows: NearRows,
+    /// T = K·D used to turn ΔΦ into s′, m²/s.
+    pub transmissivity: f64,
+}
+
+impl std::fmt::Debug for NearTerm {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "NearTerm {{ transmissivity: {} }}", self.transmissivity)
+    }
+}
+
 /// Aquifer, well radius and the sources (real wells and images) with their schedules.
 #[derive(Debug, Clone)]
 pub struct TransientModel {
     aquifer: TransientAquifer,
     well_radius: f64,
     sources: Vec<TransientSource>,
+    /// The sources of each well (the real well first, then its images), when grouped.
+    groups: Vec<std::ops::Range<usize>>,
+    /// The partial-penetration term, when some well is partly penetrating.
+    near: Option<NearTerm>,
 }
 
 impl TransientModel {
@@ -352,7 +383,52 @@ impl TransientModel {
             aquifer,
             well_radius,
             sources,
+            groups: Vec::new(),
+            near: None,
         })
+    }
+
+    /// The same model with its sources grouped by well (`groups[j]`: the sources of well j, the
+    /// real well first) and the partial-penetration term `near` (per-well rows).
+    pub fn with_wells(
+        mut self,
+        groups: Vec<std::ops::Range<usize>>,
+        near: Option<NearTerm>,
+    ) -> Self {
+        self.groups = groups;
+        self.near = near;
+        self
+    }
+
+    /// The rate of well j at time t, m³/s (0 when the model is not grouped by well).
+    pub fn well_rate(&self, j: usize, t: f64) -> f64 {
+        self.groups
+            .get(j)
+            .and_then(|g| self.sources.get(g.start))
+            .map_or(0.0, |s| s.schedule.rate_at(t))
+    }
+
+    /// Number of wells (groups of sources).
+    pub fn well_count(&self) -> usize {
+        self.groups.len()
+    }
+
+    /// Linear drawdown s′ (m) at `point` and time t from well j alone (its own sources and its
+    /// partial-penetration term): what its own rate does, for a loss given by an efficiency.
+    pub fn own_linear_drawdown(&self, j: usize, point: [f64; 2], t: f64) -> f64 {
+        let Some(g) = self.groups.get(j) else {
+            return 0.0;
+        };
+        let mut total = self.sources_drawdown(&self.sources[g.clone()], point, t);
+        if let Some(n) = &self.near {
+            let row = (n.rows)(point);
+            total -= self.well_rate(j, t) * row.get(j).copied().unwrap_or(0.0) / n.transmissivity;
+        }
+        if total.is_finite() {
+            total
+        } else {
+            0.0
+        }
     }
 
     /// The aquifer.
@@ -365,15 +441,37 @@ impl TransientModel {
         &self.sources
     }
 
-    /// Superposed linear drawdown s′ = Σ_sources Σ_k sign·ΔQ_k/(4πT)·W(u(t − t_k)), m.
-    fn linear_drawdown(&self, point: [f64; 2], t: f64) -> f64 {
+    /// Superposed linear drawdown s′ = Σ_sources Σ_k sign·ΔQ_k/(4πT)·W(u(t − t_k)), m, plus the
+    /// quasi-steady partial-penetration term −Σ_j q_j(t)·ΔΦ_j/T when there is one.
+    pub fn linear_drawdown(&self, point: [f64; 2], t: f64) -> f64 {
+        let mut total = self.sources_drawdown(&self.sources, point, t);
+        if let Some(n) = &self.near {
+            if t.is_finite() {
+                let row = (n.rows)(point);
+                let d: f64 = row
+                    .iter()
+                    .enumerate()
+                    .map(|(j, v)| self.well_rate(j, t) * v)
+                    .sum();
+                total -= d / n.transmissivity;
+            }
+        }
+        if total.is_finite() {
+            total
+        } else {
+            0.0
+        }
+    }
+
+    /// Σ over `sources` of sign·ΔQ_k/(4πT)·W(u(t − t_k)), m.
+    fn sources_drawdown(&self, sources: &[TransientSource], point: [f64; 2], t: f64) -> f64 {
         if !(t.is_finite() && point[0].is_finite() && point[1].is_finite()) {
             return 0.0;
         }
         let (tr, s, inv_b) = self.aquifer.diffusion();
         let rw2 = self.well_radius * self.well_radius;
         let mut total = 0.0;
-        for src in &self.sources {
+        for src in sources {
             let r2 = ((point[0] - src.x).powi(2) + (point[1] - src.y).powi(2)).max(rw2);
             for &(tk, dq) in &src.schedule.changes {
                 let dt = t - tk;

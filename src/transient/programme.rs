@@ -8,22 +8,29 @@
 //! - the aquifer is the design file's, linearised as in [`crate::transient`]: confined and leaky
 //!   with T = K·b and S, unconfined with T = K·H, S_y and Jacob's correction; a confined aquifer
 //!   drawn below its top is treated as still confined (the steady check converts it);
-//! - partial penetration: the wells are taken as fully penetrating here. The steady check's
-//!   correction for a partly penetrating screen is a local extra drawdown within about 1.5·b of
-//!   the well (Kruseman & de Ridder 1994, §10) that settles within hours; the water levels in
-//!   the wells in the hydrographs are therefore those of a fully penetrating well and may sit
-//!   higher than the steady check's; the check points between wells are not affected;
+//! - partial penetration: the steady check's term for a partly penetrating screen (the same
+//!   kernel, [`crate::field::near_field`]) is added in time as quasi-steady, with each well's
+//!   rate at that time (see [`crate::transient::NearTerm`]): a local extra drawdown within about
+//!   1.5·D of the well (Kruseman & de Ridder 1994, §10) that settles within minutes to hours;
+//! - well losses (Jacob's C·Q² or an efficiency) lower the level inside a pumped well only:
+//!   [`crate::transient::well_levels`];
 //! - images: each well's images as in the steady field ([`crate::physics::images::image_set`]),
-//!   out to three Cooper–Jacob radii at the end of the programme.
+//!   out to the distance where an image's share falls below a stated tolerance at the last time
+//!   followed ([`image_reach`]).
 
+use crate::check::field_build::field_with_radius;
 use crate::field::layout;
+use crate::field::radius::design_radius;
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
 use crate::input::error::InputError;
 use crate::input::model::{Model, Programme, StageRate};
-use crate::physics::images::{image_set, image_sign};
+use crate::physics::images::{image_set_up_to, image_sign};
 use crate::physics::potential::AquiferKind;
-use crate::transient::{RateSchedule, TransientAquifer, TransientModel, TransientSource};
+use crate::transient::{NearTerm, RateSchedule, TransientAquifer, TransientModel, TransientSource};
+use std::collections::HashMap;
+use std::path::Path;
+use std::sync::{Arc, RwLock};
 
 /// Seconds in a day.
 pub const DAY: f64 = 86_400.0;
@@ -43,6 +50,12 @@ pub struct ProgrammeSetup {
     pub well_radius: f64,
     /// The model with every well and image on its schedule.
     pub model: TransientModel,
+    /// The partial-penetration term (when a screen does not span the layer).
+    pub near: Option<NearTerm>,
+    /// Wells whose image series was cut at [`MAX_IMAGES_IN_TIME`] before the tolerance was met.
+    pub images_capped: usize,
+    /// How far the images are kept, m.
+    pub image_reach: f64,
 }
 
 fn err(model: &Model, field: &str, message: String) -> InputError {
@@ -153,10 +166,19 @@ pub fn switched_off(schedule: &RateSchedule, t_off: f64) -> RateSchedule {
     RateSchedule::new(steps).unwrap_or_else(|_| schedule.clone())
 }
 
+/// Longest time followed after a failure, s (365 days).
+pub const FLOOD_SEARCH: f64 = 365.0 * DAY;
+
 /// The programme set up on the design file's layout: wells, schedules, images, model.
 /// Errors: no `[programme]`, no wells, a well rate missing ("as designed" with rate 0),
 /// the aquifer's storage, unknown well names.
 pub fn setup(model: &Model) -> Result<ProgrammeSetup, InputError> {
+    setup_from(model, None)
+}
+
+/// As [`setup`], with the wells of a CSV file (`--wells`, as `check` reads it) in place of the
+/// layout's when `wells_csv` is given.
+pub fn setup_from(model: &Model, wells_csv: Option<&Path>) -> Result<ProgrammeSetup, InputError> {
     let prog = model.programme.as_ref().ok_or_else(|| {
         err(
             model,
@@ -164,33 +186,43 @@ pub fn setup(model: &Model) -> Result<ProgrammeSetup, InputError> {
             "the design file has no [programme]: add duration and [[programme.stage]] entries (see `drydig new FILE`)".into(),
         )
     })?;
-    let wells = layout::from_model(model, None)?.wells;
+    let wells = layout::from_model(model, wells_csv)?.wells;
+    let field = if wells_csv.is_some() {
+        "--wells"
+    } else {
+        "layout"
+    };
     if wells.is_empty() {
-        return Err(err(model, "layout", "the layout places no wells".into()));
+        return Err(err(model, field, "the layout places no wells".into()));
     }
+    let named: Vec<(&str, [f64; 2], f64)> = wells
+        .iter()
+        .map(|w| (w.name.as_str(), w.position, w.radius))
+        .collect();
+    crate::input::validate::sides::check_wells(model, &named, field)?;
     let as_designed = prog.stages.iter().any(|s| s.rate == StageRate::AsDesigned);
     if as_designed && wells.iter().all(|w| w.rate == 0.0) {
         return Err(err(
             model,
-            "layout.rate",
-            "a stage runs the wells \"as designed\" but the layout gives no rate: set layout.rate (e.g. \"4 L/s\") or a rate in each stage".into(),
+            if wells_csv.is_some() { "--wells" } else { "layout.rate" },
+            "a stage runs the wells \"as designed\" but the wells have no rate: set layout.rate (e.g. \"4 L/s\"), a rate in each stage, or rates in the wells CSV".into(),
         ));
     }
     let aquifer = transient_aquifer(model)?;
     let schedules = schedules(model, prog, &wells)?;
-    setup_with(model, &aquifer, wells, schedules, prog.duration)
+    let last = prog.duration + prog.recovery.max(FLOOD_SEARCH);
+    setup_with(model, &aquifer, wells, schedules, last)
 }
 
-/// Images of every well and the model, for given wells and schedules; `t_end` (s) sets the
-/// reach of the image series (three Cooper–Jacob radii √(2.25·T·t/S) at t_end).
-pub fn setup_with(
-    model: &Model,
-    aquifer: &TransientAquifer,
-    wells: Vec<Well>,
-    schedules: Vec<RateSchedule>,
-    t_end: f64,
-) -> Result<ProgrammeSetup, InputError> {
-    let (t, s) = match *aquifer {
+/// Every image farther than the reach has u = r²S/(4T·t) above this at the last time followed.
+pub const IMAGE_U_MIN: f64 = 40.0;
+/// Most images kept per well in time (a strip between two parallel boundaries gives an endless
+/// series); a well whose series is cut here is counted in [`ProgrammeSetup::images_capped`].
+pub const MAX_IMAGES_IN_TIME: usize = 20_000;
+
+/// (T m²/s, storage coefficient) of a transient aquifer (T = K·H when unconfined).
+pub fn diffusion_parameters(aquifer: &TransientAquifer) -> (f64, f64) {
+    match *aquifer {
         TransientAquifer::Confined {
             transmissivity,
             storativity,
@@ -205,27 +237,106 @@ pub fn setup_with(
             saturated_thickness,
             specific_yield,
         } => (conductivity * saturated_thickness, specific_yield),
+    }
+}
+
+/// How far images are kept, m: ρ = √(4·T·t_end·u_min/S) with u_min = [`IMAGE_U_MIN`] = 40.
+///
+/// Tolerance, stated: an image beyond ρ has u > 40 at every time up to `t_end`, so its term is
+/// |ΔQ|/(4πT)·W(u) with W(u) < e^(−u)/u < 1.1e−19 (Abramowitz & Stegun 1964, 5.1.20; W(u, r/B) ≤
+/// W(u) when leaky); even [`MAX_IMAGES_IN_TIME`] such images together stay below
+/// 3e−15·|ΔQ|/(4πT), i.e. far below a micrometre for any rate a site pumps. The series between
+/// two parallel boundaries is summed this far, not to a fixed number of images.
+pub fn image_reach(aquifer: &TransientAquifer, t_end: f64) -> f64 {
+    let (t, s) = diffusion_parameters(aquifer);
+    (4.0 * t * t_end.max(DAY) * IMAGE_U_MIN / s).sqrt()
+}
+
+/// The images of a well at `position` for the straight boundaries `lines`, out to `reach` (m);
+/// the flag is true when the series was cut at [`MAX_IMAGES_IN_TIME`].
+pub fn well_images(
+    position: [f64; 2],
+    lines: &[([f64; 2], [f64; 2], crate::physics::images::BoundaryKind)],
+    reach: f64,
+) -> (Vec<([f64; 2], f64)>, bool) {
+    image_set_up_to(position, lines, reach, MAX_IMAGES_IN_TIME).unwrap_or_else(|_| {
+        (
+            lines
+                .iter()
+                .map(|(a, c, k)| (mirror_point(position, *a, *c), image_sign(*k)))
+                .collect(),
+            false,
+        )
+    })
+}
+
+/// The partial-penetration term of the steady field for `wells` (`None` when every screen spans
+/// the layer): the steady kernel with partial penetration less the same kernel fully
+/// penetrating, per unit rate of each well, cached by position.
+pub fn near_term(model: &Model, wells: &[Well]) -> Option<NearTerm> {
+    let r = design_radius(model).0;
+    let with = field_with_radius(model, wells, r);
+    if !with.has_partial_penetration() {
+        return None;
+    }
+    let without = field_with_radius(model, wells, r).fully_penetrating();
+    let cache: RwLock<HashMap<(u64, u64), Arc<Vec<f64>>>> = RwLock::new(HashMap::new());
+    let rows = move |p: [f64; 2]| -> Vec<f64> {
+        let key = (p[0].to_bits(), p[1].to_bits());
+        if let Some(v) = cache.read().ok().and_then(|c| c.get(&key).cloned()) {
+            return v.as_ref().clone();
+        }
+        let a = with.unit_row(p);
+        let b = without.unit_row(p);
+        let v: Vec<f64> = a.iter().zip(&b).map(|(x, y)| x - y).collect();
+        if let Ok(mut c) = cache.write() {
+            if c.len() < 1_000_000 {
+                c.insert(key, Arc::new(v.clone()));
+            }
+        }
+        v
     };
-    let reach = 3.0 * (2.25 * t * t_end.max(DAY) / s).sqrt();
+    Some(NearTerm {
+        rows: Arc::new(rows),
+        transmissivity: model.aquifer.transmissivity(),
+    })
+}
+
+/// Images of every well and the model, for given wells and schedules; `t_end` (s) is the last
+/// time followed and sets the reach of the image series ([`image_reach`]).
+pub fn setup_with(
+    model: &Model,
+    aquifer: &TransientAquifer,
+    wells: Vec<Well>,
+    schedules: Vec<RateSchedule>,
+    t_end: f64,
+) -> Result<ProgrammeSetup, InputError> {
+    let reach = image_reach(aquifer, t_end);
     let lines: Vec<_> = model
         .boundaries
         .iter()
         .map(|b| (b.line[0], b.line[1], b.kind))
         .collect();
+    let mut images_capped = 0;
     let images: Vec<Vec<([f64; 2], f64)>> = wells
         .iter()
         .map(|w| {
-            image_set(w.position, &lines, reach).unwrap_or_else(|_| {
-                lines
-                    .iter()
-                    .map(|(a, c, k)| (mirror_point(w.position, *a, *c), image_sign(*k)))
-                    .collect()
-            })
+            let (v, capped) = well_images(w.position, &lines, reach);
+            images_capped += usize::from(capped);
+            v
         })
         .collect();
     let well_radius = model.wells.radius;
-    let model_t = build_model(aquifer, well_radius, &wells, &schedules, &images)
-        .map_err(|m| err(model, "programme", m))?;
+    let near = near_term(model, &wells);
+    let model_t = build_model(
+        aquifer,
+        well_radius,
+        &wells,
+        &schedules,
+        &images,
+        near.clone(),
+    )
+    .map_err(|m| err(model, "programme", m))?;
     Ok(ProgrammeSetup {
         wells,
         schedules,
@@ -233,19 +344,26 @@ pub fn setup_with(
         aquifer: *aquifer,
         well_radius,
         model: model_t,
+        near,
+        images_capped,
+        image_reach: reach,
     })
 }
 
-/// A transient model of the wells with the given schedules and their images.
+/// A transient model of the wells with the given schedules and their images, grouped by well,
+/// with the partial-penetration term `near`.
 pub fn build_model(
     aquifer: &TransientAquifer,
     well_radius: f64,
     wells: &[Well],
     schedules: &[RateSchedule],
     images: &[Vec<([f64; 2], f64)>],
+    near: Option<NearTerm>,
 ) -> Result<TransientModel, String> {
     let mut sources = Vec::new();
+    let mut groups = Vec::new();
     for ((w, sch), imgs) in wells.iter().zip(schedules).zip(images) {
+        let first = sources.len();
         sources.push(TransientSource {
             x: w.position[0],
             y: w.position[1],
@@ -260,8 +378,9 @@ pub fn build_model(
                 sign: *sign,
             });
         }
+        groups.push(first..sources.len());
     }
-    TransientModel::new(*aquifer, well_radius, sources)
+    Ok(TransientModel::new(*aquifer, well_radius, sources)?.with_wells(groups, near))
 }
 
 impl ProgrammeSetup {
@@ -273,6 +392,7 @@ impl ProgrammeSetup {
             &self.wells,
             &schedules,
             &self.images,
+            self.near.clone(),
         )
     }
 
