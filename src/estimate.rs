@@ -20,7 +20,7 @@
 //! well's capacity (Sichardt's entrance-gradient limit, or the pump, whichever is lower) that
 //! `design` lets a well use (`allowances.capacity_fraction`).
 
-use crate::field::shape::length_and_width;
+use crate::field::shape::measure;
 use crate::input::model::{Excavation, Model, ShapeChoice, WellKind};
 use crate::physics::potential::{Aquifer, AquiferKind};
 use crate::physics::{capacity, equivalent, special};
@@ -49,10 +49,13 @@ pub struct ExcavationEstimate {
     pub area_m2: f64,
     /// Perimeter of the outline.
     pub perimeter_m: f64,
-    /// Length of the smallest enclosing rectangle.
+    /// Length: along the centre line of a bent (or given) centre line, else of the smallest
+    /// enclosing rectangle.
     pub length_m: f64,
-    /// Width of the smallest enclosing rectangle.
+    /// Width: area / length along a centre line, else of the smallest enclosing rectangle.
     pub width_m: f64,
+    /// How length and width were measured, in words.
+    pub length_basis: String,
     /// Equivalent radius, area form √(A/π).
     pub equivalent_radius_m: f64,
     /// Equivalent radius, perimeter form P/(2π).
@@ -176,7 +179,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     let aq = &model.aquifer;
     let area = e.outline.unsigned_area();
     let perimeter = Euclidean.length(e.outline.exterior());
-    let (length, width) = length_and_width(e);
+    let (length, width, along_centre) = measure(e);
     let r_e = equivalent::equivalent_radius_from_area(area);
     let r_p = equivalent::equivalent_radius_from_perimeter(perimeter);
     let target = e.target_level();
@@ -370,6 +373,12 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         perimeter_m: perimeter,
         length_m: length,
         width_m: width,
+        length_basis: if along_centre {
+            "along the centre line; width = area / length"
+        } else {
+            "smallest enclosing rectangle"
+        }
+        .to_string(),
         equivalent_radius_m: r_e,
         equivalent_radius_perimeter_form_m: r_p,
         formation_level_m: e.formation_level,

@@ -80,8 +80,11 @@ const CASES: &[Case] = &[
     case("name_is_a_number.toml", Slot("name"), "expected a string", Some("name = 7")),
     // Outlines and points.
     case("outline_two_points.toml", Slot("excavation[1].outline"), "at least 3 distinct points", Some("outline = ")),
-    case("outline_self_intersecting.toml", Slot("excavation[1].outline"), "without crossing edges", Some("outline = ")),
-    case("outline_collinear.toml", Slot("excavation[1].outline"), "without crossing edges", Some("outline = ")),
+    case("outline_self_intersecting.toml", Slot("excavation[1].outline"), "crosses itself", Some("outline = ")),
+    case("outline_collinear.toml", Slot("excavation[1].outline"), "lie on one straight line", Some("outline = ")),
+    case("outline_figure_of_eight.toml", Slot("excavation[1].outline"), "crosses itself (edges 1 and 3 cross)", Some("outline = ")),
+    case("excavation_single_brackets.toml", Slot("excavation"), "write [[excavation]] (double brackets)", Some("[excavation]")),
+    case("centre_line_one_point.toml", Slot("excavation[1].centre_line"), "at least 2 points", Some("centre_line = ")),
     case("outline_nan_point.toml", Slot("excavation[1].outline"), "two finite numbers in metres", Some("outline = ")),
     case("point_with_three_numbers.toml", Slot("excavation[1].outline"), "must be [x, y]", Some("outline = ")),
     case("lonlat_coordinates.toml", Slot("excavation[1].outline"), "projected system", Some("outline = ")),

@@ -74,12 +74,88 @@ pub fn well_band(length: f64) -> f64 {
     (length / 30.0).max(3.0)
 }
 
-/// The default section line: from beyond the far side of the first excavation, through its
+/// The section across the first excavation, a trench, at its worst check point (the lowest
+/// margin, else the middle of the centre line): square to the centre line through the foot of
+/// the perpendicular from that point, reaching half the width plus the larger of the radius of
+/// influence, four times the distance to the nearest well and 10 m to each side.
+pub fn across_trench(run: &CheckRun) -> Option<([[f64; 2]; 2], String)> {
+    use crate::field::centre_line;
+    let e = &run.model.excavations[0];
+    let line = centre_line::of_excavation(e);
+    if line.len() < 2 {
+        return None;
+    }
+    let ev = &run.evaluation;
+    let worst = ev
+        .points
+        .iter()
+        .filter(|p| p.point.excavation == Some(0) && p.margin_m.is_some_and(f64::is_finite))
+        .min_by(|a, b| {
+            a.margin_m
+                .unwrap_or(0.0)
+                .total_cmp(&b.margin_m.unwrap_or(0.0))
+        });
+    let (at, what) = match worst {
+        Some(p) => (
+            p.point.position,
+            format!("at its worst check point ({})", p.point.name),
+        ),
+        None => {
+            let half = centre_line::length(&line) / 2.0;
+            let mut left = half;
+            let mut mid = line[0];
+            for w in line.windows(2) {
+                let l = (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]);
+                if left <= l && l > 0.0 {
+                    let t = left / l;
+                    mid = [
+                        w[0][0] + t * (w[1][0] - w[0][0]),
+                        w[0][1] + t * (w[1][1] - w[0][1]),
+                    ];
+                    break;
+                }
+                left -= l;
+            }
+            (mid, "at the middle of its centre line".to_string())
+        }
+    };
+    let (_, chainage, foot, dir) = centre_line::nearest(&line, at);
+    let across = [-dir[1], dir[0]];
+    let (_, width) = crate::field::shape::length_and_width(e);
+    let nearest_well = run
+        .placement
+        .wells
+        .iter()
+        .map(|w| (w.position[0] - foot[0]).hypot(w.position[1] - foot[1]))
+        .fold(f64::INFINITY, f64::min);
+    let reach = width / 2.0
+        + ev.radius_of_influence_m
+            .max(if nearest_well.is_finite() {
+                4.0 * nearest_well
+            } else {
+                0.0
+            })
+            .max(10.0);
+    Some((
+        [
+            [foot[0] - reach * across[0], foot[1] - reach * across[1]],
+            [foot[0] + reach * across[0], foot[1] + reach * across[1]],
+        ],
+        format!("across the trench {what}, {chainage:.1} m along its centre line"),
+    ))
+}
+
+/// The default section line (a trench: [`across_trench`]): from beyond the far side of the first excavation, through its
 /// centroid, to beyond `toward` (the worst neighbour's centroid); without one, along the
 /// outline's longest axis (its longest vertex-to-vertex chord). Ends reach 30 % of the
 /// excavation's length past the outline (and past the neighbour).
 pub fn default_line(run: &CheckRun, toward: Option<[f64; 2]>) -> ([[f64; 2]; 2], String) {
     let e = &run.model.excavations[0];
+    if crate::field::shape::is_trench(run.model, e) {
+        if let Some(across) = across_trench(run) {
+            return across;
+        }
+    }
     let ring: Vec<[f64; 2]> = e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect();
     let c = e.outline.centroid().map_or(ring[0], |p| [p.x(), p.y()]);
     let mut longest = (0.0, [1.0, 0.0]);

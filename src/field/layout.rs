@@ -2,13 +2,14 @@
 //! user lists (in the design file or a CSV file). Generated wells that fall in a keep-out zone
 //! are moved along their ring or line to the nearest free place, and the move is reported.
 
+use crate::field::centre_line;
 use crate::field::shape::length_and_width;
 use crate::field::wells::Well;
 use crate::field::wells_csv::read_csv;
 use crate::input::error::InputError;
 use crate::input::model::{Excavation, LayoutKind, LayoutSpec, Model, NamedPolygon, RingCount};
 use geo::algorithm::buffer::{BufferStyle, LineJoin};
-use geo::{Area, Buffer, Contains, Coord, MinimumRotatedRect, Point, Polygon};
+use geo::{Area, Buffer, Contains, Point, Polygon};
 use std::path::Path;
 
 /// Turn angle (degrees) above which a ring vertex counts as a corner for corner wells.
@@ -75,20 +76,6 @@ impl Path2 {
         };
         let (a, b) = (self.points[i], self.points[i + 1]);
         [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]
-    }
-
-    /// Unit normal to the left of the direction of travel at arc length `s`.
-    fn left_normal(&self, s: f64) -> [f64; 2] {
-        let s = s.clamp(0.0, self.length());
-        let i = self
-            .cumulative
-            .iter()
-            .position(|c| *c > s)
-            .unwrap_or(self.points.len() - 1)
-            .clamp(1, self.points.len() - 1);
-        let (a, b) = (self.points[i - 1], self.points[i]);
-        let len = (b[0] - a[0]).hypot(b[1] - a[1]).max(1e-12);
-        [-(b[1] - a[1]) / len, (b[0] - a[0]) / len]
     }
 }
 
@@ -269,7 +256,6 @@ fn place(
     path: &Path2,
     positions: &[f64],
     closed: bool,
-    side_offset: Option<f64>,
     prefix: &str,
     rate: f64,
     notes: &mut Vec<String>,
@@ -279,14 +265,7 @@ fn place(
     let mut wells = Vec::new();
     for (i, &s) in positions.iter().enumerate() {
         let name = format!("{prefix}{:02}", i + 1);
-        let at = |s: f64| match side_offset {
-            None => path.at(s),
-            Some(d) => {
-                let p = path.at(s);
-                let nrm = path.left_normal(s);
-                [p[0] + d * nrm[0], p[1] + d * nrm[1]]
-            }
-        };
+        let at = |s: f64| path.at(s);
         let p = at(s);
         let mut well = Well::from_spec(name.clone(), p, rate, &model.wells);
         if let Some((zone, _)) = zones.iter().find(|z| blocked(p, &[z.1])) {
@@ -375,7 +354,7 @@ pub fn ring_from(
             .iter_mut()
             .for_each(|s| *s = (*s + start).rem_euclid(total));
     }
-    let wells = place(model, &path, &positions, true, None, "W", rate, &mut notes);
+    let wells = place(model, &path, &positions, true, "W", rate, &mut notes);
     let mut closed = pts.clone();
     closed.push(pts[0]);
     Placement {
@@ -385,22 +364,13 @@ pub fn ring_from(
     }
 }
 
-/// The trench centre line: the user's, or the long axis of the outline's enclosing rectangle.
+/// The trench centre line: the layout's own, else the excavation's
+/// ([`centre_line::of_excavation`]: given, derived along a bend, or the long axis of the
+/// enclosing rectangle).
 pub fn centre_line(excavation: &Excavation, given: Option<&Vec<[f64; 2]>>) -> Vec<[f64; 2]> {
-    if let Some(c) = given {
-        return c.clone();
-    }
-    let Some(rect) = excavation.outline.minimum_rotated_rect() else {
-        return Vec::new();
-    };
-    let c: Vec<Coord<f64>> = rect.exterior().0.clone();
-    let mid = |a: Coord<f64>, b: Coord<f64>| [(a.x + b.x) / 2.0, (a.y + b.y) / 2.0];
-    let d01 = (c[1].x - c[0].x).hypot(c[1].y - c[0].y);
-    let d12 = (c[2].x - c[1].x).hypot(c[2].y - c[1].y);
-    if d01 >= d12 {
-        vec![mid(c[0], c[3]), mid(c[1], c[2])]
-    } else {
-        vec![mid(c[0], c[1]), mid(c[3], c[2])]
+    match given {
+        Some(c) => c.clone(),
+        None => centre_line::of_excavation(excavation),
     }
 }
 
@@ -478,20 +448,7 @@ pub fn line_from(
         centre[0] = first;
         centre[n - 1] = last;
     }
-    let path = Path2::new(centre.clone(), false);
-    let total = path.length();
-    let start = start.clamp(0.0, 0.49 * total);
-    let inner = total - 2.0 * start;
-    let wanted = (inner / spacing).ceil();
-    // Held to MAX_WELLS per side (`generate` refuses more before this is reached).
-    let count = if wanted.is_finite() && wanted < MAX_WELLS as f64 {
-        (wanted as usize).max(1) + 1
-    } else {
-        MAX_WELLS
-    };
-    let positions: Vec<f64> = (0..count)
-        .map(|i| start + inner * i as f64 / (count - 1) as f64)
-        .collect();
+    let total = centre_line::length(&centre);
     let mut notes = Vec::new();
     let sides: &[(f64, &str)] = if both_sides {
         &[(1.0, "L"), (-1.0, "R")]
@@ -500,32 +457,48 @@ pub fn line_from(
     };
     let mut wells = Vec::new();
     let mut paths = Vec::new();
+    let mut spacings = Vec::new();
     for (sign, tag) in sides {
+        // Each line is the centre line offset to its side (mitred at bends), and its wellpoints
+        // are spaced along its own length: the outside of a bend is longer than the inside.
+        let line_points = centre_line::offset(&centre, sign * side);
+        let path = Path2::new(line_points.clone(), false);
+        let length = path.length();
+        let start = start.clamp(0.0, 0.49 * length);
+        let inner = length - 2.0 * start;
+        let wanted = (inner / spacing).ceil();
+        // Held to MAX_WELLS per side (`generate` refuses more before this is reached).
+        let count = if wanted.is_finite() && wanted < MAX_WELLS as f64 {
+            (wanted as usize).max(1) + 1
+        } else {
+            MAX_WELLS
+        };
+        let positions: Vec<f64> = (0..count)
+            .map(|i| start + inner * i as f64 / (count - 1) as f64)
+            .collect();
+        spacings.push(inner / (count - 1) as f64);
         wells.extend(place(
             model,
             &path,
             &positions,
             false,
-            Some(sign * side),
             &format!("{tag}-"),
             rate,
             &mut notes,
         ));
-        paths.push(
-            (0..=40)
-                .map(|i| {
-                    let s = total * i as f64 / 40.0;
-                    let p = path.at(s);
-                    let nrm = path.left_normal(s);
-                    [p[0] + sign * side * nrm[0], p[1] + sign * side * nrm[1]]
-                })
-                .collect(),
-        );
+        paths.push(line_points);
     }
+    let (lo, hi) = spacings
+        .iter()
+        .fold((f64::INFINITY, 0.0f64), |(a, b), s| (a.min(*s), b.max(*s)));
     notes.push(format!(
-        "{} wellpoints at {:.2} m spacing along {:.0} m{}",
+        "{} wellpoints at {} m spacing along {:.0} m{}",
         wells.len(),
-        inner / (count - 1) as f64,
+        if hi - lo < 0.005 {
+            format!("{lo:.2}")
+        } else {
+            format!("{lo:.2}–{hi:.2}")
+        },
         total,
         if both_sides {
             " on both sides"
@@ -566,16 +539,17 @@ pub fn estimated_count(model: &Model, spec: &LayoutSpec) -> f64 {
             centre_line,
             end_extension,
         } => {
+            // The line outside a bend is longer than the centre line by 2·d·tan(θ/2) per bend
+            // of turn θ: the bounding box's diagonal bounds both for the count check.
             let length = match centre_line {
-                Some(c) => c
-                    .windows(2)
-                    .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
-                    .sum::<f64>(),
-                None => exc
-                    .outline
+                Some(c) => centre_line::length(c),
+                None => centre_line::length(&centre_line::of_excavation(exc)),
+            }
+            .max(
+                exc.outline
                     .bounding_rect()
                     .map_or(0.0, |b| b.width().hypot(b.height())),
-            };
+            );
             let ext = end_extension.unwrap_or(length_and_width(exc).1 / 2.0 + spec.offset);
             let sides = if *both_sides { 2.0 } else { 1.0 };
             sides * ((length + 2.0 * ext) / spacing + 1.0)

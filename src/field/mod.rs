@@ -6,6 +6,7 @@
 //! `checkpoints` (grid, corners, edges, named points) → `influence` (the superposition kernel)
 //! (with `near_field`, partial penetration near the wells) → `grid` (the regular grid of levels behind the maps).
 
+pub mod centre_line;
 pub mod checkpoints;
 pub mod fast_log;
 pub mod grid;

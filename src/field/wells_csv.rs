@@ -12,7 +12,10 @@ use std::path::Path;
 /// Largest wells CSV read, bytes.
 pub const MAX_CSV_BYTES: u64 = crate::input::read::MAX_WELLS_CSV_BYTES;
 
-/// Wells from a CSV file with columns `name,x,y,rate_l_per_s` and optional `radius_m`.
+/// Wells from a CSV file with columns `name,x_m,y_m,rate_l_per_s` (`x`, `y` also read) and
+/// optional `radius_m`; columns separated by commas, or by semicolons with decimal points or
+/// decimal commas (a European spreadsheet's CSV). A comma-separated file whose numbers have
+/// decimal commas is refused with that hint.
 pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
     let err = |line: Option<usize>, field: &str, message: String| InputError {
         file: path.to_path_buf(),
@@ -21,9 +24,12 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         message,
     };
     let bytes = crate::input::read::read_capped(path, MAX_CSV_BYTES, "wells CSV")?;
+    // A European spreadsheet writes `;` between columns (and may use a decimal comma).
+    let semicolons = header_uses_semicolons(&bytes);
     let mut reader = csv::ReaderBuilder::new()
         .trim(csv::Trim::All)
         .comment(Some(b'#'))
+        .delimiter(if semicolons { b';' } else { b',' })
         .from_reader(bytes.as_slice());
     // Line of the last byte the reader has taken, i.e. the line the row just read ends on.
     // (A record's own position points at any comment or blank lines skipped before it.)
@@ -36,14 +42,18 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         .map_err(|e| err(Some(1), "", format!("cannot read the header row: {e}")))?
         .clone();
     let col = |name: &str| headers.iter().position(|h| h.eq_ignore_ascii_case(name));
-    let (Some(ci_name), Some(ci_x), Some(ci_y), Some(ci_rate)) =
-        (col("name"), col("x"), col("y"), col("rate_l_per_s"))
-    else {
+    let either = |a: &str, b: &str| col(a).or_else(|| col(b));
+    let (Some(ci_name), Some(ci_x), Some(ci_y), Some(ci_rate)) = (
+        col("name"),
+        either("x_m", "x"),
+        either("y_m", "y"),
+        col("rate_l_per_s"),
+    ) else {
         return Err(err(
             Some(line_now(&reader)),
             "header",
             format!(
-                "the header must have name, x, y, rate_l_per_s (optional radius_m); found: {}",
+                "the header must have name, x_m (or x), y_m (or y), rate_l_per_s (optional radius_m), separated by commas (or all by semicolons); found: {}",
                 headers.iter().collect::<Vec<_>>().join(", ")
             ),
         ));
@@ -56,15 +66,34 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         match reader.read_record(&mut rec) {
             Ok(true) => {}
             Ok(false) => break,
-            Err(e) => return Err(err(Some(line_now(&reader)), "", format!("bad row: {e}"))),
+            Err(e) => {
+                let hint = if !semicolons
+                    && matches!(e.kind(), csv::ErrorKind::UnequalLengths { .. })
+                {
+                    "; a decimal comma (2,5) splits a number into two columns: write numbers with a decimal point, or separate the columns with semicolons (;) as European spreadsheets do"
+                } else {
+                    ""
+                };
+                return Err(err(
+                    Some(line_now(&reader)),
+                    "",
+                    format!("bad row: {e}{hint}"),
+                ));
+            }
         }
         let line = line_now(&reader);
         let num = |ci: usize, field: &str| -> Result<f64, InputError> {
             let t = rec.get(ci).unwrap_or("");
-            t.parse::<f64>()
-                .ok()
+            number(t, semicolons)
                 .filter(|v| v.is_finite())
-                .ok_or_else(|| err(Some(line), field, format!("\"{t}\" is not a finite number")))
+                .ok_or_else(|| {
+                    let hint = if t.contains(',') {
+                        " (a decimal comma is read only in a file whose columns are separated by semicolons)"
+                    } else {
+                        ""
+                    };
+                    err(Some(line), field, format!("\"{t}\" is not a finite number{hint}"))
+                })
         };
         if wells.len() >= MAX_WELLS {
             return Err(err(
@@ -125,6 +154,28 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
     Ok(wells)
 }
 
+/// Whether the header row (the first line that is not blank or a `#` comment) separates its
+/// columns by semicolons rather than commas.
+fn header_uses_semicolons(bytes: &[u8]) -> bool {
+    let text = String::from_utf8_lossy(&bytes[..bytes.len().min(4096)]);
+    text.lines()
+        .map(str::trim)
+        .find(|l| !l.is_empty() && !l.starts_with('#'))
+        .is_some_and(|h| h.matches(';').count() > h.matches(',').count())
+}
+
+/// A number cell: with a decimal point, or in a semicolon-separated file also with a decimal
+/// comma (`2,5`, as European spreadsheets write it; a comma is then never a thousands mark).
+fn number(cell: &str, semicolons: bool) -> Option<f64> {
+    match cell.parse::<f64>() {
+        Ok(v) => Some(v),
+        Err(_) if semicolons && cell.matches(',').count() == 1 && !cell.contains('.') => {
+            cell.replace(',', ".").parse().ok()
+        }
+        Err(_) => None,
+    }
+}
+
 /// A name cell as written by drydig's own tables: a leading apostrophe before `=`, `+`, `-`, `@`
 /// or `#` (put there so that spreadsheets do not read the cell as a formula and CSV readers not as
 /// a comment) is removed again. OWASP, "CSV Injection" (prefixing such cells with `'`).
@@ -142,5 +193,23 @@ pub fn csv_text(text: &str) -> String {
         format!("'{text}")
     } else {
         text.to_string()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // A spreadsheet set to a European locale saves "2,5" for 2.5 and separates columns by ";".
+    // common practice (no source).
+    #[test]
+    fn decimal_commas_are_read_only_between_semicolons() {
+        assert_eq!(number("2,5", true), Some(2.5));
+        assert_eq!(number("-12,25", true), Some(-12.25));
+        assert_eq!(number("2.5", true), Some(2.5));
+        assert_eq!(number("2,5", false), None);
+        assert_eq!(number("1,000.5", true), None);
+        assert!(header_uses_semicolons(b"# wells\nname;x;y;rate_l_per_s\n"));
+        assert!(!header_uses_semicolons(b"name,x,y,rate_l_per_s\n"));
     }
 }

@@ -169,6 +169,8 @@ pub struct Excavation {
     pub shape: ShapeChoice,
     /// Dewater to a level, relieve only, or both.
     pub control: Control,
+    /// Centre line of a trench given in the design file, m (`None`: derived from the outline).
+    pub centre_line: Option<Vec<[f64; 2]>>,
 }
 
 impl Excavation {

@@ -164,6 +164,10 @@ pub struct Excavation {
     /// "dewater" (to the target level), "relieve" (the uplift head only) or "both" (default).
     #[serde(default)]
     pub control: Option<String>,
+    /// Trench centre line `[[x, y], …]`, any number of vertices (default: derived from the
+    /// outline).
+    #[serde(default)]
+    pub centre_line: Option<toml::Spanned<Vec<Vec<f64>>>>,
 }
 
 /// `[influence]`

@@ -312,7 +312,12 @@ pub fn bid_csv(lines: &[BidLine], prices: Option<&[Price]>) -> anyhow::Result<Ve
         w.write_record(["item", "quantity", "unit", "basis"])?;
     }
     for l in lines {
-        let q = format!("{:.2}", l.quantity);
+        // Counts are whole numbers; other quantities to two decimals.
+        let q = if l.unit == "no." {
+            format!("{:.0}", l.quantity)
+        } else {
+            format!("{:.2}", l.quantity)
+        };
         match &priced {
             Some((c, _, _)) => {
                 let hit = c.iter().find(|c| c.0 == l.item);

@@ -47,8 +47,13 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
     );
     row(
         out,
-        "length × width (enclosing)",
-        format!("{} × {}", len(e.length_m, units), len(e.width_m, units)),
+        "length × width",
+        format!(
+            "{} × {}  ({})",
+            len(e.length_m, units),
+            len(e.width_m, units),
+            e.length_basis
+        ),
     );
     row(
         out,

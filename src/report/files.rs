@@ -29,15 +29,14 @@ pub const MANIFEST: &str = "drydig-run.json";
 const STAGE: &str = ".drydig-stage-";
 const OLD: &str = ".drydig-old-";
 
-/// FNV-1a 64-bit hash of `bytes`, as 16 hex digits (Fowler–Noll–Vo; offset basis
-/// 0xcbf29ce484222325, prime 0x100000001b3).
-pub fn fnv1a(bytes: &[u8]) -> String {
-    let mut h: u64 = 0xcbf2_9ce4_8422_2325;
-    for b in bytes {
-        h ^= u64::from(*b);
-        h = h.wrapping_mul(0x0100_0000_01b3);
-    }
-    format!("{h:016x}")
+/// SHA-256 of `bytes` (FIPS 180-4), as 64 lower-case hex digits: what `sha256sum FILE` prints,
+/// so anyone can check a file against the manifest.
+pub fn sha256(bytes: &[u8]) -> String {
+    use sha2::{Digest, Sha256};
+    Sha256::digest(bytes)
+        .iter()
+        .map(|b| format!("{b:02x}"))
+        .collect()
 }
 
 /// Whether `text` holds a non-finite number as Rust, JSON or JavaScript would print it: `NaN`,
@@ -304,13 +303,13 @@ fn manifest(files: &[(String, Vec<u8>)], inputs: &[PathBuf]) -> Vec<u8> {
     let inputs: Vec<serde_json::Value> = inputs
         .iter()
         .map(|p| {
-            let hash = std::fs::read(p).map(|b| fnv1a(&b)).unwrap_or_default();
-            serde_json::json!({"path": p.display().to_string(), "fnv1a64": hash})
+            let hash = std::fs::read(p).map(|b| sha256(&b)).unwrap_or_default();
+            serde_json::json!({"path": p.display().to_string(), "sha256": hash})
         })
         .collect();
     let files: Vec<serde_json::Value> = files
         .iter()
-        .map(|(n, b)| serde_json::json!({"name": n, "bytes": b.len(), "fnv1a64": fnv1a(b)}))
+        .map(|(n, b)| serde_json::json!({"name": n, "bytes": b.len(), "sha256": sha256(b)}))
         .collect();
     let v = serde_json::json!({
         "tool": "drydig",
@@ -329,12 +328,18 @@ fn manifest(files: &[(String, Vec<u8>)], inputs: &[PathBuf]) -> Vec<u8> {
 mod tests {
     use super::*;
 
-    // FNV-1a 64 test vectors: Fowler, Noll & Vo, "FNV hash" reference page (isthe.com/chongo/
-    // tech/comp/fnv), test suite: "" → cbf29ce484222325, "a" → af63dc4c8601ec8c.
+    // SHA-256 test vectors: NIST FIPS 180-2, Appendix B.1 ("abc") and the empty message
+    // (NIST CSRC example values, SHA256.pdf).
     #[test]
-    fn fnv1a_matches_the_published_vectors() {
-        assert_eq!(fnv1a(b""), "cbf29ce484222325");
-        assert_eq!(fnv1a(b"a"), "af63dc4c8601ec8c");
+    fn sha256_matches_the_published_vectors() {
+        assert_eq!(
+            sha256(b"abc"),
+            "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+        );
+        assert_eq!(
+            sha256(b""),
+            "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855"
+        );
     }
 
     // Rust prints f64::NAN as "NaN" and f64::INFINITY as "inf" (std docs, `impl Display for

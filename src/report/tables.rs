@@ -1,17 +1,48 @@
 //! CSV tables and the JSON summary of an evaluated layout.
+//!
+//! The CSV files are for spreadsheets: every number at a stated precision (levels to 1 mm in
+//! wells.csv and 0.1 mm in checkpoints.csv, positions and rates that `check --wells` reads back
+//! to 1e-9 m and 1e-9 L/s with trailing zeros dropped), never "dry" or another word in a numeric
+//! column (an empty cell and a status column instead), headers in ASCII with the unit after the
+//! quantity (`x_m`, `rate_l_per_s`, `rate_m3_per_day`).
 
 use crate::check::run::CheckRun;
 use crate::input::model::Model;
 use crate::physics::images::BoundaryKind;
 use serde_json::{json, Value};
 
+/// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
+pub fn fixed(v: f64, decimals: usize) -> String {
+    let t = format!("{v:.decimals$}");
+    match t.strip_prefix('-') {
+        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
+        _ => t,
+    }
+}
+
+/// `v` to nine decimal places with trailing zeros (and a bare point) dropped: enough to read
+/// back to the same run, free of binary noise such as -2.9999999999999964 (read as -3).
+pub fn fine(v: f64) -> String {
+    let t = fixed(v, 9);
+    if t.contains('.') {
+        t.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        t
+    }
+}
+
+/// "wet" or "dry", the state of a level whose column is left empty when dry.
+fn level_state(level: Option<f64>) -> String {
+    if level.is_some() { "wet" } else { "dry" }.to_string()
+}
+
 /// `wells.csv`: one row per well, SI units in the headers.
 pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
     let mut w = csv::Writer::from_writer(Vec::new());
     w.write_record([
         "name",
-        "x",
-        "y",
+        "x_m",
+        "y_m",
         "rate_l_per_s",
         "rate_m3_per_day",
         "radius_m",
@@ -26,33 +57,34 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
         "note",
         "aquifer_level_m",
         "well_loss_m",
+        "level_status",
     ])?;
     for (well, r) in run.placement.wells.iter().zip(&run.evaluation.wells) {
         w.write_record([
-            // Name, position, rate and radius in full (shortest round-trip) precision, so that
-            // `check --wells wells.csv` reproduces the run.
+            // Position, rate and radius to 1e-9 (m, L/s), so that `check --wells wells.csv`
+            // reproduces the run.
             crate::field::wells_csv::csv_text(&well.name),
-            format!("{}", well.position[0]),
-            format!("{}", well.position[1]),
-            format!("{}", well.rate * 1e3),
-            format!("{:.2}", well.rate * 86_400.0),
-            format!("{}", well.radius),
-            format!("{:.2}", well.screen_top),
-            format!("{:.2}", well.screen_base),
-            format!("{:.2}", well.pump_intake),
-            r.level_m.map_or("dry".into(), |z| format!("{z:.3}")),
-            format!("{:.3}", r.drawdown_m),
-            format!("{:.2}", r.lowest_allowed_level_m),
-            format!("{:.3}", r.capacity_m3_per_s * 1e3),
+            fine(well.position[0]),
+            fine(well.position[1]),
+            fine(well.rate * 1e3),
+            fixed(well.rate * 86_400.0, 2),
+            fine(well.radius),
+            fixed(well.screen_top, 2),
+            fixed(well.screen_base, 2),
+            fixed(well.pump_intake, 2),
+            r.level_m.map_or(String::new(), |z| fixed(z, 3)),
+            fixed(r.drawdown_m, 3),
+            fixed(r.lowest_allowed_level_m, 2),
+            fixed(r.capacity_m3_per_s * 1e3, 3),
             if r.problems.is_empty() {
                 "ok".into()
             } else {
                 r.problems.join("; ")
             },
             well.note.clone().unwrap_or_default(),
-            r.aquifer_level_m
-                .map_or("dry".into(), |z| format!("{z:.3}")),
-            format!("{:.3}", r.well_loss_m),
+            r.aquifer_level_m.map_or(String::new(), |z| fixed(z, 3)),
+            fixed(r.well_loss_m, 3),
+            level_state(r.level_m),
         ])?;
     }
     Ok(w.into_inner()?)
@@ -64,32 +96,32 @@ pub fn checkpoints_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
     w.write_record([
         "name",
         "kind",
-        "x",
-        "y",
+        "x_m",
+        "y_m",
         "target_level_m",
         "water_level_m",
         "drawdown_m",
         "margin_below_target_m",
         "status",
+        "level_status",
     ])?;
     for p in &run.evaluation.points {
         w.write_record([
             crate::field::wells_csv::csv_text(&p.point.name),
             format!("{:?}", p.point.kind).to_lowercase(),
-            format!("{:.3}", p.point.position[0]),
-            format!("{:.3}", p.point.position[1]),
-            p.point
-                .target_level
-                .map_or(String::new(), |t| format!("{t:.3}")),
-            p.level_m.map_or("dry".into(), |z| format!("{z:.4}")),
-            format!("{:.4}", p.drawdown_m),
-            p.margin_m.map_or(String::new(), |m| format!("{m:.4}")),
+            fixed(p.point.position[0], 3),
+            fixed(p.point.position[1], 3),
+            p.point.target_level.map_or(String::new(), |t| fixed(t, 3)),
+            p.level_m.map_or(String::new(), |z| fixed(z, 4)),
+            fixed(p.drawdown_m, 4),
+            p.margin_m.map_or(String::new(), |m| fixed(m, 4)),
             match p.met {
                 Some(true) => "met",
                 Some(false) => "NOT MET",
                 None => "report",
             }
             .into(),
+            level_state(p.level_m),
         ])?;
     }
     Ok(w.into_inner()?)
@@ -184,4 +216,22 @@ pub fn summary_json(
         "recharge_sizing": recharge,
         "caution": super::CAUTION,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // -2.9999999999999964 is 3 − 16 ulp, the kind of value a sum of offsets leaves; to nine
+    // decimals it is −3 (IEEE 754 round to nearest). common practice (no source).
+    #[test]
+    fn numbers_are_written_at_their_stated_precision() {
+        assert_eq!(fine(-2.999_999_999_999_996_4), "-3");
+        assert_eq!(fine(350.334_936_490_538_9), "350.334936491");
+        assert_eq!(fine(2.5), "2.5");
+        assert_eq!(fine(0.000_000_000_1), "0");
+        assert_eq!(fixed(-0.000_04, 3), "0.000");
+        assert_eq!(fixed(-0.0006, 3), "-0.001");
+        assert_eq!(fixed(7.9, 2), "7.90");
+    }
 }

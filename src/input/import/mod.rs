@@ -100,8 +100,15 @@ pub(crate) fn ring_problem(ring: &[(f64, f64)]) -> Option<String> {
             distinct.len()
         ));
     }
-    if ring_area(&distinct) <= 1e-6 {
+    let pts: Vec<[f64; 2]> = distinct.iter().map(|&(x, y)| [x, y]).collect();
+    if crate::input::validate::simple::all_on_one_line(&pts) {
         return Some("the outline encloses no area (all vertices on one line)".into());
+    }
+    if let Some((a, b)) = crate::input::validate::simple::first_crossing(&pts) {
+        return Some(format!("the outline crosses itself (edges {a} and {b} cross, a bow-tie or figure of eight); draw it with its corners in order around the edge"));
+    }
+    if ring_area(&distinct) <= 1e-6 {
+        return Some("the outline encloses no area".into());
     }
     None
 }

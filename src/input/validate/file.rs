@@ -116,6 +116,21 @@ fn parse_error(rep: &Reporter, source: &str, e: &toml::de::Error) -> InputError 
             "{}expected a [{section}] section (a table of `key = value` lines), not a single value",
             &message[..i]
         );
+    } else if message.contains("invalid type: map, expected a sequence") {
+        // `[excavation]` (one table) where the schema takes a list, `[[excavation]]`.
+        let name = field
+            .trim_matches(|c| c == '[' || c == ']')
+            .trim()
+            .to_string();
+        let name = if name.is_empty() {
+            "name".to_string()
+        } else {
+            name
+        };
+        message = format!(
+            "[{name}] is written as a single table, but drydig takes a list of them here: write [[{name}]] (double brackets) before each one"
+        );
+        field = name;
     } else if message.contains("expected u32") {
         message = message.replace("expected u32", "expected a whole number, 0 or more");
     } else if message.starts_with("duplicate key") {

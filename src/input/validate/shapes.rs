@@ -90,6 +90,13 @@ pub fn polygon(
         ));
     }
     looks_geographic(&pts).map_or(Ok(()), |m| Err(rep.error(field, span.clone(), m)))?;
+    if crate::input::validate::simple::all_on_one_line(&pts) {
+        return Err(rep.error(
+            field,
+            span,
+            format!("all {} points lie on one straight line, so the outline encloses no area; list the corners around the excavation's edge", pts.len()),
+        ));
+    }
     let ring: LineString<f64> = pts.iter().map(|p| Coord { x: p[0], y: p[1] }).collect();
     let poly = Polygon::new(ring, vec![]);
     // Past a few thousand vertices `geo`'s check (which tests every pair of edges) is replaced
@@ -103,10 +110,14 @@ pub fn polygon(
             ));
         }
     } else if let Err(problem) = poly.check_validation() {
+        let what = match crate::input::validate::simple::first_crossing(&pts) {
+            Some((a, b)) => format!("the outline crosses itself (edges {a} and {b} cross)"),
+            None => format!("the outline is not a simple polygon ({problem})"),
+        };
         return Err(rep.error(
             field,
             span,
-            format!("the outline is not a simple polygon ({problem}); list the corners in order around the outline without crossing edges"),
+            format!("{what}; list the corners in order around the outline without crossing edges"),
         ));
     }
     if poly.unsigned_area() <= 0.0 {
@@ -220,6 +231,10 @@ pub fn excavations(
                 ))
             }
         };
+        let centre_line = match &e.centre_line {
+            Some(c) => Some(centre_line(rep, &f("centre_line"), c, &outline)?),
+            None => None,
+        };
         excavations.push(Excavation {
             name: e.name.trim().to_string(),
             outline,
@@ -232,10 +247,63 @@ pub fn excavations(
                 e.control.as_deref(),
                 raw.uplift.is_some(),
             )?,
+            centre_line,
         });
     }
 
     Ok(excavations)
+}
+
+/// A trench centre line: at least two points, no two in a row the same, every point within the
+/// outline or at most its width (area / centre-line length, at least 5 m) outside it.
+pub fn centre_line(
+    rep: &Reporter,
+    field: &str,
+    raw: &toml::Spanned<Vec<Vec<f64>>>,
+    outline: &Polygon<f64>,
+) -> Result<Vec<[f64; 2]>, InputError> {
+    use geo::{Distance, Euclidean, Point};
+    let pts = points(rep, field, raw)?;
+    let span = Some(raw.span());
+    if pts.len() < 2 {
+        return Err(rep.error(
+            field,
+            span,
+            "a centre line needs at least 2 points [x, y] in metres, from one end of the trench to the other",
+        ));
+    }
+    if let Some(i) = pts.windows(2).position(|w| w[0] == w[1]) {
+        return Err(rep.error(
+            field,
+            span,
+            format!(
+                "points {} and {} are the same; list each bend of the centre line once",
+                i + 1,
+                i + 2
+            ),
+        ));
+    }
+    let length: f64 = pts
+        .windows(2)
+        .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
+        .sum();
+    let allowed = (outline.unsigned_area() / length).max(5.0);
+    for (i, p) in pts.iter().enumerate() {
+        let off = Euclidean.distance(&Point::new(p[0], p[1]), outline);
+        if off > allowed {
+            return Err(rep.error(
+                field,
+                span,
+                format!(
+                    "point {} ({}, {}) is {off:.1} m outside the excavation outline; the centre line runs along the middle of the trench (within {allowed:.1} m of it)",
+                    i + 1,
+                    p[0],
+                    p[1]
+                ),
+            ));
+        }
+    }
+    Ok(pts)
 }
 
 /// Half-length, m, of a boundary line as stored: the line is infinite, its two points only fix it.

@@ -51,6 +51,29 @@ pub fn segments_meet(p1: [f64; 2], p2: [f64; 2], p3: [f64; 2], p4: [f64; 2]) -> 
         || (d4 == 0.0 && on_segment(p1, p2, p4))
 }
 
+/// Whether every point lies on one straight line (to 1e-12 of the square of the points'
+/// extent): the cross product of each point with the two points farthest apart is zero.
+pub fn all_on_one_line(pts: &[[f64; 2]]) -> bool {
+    let Some(&a) = pts.first() else {
+        return true;
+    };
+    let far = pts
+        .iter()
+        .copied()
+        .max_by(|p, q| {
+            let dp = (p[0] - a[0]).hypot(p[1] - a[1]);
+            let dq = (q[0] - a[0]).hypot(q[1] - a[1]);
+            dp.total_cmp(&dq)
+        })
+        .unwrap_or(a);
+    let extent = (far[0] - a[0]).hypot(far[1] - a[1]);
+    if extent == 0.0 {
+        return true;
+    }
+    pts.iter()
+        .all(|p| orient(a, far, *p).abs() <= 1e-12 * extent * extent)
+}
+
 /// The first pair of edges (1-based, edge k runs from point k to point k + 1) of the closed
 /// ring `pts` (not repeating its first point) that meet other than at a shared corner, or
 /// `None` when the ring is simple.
