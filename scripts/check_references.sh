@@ -47,4 +47,7 @@ fi
 # partial penetration (scripts/reference_partial_penetration.py, scipy and mpmath; ~4 min)
 tmp_pp="$(mktemp "${TMPDIR:-/tmp}/drydig-pp.XXXXXX.csv")"; python3 "$root/scripts/reference_partial_penetration.py" "$tmp_pp"; if diff -u "$root/tests/reference/partial_penetration.csv" "$tmp_pp"; then echo "reference table up to date: $root/tests/reference/partial_penetration.csv"; else echo "partial_penetration.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_pp"
 
+# site CRS positions and scale factors (scripts/reference_crs.py, pyproj)
+tmp_crs="$(mktemp "${TMPDIR:-/tmp}/drydig-crs.XXXXXX.csv")"; python3 "$root/scripts/reference_crs.py" "$tmp_crs"; if diff -u "$root/tests/reference/crs_scale_factors.csv" "$tmp_crs"; then echo "reference table up to date: $root/tests/reference/crs_scale_factors.csv"; else echo "crs_scale_factors.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_crs"
+
 exit "$status"

@@ -44,6 +44,9 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
         let line = Some(n + 2);
         let rec = rec.map_err(|e| err(line, "", format!("unreadable row: {e}")))?;
         let item = rec.get(ci).unwrap_or("").to_string();
+        if let Some(m) = crate::input::validate::ranges::name_problem(&item) {
+            return Err(err(line, "item", m));
+        }
         if item.is_empty() {
             return Err(err(
                 line,
