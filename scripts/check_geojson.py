@@ -64,7 +64,8 @@ def main():
     for design in sorted((ROOT / "layouts").glob("*.toml")):
         out = base / design.stem
         r = subprocess.run([binary, "check", str(design), "-o", str(out)], capture_output=True)
-        if r.returncode != 0:
+        if r.returncode not in (0, 3):  # 3: targets not met, outputs written
+            problems.append(f"{design.name}: drydig check exit {r.returncode}")
             continue
         for name in ["layout.geojson", "contours.geojson"]:
             if (out / name).exists():

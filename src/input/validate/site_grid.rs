@@ -44,8 +44,9 @@ pub fn site_crs(
             "site.crs",
             None,
             format!(
-                "{message}; valid: an EPSG code of a projected grid in metres (\"EPSG:27700\", \
-                 \"EPSG:32633\") or a proj string (\"+proj=utm +zone=33 +datum=WGS84 +units=m\")"
+                "{message} ([site] crs takes an EPSG code of a projected grid in metres, \
+                 \"EPSG:27700\", \"EPSG:32633\", or a proj string, \"+proj=utm +zone=33 \
+                 +datum=WGS84 +units=m\")"
             ),
         )
     };
