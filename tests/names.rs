@@ -53,3 +53,20 @@ fn wells_csv_name_inf_is_bad_input() {
     assert_eq!(out.status.code(), Some(2), "{err}");
     assert!(err.contains("choose another name"), "{err}");
 }
+
+// Price items and pumping-test wells apply the same rule (names that would print as a
+// non-finite number or move the terminal's cursor are refused, naming the row).
+#[test]
+fn price_items_and_pumping_test_wells_follow_the_name_rule() {
+    let d = tempfile::tempdir().unwrap();
+    for (item, hint) in [("NaN", "choose another name"), ("well\u{7}", "control character")] {
+        let f = d.path().join("prices.csv");
+        std::fs::write(&f, format!("item,price\n{item},12.5\n")).unwrap();
+        let e = drydig::input::prices::read(&f).unwrap_err();
+        assert!(e.message.contains(hint) && e.line == Some(2), "{e}");
+        let text = format!("well,distance [m],time [min],drawdown [m]\n{item},20,1,0.5\n");
+        let e = drydig::test_analysis::csv_input::read_observations(&text, "obs").unwrap_err();
+        assert!(e.contains(hint), "{e}");
+        assert!(!e.contains('\u{7}'), "{e}");
+    }
+}
