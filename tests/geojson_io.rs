@@ -151,3 +151,67 @@ fn wells_csv_of_a_foreign_file_is_not_echoed() {
     );
     assert!(err.contains("name, x, y, rate_l_per_s"), "{err}");
 }
+
+// The wiring from [site] crs to the GeoJSON reader: a standard lon/lat outline (RFC 7946, no crs
+// member) named by outline_from is projected onto the site grid (before: "encloses no area").
+// The corners are the grid rectangle (1000, 2000)–(1030, 2020) taken to lon/lat; the pyproj
+// comparison of the conversion itself is in input::import::crs's tests.
+#[test]
+fn lon_lat_geojson_outline_is_projected_with_the_site_crs() {
+    use drydig::input::import::crs::Reprojector;
+    let crs = "+proj=tmerc +lat_0=52.2 +lon_0=-1.6 +k=1 +x_0=1000 +y_0=2000 +ellps=WGS84 +units=m +no_defs";
+    let r = Reprojector::new(crs).unwrap();
+    let ring: Vec<[f64; 2]> = [
+        (1000.0, 2000.0),
+        (1030.0, 2000.0),
+        (1030.0, 2020.0),
+        (1000.0, 2020.0),
+        (1000.0, 2000.0),
+    ]
+    .iter()
+    .map(|&(x, y)| {
+        let (lon, lat) = r.to_wgs84(x, y).unwrap();
+        [lon, lat]
+    })
+    .collect();
+    let d = tempfile::tempdir().unwrap();
+    let gj = serde_json::json!({"type": "FeatureCollection", "features": [{"type": "Feature",
+        "properties": {"layer": "excavation", "name": "Pit"},
+        "geometry": {"type": "Polygon", "coordinates": [ring]}}]});
+    std::fs::write(d.path().join("site.geojson"), gj.to_string()).unwrap();
+    let design = format!(
+        r#"[site]
+name = "lon/lat outline"
+ground_level = "10 m"
+crs = "{crs}"
+[aquifer]
+kind = "unconfined"
+conductivity = "1e-4 m/s"
+base_level = "-20 m"
+groundwater_level = "8 m"
+[[excavation]]
+name = "Pit"
+outline_from = {{ file = "site.geojson", layer = "excavation" }}
+formation_level = "6 m"
+target_margin = "0.5 m"
+[influence]
+method = "fixed"
+distance = "200 m"
+"#
+    );
+    let path = d.path().join("design.toml");
+    std::fs::write(&path, design).unwrap();
+    let m = drydig::input::validate::file::load(&path).unwrap();
+    use geo::Area;
+    let area = m.excavations[0].outline.unsigned_area();
+    assert!((area - 600.0).abs() < 0.01, "{area}");
+    let c = m.excavations[0].outline.exterior().0[0];
+    assert!(
+        (c.x - 1000.0).abs() < 1e-4 && (c.y - 2000.0).abs() < 1e-4,
+        "{c:?}"
+    );
+    assert!(m
+        .import_notes
+        .iter()
+        .any(|n| n.contains("projected onto the site grid")));
+}

@@ -59,7 +59,10 @@ fn wells_csv_name_inf_is_bad_input() {
 #[test]
 fn price_items_and_pumping_test_wells_follow_the_name_rule() {
     let d = tempfile::tempdir().unwrap();
-    for (item, hint) in [("NaN", "choose another name"), ("well\u{7}", "control character")] {
+    for (item, hint) in [
+        ("NaN", "choose another name"),
+        ("well\u{7}", "control character"),
+    ] {
         let f = d.path().join("prices.csv");
         std::fs::write(&f, format!("item,price\n{item},12.5\n")).unwrap();
         let e = drydig::input::prices::read(&f).unwrap_err();
