@@ -195,7 +195,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let positions: Vec<[f64; 2]> = setup.wells.iter().map(|w| w.position).collect();
             for m in &answers.maps {
                 files.push((
-                    format!("map_day_{:.1}.svg", m.time / 86_400.0),
+                    drydig::input::validate::programme::map_file_name(m.time),
                     report::programme_map::map_svg(&model, m, &positions).into_bytes(),
                 ));
             }

@@ -171,6 +171,20 @@ const CASES: &[Case] = &[
     case("datum_with_form_feed.toml", Slot("site.datum"), "control character", None),
     case("site_name_is_nan.toml", Slot("site.name"), "choose another name", None),
     case("site_name_too_long.toml", Slot("site.name"), "shorten it", None),
+    // Site CRS (issue 18.3, 19.6).
+    case("crs_in_us_survey_feet.toml", Slot("site.crs"), "+units=m", None),
+    case("crs_web_mercator_at_52_north.toml", Slot("site.crs"), "point scale factor is 1.624", None),
+    case("crs_scale_factor_zero.toml", Slot("site.crs"), "scale factor at the origin between 0.5 and 2", None),
+    case("crs_scale_factor_negative.toml", Slot("site.crs"), "scale factor at the origin between 0.5 and 2", None),
+    case("crs_latitude_of_origin_95.toml", Slot("site.crs"), "a latitude within ±90°", None),
+    case("crs_absurd_datum_shift.toml", Slot("site.crs"), "not a datum shift a real datum has", None),
+    case("crs_gda2020_not_built_in.toml", Slot("site.crs"), "+proj=utm +zone=55 +south", None),
+    case("crs_geographic.toml", Slot("site.crs"), "projected or local grid", None),
+    // Programme (issue 19.2, 19.8).
+    case("programme_map_times_same_file.toml", Slot("programme.map_times[2]"), "at least 0.1 day apart", None),
+    case("programme_point_at_1e300.toml", Slot("programme.point[1].x"), "within ±1e7 m", None),
+    case("programme_stage_named_nan.toml", Slot("programme.stage[1].name"), "choose another name", None),
+    case("programme_point_name_with_escape.toml", Slot("programme.point[1].name"), "control character", None),
 ];
 
 fn corpus_dir() -> PathBuf {

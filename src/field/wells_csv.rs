@@ -52,10 +52,7 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
         return Err(err(
             Some(line_now(&reader)),
             "header",
-            format!(
-                "the header must have name, x_m (or x), y_m (or y), rate_l_per_s (optional radius_m), separated by commas (or all by semicolons); found: {}",
-                headers.iter().collect::<Vec<_>>().join(", ")
-            ),
+            header_message(&headers),
         ));
     };
     let ci_radius = col("radius_m");
@@ -103,12 +100,8 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
             ));
         }
         let name = csv_name(rec.get(ci_name).unwrap_or(""));
-        if let Some(c) = name.chars().find(|c| c.is_control()) {
-            return Err(err(
-                Some(line),
-                "name",
-                format!("the name holds a control character (U+{:04X})", c as u32),
-            ));
+        if let Some(message) = crate::input::validate::ranges::name_problem(&name) {
+            return Err(err(Some(line), "name", message));
         }
         if name.is_empty() || !names.insert(name.clone()) {
             return Err(err(
@@ -174,6 +167,30 @@ fn number(cell: &str, semicolons: bool) -> Option<f64> {
         }
         Err(_) => None,
     }
+}
+
+/// The message for a header without the needed columns. Only cells that look like column
+/// names are repeated: the file may be some other file given by mistake, whose content is not
+/// echoed.
+fn header_message(headers: &csv::StringRecord) -> String {
+    let plain = |h: &&str| {
+        !h.is_empty()
+            && h.len() <= 32
+            && h.chars()
+                .all(|c| c.is_ascii_alphanumeric() || c == '_' || c == ' ')
+    };
+    let shown: Vec<&str> = headers.iter().filter(plain).collect();
+    let found = if shown.len() == headers.len() {
+        format!("found: {}", shown.join(", "))
+    } else {
+        format!(
+            "the first line has {} cell(s), not a header of column names — is this the wells CSV?",
+            headers.len()
+        )
+    };
+    format!(
+        "the header must have name, x_m (or x), y_m (or y), rate_l_per_s (optional radius_m), separated by commas (or all by semicolons); {found}"
+    )
 }
 
 /// A name cell as written by drydig's own tables: a leading apostrophe before `=`, `+`, `-`, `@`

@@ -77,6 +77,9 @@ pub struct Model {
     pub output: OutputSettings,
     /// The site's coordinate system (`[site] crs`: an EPSG code or a proj string), when given.
     pub crs: Option<String>,
+    /// Warnings about the site CRS at the site (scale factor, local coordinates with a
+    /// national grid), printed with every output.
+    pub crs_warnings: Vec<String>,
     /// What was done to geometry read from drawings (arcs flattened, units converted).
     pub import_notes: Vec<String>,
     /// The unit of the DXF drawing the design file reads (`design.dxf` is written in it);

@@ -216,6 +216,9 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
         let line = n + 2;
         let rec = rec.map_err(|e| err(Some(line), "", format!("unreadable row: {e}")))?;
         let (item, named_unit) = unit_in_name(rec.get(ci).unwrap_or(""));
+        if let Some(m) = crate::input::validate::ranges::name_problem(&item) {
+            return Err(err(Some(line), "item", m));
+        }
         if item.is_empty() {
             return Err(err(
                 Some(line),

@@ -46,6 +46,9 @@ pub fn to_text(
     for n in &run.placement.notes {
         out.push_str(&wrap(&format!("note: {n}"), 96, ""));
     }
+    for n in &run.model.crs_warnings {
+        out.push_str(&wrap(&format!("warning: {n}"), 96, ""));
+    }
     out.push('\n');
     out.push_str(&format!(
         "wells                 {}\n",

@@ -380,6 +380,9 @@ pub fn to_text(
     for n in &design.notes {
         out.push_str(&wrap(&format!("note: {n}"), 96, ""));
     }
+    for n in &model.crs_warnings {
+        out.push_str(&wrap(&format!("warning: {n}"), 96, ""));
+    }
     if let Some(r) = run {
         if !r.model.neighbours.is_empty() || r.model.uplift.is_some() {
             out.push_str("\nneighbours and base uplift for the chosen layout:\n");

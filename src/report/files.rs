@@ -14,7 +14,9 @@
 //!    atomic step (Linux `renameat2(RENAME_EXCHANGE)`; elsewhere two renames, undone by step 3 of
 //!    the next run if killed between them); a folder that holds other files too (the design's
 //!    own folder) gets each file renamed into place, then the manifest, then the earlier run's
-//!    files that this run does not write are removed.
+//!    files that this run does not write are removed; the earlier manifest is first marked
+//!    `"complete": false`, so a kill half-way leaves no manifest vouching for a mixed set
+//!    ([`verify_set`] checks a folder against its manifest).
 //!
 //! Files and folders are created with the process's umask (0666/0777 masked), like any file the
 //! user makes. Hashes are FNV-1a 64-bit (Fowler, Noll & Vo), enough to tell a changed file.
@@ -267,7 +269,14 @@ fn stage_and_place(
         let _ = std::fs::remove_dir_all(&old);
         return Ok(());
     }
-    // A folder with other files in it: file by file, then the manifest, then the leftovers.
+    // A folder with other files in it: the earlier manifest marked unfinished (so a kill
+    // between the renames leaves no manifest vouching for a mixed set), file by file, then the
+    // manifest, then the leftovers.
+    if let Some(unfinished) = mark_unfinished(out) {
+        let tmp = stage.join(".unfinished");
+        std::fs::write(&tmp, unfinished).context("cannot write the manifest")?;
+        std::fs::rename(&tmp, out.join(MANIFEST)).context("cannot update the manifest")?;
+    }
     for (name, _) in files {
         std::fs::rename(stage.join(name), out.join(name))
             .with_context(|| format!("cannot put {name} in place"))?;
@@ -281,6 +290,52 @@ fn stage_and_place(
         }
     }
     Ok(())
+}
+
+/// The earlier manifest of `dir` with `"complete": false`: its file list is kept (the next run
+/// removes those files it does not write), and [`verify_set`] reports the folder as unfinished.
+fn mark_unfinished(dir: &Path) -> Option<Vec<u8>> {
+    let text = std::fs::read(dir.join(MANIFEST)).ok()?;
+    let mut v: serde_json::Value = serde_json::from_slice(&text).ok()?;
+    let map = v.as_object_mut()?;
+    map.insert("complete".into(), serde_json::Value::Bool(false));
+    map.insert(
+        "note".into(),
+        serde_json::json!("a later run of drydig was writing this folder and did not finish; the files here may be from either run"),
+    );
+    let mut out = serde_json::to_vec_pretty(&v).ok()?;
+    out.push(b'\n');
+    Some(out)
+}
+
+/// Check the set in `dir` against its manifest: the manifest is complete and every file it names
+/// is there with its length and hash. Returns the number of files, or what does not match.
+pub fn verify_set(dir: &Path) -> Result<usize, String> {
+    let text = std::fs::read(dir.join(MANIFEST)).map_err(|e| format!("no manifest: {e}"))?;
+    let v: serde_json::Value =
+        serde_json::from_slice(&text).map_err(|e| format!("the manifest does not parse: {e}"))?;
+    if v.get("complete") != Some(&serde_json::Value::Bool(true)) {
+        return Err("the manifest is marked unfinished: a run was stopped while writing this folder; run again".into());
+    }
+    let files = v
+        .get("files")
+        .and_then(|f| f.as_array())
+        .ok_or("the manifest lists no files")?;
+    let mut wrong = Vec::new();
+    for f in files {
+        let name = f.get("name").and_then(|n| n.as_str()).unwrap_or("");
+        let want = f.get("fnv1a64").and_then(|h| h.as_str()).unwrap_or("");
+        match std::fs::read(dir.join(name)) {
+            Ok(b) if fnv1a(&b) == want => {}
+            Ok(_) => wrong.push(format!("{name} differs from the manifest")),
+            Err(_) => wrong.push(format!("{name} is missing")),
+        }
+    }
+    if wrong.is_empty() {
+        Ok(files.len())
+    } else {
+        Err(wrong.join("; "))
+    }
 }
 
 /// Swap two folders in one step.
@@ -318,6 +373,7 @@ fn manifest(files: &[(String, Vec<u8>)], inputs: &[PathBuf]) -> Vec<u8> {
         "command": std::env::args().skip(1).collect::<Vec<_>>(),
         "inputs": inputs,
         "files": files,
+        "complete": true,
     });
     let mut text = serde_json::to_vec_pretty(&v).unwrap_or_default();
     text.push(b'\n');
@@ -352,6 +408,34 @@ mod tests {
         assert!(has_non_finite(format!("{}", f64::NEG_INFINITY).as_bytes()).is_some());
         assert!(has_non_finite(b"Infinity").is_some());
         assert!(has_non_finite(b"info Infirmary NaNa inflow").is_none());
+    }
+
+    // A folder that holds the user's own files gets the set file by file; the earlier manifest
+    // is marked unfinished before the first rename, so a kill half-way leaves no manifest
+    // vouching for a mixed set, and verify_set tells a changed file.
+    #[test]
+    fn mixed_folder_manifest_is_marked_unfinished_before_files_move() {
+        let d = tempfile::tempdir().unwrap();
+        let out = d.path().join("site");
+        std::fs::create_dir(&out).unwrap();
+        std::fs::write(out.join("my_notes.txt"), b"mine\n").unwrap();
+        let v1 = vec![("a.csv".to_string(), b"1\n".to_vec())];
+        write_all(&out, &v1).unwrap();
+        assert_eq!(verify_set(&out), Ok(1));
+        // What a killed second run leaves after its first rename: the manifest is the earlier
+        // one, marked unfinished, beside a new a.csv.
+        let marked = mark_unfinished(&out).unwrap();
+        std::fs::write(out.join(MANIFEST), marked).unwrap();
+        std::fs::write(out.join("a.csv"), b"2\n").unwrap();
+        let e = verify_set(&out).unwrap_err();
+        assert!(e.contains("unfinished"), "{e}");
+        // The next run completes the set and keeps the user's file.
+        let v2 = vec![("a.csv".to_string(), b"3\n".to_vec())];
+        write_all(&out, &v2).unwrap();
+        assert_eq!(verify_set(&out), Ok(1));
+        assert!(out.join("my_notes.txt").exists());
+        std::fs::write(out.join("a.csv"), b"4\n").unwrap();
+        assert!(verify_set(&out).unwrap_err().contains("a.csv differs"));
     }
 
     #[test]

@@ -11,11 +11,15 @@ use crate::check::run::CheckRun;
 use crate::field::grid::LevelGrid;
 use crate::input::model::MapQuantity;
 use crate::physics::images::BoundaryKind;
+use geo::orient::{Direction, Orient};
 use geo::Polygon;
 use geojson::{Feature, FeatureCollection, Geometry, JsonObject};
 use serde_json::{json, Value};
 
+/// A polygon with its rings as RFC 7946 §3.1.6 asks: the exterior counter-clockwise, holes
+/// clockwise (`geo::Orient`), each ring closed.
 fn polygon(poly: &Polygon<f64>) -> Geometry {
+    let poly = poly.orient(Direction::Default);
     let ring = |ls: &geo::LineString<f64>| -> Vec<[f64; 2]> {
         let mut v: Vec<[f64; 2]> = ls.0.iter().map(|c| [c.x, c.y]).collect();
         if v.len() > 1 && v.first() != v.last() {
@@ -40,6 +44,9 @@ fn feature(geometry: Geometry, properties: Value) -> Feature {
 
 fn collection(features: Vec<Feature>, members: Value) -> String {
     let mut fc = FeatureCollection::new(features);
+    // The geojson crate starts the collection's bbox as an empty list and keeps it when no
+    // feature has one (`"bbox": []`, invalid by RFC 7946 §5); the member is optional, so none.
+    fc.bbox = None;
     if let Value::Object(map) = members {
         fc.foreign_members = Some(map.into_iter().collect::<JsonObject>());
     }
@@ -50,12 +57,43 @@ fn collection(features: Vec<Feature>, members: Value) -> String {
     out
 }
 
+/// The members every collection carries. Without `[site] crs` the coordinates are the site's
+/// own grid, which a GIS would read as longitude/latitude (RFC 7946); the 2008 GeoJSON `crs`
+/// member then names a local engineering CRS in metres (OGC WKT `LOCAL_CS`, read by GDAL as
+/// such), so the layer opens in metres rather than at longitude 300.
 fn members(run: &CheckRun) -> Value {
-    json!({
+    let mut m = json!({
         "name": run.model.name,
         "coordinate_system": run.model.grid,
         "units": "m",
         "datum": run.model.datum,
+    });
+    if !run.model.crs_warnings.is_empty() {
+        if let Value::Object(map) = &mut m {
+            map.insert("crs_warnings".into(), json!(run.model.crs_warnings));
+        }
+    }
+    if run.model.crs.is_none() {
+        if let Value::Object(map) = &mut m {
+            map.insert("crs".into(), local_crs_member(&run.model.grid));
+        }
+    }
+    m
+}
+
+/// The legacy `crs` member naming a local grid in metres, x east and y north.
+pub fn local_crs_member(grid: &str) -> Value {
+    let name: String = grid
+        .chars()
+        .filter(|c| !c.is_control() && *c != '"' && *c != '\\')
+        .collect();
+    json!({
+        "type": "name",
+        "properties": {
+            "name": format!(
+                "LOCAL_CS[\"{name} (site grid, metres)\",LOCAL_DATUM[\"site grid\",0],UNIT[\"metre\",1],AXIS[\"x\",EAST],AXIS[\"y\",NORTH]]"
+            )
+        }
     })
 }
 
@@ -68,8 +106,9 @@ fn round(v: f64, d: i32) -> f64 {
     (v * k).round() / k
 }
 
-/// The layout: excavations, wells, the lines wells were set out on, boundaries, neighbours and
-/// keep-out zones, each feature with a `kind` property.
+/// The layout: excavations, wells, the lines wells were set out on, boundaries, neighbours
+/// (with their status, worst drawdown and settlement), keep-out zones and check points (with
+/// level, target and margin), each feature with a `kind` property.
 pub fn layout_geojson(run: &CheckRun) -> String {
     let model = run.model;
     let mut features = Vec::new();
@@ -121,7 +160,8 @@ pub fn layout_geojson(run: &CheckRun) -> String {
             }),
         ));
     }
-    for n in &model.neighbours {
+    let assessed = crate::safety::neighbours::assess_run(run);
+    for (n, a) in model.neighbours.iter().zip(&assessed) {
         features.push(feature(
             polygon(&n.footprint),
             json!({
@@ -131,6 +171,26 @@ pub fn layout_geojson(run: &CheckRun) -> String {
                 "allowable_drawdown_m": n.allowable_drawdown,
                 "allowable_settlement_m": n.allowable_settlement,
                 "allowable_distortion": n.allowable_distortion,
+                "status": a.status,
+                "utilisation": a.utilisation.map(|u| round(u, 4)),
+                "drawdown_m": round(a.worst_drawdown.drawdown_m, 4),
+                "settlement_m": a.worst_settlement.as_ref().and_then(|s| s.settlement_m).map(|v| round(v, 5)),
+                "distortion": a.max_distortion.map(|v| round(v, 7)),
+            }),
+        ));
+    }
+    for p in &run.evaluation.points {
+        features.push(feature(
+            Geometry::new_point([round(p.point.position[0], 4), round(p.point.position[1], 4)]),
+            json!({
+                "kind": "check-point",
+                "name": p.point.name,
+                "point_kind": p.point.kind,
+                "level_m": level(p.level_m),
+                "target_level_m": p.point.target_level.map(|t| round(t, 4)),
+                "margin_m": p.margin_m.map(|m| round(m, 4)),
+                "drawdown_m": round(p.drawdown_m, 4),
+                "met": p.met,
             }),
         ));
     }
@@ -184,4 +244,36 @@ pub fn contours_geojson(run: &CheckRun, grid: &LevelGrid) -> String {
     }
     let (features, m) = super::geojson_wgs84::reproject(run, features, m);
     collection(features, m)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    // RFC 7946 §5: a bbox has 2·n numbers; an empty collection (no contour in range) has none.
+    #[test]
+    fn geojson_empty_collection_has_no_empty_bbox() {
+        let text = collection(Vec::new(), json!({"name": "x"}));
+        let v: Value = serde_json::from_str(&text).unwrap();
+        assert!(v.get("bbox").is_none(), "{text}");
+        assert_eq!(v["features"], json!([]));
+    }
+
+    #[test]
+    fn geojson_rings_counter_clockwise_holes_clockwise() {
+        use geo::{polygon, Winding};
+        // Exterior given clockwise, hole given counter-clockwise.
+        let p = polygon!(
+            exterior: [(x: 0.0, y: 0.0), (x: 0.0, y: 10.0), (x: 10.0, y: 10.0), (x: 10.0, y: 0.0)],
+            interiors: [[(x: 2.0, y: 2.0), (x: 4.0, y: 2.0), (x: 4.0, y: 4.0)]],
+        );
+        let geojson::GeometryValue::Polygon { coordinates } = polygon(&p).value else {
+            panic!("polygon")
+        };
+        let ring = |r: &Vec<geojson::Position>| {
+            geo::LineString::from(r.iter().map(|c| (c[0], c[1])).collect::<Vec<_>>())
+        };
+        assert!(ring(&coordinates[0]).is_ccw());
+        assert!(ring(&coordinates[1]).is_cw());
+    }
 }

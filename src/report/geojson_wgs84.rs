@@ -49,8 +49,12 @@ fn geometry(r: &Reprojector, g: &mut G) -> bool {
 
 /// The features in WGS84 lon/lat when the model has a CRS (else unchanged), and the members
 /// that say so: `coordinate_system` becomes "WGS84 longitude/latitude (RFC 7946)" and
-/// `source_crs` names the site's CRS. A feature whose position would not convert is left out
-/// and counted in `features_not_converted`.
+/// `source_crs` names the site's CRS.
+///
+/// Validation has converted the site there and back, but a far feature (a contour at the map's
+/// edge) may still not convert. Then no feature is dropped: the whole collection stays in the
+/// site grid, with the 2008 GeoJSON `crs` member naming the site CRS (an EPSG URN, or the proj
+/// string, both read by GDAL) and `wgs84_not_written` saying why.
 pub fn reproject(
     run: &CheckRun,
     features: Vec<Feature>,
@@ -59,30 +63,51 @@ pub fn reproject(
     let Some(crs) = run.model.crs.as_deref() else {
         return (features, members);
     };
-    let Ok(r) = Reprojector::new(crs) else {
-        return (features, members);
+    let converted = Reprojector::new(crs).ok().and_then(|r| {
+        let mut out = features.clone();
+        out.iter_mut()
+            .all(|f| {
+                f.geometry
+                    .as_mut()
+                    .is_none_or(|g| geometry(&r, &mut g.value))
+            })
+            .then_some(out)
+    });
+    let Value::Object(map) = &mut members else {
+        return (converted.unwrap_or(features), members);
     };
-    let before = features.len();
-    let out: Vec<Feature> = features
-        .into_iter()
-        .filter_map(|mut f| {
-            let ok = f
-                .geometry
-                .as_mut()
-                .is_none_or(|g| geometry(&r, &mut g.value));
-            ok.then_some(f)
-        })
-        .collect();
-    if let Value::Object(map) = &mut members {
-        map.insert(
-            "coordinate_system".into(),
-            json!("WGS84 longitude/latitude (RFC 7946)"),
-        );
-        map.insert("units".into(), json!("degrees"));
-        map.insert("source_crs".into(), json!(crs));
-        if out.len() < before {
-            map.insert("features_not_converted".into(), json!(before - out.len()));
+    map.insert("source_crs".into(), json!(crs));
+    match converted {
+        Some(out) => {
+            map.insert(
+                "coordinate_system".into(),
+                json!("WGS84 longitude/latitude (RFC 7946)"),
+            );
+            map.insert("units".into(), json!("degrees"));
+            (out, members)
+        }
+        None => {
+            map.insert("crs".into(), grid_crs_member(crs));
+            map.insert(
+                "wgs84_not_written".into(),
+                json!("a position does not convert to WGS84 with the site CRS; the coordinates are the site grid's, named in `crs`"),
+            );
+            (features, members)
         }
     }
-    (out, members)
+}
+
+/// The legacy `crs` member naming the site CRS: `urn:ogc:def:crs:EPSG::27700` for an EPSG
+/// code, the proj string otherwise.
+fn grid_crs_member(crs: &str) -> Value {
+    let c = crs.trim();
+    let name = match c
+        .strip_prefix("EPSG:")
+        .or_else(|| c.strip_prefix("epsg:"))
+        .map(str::trim)
+    {
+        Some(code) => format!("urn:ogc:def:crs:EPSG::{code}"),
+        None => c.to_string(),
+    };
+    json!({ "type": "name", "properties": { "name": name } })
 }

@@ -118,6 +118,9 @@ pub fn read_observations(text: &str, name: &str) -> Result<Vec<ObservationSeries
         let s = num(si, "drawdown")? * sf;
         let d = di.map(|i| num(i, "distance")).transpose()?.map(|v| v * df);
         let well = wi.and_then(|i| rec.get(i)).unwrap_or(name).to_string();
+        if let Some(m) = crate::input::validate::ranges::name_problem(&well) {
+            return Err(format!("CSV record {}: well name: {m}", k + 1));
+        }
         match index.get(&well).map(|&i| &mut out[i]) {
             Some(o) => {
                 if let (Some(a), Some(b)) = (o.distance, d) {

@@ -108,6 +108,9 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
             Some(Value::Null) | None => format!("feature {}", i + 1),
             Some(other) => other.to_string(),
         };
+        if let Some(m) = crate::input::validate::ranges::name_problem(&name) {
+            return Err(err(path, format!("features[{i}].properties.name"), m));
+        }
         let field = format!("features[{i}] (\"{name}\")");
         let Some(geometry) = &f.geometry else {
             return Err(err(path, field, "the feature has no geometry"));
@@ -120,12 +123,10 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
                 None => field.clone(),
             };
             let mut ls = Vec::new();
-            for (r, ring) in rings.iter().enumerate() {
-                let pts = positions(path, &field, ring)?;
-                if let Some(msg) = ring_problem(&pts) {
-                    return Err(err(path, format!("{field} ring {}", r + 1), msg));
-                }
-                ls.push(line_string(&pts));
+            // Finite numbers here; vertices and area once the coordinates are metres on the
+            // grid (after any projection from longitude/latitude), in `refuse_bad_rings`.
+            for ring in rings {
+                ls.push(line_string(&positions(path, &field, ring)?));
             }
             if ls.is_empty() {
                 return Err(err(path, field, "the polygon has no rings"));
@@ -216,7 +217,13 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
             format!("no feature matches ({present})"),
         ));
     }
-    if looks_geographic(&drawing) && crs_named.as_deref().is_none_or(is_wgs84) {
+    let geographic = looks_geographic(&drawing) && crs_named.as_deref().is_none_or(is_wgs84);
+    if geographic {
+        if let Some(site) = site_crs() {
+            project_lon_lat(path, &mut drawing, &site)?;
+        }
+    }
+    if geographic && site_crs().is_none() {
         return Err(err(
             path,
             "coordinates",
@@ -224,7 +231,8 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
                 "the file looks geographic (all coordinates within ±180, ±90{}); drydig needs \
                  x east, y north in metres on a projected or local grid — export the drawing in \
                  its grid (e.g. a national grid or UTM zone) and name it in a top-level \"crs\" \
-                 member",
+                 member, or give the site's grid as [site] crs and the longitudes/latitudes are \
+                 projected onto it",
                 match &crs_named {
                     Some(c) => format!(", CRS \"{c}\""),
                     None => ", no CRS named".into(),
@@ -232,7 +240,107 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
             ),
         ));
     }
+    refuse_bad_rings(path, &drawing)?;
     Ok(drawing)
+}
+
+thread_local! {
+    /// The site CRS of the design file being read, for GeoJSON in longitude/latitude.
+    static SITE_CRS: std::cell::RefCell<Option<String>> = const { std::cell::RefCell::new(None) };
+}
+
+/// Run `f` (reading the drawings a design file names) with `crs` as the site CRS: a GeoJSON file
+/// in WGS84 longitude/latitude (RFC 7946) read meanwhile is projected onto that grid instead of
+/// being refused as geographic.
+pub fn with_site_crs<T>(crs: Option<&str>, f: impl FnOnce() -> T) -> T {
+    let before = SITE_CRS.with(|c| c.replace(crs.map(str::to_string)));
+    let out = f();
+    SITE_CRS.with(|c| *c.borrow_mut() = before);
+    out
+}
+
+fn site_crs() -> Option<String> {
+    SITE_CRS.with(|c| c.borrow().clone())
+}
+
+/// Every position of `drawing`, WGS84 longitude/latitude, projected onto the site grid `crs`.
+fn project_lon_lat(path: &Path, drawing: &mut Drawing, crs: &str) -> Result<(), InputError> {
+    let r = super::crs::Reprojector::new(crs).map_err(|e| {
+        err(
+            path,
+            "coordinates",
+            format!("longitude/latitude cannot be projected: {e}"),
+        )
+    })?;
+    let mut failed = None;
+    let mut go = |c: &mut Coord<f64>| match r.from_wgs84(c.x, c.y) {
+        Ok((x, y)) => *c = Coord { x, y },
+        Err(_) => failed = Some(*c),
+    };
+    for p in &mut drawing.polygons {
+        p.geometry
+            .exterior_mut(|ls| ls.0.iter_mut().for_each(&mut go));
+        p.geometry.interiors_mut(|rs| {
+            rs.iter_mut()
+                .for_each(|ls| ls.0.iter_mut().for_each(&mut go))
+        });
+    }
+    for l in &mut drawing.lines {
+        l.geometry.0.iter_mut().for_each(&mut go);
+    }
+    for m in &mut drawing.points {
+        go(&mut m.at.0);
+    }
+    if let Some(c) = failed {
+        return Err(err(
+            path,
+            "coordinates",
+            format!(
+                "the longitude/latitude ({}, {}) does not project onto the site grid {crs}",
+                c.x, c.y
+            ),
+        ));
+    }
+    drawing.notes.push(format!(
+        "WGS84 longitude/latitude projected onto the site grid {crs}"
+    ));
+    Ok(())
+}
+
+/// Each outline has 3 distinct vertices and an area ([`ring_problem`]); holes (interior rings)
+/// are refused with their area: the model has outlines without holes, and dropping one silently
+/// would change the excavation's area.
+fn refuse_bad_rings(path: &Path, drawing: &Drawing) -> Result<(), InputError> {
+    for p in &drawing.polygons {
+        let rings = std::iter::once(p.geometry.exterior()).chain(p.geometry.interiors());
+        for (r, ring) in rings.enumerate() {
+            let pts: Vec<(f64, f64)> = ring.0.iter().map(|c| (c.x, c.y)).collect();
+            if let Some(msg) = ring_problem(&pts) {
+                return Err(err(
+                    path,
+                    format!("{} (\"{}\") ring {}", p.source, p.name, r + 1),
+                    msg,
+                ));
+            }
+        }
+        let holes = p.geometry.interiors();
+        if holes.is_empty() {
+            continue;
+        }
+        let area: f64 = holes
+            .iter()
+            .map(|r| super::ring_area(&r.0.iter().map(|c| (c.x, c.y)).collect::<Vec<_>>()))
+            .sum();
+        return Err(err(
+            path,
+            format!("{} (\"{}\")", p.source, p.name),
+            format!(
+                "the polygon has {} hole(s) ({area:.1} m² in all); drydig does not read holes: give the outer outline alone (the whole area inside it is then dewatered, on the safe side for an excavation) or draw separate outlines",
+                holes.len()
+            ),
+        ));
+    }
+    Ok(())
 }
 
 fn positions(path: &Path, field: &str, ps: &[Position]) -> Result<Vec<(f64, f64)>, InputError> {
@@ -333,7 +441,7 @@ mod tests {
         let text = write_fc(
             vec![
                 feature(
-                    Geometry::new_polygon(vec![outline.clone(), hole.clone()]),
+                    Geometry::new_polygon(vec![outline.clone()]),
                     "excavation",
                     "Basement",
                 ),
@@ -358,12 +466,18 @@ mod tests {
             .map(|c| [c.x, c.y])
             .collect();
         assert_eq!(got, outline);
-        let got: Vec<[f64; 2]> = d.polygons[0].geometry.interiors()[0]
-            .0
-            .iter()
-            .map(|c| [c.x, c.y])
-            .collect();
-        assert_eq!(got, hole);
+        // A polygon with a hole is refused, naming the feature and the hole's area (5 × 5 m).
+        let holed = write_fc(
+            vec![feature(
+                Geometry::new_polygon(vec![outline.clone(), hole.clone()]),
+                "excavation",
+                "Basement",
+            )],
+            None,
+        );
+        let e = parse(p, &holed, &PropertyFilter::new("layer", "excavation")).unwrap_err();
+        assert!(e.field.contains("Basement"), "{e}");
+        assert!(e.message.contains("1 hole(s) (12.5 m² in all)"), "{e}");
         let d = parse(p, &text, &PropertyFilter::new("layer", "river")).unwrap();
         assert_eq!(
             d.lines[0].geometry.0[1],
@@ -405,6 +519,75 @@ mod tests {
         }
         // Small numbers in a named local grid are accepted.
         assert!(parse(p, &write_fc(vec![f()], Some("local site grid")), &filter).is_ok());
+    }
+
+    // A standard RFC 7946 outline (lon/lat, no crs member) is projected onto the site grid when
+    // the design file names one; the projected corners are compared with pyproj's forward
+    // conversion of the same grid (tests/reference/crs_scale_factors.csv, "local tmerc":
+    // lon -1.6, lat 52.2 is the false origin (1000, 2000)), and a 30 m square stays 30 m within
+    // the grid's scale (k = 1 at the origin).
+    #[test]
+    fn import_geojson_lon_lat_projected_with_the_site_crs() {
+        let crs = "+proj=tmerc +lat_0=52.2 +lon_0=-1.6 +k=1 +x_0=1000 +y_0=2000 +ellps=WGS84 +units=m +no_defs";
+        let dlat = 30.0 / 111_257.0; // about 30 m of latitude at 52.2° N
+        let ring = vec![
+            [-1.6, 52.2],
+            [-1.6, 52.2 + dlat],
+            [-1.6005, 52.2 + dlat],
+            [-1.6, 52.2],
+        ];
+        let text = write_fc(
+            vec![feature(
+                Geometry::new_polygon(vec![ring]),
+                "excavation",
+                "Pit",
+            )],
+            None,
+        );
+        let filter = PropertyFilter::new("layer", "excavation");
+        let p = Path::new("site.geojson");
+        assert!(parse(p, &text, &filter).is_err());
+        let d = with_site_crs(Some(crs), || parse(p, &text, &filter)).unwrap();
+        let c = &d.polygons[0].geometry.exterior().0;
+        assert!(
+            (c[0].x - 1000.0).abs() < 1e-6 && (c[0].y - 2000.0).abs() < 1e-6,
+            "{c:?}"
+        );
+        assert!((c[1].y - c[0].y - 30.0).abs() < 0.05, "{c:?}");
+        assert!(d
+            .notes
+            .iter()
+            .any(|n| n.contains("projected onto the site grid")));
+        // The context ends with the closure.
+        assert!(parse(p, &text, &filter).is_err());
+    }
+
+    // The name rule of the design file applies to feature names (issue 19.2).
+    #[test]
+    fn import_geojson_names_follow_the_name_rule() {
+        let p = Path::new("site.geojson");
+        let ring = vec![
+            [1000.0, 2000.0],
+            [1030.0, 2000.0],
+            [1030.0, 2020.0],
+            [1000.0, 2000.0],
+        ];
+        for (name, hint) in [
+            ("NaN", "choose another name"),
+            ("Pit\u{1b}[2J", "control character"),
+        ] {
+            let text = write_fc(
+                vec![feature(
+                    Geometry::new_polygon(vec![ring.clone()]),
+                    "excavation",
+                    name,
+                )],
+                None,
+            );
+            let e = parse(p, &text, &PropertyFilter::new("layer", "excavation")).unwrap_err();
+            assert!(e.message.contains(hint), "{e}");
+            assert!(!e.to_string().contains('\u{1b}'), "{e}");
+        }
     }
 
     #[test]

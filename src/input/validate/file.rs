@@ -50,7 +50,15 @@ pub fn from_str(path: &Path, source: &str) -> Result<Model, InputError> {
             "the file holds binary data; a design file is TOML text",
         ));
     }
-    if let Some(r) = crate::input::import::resolve::resolve(path, source)? {
+    // A GeoJSON drawing in longitude/latitude is projected with the site's grid, if named.
+    let site_crs = crate::input::import::resolve::mentions_drawings(source)
+        .then(|| source.parse::<toml::Table>().ok())
+        .flatten()
+        .and_then(|t| t.get("site")?.get("crs")?.as_str().map(str::to_string));
+    let resolved = crate::input::import::geojson_in::with_site_crs(site_crs.as_deref(), || {
+        crate::input::import::resolve::resolve(path, source)
+    })?;
+    if let Some(r) = resolved {
         // Errors in the rewritten text cite the user's design file or drawing, not the rewrite.
         let rep = Reporter::new(path, &r.text);
         let raw: DesignFile = toml::from_str(&r.text)
@@ -268,6 +276,8 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     let design =
         crate::input::validate::design_settings::design_settings(rep, &raw, ground, wells.kind)?;
+    let (crs, crs_warnings) =
+        crate::input::validate::site_grid::site_crs(rep, raw.site.crs.as_deref(), &excavations)?;
     let model = Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
@@ -297,7 +307,8 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         design,
         programme,
         output: crate::input::validate::output::output_settings(rep, output)?,
-        crs: crate::input::validate::output::site_crs(rep, raw.site.crs.as_deref())?,
+        crs,
+        crs_warnings,
         import_notes: Vec::new(),
         drawing_unit: None,
     };

@@ -11,7 +11,8 @@
 //! recharge limits), `sides` (everything on the aquifer side of every boundary),
 //! `design_settings` (operating margin, capacity fraction, one well out, pumps),
 //! `simple` (outlines of many vertices: simplicity by R-tree, simplification), `output` (map
-//! extent, contour interval, section line, site coordinate system).
+//! extent, contour interval, section line), `site_grid` (the site coordinate system checked at
+//! the site: unit, parameters, round trip, scale factor).
 
 pub mod aquifer;
 pub mod as_built;
@@ -25,4 +26,5 @@ pub mod ranges;
 pub mod shapes;
 pub mod sides;
 pub mod simple;
+pub mod site_grid;
 pub mod wells;

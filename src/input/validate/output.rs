@@ -1,8 +1,6 @@
-//! `[output]` settings beyond units (map extent, contour interval, section line) and the site's
-//! coordinate system `[site] crs`.
+//! `[output]` settings beyond units (map extent, contour interval, section line).
 
 use crate::input::error::{InputError, Reporter};
-use crate::input::import::crs::Reprojector;
 use crate::input::model::OutputSettings;
 use crate::input::schema::Output;
 use crate::input::validate::shapes::check_positive;
@@ -65,23 +63,4 @@ pub fn output_settings(
         contour_interval,
         section,
     })
-}
-
-/// The site CRS, checked by building its reprojector (EPSG code known, proj string parsed, not
-/// geographic).
-pub fn site_crs(rep: &Reporter, crs: Option<&str>) -> Result<Option<String>, InputError> {
-    match crs {
-        None => Ok(None),
-        Some(c) => match Reprojector::new(c) {
-            Ok(_) => Ok(Some(c.trim().to_string())),
-            Err(e) => Err(rep.error(
-                "site.crs",
-                None,
-                format!(
-                    "{}; valid: an EPSG code of a projected grid (\"EPSG:27700\", \"EPSG:32633\") or a proj string (\"+proj=utm +zone=33 +datum=WGS84\")",
-                    e.message
-                ),
-            )),
-        },
-    }
 }

@@ -6,6 +6,7 @@ use crate::input::error::{InputError, Reporter};
 use crate::input::model::{Excavation, Programme, Stage, StageRate};
 use crate::input::schema;
 use crate::input::units::{parse, FlowKind};
+use crate::input::validate::ranges::{name_problem, MAX_COORD};
 use crate::physics::potential::Aquifer;
 
 /// Seconds in a day.
@@ -54,6 +55,12 @@ pub fn days_from_date(text: &str) -> Option<i64> {
     let doy = (153 * mp + 2) / 5 + d - 1;
     let doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
     Some(era * 146_097 + doe - 719_468)
+}
+
+/// The file name of the drawdown map at `time_s` seconds: `map_day_7.0.svg`, the day to 0.1.
+/// Two map times that give the same name are refused.
+pub fn map_file_name(time_s: f64) -> String {
+    format!("map_day_{:.1}.svg", time_s / DAY)
 }
 
 fn duration(
@@ -143,6 +150,19 @@ pub fn programme(
                 ),
             ));
         }
+        let file = map_file_name(t);
+        if let Some(j) = map_times.iter().position(|&u| map_file_name(u) == file) {
+            return Err(rep.error(
+                format!("programme.map_times[{}]", i + 1),
+                q.span.clone(),
+                format!(
+                    "{:.3} days falls on the same map as map_times[{}] ({:.3} days): both would be {file}; give map times at least 0.1 day apart",
+                    t / DAY,
+                    j + 1,
+                    map_times[j] / DAY
+                ),
+            ));
+        }
         map_times.push(t);
     }
     let start_day = match &p.start_date {
@@ -167,6 +187,9 @@ pub fn programme(
         let f = format!("programme.stage[{}]", i + 1);
         if s.name.trim().is_empty() {
             return Err(rep.error(format!("{f}.name"), None, "must not be empty"));
+        }
+        if let Some(m) = name_problem(&s.name) {
+            return Err(rep.error(format!("{f}.name"), None, m));
         }
         let start =
             match (&s.start, &s.date) {
@@ -297,12 +320,15 @@ pub fn programme(
     }
     let mut points = Vec::new();
     for (i, q) in p.point.iter().enumerate() {
-        if !(q.x.is_finite() && q.y.is_finite()) {
+        if !(q.x.is_finite() && q.y.is_finite()) || q.x.abs() > MAX_COORD || q.y.abs() > MAX_COORD {
             return Err(rep.error(
                 format!("programme.point[{}].x", i + 1),
                 None,
-                "x and y must be finite numbers in metres",
+                format!("x and y must be finite numbers in metres within ±{MAX_COORD:e} m of the grid origin (the site grid's coordinates, as the outlines)"),
             ));
+        }
+        if let Some(m) = name_problem(&q.name) {
+            return Err(rep.error(format!("programme.point[{}].name", i + 1), None, m));
         }
         points.push((q.name.clone(), [q.x, q.y]));
     }

@@ -40,33 +40,34 @@ pub fn check(rep: &Reporter, raw: &DesignFile) -> Result<(), InputError> {
 
 /// A name that is printed to the terminal, SVG, CSV and JSON: no control characters (they would
 /// move the cursor or break a file), not too long, and without the words `NaN` or `inf`, which
-/// the output guard reserves for numbers that went wrong.
+/// the output guard reserves for numbers that went wrong. The one name rule: every surface a
+/// name enters by (design file, drawings, `--wells`, programme, prices, pumping tests) applies
+/// [`name_problem`].
 pub fn name(rep: &Reporter, field: &str, text: &str) -> Result<(), InputError> {
+    match name_problem(text) {
+        Some(message) => Err(rep.error(field, None, message)),
+        None => Ok(()),
+    }
+}
+
+/// What is wrong with `text` as a name (see [`name`]), or `None` when it is a good name. The
+/// message does not repeat the name (it may be a line of some unrelated file).
+pub fn name_problem(text: &str) -> Option<String> {
     if let Some(c) = text.chars().find(|c| c.is_control()) {
-        return Err(rep.error(
-            field,
-            None,
-            format!(
-                "the name holds a control character (U+{:04X}); use letters, digits, spaces and punctuation only",
-                c as u32
-            ),
+        return Some(format!(
+            "the name holds a control character (U+{:04X}); use letters, digits, spaces and punctuation only",
+            c as u32
         ));
     }
     if text.chars().count() > MAX_NAME {
-        return Err(rep.error(
-            field,
-            None,
-            format!("the name is longer than {MAX_NAME} characters; shorten it"),
+        return Some(format!(
+            "the name is longer than {MAX_NAME} characters; shorten it"
         ));
     }
     if has_non_finite_word(text) {
-        return Err(rep.error(
-            field,
-            None,
-            "the name holds the word \"NaN\" or \"inf\", which drydig reserves for numbers that are not finite; choose another name",
-        ));
+        return Some("the name holds the word \"NaN\" or \"inf\", which drydig reserves for numbers that are not finite; choose another name".into());
     }
-    Ok(())
+    None
 }
 
 /// Whether `text` holds `NaN`, `inf` or `Infinity` as a word (not inside a longer word).

@@ -172,6 +172,7 @@ pub fn cautions(cx: &Context) -> Part {
         notes.extend(d.notes.iter().cloned());
     }
     notes.extend(cx.run.model.import_notes.iter().cloned());
+    notes.extend(cx.run.model.crs_warnings.iter().cloned());
     if !notes.is_empty() {
         body.push_str("<ul>\n");
         for n in notes {
