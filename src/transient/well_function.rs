@@ -111,8 +111,9 @@ const CHEB: [[f64; DEGREE + 1]; PIECES] = [
 /// W(u) for 1 < u < 32 by the Chebyshev pieces (Clenshaw's recurrence).
 #[inline]
 fn w_mid(u: f64) -> f64 {
-    let width = W_CUTOFF_U.ln() / PIECES as f64;
-    let x = ln_fast(u) / width;
+    // 4 pieces of ln 32 = 5·ln 2
+    const PIECES_PER_LN: f64 = PIECES as f64 / (5.0 * std::f64::consts::LN_2);
+    let x = ln_fast(u) * PIECES_PER_LN;
     let p = (x as usize).min(PIECES - 1);
     let t = 2.0 * (x - p as f64) - 1.0;
     let c = &CHEB[p];
