@@ -17,9 +17,14 @@ Files (all under tests/reference/, every number printed as %.12e):
   sigma 0.01 m), drawdowns written in feet, header `well,distance_m,time_min,drawdown_ft`;
 - pumping_test_leaky.csv: "synthetic, scipy quad", exact Hantush, two observation wells;
 - pumping_test_recovery.csv: "synthetic, scipy", residual drawdown after 1 day of pumping;
+- pumping_test_fifty_wells.csv: "synthetic, scipy", exact Theis, 50 observation wells at
+  5 ... 250 m with one reading each (a layout that once made the leaky fit panic);
+- pumping_test_logger.csv: "synthetic, scipy", a smooth logger record: exact Theis at one well,
+  2000 readings log-spaced from 6 s to 2 days, rounded to the logger's 1 mm (no leakage);
 - pumping_test_fits.csv: scipy.optimize.least_squares Theis fits (on log10 T, log10 S) of the
-  noisy set and of the published Oude Korendijk data (pumping_test_oude_korendijk.csv,
-  typed in from the published table, not written by this script): case,T_m2s,S,rms_m.
+  noisy set, of the logger record (all 2000 readings) and of the published Oude Korendijk data
+  (pumping_test_oude_korendijk.csv, typed in from the published table, not written by this
+  script): case,T_m2s,S,rms_m.
 
 Usage: python3 scripts/reference_pumping_test.py [OUTPUT_DIR]  (default tests/reference)
 """
@@ -136,9 +141,30 @@ def main():
     write(os.path.join(out, "pumping_test_recovery.csv"),
           "well,distance [m],time [min],drawdown [m]", rows)
 
+    rows = []
+    for k in range(50):
+        r = 5.0 + 5.0 * k
+        tm = 10.0 + 10.0 * k
+        rows.append(["F%02d" % (k + 1), fmt(r), fmt(tm), fmt(theis(Q, T, S, r, tm * 60.0))])
+    write(os.path.join(out, "pumping_test_fifty_wells.csv"),
+          "well,distance [m],time [min],drawdown [m]", rows)
+
+    rows = []
+    log_t, log_s = [], []
+    for ts in np.geomspace(6.0, 172800.0, 2000):
+        ts = exact(ts)
+        s_mm = round(theis(Q, T, S, 20.0, ts) * 1000.0)
+        rows.append(["LOG1", fmt(20.0), fmt(ts), "%d" % s_mm])
+        log_t.append(ts)
+        log_s.append(s_mm / 1000.0)
+    write(os.path.join(out, "pumping_test_logger.csv"),
+          "well,distance [m],time [s],drawdown [mm]", rows)
+
     fits = []
     t_fit, s_fit, rms = theis_fit(Q, np.array(noisy_r), np.array(noisy_t), np.array(noisy_s))
     fits.append(["noisy", fmt(t_fit), fmt(s_fit), fmt(rms)])
+    t_fit, s_fit, rms = theis_fit(Q, np.full(len(log_t), 20.0), np.array(log_t), np.array(log_s))
+    fits.append(["logger", fmt(t_fit), fmt(s_fit), fmt(rms)])
     ok_r, ok_t, ok_s = [], [], []
     with open(os.path.join(root, "tests", "reference", "pumping_test_oude_korendijk.csv")) as fh:
         lines = [ln.strip() for ln in fh if ln.strip() and not ln.startswith("#")]

@@ -156,6 +156,15 @@ pub fn item_key(item: &str) -> String {
     lower
 }
 
+/// Whether two items name the same bid line: pumps of the same duty (within 0.5 %, so
+/// "pumps 200 gpm" and "pumps 12.62 L/s" are one), other items by their words.
+pub fn same_item(a: &str, b: &str) -> bool {
+    match (pump_duty(a), pump_duty(b)) {
+        (Some(x), Some(y)) => (x / y - 1.0).abs() < 5e-3,
+        _ => item_key(a) == item_key(b),
+    }
+}
+
 /// The duty of a pumps item ("pumps 200 gpm" → 0.01262 m³/s).
 pub fn pump_duty(item: &str) -> Option<f64> {
     let rest = item.trim().to_lowercase();
@@ -264,7 +273,7 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
                 format!("{price} must be a finite number of 0 or more"),
             ));
         }
-        if let Some(first) = out.iter().find(|p| item_key(&p.item) == item_key(&item)) {
+        if let Some(first) = out.iter().find(|p| same_item(&p.item, &item)) {
             return Err(err(
                 Some(line),
                 "item",

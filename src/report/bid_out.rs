@@ -11,7 +11,6 @@ use crate::input::error::InputError;
 use crate::input::prices::{item_key, price_per, pump_duty, Price};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::optimise::bid::{Bid, SUMP_ALLOWANCE};
-use crate::optimise::outcome::Design;
 use serde::Serialize;
 use serde_json::{json, Value};
 
@@ -79,8 +78,9 @@ fn line(item: impl Into<String>, quantity: f64, unit: &str, basis: impl Into<Str
     }
 }
 
-/// The lines of the bid sheet, quantities in `units`.
-pub fn lines(design: &Design, bid: &Bid, units: UnitSystem) -> Vec<BidLine> {
+/// The lines of the bid sheet, quantities in `units`; `estimate_flow` is the quick
+/// estimate's total flow, m³/s (shown beside the design's).
+pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
     let u = BidUnits(units);
     let lu = u.len_unit();
     let mut out = Vec::new();
@@ -241,7 +241,7 @@ pub fn lines(design: &Design, bid: &Bid, units: UnitSystem) -> Vec<BidLine> {
             "wellpoint header pumps",
         ));
     }
-    let (est, _) = u.total_flow(design.estimate.total_flow_l_per_s / 1e3);
+    let (est, _) = u.total_flow(estimate_flow);
     out.push(line(
         "quick estimate total flow",
         est,

@@ -98,7 +98,7 @@ pub fn design_json(model: &Model, design: &Design, run: Option<&CheckRun>) -> Va
             "ratio_optimised_to_estimate": ratio,
         },
         "counts_tried": design.trials.iter().map(trial_json).collect::<Vec<_>>(),
-        "bid": bid.as_ref().map(|b| super::bid_out::bid_json(b, &super::bid_out::lines(design, b, model.units), None)),
+        "bid": bid.as_ref().map(|b| super::bid_out::bid_json(b, &super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, model.units), None)),
         "design_allowances": {
             "operating_margin_m": model.design.operating_margin,
             "operating_margin_basis": "below every target with every well running (design file allowances.operating_margin; default 0.3 m, common practice (no source))",
@@ -192,7 +192,7 @@ pub fn files(
     out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
     if let Some(r) = run {
         let b = bid_of(model, r);
-        let lines = super::bid_out::lines(design, &b, model.units);
+        let lines = super::bid_out::lines(&b, design.estimate.total_flow_l_per_s / 1e3, model.units);
         out.push(("bid.csv".into(), super::bid_out::bid_csv(&lines, prices)?));
         out.push((
             "bid.json".into(),
@@ -370,7 +370,7 @@ pub fn to_text(
         out.push_str(&allowance_text(model, design, r, units));
         let b = bid_of(model, r);
         out.push_str(&super::bid_out::bid_text(
-            &super::bid_out::lines(design, &b, units),
+            &super::bid_out::lines(&b, design.estimate.total_flow_l_per_s / 1e3, units),
             prices,
         ));
         for n in &r.placement.notes {

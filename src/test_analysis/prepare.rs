@@ -4,7 +4,7 @@
 //!   bins of 1/[`BINS_PER_DECADE`] log-cycle of time per observation well: each bin is one point
 //!   at the geometric mean of its times and the mean of its drawdowns, weighted by its count
 //!   (a weighted least-squares fit of the means is the fit of the readings, less the scatter
-//!   inside each bin, which the rms adds back). The fits then cost O(bins), the reading O(rows).
+//!   inside each bin about its own straight line in ln t, which the rms adds back). The fits then cost O(bins), the reading O(rows).
 //!   Common practice (no source): loggers oversample; a fit needs tens of points per log-cycle.
 //! - **Bounds**: a fit is offered only with T in [`T_RANGE`] and S in [`S_RANGE`]; outside, the
 //!   data do not describe an aquifer a well can drain (a flat record drives T to infinity and S
@@ -86,26 +86,39 @@ pub fn prepare(raw: Vec<(f64, f64, f64)>) -> Prepared {
             within_ss: 0.0,
         };
     }
-    // (r² bits, bin) → (n, Σ ln t, Σ s, Σ s²); r² > 0, so its bits sort as the number does.
-    let mut bins: BTreeMap<(u64, i64), (f64, f64, f64, f64)> = BTreeMap::new();
+    // (r² bits, bin) → [n, Σx, Σs, Σx², Σxs, Σs²] with x = ln t − the bin's lower edge;
+    // r² > 0, so its bits sort as the number does.
+    let mut bins: BTreeMap<(u64, i64), [f64; 6]> = BTreeMap::new();
+    let edge = |k: i64| k as f64 / BINS_PER_DECADE * std::f64::consts::LN_10;
     for (r2, t, s) in raw {
         let k = (t.log10() * BINS_PER_DECADE).floor() as i64;
-        let e = bins.entry((r2.to_bits(), k)).or_insert((0.0, 0.0, 0.0, 0.0));
-        e.0 += 1.0;
-        e.1 += t.ln();
-        e.2 += s;
-        e.3 += s * s;
+        let x = t.ln() - edge(k);
+        let e = bins.entry((r2.to_bits(), k)).or_insert([0.0; 6]);
+        e[0] += 1.0;
+        e[1] += x;
+        e[2] += s;
+        e[3] += x * x;
+        e[4] += x * s;
+        e[5] += s * s;
     }
     let mut within_ss = 0.0;
     let points = bins
         .into_iter()
-        .map(|((r2, _), (n, lt, ss, s2))| {
-            let mean = ss / n;
-            within_ss += (s2 - n * mean * mean).max(0.0);
+        .map(|((r2, k), [n, sx, ss, sxx, sxs, s2])| {
+            // scatter about the bin's own straight line in ln t (the curve's rise across a
+            // bin is not misfit): Syy − Sxy²/Sxx, centred sums
+            let cyy = (s2 - ss * ss / n).max(0.0);
+            let cxx = sxx - sx * sx / n;
+            let cxy = sxs - sx * ss / n;
+            within_ss += if cxx > 1e-18 {
+                (cyy - cxy * cxy / cxx).max(0.0)
+            } else {
+                cyy
+            };
             Point {
                 r2: f64::from_bits(r2),
-                t: (lt / n).exp(),
-                s: mean,
+                t: (sx / n + edge(k)).exp(),
+                s: ss / n,
                 w: n,
             }
         })
@@ -142,7 +155,7 @@ pub fn plausible(fit: Fit) -> Result<Fit, String> {
         }
         if s < S_RANGE.0 {
             return Err(format!(
-                "{name}: S would be {s:.3e}, below {:e} (stiffer than any aquifer); check the distances and the time unit",
+                "{name}: data too flat to fit T and S: S would be {s:.3e}, below {:e} (stiffer than any aquifer); a drawdown that hardly grows with time drives S to 0, a wrong distance or time unit too",
                 S_RANGE.0
             ));
         }

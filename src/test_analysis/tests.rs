@@ -259,3 +259,133 @@ fn chart_and_design_lines() {
     // c = B²/T = 300² / 2e-3 s (Hantush & Jacob 1955)
     assert!(rel(c, 300.0 * 300.0 / 2e-3) < 1e-3, "{c}");
 }
+
+const FIFTY: &str = include_str!("../../tests/reference/pumping_test_fifty_wells.csv");
+const LOGGER: &str = include_str!("../../tests/reference/pumping_test_logger.csv");
+const ALL_ZERO: &str = include_str!("../../tests/bad_inputs/pumping_test/all_zero_drawdown.csv");
+const FLAT: &str = include_str!("../../tests/bad_inputs/pumping_test/flat_drawdown.csv");
+
+/// Every fit of `data` as `drydig pumping-test` makes them, and its terminal text.
+fn everything(data: &PumpingTestData) -> (Vec<(String, Result<Fit, String>)>, String) {
+    let fits = crate::report::pumping_test_text::fits(data, None);
+    let text = crate::report::pumping_test_text::to_text(data, &fits, None);
+    assert!(
+        crate::report::files::has_non_finite(text.as_bytes()).is_none(),
+        "{text}"
+    );
+    (fits, text)
+}
+
+fn fit_named<'a>(fits: &'a [(String, Result<Fit, String>)], name: &str) -> &'a Result<Fit, String> {
+    &fits.iter().find(|(n, _)| n == name).unwrap().1
+}
+
+#[test]
+fn reference_data_at_its_own_rate_show_no_leakage() {
+    // synthetic, scipy (exact Theis, and Theis + noise): the leaky fit once ran B to 1e24…1e44 m
+    // (a non-finite number in the terminal, exit 1) and offered an aquitard resistance.
+    for data in [SYNTHETIC, NOISY] {
+        let (fits, text) = everything(&load(data, Q, None));
+        let e = fit_named(&fits, "Hantush–Jacob (leaky)").as_ref().unwrap_err();
+        assert!(e.contains("no leakage detected"), "{e}");
+        assert!(!text.contains("aquitard_resistance"), "{text}");
+        assert!(fit_named(&fits, "Theis").is_ok());
+    }
+    // The leaky set still shows its leakage (B = 300 m, scipy quad).
+    let (fits, text) = everything(&load(LEAKY, Q, None));
+    let b = fit_named(&fits, "Hantush–Jacob (leaky)").as_ref().unwrap();
+    assert!(rel(b.leakage_factor.unwrap().value, 300.0) < 1e-4);
+    assert!(text.contains("300"));
+}
+
+#[test]
+fn fifty_wells_with_one_reading_each() {
+    // synthetic, scipy: exact Theis (T = 5e-3 m²/s, S = 2e-4) at 50 wells, one reading each;
+    // once a panic (capacity overflow in the Hantush quadrature at a limit of ln 0).
+    let data = load(FIFTY, Q, None);
+    assert_eq!(data.wells.len(), 50);
+    let (fits, _) = everything(&data);
+    let theis = fit_named(&fits, "Theis").as_ref().unwrap();
+    assert!(rel(theis.transmissivity.value, 5e-3) < 1e-6, "{theis:?}");
+    assert!(rel(theis.storativity.unwrap().value, 2e-4) < 1e-6, "{theis:?}");
+    assert!(fit_named(&fits, "Hantush–Jacob (leaky)")
+        .as_ref()
+        .unwrap_err()
+        .contains("no leakage detected"));
+}
+
+#[test]
+fn smooth_logger_record_is_binned_and_matches_scipy() {
+    // synthetic, scipy: 2000 readings rounded to 1 mm; scipy least_squares on all of them
+    // (pumping_test_fits.csv, "logger"). The binned fit agrees within 0.2 %.
+    let data = load(LOGGER, Q, None);
+    let (t_ref, s_ref, rms_ref) = scipy_fit("logger");
+    let fit = fit_theis(&data).unwrap();
+    assert!(rel(fit.transmissivity.value, t_ref) < 2e-3, "{fit:?}");
+    assert!(rel(fit.storativity.unwrap().value, s_ref) < 2e-3, "{fit:?}");
+    assert!((fit.rms - rms_ref).abs() < 2e-4, "{} vs {rms_ref}", fit.rms);
+    assert!(fit.notes.iter().any(|n| n.contains("bins")), "{:?}", fit.notes);
+    assert_eq!(fit.points_used, 2000);
+    let e = fit_hantush(&data).unwrap_err();
+    assert!(e.contains("no leakage detected"), "{e}");
+}
+
+#[test]
+fn a_hundred_thousand_logger_readings() {
+    // generator: Theis (T = 5e-3 m²/s, S = 2e-4, r = 20 m, Q = 20 L/s; Theis 1935) at 10⁵
+    // log-spaced times, rounded to a 1 mm logger. Not timed here (scripts/bench.sh); the fits
+    // work on bins, so this finishes in a fraction of a second.
+    let n = 100_000;
+    let points: Vec<(f64, f64)> = (0..n)
+        .map(|i| {
+            let t = 6.0 * (172_800.0f64 / 6.0).powf(i as f64 / (n - 1) as f64);
+            let s = Q / (4.0 * PI * 5e-3) * exp1(400.0 * 2e-4 / (4.0 * 5e-3 * t));
+            (t, (s * 1e3).round() / 1e3)
+        })
+        .collect();
+    let data = PumpingTestData {
+        rate: Q,
+        wells: vec![ObservationWell {
+            name: "LOG".into(),
+            distance: 20.0,
+            points,
+        }],
+        thickness: None,
+    };
+    let (fits, _) = everything(&data);
+    let theis = fit_named(&fits, "Theis").as_ref().unwrap();
+    assert!(rel(theis.transmissivity.value, 5e-3) < 2e-3, "{theis:?}");
+    assert!(rel(theis.storativity.unwrap().value, 2e-4) < 5e-3, "{theis:?}");
+    assert!(fit_named(&fits, "Cooper–Jacob").is_ok());
+    assert!(fit_named(&fits, "Hantush–Jacob (leaky)")
+        .as_ref()
+        .unwrap_err()
+        .contains("no leakage detected"));
+}
+
+#[test]
+fn flat_records_are_refused_not_fitted() {
+    // tests/bad_inputs/pumping_test: all-zero drawdowns once gave T = 1.7e12 m²/s as lines to
+    // paste; a stuck logger has no Theis curve either. No fit, no aquifer lines.
+    for text in [ALL_ZERO, FLAT] {
+        let data = load(text, Q, None);
+        let (fits, out) = everything(&data);
+        let e = fit_named(&fits, "Theis").as_ref().unwrap_err();
+        assert!(e.contains("data too flat to fit T"), "{e}");
+        assert!(
+            fits.iter().all(|(_, f)| f.is_err()),
+            "{:?}",
+            fits.iter().map(|(n, f)| (n, f.as_ref().err())).collect::<Vec<_>>()
+        );
+        assert!(!out.contains("kind = "), "{out}");
+    }
+}
+
+#[test]
+fn f_test_points_match_the_published_table() {
+    // F(1, ν) at 95 %: 4.96 (ν = 10), 4.17 (30), 3.92 (120), 3.84 (∞) (Fisher & Yates,
+    // Statistical Tables, from memory)
+    for (nu, f) in [(10, 4.96), (30, 4.17), (120, 3.92), (100_000, 3.84)] {
+        assert!((leaky::f95_one(nu) - f).abs() < 0.01, "{nu}: {}", leaky::f95_one(nu));
+    }
+}
