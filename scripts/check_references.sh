@@ -48,6 +48,6 @@ fi
 tmp_pp="$(mktemp "${TMPDIR:-/tmp}/drydig-pp.XXXXXX.csv")"; python3 "$root/scripts/reference_partial_penetration.py" "$tmp_pp"; if diff -u "$root/tests/reference/partial_penetration.csv" "$tmp_pp"; then echo "reference table up to date: $root/tests/reference/partial_penetration.csv"; else echo "partial_penetration.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_pp"
 
 # DXF test drawings and where ezdxf places their entities (scripts/dxf_fixtures.py, ezdxf)
-tmp_dxf="$(mktemp -d "${TMPDIR:-/tmp}/drydig-dxf.XXXXXX")"; python3 "$root/scripts/dxf_fixtures.py" "$tmp_dxf"; for f in mirrored.dxf inserts.dxf; do diff -q "$root/tests/dxf/$f" "$tmp_dxf/$f" || { echo "tests/dxf/$f differs from a fresh run" >&2; status=1; }; done; if diff -u "$root/tests/reference/dxf_expected.csv" "$tmp_dxf/dxf_expected.csv"; then echo "reference table up to date: $root/tests/reference/dxf_expected.csv"; else status=1; fi; rm -rf "$tmp_dxf"
+tmp_dxf="$(mktemp -d "${TMPDIR:-/tmp}/drydig-dxf.XXXXXX")"; python3 "$root/scripts/dxf_fixtures.py" "$tmp_dxf"; for f in mirrored.dxf inserts.dxf; do diff -q "$root/tests/dxf/$f" "$tmp_dxf/$f" || { echo "tests/dxf/$f differs from a fresh run" >&2; status=1; }; done; for f in "$tmp_dxf"/bad/*.dxf; do diff -q "$root/tests/bad_inputs/drawings/$(basename "$f")" "$f" || status=1; done; if diff -u "$root/tests/reference/dxf_expected.csv" "$tmp_dxf/dxf_expected.csv"; then echo "reference table up to date: $root/tests/reference/dxf_expected.csv"; else status=1; fi; rm -rf "$tmp_dxf"
 
 exit "$status"

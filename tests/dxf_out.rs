@@ -28,7 +28,10 @@ fn check_and_read(demo: &str, out: &Path) -> Value {
         String::from_utf8_lossy(&status.stderr)
     );
     let manifest = std::fs::read_to_string(out.join("drydig-run.json")).unwrap();
-    assert!(manifest.contains("\"design.dxf\""), "design.dxf in the manifest");
+    assert!(
+        manifest.contains("\"design.dxf\""),
+        "design.dxf in the manifest"
+    );
     let py = Command::new("python3")
         .arg(root().join("scripts/read_design_dxf.py"))
         .arg(out.join("design.dxf"))
@@ -84,7 +87,12 @@ fn compare(demo: &str, unit_code: i64, metres_per_unit: f64) {
         .collect();
     assert_eq!(excavation.len(), m.excavations.len());
     let ring = &m.excavations[0].outline.exterior().0;
-    for (i, v) in excavation[0]["points"].as_array().unwrap().iter().enumerate() {
+    for (i, v) in excavation[0]["points"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .enumerate()
+    {
         let x = v[0].as_f64().unwrap() * metres_per_unit;
         let y = v[1].as_f64().unwrap() * metres_per_unit;
         assert!((x - ring[i].x).hypot(y - ring[i].y) < 1e-4, "vertex {i}");
