@@ -3,8 +3,9 @@
 places every entity in world coordinates.
 
 Usage: python3 scripts/dxf_fixtures.py OUT_DIR
-Writes OUT_DIR/mirrored.dxf, OUT_DIR/inserts.dxf and OUT_DIR/dxf_expected.csv. The committed
-copies are tests/dxf/*.dxf and tests/reference/dxf_expected.csv; scripts/check_references.sh
+Writes OUT_DIR/mirrored.dxf, OUT_DIR/inserts.dxf, OUT_DIR/dxf_expected.csv and the drawings
+drydig must refuse in OUT_DIR/bad/. The committed copies are tests/dxf/*.dxf,
+tests/reference/dxf_expected.csv and tests/bad_inputs/drawings/*.dxf; scripts/check_references.sh
 regenerates them and fails on any difference (ezdxf writes fixed header dates and GUIDs here).
 
 The expected positions are ezdxf's, not drydig's: OCS → WCS by `entity.ocs().to_wcs(...)`
@@ -214,9 +215,51 @@ def expected_rows(name, doc):
     return rows
 
 
+def bad(out):
+    """Drawings drydig must refuse (tests/bad_inputs/drawings/, tests/bad_drawings.rs); each
+    starts with a DXF comment (group 999) saying what is wrong."""
+    out.mkdir(parents=True, exist_ok=True)
+
+    def save(doc, name, what):
+        doc.saveas(out / name)
+        text = (out / name).read_text()
+        (out / name).write_text(f"999\n{what}\n" + text)
+
+    doc = ezdxf.new("R2000", units=6)
+    doc.modelspace().add_lwpolyline(
+        [(0, 0, 0), (10, 0, 0.7), (10, 5, 0)], format="xyb", close=True, dxfattribs={"layer": "PIT"}
+    )
+    save(doc, "nan_bulge.dxf", "a bulge that is not a number (NaN)")
+    text = (out / "nan_bulge.dxf").read_text().replace("\n 42\n0.7\n", "\n 42\nnan\n")
+    (out / "nan_bulge.dxf").write_text(text)
+
+    doc = ezdxf.new("R2000", units=6)
+    doc.modelspace().add_circle((5, 5), 0.2, dxfattribs={"layer": "WELLS", "extrusion": (0, 0.6, 0.8)})
+    save(doc, "tilted_circle.dxf", "a circle drawn in a tilted plane (an ellipse in plan)")
+
+    doc = ezdxf.new("R2000", units=4)
+    well_block(doc)
+    for x in (0, 10_000):
+        ref = doc.modelspace().add_blockref("WELL", (x, 0), dxfattribs={"layer": "WELLS"})
+        ref.add_auto_attribs({"NAME": "W1"})
+    save(doc, "duplicate_well_names.dxf", "two well symbols whose NAME attribute is the same")
+
+    doc = ezdxf.new("R2000", units=6)
+    doc.modelspace().add_spline([(0, 0), (10, 0), (10, 10), (0, 10)], dxfattribs={"layer": "PIT"})
+    save(doc, "spline_outline.dxf", "an outline drawn as a SPLINE")
+
+    doc = ezdxf.new("R2000", units=6)
+    loop = doc.blocks.new("LOOP")
+    loop.add_circle((0, 0), 0.2)
+    loop.add_blockref("LOOP", (1, 0))
+    doc.modelspace().add_blockref("LOOP", (0, 0), dxfattribs={"layer": "WELLS"})
+    save(doc, "block_inserts_itself.dxf", "a block that inserts itself")
+
+
 def main():
     out = Path(sys.argv[1])
     out.mkdir(parents=True, exist_ok=True)
+    bad(out / "bad")
     rows = expected_rows("mirrored", mirrored(out)) + expected_rows("inserts", inserts(out))
     with open(out / "dxf_expected.csv", "w", newline="") as f:
         w = csv.writer(f, lineterminator="\n")

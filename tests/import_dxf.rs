@@ -56,14 +56,22 @@ fn ezdxf_drawings_read_where_ezdxf_places_them() {
         let d = read(&fixture, &layer);
         let wells: Vec<&Row> = rows.iter().filter(|r| r.kind == "well").collect();
         if !wells.is_empty() {
-            assert_eq!(d.points.len(), wells.len(), "{fixture} {layer}: {:?}", d.points);
+            assert_eq!(
+                d.points.len(),
+                wells.len(),
+                "{fixture} {layer}: {:?}",
+                d.points
+            );
             for w in &wells {
                 let m = d
                     .points
                     .iter()
                     .find(|p| (p.at.x() - w.x * scale).hypot(p.at.y() - w.y * scale) < 1e-6)
                     .unwrap_or_else(|| {
-                        panic!("{fixture} {layer}: no well at ({}, {}): {:?}", w.x, w.y, d.points)
+                        panic!(
+                            "{fixture} {layer}: no well at ({}, {}): {:?}",
+                            w.x, w.y, d.points
+                        )
                     });
                 if !w.name.is_empty() {
                     assert_eq!(m.name, w.name, "{fixture} {layer}");
@@ -123,7 +131,11 @@ fn mirrored_circle_is_on_the_mirrored_side() {
     let d = read("mirrored", "WELLS");
     assert_eq!(d.points[0].at, geo::Point::new(-150.0, 195.0));
     assert!((d.points[0].radius.unwrap() - 0.15).abs() < 1e-12);
-    assert!(d.notes.iter().any(|n| n.contains("mirrored")), "{:?}", d.notes);
+    assert!(
+        d.notes.iter().any(|n| n.contains("mirrored")),
+        "{:?}",
+        d.notes
+    );
 }
 
 // One well symbol inserted eight times (with scale, rotation and mirroring) is eight wells,
