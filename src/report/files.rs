@@ -324,9 +324,9 @@ pub fn verify_set(dir: &Path) -> Result<usize, String> {
     let mut wrong = Vec::new();
     for f in files {
         let name = f.get("name").and_then(|n| n.as_str()).unwrap_or("");
-        let want = f.get("fnv1a64").and_then(|h| h.as_str()).unwrap_or("");
+        let want = f.get("sha256").and_then(|h| h.as_str()).unwrap_or("");
         match std::fs::read(dir.join(name)) {
-            Ok(b) if fnv1a(&b) == want => {}
+            Ok(b) if sha256(&b) == want => {}
             Ok(_) => wrong.push(format!("{name} differs from the manifest")),
             Err(_) => wrong.push(format!("{name} is missing")),
         }
