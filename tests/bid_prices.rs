@@ -3,10 +3,10 @@
 //! duplicated item, a price that overflows, and a prices file in the output folder are refused.
 
 use drydig::field::wells::Well;
+use drydig::input::model::Model;
 use drydig::input::prices::{read, Price};
 use drydig::input::units::UnitSystem;
 use drydig::input::validate::file::load;
-use drydig::input::model::Model;
 use drydig::optimise::bid::bid;
 use drydig::report::bid_out::{bid_csv, costs, lines, BidLine};
 use std::path::Path;
@@ -86,7 +86,10 @@ fn a_price_per_metre_is_converted_to_the_foot_and_a_wrong_unit_refused() {
     assert_eq!(c.len(), 1);
     // No unit on a length line, or a unit of another kind: refused, naming the unit.
     let e = costs(&l, &[Price::new("drilling", 40.0, None)]).unwrap_err();
-    assert!(e.message.contains("no unit") && e.message.contains("ft"), "{e}");
+    assert!(
+        e.message.contains("no unit") && e.message.contains("ft"),
+        "{e}"
+    );
     let e = costs(&l, &[Price::new("drilling", 40.0, Some("kWh"))]).unwrap_err();
     assert!(e.message.contains("kWh") && e.message.contains("ft"), "{e}");
 }
@@ -100,7 +103,10 @@ fn duplicated_and_overflowing_prices_are_refused() {
     let e = read(&path).unwrap_err();
     assert!(e.message.contains("lines 2 and 4"), "{e}");
     assert_eq!(e.line, Some(4));
-    let path = write_prices("dup_pumps", "item,price\npumps 200 gpm,1\npumps 12.618 L/s,2\n");
+    let path = write_prices(
+        "dup_pumps",
+        "item,price\npumps 200 gpm,1\npumps 12.618 L/s,2\n",
+    );
     assert!(read(&path).unwrap_err().message.contains("lines 2 and 3"));
     let (_, l) = us_bid_lines();
     let huge = [Price::new("drilling", 1e308, Some("ft"))];
@@ -142,7 +148,10 @@ fn design_refuses_its_own_prices_file_as_output_and_lists_it_as_input() {
         .unwrap();
     assert!(matches!(out.status.code(), Some(0 | 3)), "{out:?}");
     let manifest = std::fs::read_to_string(out_dir.join("drydig-run.json")).unwrap();
-    assert!(manifest.contains("bid.csv") && manifest.contains("prices-cli"), "{manifest}");
+    assert!(
+        manifest.contains("bid.csv") && manifest.contains("prices-cli"),
+        "{manifest}"
+    );
     let bid = std::fs::read_to_string(out_dir.join("bid.csv")).unwrap();
     assert!(bid.contains("drilling") && bid.contains(",ft,"), "{bid}");
     let _ = std::fs::remove_dir_all(&dir);
@@ -168,6 +177,9 @@ fn prices_corpus_is_refused_with_its_reason() {
             Ok(p) => costs(&l, &p).expect_err(file),
         };
         assert!(e.message.contains(fragment), "{file}: {e}");
-        assert!(e.line.is_some() && e.to_string().contains(file), "{file}: {e}");
+        assert!(
+            e.line.is_some() && e.to_string().contains(file),
+            "{file}: {e}"
+        );
     }
 }

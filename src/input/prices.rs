@@ -93,9 +93,7 @@ pub fn measure_of(unit: &str) -> Option<Measure> {
         "hp" => return Some(Measure::Power(745.699_871_582_270_2)),
         "kwh" => return Some(Measure::Energy(3.6e6)),
         "mwh" => return Some(Measure::Energy(3.6e9)),
-        "gpd" | "gal/day" | "gal/d" => {
-            return Some(Measure::Flow(3.785_411_784e-3 / 86_400.0))
-        }
+        "gpd" | "gal/day" | "gal/d" => return Some(Measure::Flow(3.785_411_784e-3 / 86_400.0)),
         _ => {}
     }
     if let Ok(f) = parse::<LengthKind>(&format!("1 {u}")) {

@@ -12,8 +12,8 @@
 use crate::physics::thiem::jacob_correction;
 
 /// Fit `s = a − m·ln r` to `(r, s)` pairs; returns `(R, m)` with R = exp(a/m) in m and m the
-/// drawdown per natural-log cycle in m. `None` when fewer than two distinct distances or when
-/// drawdown does not fall with distance.
+/// drawdown per natural-log cycle in m. `None` when fewer than two distinct distances, when
+/// drawdown does not fall with distance, or when it falls so little that R is not finite.
 pub fn distance_drawdown_fit(observations: &[(f64, f64)]) -> Option<(f64, f64)> {
     let n = observations.len() as f64;
     if observations.len() < 2 {
@@ -37,7 +37,9 @@ pub fn distance_drawdown_fit(observations: &[(f64, f64)]) -> Option<(f64, f64)> 
         return None;
     }
     let a = mean_y + slope * mean_x;
-    Some(((a / slope).exp(), slope))
+    // A line that falls almost not at all reaches zero beyond any finite distance: no R.
+    let r = (a / slope).exp();
+    (r.is_finite() && r > 0.0).then_some((r, slope))
 }
 
 /// The distance–drawdown fit of [`distance_drawdown_fit`] for an unconfined test: each observed
@@ -100,6 +102,9 @@ mod tests {
     fn refuses_flat_or_single_data() {
         assert!(distance_drawdown_fit(&[(10.0, 1.0)]).is_none());
         assert!(distance_drawdown_fit(&[(10.0, 1.0), (20.0, 1.5)]).is_none());
+        // 2 m of drawdown falling by 1e-9 m from 10 to 20 m: the line would reach zero at
+        // exp(2/1.4e-9) m, beyond any number (Thiem line, hand): refused, not infinite.
+        assert!(distance_drawdown_fit(&[(10.0, 2.0), (20.0, 2.0 - 1e-9)]).is_none());
     }
 
     /// Exact Dupuit–Thiem drawdowns s(r) = H − √(H² − Q/(πK)·ln(R/r)), H = 20 m, K = 1e-4 m/s,

@@ -111,15 +111,10 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
         ));
     }
     if bid.recharge_wells > 0 {
-        out.push(line(
-            "recharge wells",
-            bid.recharge_wells as f64,
-            "no.",
-            {
-                let (q, qu) = u.total_flow(bid.recharge_flow_m3_per_s);
-                format!("at their given rates, {q:.1} {qu} in all (not in the drilling)")
-            },
-        ));
+        out.push(line("recharge wells", bid.recharge_wells as f64, "no.", {
+            let (q, qu) = u.total_flow(bid.recharge_flow_m3_per_s);
+            format!("at their given rates, {q:.1} {qu} in all (not in the drilling)")
+        }));
     }
     let depth = format!(
         "{:.2} {lu} each (ground to screen base + {:.1} {lu} sump)",

@@ -192,7 +192,8 @@ pub fn files(
     out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
     if let Some(r) = run {
         let b = bid_of(model, r);
-        let lines = super::bid_out::lines(&b, design.estimate.total_flow_l_per_s / 1e3, model.units);
+        let lines =
+            super::bid_out::lines(&b, design.estimate.total_flow_l_per_s / 1e3, model.units);
         out.push(("bid.csv".into(), super::bid_out::bid_csv(&lines, prices)?));
         out.push((
             "bid.json".into(),

@@ -135,10 +135,10 @@ pub fn read_observations(text: &str, name: &str) -> Result<Vec<ObservationSeries
             None => {
                 index.insert(well.clone(), out.len());
                 out.push(ObservationSeries {
-                name: well,
-                distance: d,
-                points: vec![(t, s)],
-            });
+                    name: well,
+                    distance: d,
+                    points: vec![(t, s)],
+                });
             }
         }
     }

@@ -118,7 +118,8 @@ pub fn fit_hantush(data: &PumpingTestData) -> Result<Fit, String> {
     let var = (ssr_h / dof as f64).max(RESOLUTION * RESOLUTION);
     let f_stat = (ssr_t - ssr_h).max(0.0) / var;
     let crit = f95_one(dof);
-    if !(f_stat >= crit) {
+    // crit may be ∞ (no degrees of freedom left); a NaN statistic shows nothing either
+    if f_stat.is_nan() || f_stat < crit {
         return Err(format!(
             "no leakage detected: the Theis curve fits these data as well (F = {f_stat:.2} for the leakage term, below its 95 % value {crit:.2}); B would be {b:.3e} m; use the Theis fit (no aquitard resistance to offer)"
         ));

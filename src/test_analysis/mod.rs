@@ -505,7 +505,13 @@ fn late_start(v: &[(f64, f64, f64)]) -> Result<usize, String> {
     for k in (0..n).rev() {
         let (x, y, w) = (v[k].0 - x0, v[k].1, v[k].2);
         let t = tails[k + 1];
-        tails[k] = [t[0] + w, t[1] + w * x, t[2] + w * y, t[3] + w * x * x, t[4] + w * x * y];
+        tails[k] = [
+            t[0] + w,
+            t[1] + w * x,
+            t[2] + w * y,
+            t[3] + w * x * x,
+            t[4] + w * x * y,
+        ];
     }
     for (start, t) in tails.iter().enumerate().take(n) {
         let [sw, sx, sy, sxx, sxy] = *t;
@@ -560,8 +566,8 @@ pub fn fit_theis_recovery(
     let y: Vec<f64> = pts.iter().map(|p| p.s).collect();
     let w: Vec<f64> = pts.iter().map(|p| p.w).collect();
     too_few(x.len(), 3, Method::TheisRecovery.name())?;
-    let (a, m, cov, res) = line_fit(&x, &y, &w)
-        .ok_or("Theis recovery: the points do not span more than one t/t′")?;
+    let (a, m, cov, res) =
+        line_fit(&x, &y, &w).ok_or("Theis recovery: the points do not span more than one t/t′")?;
     if m.is_nan() || m <= 0.0 {
         return Err("Theis recovery: residual drawdown does not fall as t/t′ falls".into());
     }
@@ -702,8 +708,12 @@ pub fn aquifer_lines(fit: &Fit) -> String {
     };
     out.push_str(&format!("kind = \"{kind}\"\n"));
     match fit.thickness {
-        Some(b) => out.push_str(&format!(
+        Some(b) if (1e-9..=1.0).contains(&(tr.value / b)) => out.push_str(&format!(
             "conductivity = \"{} m/s\"   # T / {b} m\n",
+            sig(tr.value / b)
+        )),
+        Some(b) => out.push_str(&format!(
+            "# conductivity: T / {b} m = {} m/s is outside 1e-9 … 1 m/s (no soil; the design file refuses it): check the thickness\n",
             sig(tr.value / b)
         )),
         None => out.push_str(&format!(

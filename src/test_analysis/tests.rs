@@ -265,8 +265,10 @@ const LOGGER: &str = include_str!("../../tests/reference/pumping_test_logger.csv
 const ALL_ZERO: &str = include_str!("../../tests/bad_inputs/pumping_test/all_zero_drawdown.csv");
 const FLAT: &str = include_str!("../../tests/bad_inputs/pumping_test/flat_drawdown.csv");
 
+type NamedFits = Vec<(String, Result<Fit, String>)>;
+
 /// Every fit of `data` as `drydig pumping-test` makes them, and its terminal text.
-fn everything(data: &PumpingTestData) -> (Vec<(String, Result<Fit, String>)>, String) {
+fn everything(data: &PumpingTestData) -> (NamedFits, String) {
     let fits = crate::report::pumping_test_text::fits(data, None);
     let text = crate::report::pumping_test_text::to_text(data, &fits, None);
     assert!(
@@ -286,7 +288,9 @@ fn reference_data_at_its_own_rate_show_no_leakage() {
     // (a non-finite number in the terminal, exit 1) and offered an aquitard resistance.
     for data in [SYNTHETIC, NOISY] {
         let (fits, text) = everything(&load(data, Q, None));
-        let e = fit_named(&fits, "Hantush–Jacob (leaky)").as_ref().unwrap_err();
+        let e = fit_named(&fits, "Hantush–Jacob (leaky)")
+            .as_ref()
+            .unwrap_err();
         assert!(e.contains("no leakage detected"), "{e}");
         assert!(!text.contains("aquitard_resistance"), "{text}");
         assert!(fit_named(&fits, "Theis").is_ok());
@@ -307,7 +311,10 @@ fn fifty_wells_with_one_reading_each() {
     let (fits, _) = everything(&data);
     let theis = fit_named(&fits, "Theis").as_ref().unwrap();
     assert!(rel(theis.transmissivity.value, 5e-3) < 1e-6, "{theis:?}");
-    assert!(rel(theis.storativity.unwrap().value, 2e-4) < 1e-6, "{theis:?}");
+    assert!(
+        rel(theis.storativity.unwrap().value, 2e-4) < 1e-6,
+        "{theis:?}"
+    );
     assert!(fit_named(&fits, "Hantush–Jacob (leaky)")
         .as_ref()
         .unwrap_err()
@@ -324,7 +331,11 @@ fn smooth_logger_record_is_binned_and_matches_scipy() {
     assert!(rel(fit.transmissivity.value, t_ref) < 2e-3, "{fit:?}");
     assert!(rel(fit.storativity.unwrap().value, s_ref) < 2e-3, "{fit:?}");
     assert!((fit.rms - rms_ref).abs() < 2e-4, "{} vs {rms_ref}", fit.rms);
-    assert!(fit.notes.iter().any(|n| n.contains("bins")), "{:?}", fit.notes);
+    assert!(
+        fit.notes.iter().any(|n| n.contains("bins")),
+        "{:?}",
+        fit.notes
+    );
     assert_eq!(fit.points_used, 2000);
     let e = fit_hantush(&data).unwrap_err();
     assert!(e.contains("no leakage detected"), "{e}");
@@ -355,7 +366,10 @@ fn a_hundred_thousand_logger_readings() {
     let (fits, _) = everything(&data);
     let theis = fit_named(&fits, "Theis").as_ref().unwrap();
     assert!(rel(theis.transmissivity.value, 5e-3) < 2e-3, "{theis:?}");
-    assert!(rel(theis.storativity.unwrap().value, 2e-4) < 5e-3, "{theis:?}");
+    assert!(
+        rel(theis.storativity.unwrap().value, 2e-4) < 5e-3,
+        "{theis:?}"
+    );
     assert!(fit_named(&fits, "Cooper–Jacob").is_ok());
     assert!(fit_named(&fits, "Hantush–Jacob (leaky)")
         .as_ref()
@@ -375,7 +389,9 @@ fn flat_records_are_refused_not_fitted() {
         assert!(
             fits.iter().all(|(_, f)| f.is_err()),
             "{:?}",
-            fits.iter().map(|(n, f)| (n, f.as_ref().err())).collect::<Vec<_>>()
+            fits.iter()
+                .map(|(n, f)| (n, f.as_ref().err()))
+                .collect::<Vec<_>>()
         );
         assert!(!out.contains("kind = "), "{out}");
     }
@@ -386,6 +402,20 @@ fn f_test_points_match_the_published_table() {
     // F(1, ν) at 95 %: 4.96 (ν = 10), 4.17 (30), 3.92 (120), 3.84 (∞) (Fisher & Yates,
     // Statistical Tables, from memory)
     for (nu, f) in [(10, 4.96), (30, 4.17), (120, 3.92), (100_000, 3.84)] {
-        assert!((leaky::f95_one(nu) - f).abs() < 0.01, "{nu}: {}", leaky::f95_one(nu));
+        assert!(
+            (leaky::f95_one(nu) - f).abs() < 0.01,
+            "{nu}: {}",
+            leaky::f95_one(nu)
+        );
     }
+}
+
+#[test]
+fn design_lines_never_offer_a_conductivity_the_design_file_refuses() {
+    // T = 5e-3 m²/s over a 1 mm "thickness" is K = 5 m/s, above the 1 m/s the design file
+    // accepts (no soil conducts more; common practice (no source)): a comment, not a line.
+    let fit = fit_theis(&load(SYNTHETIC, Q, Some(1e-3))).unwrap();
+    let t: toml::Table = toml::from_str(&aquifer_lines(&fit)).unwrap();
+    assert!(!t.contains_key("conductivity"), "{t:?}");
+    assert!(aquifer_lines(&fit).contains("check the thickness"));
 }
