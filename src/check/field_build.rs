@@ -38,15 +38,26 @@ pub fn evaluation_level(model: &Model) -> f64 {
 }
 
 /// The level check point `p` is evaluated at for partial penetration, m (clamped to the
-/// saturated layer inside): its own target level, where the water must be drawn to (each
-/// excavation's grid, corners and edges at that excavation's target; a named point at its own
-/// target); an uplift point at the top of the pressurised layer, where the uplift acts; a point
-/// without a target at [`evaluation_level`].
+/// saturated layer inside): the target level of its own excavation (grid, corners and edges of
+/// each excavation at that excavation's target), a named point at the target given for it, an
+/// uplift point at the top of the pressurised layer (where the uplift acts), anything else at
+/// [`evaluation_level`]. Taken from the model, not from `p.target_level`, so that the design's
+/// targets lowered by the operating margin are evaluated at the same elevations as `check`.
 pub fn point_elevation(model: &Model, p: &CheckPoint) -> f64 {
-    match (p.kind, &model.uplift, p.target_level) {
+    match (p.kind, &model.uplift, p.excavation) {
         (PointKind::Uplift, Some(u), _) => u.layer_top,
-        (_, _, Some(t)) => t,
-        _ => evaluation_level(model),
+        (PointKind::Uplift, None, _) => evaluation_level(model),
+        (_, _, Some(ei)) => model
+            .excavations
+            .get(ei)
+            .map_or_else(|| evaluation_level(model), |e| e.target_level()),
+        _ => model
+            .checks
+            .points
+            .iter()
+            .find(|(name, _, _)| *name == p.name)
+            .and_then(|(_, _, t)| *t)
+            .unwrap_or_else(|| evaluation_level(model)),
     }
 }
 

@@ -63,7 +63,7 @@ fn gauss_legendre(n: usize) -> Vec<(f64, f64)> {
 pub fn screen_averaged_correction(source: &Screen, r: f64, bottom: f64, top: f64) -> f64 {
     let d = source.thickness;
     let (b, t) = (bottom.clamp(0.0, d), top.clamp(0.0, d));
-    if !(t > b) {
+    if t.is_nan() || b.is_nan() || t <= b {
         return point_correction(source, r, 0.5 * (b + t));
     }
     let rho = (r * source.anisotropy.max(0.0).sqrt()).max(1e-9);
