@@ -46,5 +46,13 @@ else
 fi
 # partial penetration (scripts/reference_partial_penetration.py, scipy and mpmath; ~4 min)
 tmp_pp="$(mktemp "${TMPDIR:-/tmp}/drydig-pp.XXXXXX.csv")"; python3 "$root/scripts/reference_partial_penetration.py" "$tmp_pp"; if diff -u "$root/tests/reference/partial_penetration.csv" "$tmp_pp"; then echo "reference table up to date: $root/tests/reference/partial_penetration.csv"; else echo "partial_penetration.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_pp"
+# time: worst flood moment, strip images, well floor (scripts/reference_flood.py, reference_time.py; mpmath)
+for pair in "reference_flood.py programme_flood.csv" "reference_time.py programme_time.csv"; do
+    set -- $pair
+    tmp_t="$(mktemp "${TMPDIR:-/tmp}/drydig-time.XXXXXX.csv")"
+    python3 "$root/scripts/$1" "$tmp_t"
+    if diff -u "$root/tests/reference/$2" "$tmp_t"; then echo "reference table up to date: $root/tests/reference/$2"; else echo "$2 differs from a fresh run" >&2; status=1; fi
+    rm -f "$tmp_t"
+done
 
 exit "$status"
