@@ -58,4 +58,13 @@ tmp_dxf="$(mktemp -d "${TMPDIR:-/tmp}/drydig-dxf.XXXXXX")"; python3 "$root/scrip
 # site CRS positions and scale factors (scripts/reference_crs.py, pyproj)
 tmp_crs="$(mktemp "${TMPDIR:-/tmp}/drydig-crs.XXXXXX.csv")"; python3 "$root/scripts/reference_crs.py" "$tmp_crs"; if diff -u "$root/tests/reference/crs_scale_factors.csv" "$tmp_crs"; then echo "reference table up to date: $root/tests/reference/crs_scale_factors.csv"; else echo "crs_scale_factors.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_crs"
 
+# time: worst flood moment, strip images, well floor (scripts/reference_flood.py, reference_time.py; mpmath)
+for pair in "reference_flood.py programme_flood.csv" "reference_time.py programme_time.csv"; do
+    set -- $pair
+    tmp_t="$(mktemp "${TMPDIR:-/tmp}/drydig-time.XXXXXX.csv")"
+    python3 "$root/scripts/$1" "$tmp_t"
+    if diff -u "$root/tests/reference/$2" "$tmp_t"; then echo "reference table up to date: $root/tests/reference/$2"; else echo "$2 differs from a fresh run" >&2; status=1; fi
+    rm -f "$tmp_t"
+done
+
 exit "$status"

@@ -314,3 +314,34 @@ fn from_str_case_loads() {
     assert!(from_str(&path, &text).is_ok());
     let _ = Path::new("");
 }
+
+#[test]
+fn design_by_day_holds_the_wells_above_their_floor_for_the_whole_programme() {
+    // scripts/reference_time.py (mpmath): the level in the well after 3 days (the end of the
+    // programme) is 1.0 m, its pump intake + submergence, at Q = floor_rate_3_days (Theis 1935,
+    // Jacob 1947). A design for day 1 must not pump more, although day 1 alone would allow it.
+    let dir = tempfile::tempdir().unwrap();
+    let path = manifest().join("tests/programme/floor_well.toml");
+    let (code, out, err) = run(&[
+        "design",
+        path.to_str().unwrap(),
+        "--by-day",
+        "1",
+        "-o",
+        dir.path().to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{out}{err}");
+    assert!(out.contains("allowances as in the steady design"), "{out}");
+    let csv = std::fs::read_to_string(dir.path().join("by_day.csv")).unwrap();
+    let q: f64 = csv
+        .lines()
+        .nth(1)
+        .unwrap()
+        .rsplit(',')
+        .next()
+        .unwrap()
+        .parse()
+        .unwrap();
+    let q_max = reference("programme_time.csv", "floor_rate_3_days_m3_per_s") * 1e3;
+    assert!(q <= q_max + 1e-6, "{q} L/s > {q_max} L/s");
+}

@@ -43,6 +43,9 @@ pub fn image_set(
     image_set_up_to(p, boundaries, reach, MAX_IMAGES_PER_WELL).map(|(v, _)| v)
 }
 
+/// Images with their signs: (position m, sign).
+pub type Images = Vec<([f64; 2], f64)>;
+
 /// As [`image_set`], keeping at most `max_images` images; the flag is true when the series was
 /// cut at that number before reaching `reach`.
 pub fn image_set_up_to(
@@ -50,7 +53,7 @@ pub fn image_set_up_to(
     boundaries: &[([f64; 2], [f64; 2], BoundaryKind)],
     reach: f64,
     max_images: usize,
-) -> Result<(Vec<([f64; 2], f64)>, bool), String> {
+) -> Result<(Images, bool), String> {
     let own: Vec<f64> = boundaries
         .iter()
         .map(|(a, b, _)| cross(p, *a, *b).signum())

@@ -34,12 +34,19 @@ pub fn to_text(model: &Model, d: &DatedDesign) -> String {
         s.push_str("\n  RESULT: not met — no layout of this kind meets every target by that day\n");
     } else {
         s.push_str(&format!(
-            "\n  {} wells, total {:.2} L/s ({:.0} m³/day); lowest margin below target on day {}: {:.3} m\n",
+            "\n  {} wells, total {:.2} L/s ({:.0} m³/day); lowest margin below target on day {}: {:.3} m; lowest well level above its lowest allowed level up to day {:.1}: {:.3} m{}\n",
             d.wells.len(),
             d.total * 1e3,
             d.total * DAY,
             d.day,
-            d.worst_margin
+            d.worst_margin,
+            d.hold_until / DAY,
+            d.well_margin,
+            if d.well_margin < -1e-3 {
+                "  WARNING: a well falls below its lowest allowed level"
+            } else {
+                ""
+            }
         ));
         for w in &d.wells {
             s.push_str(&format!(

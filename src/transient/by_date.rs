@@ -5,22 +5,28 @@
 //! t is Σⱼ uᵢⱼ(t)·qⱼ with uᵢⱼ the Theis (or Hantush) response per unit rate including the images
 //! ([`crate::transient::TransientAquifer::unit_response`]): linear in the rates, so the linear
 //! programme of the steady design applies with this matrix — minimise Σqⱼ subject to
-//! Σⱼ uᵢⱼqⱼ ≥ s′ᵢ at every target point, Σⱼ u_wj·qⱼ ≤ s′_w,max in every well (its level above
-//! pump intake + submergence) and 0 ≤ qⱼ ≤ the pump capacity. Unconfined, the drawdowns are the
-//! linear s′ = s − s²/(2H) of Jacob's correction (exact inverse of the model's conversion).
+//! Σⱼ uᵢⱼqⱼ ≥ s′ᵢ at every target point. The steady design's allowances apply: the targets carry
+//! the operating margin; with `one_well_out` every target (without the margin) holds with any
+//! one well at rate 0; each rate is at most the capacity fraction of the lower of the pump's and
+//! Sichardt's capacity; every well's level, after its loss, stays above its lowest allowed level
+//! (pump intake + submergence, or suction) for the whole programme, not only at day N. Partial
+//! penetration enters as in the programme. Unconfined, the drawdowns are the linear
+//! s′ = s − s²/(2H) of Jacob's correction (exact inverse of the model's conversion).
 //! A ring's count is searched (doubling, then halving the bracket); any other layout keeps its
 //! wells and gets rates only. The answer is re-evaluated with the full transient model.
-//! Wells are taken as fully penetrating (see [`crate::transient::programme`]).
 
 use crate::field::checkpoints::check_points;
 use crate::field::layout;
 use crate::field::wells::Well;
 use crate::input::error::InputError;
-use crate::input::model::{LayoutKind, Model, RingCount};
+use crate::input::model::{LayoutKind, Model, RingCount, WellLossSpec};
 use crate::optimise::lp;
 use crate::optimise::lp_problem::{Constraint, LpStatus, RateProblem, Sense};
+use crate::physics::capacity::sichardt_well_capacity;
 use crate::physics::thiem::jacob_correction;
+use crate::physics::well_loss::jacob_loss;
 use crate::transient::programme::{setup_with, DAY};
+use crate::transient::well_levels::{level_in_well, lowest_allowed};
 use crate::transient::{RateSchedule, TransientAquifer};
 
 /// Largest ring count tried.
@@ -52,6 +58,11 @@ pub struct DatedDesign {
     pub met: bool,
     /// Lowest margin below target by that day over the target points, m.
     pub worst_margin: f64,
+    /// Lowest margin of a well's level (after its loss) above its lowest allowed level up to
+    /// [`DatedDesign::hold_until`], m.
+    pub well_margin: f64,
+    /// Time up to which the wells are held above their floors, s.
+    pub hold_until: f64,
     /// Layouts tried.
     pub trials: Vec<DatedTrial>,
     /// Remarks.
@@ -68,8 +79,97 @@ fn linear(aq: &TransientAquifer, s: f64) -> f64 {
     }
 }
 
-/// Least-flow rates for `wells` to meet every target at time t (s); `None` when infeasible.
-fn rates_at(model: &Model, aq: &TransientAquifer, wells: &[Well], t: f64) -> Option<Vec<f64>> {
+/// Largest rate allowed in a well whose screen-face level is `face` (m), m³/s: the capacity
+/// fraction of the lower of the pump's capacity and Sichardt's α·h_w (Sichardt 1928;
+/// α = 2π·r_w·√K/15) with the wetted screen h_w at that level, as the steady check takes it.
+fn rate_cap(model: &Model, w: &Well, face: f64) -> f64 {
+    let aq = &model.aquifer;
+    let wetted = (w.screen_top.min(face.max(aq.base_level)) - w.screen_base).max(0.0);
+    let sichardt = sichardt_well_capacity(w.radius, wetted, aq.conductivity);
+    let cap = model
+        .wells
+        .pump_capacity
+        .map_or(sichardt, |p| p.min(sichardt));
+    model.design.capacity_fraction * cap
+}
+
+/// Least-flow rates with the capacity taken at each well's own level: start from the capacity
+/// at the initial level, solve, take each well's face level at `t_hold` (its lowest, the
+/// drawdown growing with time), lower any capacity the rate now exceeds, and solve again (at
+/// most 8 times; capacities only fall, so the rates found never exceed the capacity at the level
+/// they produce, or the layout is refused).
+fn rates_within_capacity(
+    model: &Model,
+    aq: &TransientAquifer,
+    wells: &[Well],
+    t: f64,
+    t_hold: f64,
+) -> Option<Vec<f64>> {
+    let h0 = model.aquifer.initial_level;
+    let mut caps: Vec<f64> = wells.iter().map(|w| rate_cap(model, w, h0)).collect();
+    for _ in 0..8 {
+        let q = rates_at(model, aq, wells, t, t_hold, &caps)?;
+        let placed: Vec<Well> = wells
+            .iter()
+            .zip(&q)
+            .map(|(w, q)| Well {
+                rate: *q,
+                ..w.clone()
+            })
+            .collect();
+        let sch = placed
+            .iter()
+            .map(|w| RateSchedule::constant(0.0, w.rate).expect("finite rate"))
+            .collect();
+        let setup = setup_with(model, aq, placed.clone(), sch, t.max(t_hold)).ok()?;
+        let mut changed = false;
+        for (j, w) in placed.iter().enumerate() {
+            let face = h0 - setup.model.drawdown_at(w.position, t_hold);
+            let cap = rate_cap(model, w, face);
+            if w.rate > cap * (1.0 + 1e-6) {
+                caps[j] = caps[j].min(cap);
+                changed = true;
+            }
+        }
+        if !changed {
+            return Some(q);
+        }
+    }
+    None
+}
+
+/// The most drawdown allowed at a well's screen face, m: initial level − lowest allowed level −
+/// the largest loss at its largest rate (Jacob's C·q_max²), or with an efficiency E the face
+/// floor z₀ − E·(z₀ − lowest) of the steady design (Kruseman & de Ridder 1994, ch. 14).
+fn face_limit(model: &Model, w: &Well, q_max: f64) -> f64 {
+    let z0 = model.aquifer.initial_level;
+    let (lowest, _) = lowest_allowed(model, w);
+    let floor = match model.as_built.loss {
+        WellLossSpec::Jacob(c) => lowest + jacob_loss(c, q_max),
+        WellLossSpec::Efficiency(e) if lowest < z0 => z0 - e * (z0 - lowest),
+        _ => lowest,
+    };
+    z0 - floor.max(model.aquifer.base_level + 0.01)
+}
+
+/// Least-flow rates for `wells` to meet every target at time `t` (s) with the steady design's
+/// allowances, and to keep every well above its lowest allowed level up to `t_hold` (s);
+/// `None` when infeasible.
+///
+/// Rows: every target drawdown plus the operating margin at t; with one well out, every target
+/// itself at t with each well in turn at rate 0 (rows added for the points that fail, until none
+/// fails); every well's face drawdown at `t_hold` at most its [`face_limit`]; 0 ≤ q ≤ `caps`.
+/// With constant rates from day 0 the drawdown never falls with time (each W(u) grows with t, and
+/// the image of a constant-head line is farther than the well), so a well above its floor at
+/// `t_hold` is above it before. Partial penetration enters as in the programme.
+fn rates_at(
+    model: &Model,
+    aq: &TransientAquifer,
+    wells: &[Well],
+    t: f64,
+    t_hold: f64,
+    caps: &[f64],
+) -> Option<Vec<f64>> {
     let setup = setup_with(
         model,
         aq,
@@ -78,7 +178,7 @@ fn rates_at(model: &Model, aq: &TransientAquifer, wells: &[Well], t: f64) -> Opt
             .iter()
             .map(|_| RateSchedule::constant(0.0, 1.0).expect("a constant schedule is valid"))
             .collect(),
-        t,
+        t.max(t_hold),
     )
     .ok()?;
     let groups: Vec<(f64, Vec<[f64; 3]>)> = wells
@@ -90,7 +190,20 @@ fn rates_at(model: &Model, aq: &TransientAquifer, wells: &[Well], t: f64) -> Opt
             (0.0, m)
         })
         .collect();
+    // unit responses in the linear drawdown s′, with the partial-penetration term
+    let response = |positions: &[[f64; 2]], time: f64| -> Vec<Vec<f64>> {
+        let mut m = aq.unit_response(setup.well_radius, positions, &groups, time);
+        if let Some(n) = &setup.near {
+            for (row, p) in m.iter_mut().zip(positions) {
+                for (v, pp) in row.iter_mut().zip((n.rows)(*p)) {
+                    *v -= pp / n.transmissivity;
+                }
+            }
+        }
+        m
+    };
     let h0 = model.aquifer.initial_level;
+    let margin = model.design.operating_margin;
     let pts = check_points(model);
     let targets: Vec<(&str, [f64; 2], f64)> = pts
         .iter()
@@ -101,59 +214,125 @@ fn rates_at(model: &Model, aq: &TransientAquifer, wells: &[Well], t: f64) -> Opt
         .filter(|p| p.2 > 0.0)
         .collect();
     let positions: Vec<[f64; 2]> = targets.iter().map(|p| p.1).collect();
-    let a = aq.unit_response(setup.well_radius, &positions, &groups, t);
+    let a = response(&positions, t);
     let wpos: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
-    let aw = aq.unit_response(setup.well_radius, &wpos, &groups, t);
+    let aw = response(&wpos, t_hold);
     let mut constraints: Vec<Constraint> = targets
         .iter()
-        .zip(a)
+        .zip(&a)
         .map(|((name, _, need), row)| Constraint {
-            coefficients: row,
+            coefficients: row.clone(),
             sense: Sense::AtLeast,
-            rhs: linear(aq, *need),
+            rhs: linear(aq, need + margin),
             label: format!("target at {name}"),
         })
         .collect();
-    let spec = &model.wells;
-    for (w, row) in wells.iter().zip(aw) {
-        let smax = h0 - (w.pump_intake + spec.submergence);
-        if smax > 0.0 {
-            constraints.push(Constraint {
-                coefficients: row,
-                sense: Sense::AtMost,
-                rhs: linear(aq, smax),
-                label: format!("level in {}", w.name),
-            });
+    for ((w, row), cap) in wells.iter().zip(aw).zip(caps) {
+        let smax = face_limit(model, w, *cap);
+        if smax <= 0.0 {
+            return None;
+        }
+        constraints.push(Constraint {
+            coefficients: row,
+            sense: Sense::AtMost,
+            rhs: linear(aq, smax),
+            label: format!("level in {}", w.name),
+        });
+    }
+    let bounds: Vec<(f64, f64)> = caps.iter().map(|c| (0.0, *c)).collect();
+    for _round in 0..12 {
+        let problem = RateProblem {
+            costs: vec![1.0; wells.len()],
+            bounds: bounds.clone(),
+            constraints: constraints.clone(),
+        };
+        let sol = lp::solve(&problem);
+        if sol.status != LpStatus::Optimal {
+            return None;
+        }
+        let q: Vec<f64> = sol.values.iter().map(|q| q.max(0.0)).collect();
+        if !model.design.one_well_out || wells.len() < 2 {
+            return Some(q);
+        }
+        // one well out: for each well, the point that fails worst without it gets a row
+        let mut added = false;
+        for k in 0..wells.len() {
+            let worst = targets
+                .iter()
+                .zip(&a)
+                .map(|((name, _, need), row)| {
+                    let s: f64 = row
+                        .iter()
+                        .zip(&q)
+                        .enumerate()
+                        .filter(|(j, _)| *j != k)
+                        .map(|(_, (u, q))| u * q)
+                        .sum();
+                    (s - linear(aq, *need), name, row)
+                })
+                .min_by(|x, y| x.0.total_cmp(&y.0));
+            if let Some((short, name, row)) = worst {
+                if short < -1e-6 {
+                    let mut c = row.clone();
+                    c[k] = 0.0;
+                    constraints.push(Constraint {
+                        coefficients: c,
+                        sense: Sense::AtLeast,
+                        rhs: linear(
+                            aq,
+                            targets.iter().find(|p| p.0 == *name).map_or(0.0, |p| p.2),
+                        ),
+                        label: format!("target at {name} with {} out", wells[k].name),
+                    });
+                    added = true;
+                }
+            }
+        }
+        if !added {
+            return Some(q);
         }
     }
-    let cap = spec.pump_capacity.unwrap_or(f64::INFINITY);
-    let problem = RateProblem {
-        costs: vec![1.0; wells.len()],
-        bounds: vec![(0.0, cap); wells.len()],
-        constraints,
-    };
-    let sol = lp::solve(&problem);
-    (sol.status == LpStatus::Optimal).then(|| sol.values.iter().map(|q| q.max(0.0)).collect())
+    None
 }
 
 /// Lowest margin (target − level, m) over the target points at time t with these wells, by the
-/// full transient model (rates from day 0).
-fn worst_margin(model: &Model, aq: &TransientAquifer, wells: &[Well], t: f64) -> f64 {
+/// full transient model (rates from day 0), and the lowest margin of a well above its lowest
+/// allowed level (level inside, after its loss) at every output-like time up to `t_hold`.
+fn worst_margins(
+    model: &Model,
+    aq: &TransientAquifer,
+    wells: &[Well],
+    t: f64,
+    t_hold: f64,
+) -> (f64, f64) {
     let sch = wells
         .iter()
         .map(|w| RateSchedule::constant(0.0, w.rate).expect("finite rate"))
         .collect();
-    let Ok(setup) = setup_with(model, aq, wells.to_vec(), sch, t) else {
-        return f64::NEG_INFINITY;
+    let Ok(setup) = setup_with(model, aq, wells.to_vec(), sch, t.max(t_hold)) else {
+        return (f64::NEG_INFINITY, f64::NEG_INFINITY);
     };
     let h0 = model.aquifer.initial_level;
-    check_points(model)
+    let targets = check_points(model)
         .iter()
         .filter_map(|p| {
             p.target_level
                 .map(|z| z - (h0 - setup.model.drawdown_at(p.position, t)))
         })
-        .fold(f64::INFINITY, f64::min)
+        .fold(f64::INFINITY, f64::min);
+    let checks: Vec<f64> = (1..=20).map(|i| t_hold * i as f64 / 20.0).collect();
+    let in_wells = wells
+        .iter()
+        .enumerate()
+        .flat_map(|(j, w)| {
+            let lowest = lowest_allowed(model, w).0;
+            let setup = &setup;
+            checks
+                .iter()
+                .map(move |&tc| level_in_well(model, &setup.model, j, w.position, tc) - lowest)
+        })
+        .fold(f64::INFINITY, f64::min);
+    (targets, in_wells)
 }
 
 /// The fewest wells (ring count) and least flow meeting every target by `day` of pumping.
@@ -179,10 +358,28 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
         ));
     };
     let t = day * DAY;
+    // the wells must stay above their floors for the whole programme (at least to day N)
+    let t_hold = model.programme.as_ref().map_or(t, |p| p.duration.max(t));
     let mut trials = Vec::new();
-    let mut notes = Vec::new();
+    let d = &model.design;
+    let mut notes = vec![format!(
+        "allowances as in the steady design: targets by day {day} with an operating margin of {:.2} m; at most {:.0} % of each well's capacity (the lower of the pump's and Sichardt's on the screen wetted at the well's lowest level in that time); {}; every well's level (after its loss) above its lowest allowed level up to day {:.1}{}",
+        d.operating_margin,
+        d.capacity_fraction * 100.0,
+        if d.one_well_out {
+            "every target still met with any one well out"
+        } else {
+            "one well out not asked"
+        },
+        t_hold / DAY,
+        if model.programme.is_some() {
+            " (the end of the programme's pumping)"
+        } else {
+            " (no [programme]: day N)"
+        }
+    )];
     let try_wells = |wells: Vec<Well>, trials: &mut Vec<DatedTrial>| {
-        let r = rates_at(model, &aq, &wells, t);
+        let r = rates_within_capacity(model, &aq, &wells, t, t_hold);
         trials.push(DatedTrial {
             count: wells.len(),
             feasible: r.is_some(),
@@ -252,15 +449,21 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
     };
     let wells = found.unwrap_or_default();
     let total = wells.iter().map(|w| w.rate).sum();
-    let margin = if wells.is_empty() {
-        f64::NEG_INFINITY
+    let (margin, well_margin) = if wells.is_empty() {
+        (f64::NEG_INFINITY, f64::NEG_INFINITY)
     } else {
-        worst_margin(model, &aq, &wells, t)
+        worst_margins(model, &aq, &wells, t, t_hold)
     };
     Ok(DatedDesign {
         day,
-        met: !wells.is_empty() && margin >= -TOLERANCE,
+        met: !wells.is_empty() && margin >= -TOLERANCE && well_margin >= -TOLERANCE,
         worst_margin: if margin.is_finite() { margin } else { 0.0 },
+        well_margin: if well_margin.is_finite() {
+            well_margin
+        } else {
+            0.0
+        },
+        hold_until: t_hold,
         wells,
         total,
         trials,

@@ -280,7 +280,8 @@ pub fn near_term(model: &Model, wells: &[Well]) -> Option<NearTerm> {
         return None;
     }
     let without = field_with_radius(model, wells, r).fully_penetrating();
-    let cache: RwLock<HashMap<(u64, u64), Arc<Vec<f64>>>> = RwLock::new(HashMap::new());
+    type RowCache = RwLock<HashMap<(u64, u64), Arc<Vec<f64>>>>;
+    let cache: RowCache = RwLock::new(HashMap::new());
     let rows = move |p: [f64; 2]| -> Vec<f64> {
         let key = (p[0].to_bits(), p[1].to_bits());
         if let Some(v) = cache.read().ok().and_then(|c| c.get(&key).cloned()) {
