@@ -320,7 +320,7 @@ fn a_missing_file_a_folder_and_a_zero_byte_file_are_bad_input() {
     std::fs::write(&zero, b"").expect("write");
     for (path, hint) in [
         (missing.as_path(), "cannot read"),
-        (dir.path(), "cannot read"),
+        (dir.path(), "not a regular file"),
         (zero.as_path(), "empty"),
     ] {
         let run = estimate(path);
