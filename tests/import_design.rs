@@ -207,3 +207,23 @@ fn errors_name_what_is_wrong_and_what_would_do() {
     .unwrap_err();
     assert!(e.message.contains("mm, cm, m, ft, in"), "{e}");
 }
+
+// #19.4: a well listed in the design file and a well of the drawing with the same name: the
+// message names the drawing, the layer and the entity the second came from, and no line of the
+// text drydig rewrote internally (the design file has no line for a well from a drawing).
+#[test]
+fn duplicate_name_from_a_drawing_cites_the_drawing() {
+    let text = variant("kind = \"ring\"", "kind = \"listed\"").replacen(
+        "rate = \"7.0 L/s\"",
+        &format!(
+            "wells_from = {{ file = \"{}\", layer = \"WELLS\", rate = \"4 L/s\" }}",
+            dxf()
+        ),
+        1,
+    ) + "\n[[well]]\nname = \"WELLS 2\"\nx = 1020.0\ny = 2040.0\nrate = \"1 L/s\"\n";
+    let e = load_text(&text).unwrap_err();
+    assert!(e.field.starts_with("well["), "{e}");
+    assert!(e.message.contains("riverside_site.dxf, layer WELLS"), "{e}");
+    assert!(e.message.contains("handle"), "{e}");
+    assert_eq!(e.line, None, "{e}");
+}

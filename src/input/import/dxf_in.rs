@@ -24,13 +24,13 @@ use dxf::entities::Entity;
 use dxf::enums::Units;
 use geo::{Coord, LineString, Point, Polygon};
 
-use super::dxf_wells as wells;
+use super::dxf_wells::{self as wells, Found};
 use super::dxf_world::{self, PlacedKind};
 use super::{ring_problem, Drawing, Marker, Shape};
 use crate::input::error::InputError;
 use crate::input::read::{read_capped, MAX_DXF_BYTES};
 
-pub use super::dxf_world::flatten;
+pub use super::dxf_arcs::flatten;
 
 /// A length unit a drawing may be in.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -318,14 +318,6 @@ pub fn from_drawing(
     }
     notes(&mut out, &world, unit, options, &naming);
     Ok(out)
-}
-
-/// A point found on the layer, before it is named.
-pub(crate) struct Found {
-    pub(crate) marker: Marker,
-    /// Position in drawing units (for the distance to labels).
-    pub(crate) drawn_at: (f64, f64),
-    pub(crate) instance: Option<usize>,
 }
 
 /// A symbol drawn as a circle and a centre point (or two concentric circles) is one well: points

@@ -4,11 +4,18 @@
 //! heights, or 2 m for text of no height), else the layer and a number (`WELLS 3`). Two wells
 //! of one name are refused naming both, in the user's drawing.
 
-use super::dxf_in::Found;
 use super::dxf_world::World;
 use super::Marker;
 use crate::input::error::InputError;
 use std::path::Path;
+
+/// A point found on the layer, before it is named.
+pub(crate) struct Found {
+    pub(crate) marker: Marker,
+    /// Position in drawing units (for the distance to labels).
+    pub(crate) drawn_at: (f64, f64),
+    pub(crate) instance: Option<usize>,
+}
 
 /// Attribute tags taken as a well's name, in order of preference (compared without case).
 const NAME_TAGS: [&str; 10] = [

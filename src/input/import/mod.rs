@@ -9,6 +9,7 @@
 //! and what would be valid.
 
 pub mod crs;
+pub mod dxf_arcs;
 pub mod dxf_in;
 pub mod dxf_wells;
 pub mod dxf_world;
