@@ -349,3 +349,39 @@ fn a_missing_file_a_folder_and_a_zero_byte_file_are_bad_input() {
         assert!(!stderr.contains("panicked"), "{stderr}");
     }
 }
+
+/// A self-crossing outline read from a GeoJSON drawing (a bow-tie, whose two lobes cancel to no
+/// area, and a figure of eight) is reported as crossing itself, not as "all vertices on one
+/// line".
+#[test]
+fn a_self_crossing_drawn_outline_is_called_self_crossing() {
+    let base = std::fs::read_to_string(corpus_dir().join("outline_collinear.toml")).unwrap();
+    for (what, ring) in [
+        ("bow-tie", "[[0,0],[40,30],[40,0],[0,30],[0,0]]"),
+        ("figure of eight", "[[0,0],[40,30],[40,0],[0,20],[0,0]]"),
+    ] {
+        let d = tempfile::tempdir().unwrap();
+        let gj = d.path().join("site.geojson");
+        std::fs::write(
+            &gj,
+            format!(
+                r#"{{"type":"FeatureCollection","features":[{{"type":"Feature","properties":{{"kind":"excavation"}},"geometry":{{"type":"Polygon","coordinates":[{ring}]}}}}]}}"#
+            ),
+        )
+        .unwrap();
+        let text = base.replace(
+            "outline = [[0, 0], [10, 0], [20, 0], [30, 0]]",
+            &format!(
+                "outline_from = {{ file = \"{}\", property = \"kind\", value = \"excavation\" }}",
+                gj.display()
+            ),
+        );
+        let f = d.path().join("design.toml");
+        std::fs::write(&f, text).unwrap();
+        let out = estimate(&f);
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{what}: {err}");
+        assert!(err.contains("crosses itself"), "{what}: {err}");
+        assert!(!err.contains("one line"), "{what}: {err}");
+    }
+}
