@@ -19,8 +19,8 @@
 //! | `DRYDIG-SECTION` | the section line of `section.svg`, with its end letters A and A′ |
 //! | `DRYDIG-NOTES` | the caution and the units |
 //!
-//! Written as DXF R2000 (LWPOLYLINE) by the `dxf` crate; the drawing is checked by reading it
-//! back with ezdxf in the tests.
+//! Written as DXF R2000 (LWPOLYLINE) by the `dxf` crate, with fixed header dates and GUIDs so the bytes
+//! depend on the design only; the drawing is checked by reading it back with ezdxf in the tests.
 
 use crate::check::run::CheckRun;
 use crate::check::section::Section;
@@ -167,6 +167,14 @@ pub fn design_dxf(run: &CheckRun, grid: &LevelGrid, section: &Section) -> anyhow
     let mut d = dxf::Drawing::new();
     d.header.version = dxf::enums::AcadVersion::R2000;
     d.header.default_drawing_units = unit.insunits();
+    // Fixed dates (the epoch, 1970-01-01) and nil GUIDs: the same design gives the same bytes,
+    // run after run.
+    d.header.creation_date = Default::default();
+    d.header.creation_date_universal = Default::default();
+    d.header.update_date = Default::default();
+    d.header.update_date_universal = Default::default();
+    d.header.fingerprint_guid = Default::default();
+    d.header.version_guid = Default::default();
     for (name, colour) in LAYERS {
         if name != "0" {
             d.add_layer(Layer {
