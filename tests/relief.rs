@@ -76,3 +76,99 @@ fn map_and_section_show_the_relief_head() {
         "no dewatering target on the section"
     );
 }
+
+/// Theis well function W(u) = E₁(u): for u < 1 its series −γ − ln u − Σ (−u)ᵏ/(k·k!) (Abramowitz
+/// & Stegun, *Handbook of Mathematical Functions*, eq. 5.1.11), for u ≥ 1 their rational
+/// approximation 5.1.56, u·eᵘ·E₁(u) = (u² + 2.334733u + 0.250621)/(u² + 3.330657u + 1.681534),
+/// error below 5e-5 relative.
+fn theis_w(u: f64) -> f64 {
+    if u >= 1.0 {
+        let ratio = (u * u + 2.334_733 * u + 0.250_621) / (u * u + 3.330_657 * u + 1.681_534);
+        return ratio * (-u).exp() / u;
+    }
+    let mut sum = 0.0;
+    let mut term = 1.0;
+    for k in 1..40 {
+        term *= -u / k as f64;
+        sum += term / k as f64;
+    }
+    -0.577_215_664_901_532_9 - u.ln() - sum
+}
+
+/// Time to flood for a relief shaft is the time to factor of safety 1.0 against uplift. Checked by
+/// hand: with every pump stopped at the failure moment t_f after pumping Q from day 0, Theis
+/// recovery (superposition of a recharge well from t_f; Theis 1935) leaves at the point
+/// s′ = Σ Q/(4πT)·[W(r²S/(4T(t_f+Δ))) − W(r²S/(4TΔ))]; at the reported Δ the head h₀ − s′ must
+/// give FoS = γ·(z_f − z_top)/(γ_w·(h − z_top)) = 1.0.
+#[test]
+fn time_to_flood_of_a_relief_shaft_is_the_time_to_uplift_factor_one() {
+    let text = std::fs::read_to_string(shaft()).expect("demo") + PROGRAMME;
+    let m = drydig::input::validate::file::from_str(std::path::Path::new("shaft.toml"), &text)
+        .expect("demo with a programme loads");
+    let setup = drydig::transient::programme::setup(&m).expect("programme set up");
+    let a = drydig::transient::answers::answer(&m, &setup);
+    let f = a.flood.expect("a failure moment");
+    assert!(f.relief);
+    // The head at FoS 1.0 by hand: 2.0 + 20·2.5/9.81 = 7.0968 m (initial level = piezometric).
+    let h1 = 2.0 + 20.0 * 2.5 / 9.81;
+    assert!(
+        (f.formation_level - h1).abs() < 1e-9,
+        "{}",
+        f.formation_level
+    );
+    let dt = f.all_off.expect("the base would lift within the search");
+    let points = drydig::field::checkpoints::check_points(&m);
+    let p = points
+        .iter()
+        .find(|p| p.name == f.point)
+        .expect("the point")
+        .position;
+    // T = K·(top − base) = 1e-4·14 m²/s, S = 2e-4, Q = 6 L/s per well, six wells.
+    let (t, s) = (1e-4 * 14.0, 2e-4);
+    let residual = |delta: f64| -> f64 {
+        setup
+            .wells
+            .iter()
+            .map(|w| {
+                let r2 = (w.position[0] - p[0]).powi(2) + (w.position[1] - p[1]).powi(2);
+                let u = |time: f64| r2 * s / (4.0 * t * time);
+                0.006 / (4.0 * std::f64::consts::PI * t)
+                    * (theis_w(u(f.moment + delta)) - theis_w(u(delta)))
+            })
+            .sum()
+    };
+    // The hand time to FoS 1.0: the residual falls to h₀ − h₁ (bisection on the formula above).
+    let (mut lo, mut hi) = (1e-3_f64, 30.0 * 86_400.0_f64);
+    for _ in 0..200 {
+        let mid = (lo * hi).sqrt();
+        if residual(mid) > INITIAL_HEAD - h1 {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    let fos = |delta: f64| 20.0 * 2.5 / (9.81 * (INITIAL_HEAD - residual(delta) - 2.0));
+    // The programme finds crossings by bisection to 1 s; a confined layer of S = 2e-4 recovers
+    // within seconds, so the shaft's base would lift a few seconds after the pumps stop.
+    assert!(
+        (dt - hi).abs() <= 1.0,
+        "programme {dt:.2} s, by hand {hi:.2} s (FoS there {:.4}), failure on day {:.3}",
+        fos(dt),
+        f.moment / 86_400.0
+    );
+    assert!((fos(hi) - 1.0).abs() < 1e-6);
+}
+
+const PROGRAMME: &str = r#"
+[programme]
+start_date = "2027-03-01"
+duration = "10 days"
+output_step = "1 day"
+recovery = "2 days"
+
+[[programme.stage]]
+name = "Sink to formation"
+start = "0 days"
+formation_level = "4.5 m"
+rate = "6 L/s"
+"#;
