@@ -62,8 +62,11 @@ pub struct ExcavationEstimate {
     pub equivalent_radius_perimeter_form_m: f64,
     /// Formation level.
     pub formation_level_m: f64,
-    /// Target level (formation − margin).
+    /// Target level: formation − margin, or the relief head where the design works to it.
     pub target_level_m: f64,
+    /// The target is the relief head against base uplift (`control = "relieve"`, or `"both"`
+    /// where it is the lower).
+    pub relief_head: bool,
     /// Drawdown needed at the excavation, H − h_target.
     pub drawdown_m: f64,
     /// Method used and why.
@@ -182,7 +185,10 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     let (length, width, along_centre) = measure(e);
     let r_e = equivalent::equivalent_radius_from_area(area);
     let r_p = equivalent::equivalent_radius_from_perimeter(perimeter);
-    let target = e.target_level();
+    // The level the design works to: the relief head for `control = "relieve"` (or where it is
+    // the lower in `"both"`), else formation − margin; the same as the check points carry.
+    let design_target = crate::field::checkpoints::design_target(model, e);
+    let target = design_target.level.unwrap_or(aq.initial_level);
     let s = aq.initial_level - target;
     let delta_phi = aq.initial_potential() - aq.potential(target);
     let aspect = if width > 0.0 {
@@ -193,7 +199,19 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     let mut notes = Vec::new();
     let leaky = aq.leakage_factor();
 
-    let (method, reason) = if s <= 0.0 {
+    if design_target.relief {
+        notes.push(format!(
+            "sized for the relief head {target:.2} m (base uplift, [uplift]: factor of safety {:.2}), not formation − margin ({:.2} m)",
+            model.uplift.as_ref().map_or(0.0, |u| u.factor_of_safety),
+            e.target_level()
+        ));
+    }
+    let (method, reason) = if design_target.level.is_none() {
+        (
+            FlowMethod::NoneNeeded,
+            "relief only, and the confined layer's head already gives the required factor of safety against uplift".to_string(),
+        )
+    } else if s <= 0.0 {
         (
             FlowMethod::NoneNeeded,
             format!(
@@ -383,6 +401,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         equivalent_radius_perimeter_form_m: r_p,
         formation_level_m: e.formation_level,
         target_level_m: target,
+        relief_head: design_target.relief,
         drawdown_m: s,
         flow_method: method,
         flow_method_reason: reason,

@@ -3,6 +3,7 @@
 //! drawing only formats what is found here.
 
 use crate::check::run::CheckRun;
+use crate::field::checkpoints::DesignTarget;
 use crate::physics::potential::Level;
 use geo::{Centroid, Contains, Point};
 
@@ -48,8 +49,10 @@ pub struct Crossing {
     pub to: f64,
     /// Formation level (excavation) or foundation level (neighbour), m.
     pub level: Option<f64>,
-    /// Target level (excavation), m.
+    /// Target level (excavation), m: the relief head for a relief excavation.
     pub target: Option<f64>,
+    /// The target is the relief head against base uplift, not formation − margin.
+    pub relief: bool,
 }
 
 /// The section: line, levels along it and what it crosses.
@@ -200,11 +203,12 @@ pub fn default_line(run: &CheckRun, toward: Option<[f64; 2]>) -> ([[f64; 2]; 2],
 }
 
 fn crossings<'a>(
-    items: impl Iterator<Item = (&'a str, &'a geo::Polygon<f64>, Option<f64>, Option<f64>)>,
+    items: impl Iterator<Item = (&'a str, &'a geo::Polygon<f64>, Option<f64>, DesignTarget)>,
     samples: &[SectionSample],
 ) -> Vec<Crossing> {
     let mut out = Vec::new();
-    for (name, poly, level, target) in items {
+    for (name, poly, level, design) in items {
+        let (target, relief) = (design.level, design.relief);
         let mut run: Option<(f64, f64)> = None;
         for s in samples {
             let inside = poly.contains(&Point::new(s.position[0], s.position[1]));
@@ -218,6 +222,7 @@ fn crossings<'a>(
                         to: b,
                         level,
                         target,
+                        relief,
                     });
                     run = None;
                 }
@@ -231,6 +236,7 @@ fn crossings<'a>(
                 to: b,
                 level,
                 target,
+                relief,
             });
         }
     }
@@ -292,15 +298,19 @@ pub fn section(run: &CheckRun, line: [[f64; 2]; 2], basis: &str) -> Section {
                 e.name.as_str(),
                 &e.outline,
                 Some(e.formation_level),
-                Some(e.target_level()),
+                crate::field::checkpoints::design_target(m, e),
             )
         }),
         &samples,
     );
     let neighbours = crossings(
-        m.neighbours
-            .iter()
-            .map(|n| (n.name.as_str(), &n.footprint, n.foundation_level, None)),
+        m.neighbours.iter().map(|n| {
+            let none = DesignTarget {
+                level: None,
+                relief: false,
+            };
+            (n.name.as_str(), &n.footprint, n.foundation_level, none)
+        }),
         &samples,
     );
     Section {

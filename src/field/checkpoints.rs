@@ -3,7 +3,7 @@
 //! For each excavation: a grid inside the outline, every corner, and points along every edge,
 //! each with the excavation's target level (formation − margin); plus the points the user names.
 
-use crate::input::model::{Control, Model, Uplift};
+use crate::input::model::{Control, Excavation, Model, Uplift};
 use crate::physics::uplift::{overburden, required_head};
 use geo::{BoundingRect, Contains, Point};
 use serde::Serialize;
@@ -120,8 +120,6 @@ pub fn check_points(model: &Model) -> Vec<CheckPoint> {
     out
 }
 
-/// The level the superposition field must reach for h_req: the drawdown the layer needs
-/// (h_p − h_req) taken off the aquifer's initial level. `None` when no relief is needed.
 /// Where the outline `ring` crosses the horizontal line at `y`, sorted: the even–odd rule of a
 /// scanline fill (Foley, van Dam, Feiner & Hughes, *Computer Graphics*, 2nd ed., §3.6), so a grid
 /// row costs one pass over the edges instead of one per point — near-linear in the vertices.
@@ -170,11 +168,48 @@ pub fn inside_point(poly: &geo::Polygon<f64>) -> Option<[f64; 2]> {
         .map(|w| [0.5 * (w[0] + w[1]), y])
 }
 
+/// The level the superposition field must reach for h_req: the drawdown the layer needs
+/// (h_p − h_req) taken off the aquifer's initial level. `None` when no relief is needed.
 pub fn field_target(model: &Model, u: &Uplift, formation_level: f64) -> Option<f64> {
     let sigma = overburden(u.soil_unit_weight, formation_level, u.layer_top);
     let h_req = required_head(sigma, u.layer_top, u.factor_of_safety);
     (h_req < u.piezometric_level)
         .then_some(model.aquifer.initial_level - (u.piezometric_level - h_req))
+}
+
+/// The level an excavation is designed to, and whether it is the relief head.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct DesignTarget {
+    /// Level the water (field) must be at or below, m; `None`: relief only and none needed.
+    pub level: Option<f64>,
+    /// The level is the relief head h_req (as a field level), not formation − margin.
+    pub relief: bool,
+}
+
+/// The target an excavation is designed to, the same as its check points carry
+/// ([`add_uplift_points`]): `"dewater"` formation − margin; `"relieve"` the relief head
+/// ([`field_target`]; `None` when the layer needs no relief; formation − margin when the file has
+/// no `[uplift]`, which validation refuses); `"both"` the lower of the two.
+pub fn design_target(model: &Model, e: &Excavation) -> DesignTarget {
+    let dewater = e.target_level();
+    let relief = model
+        .uplift
+        .as_ref()
+        .map(|u| field_target(model, u, e.formation_level));
+    match (e.control, relief) {
+        (Control::Relieve, Some(t)) => DesignTarget {
+            level: t,
+            relief: true,
+        },
+        (Control::Both, Some(Some(t))) if t < dewater => DesignTarget {
+            level: Some(t),
+            relief: true,
+        },
+        _ => DesignTarget {
+            level: Some(dewater),
+            relief: false,
+        },
+    }
 }
 
 /// Add the uplift check points of every excavation that needs relief: its corners and an

@@ -66,7 +66,11 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
     );
     row(
         out,
-        "formation / target level",
+        if e.relief_head {
+            "formation / relief head"
+        } else {
+            "formation / target level"
+        },
         format!(
             "{} / {}",
             len(e.formation_level_m, units),

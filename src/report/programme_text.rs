@@ -93,6 +93,36 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
     }
     s.push('\n');
     match &a.flood {
+        Some(f) if f.relief => {
+            s.push_str(&format!(
+                "\n  TIME TO UPLIFT FACTOR OF SAFETY 1.0 (worst moment: day {}, stage \"{}\", {} with {:.2} m below the head {:.2} m at which the base would lift)\n",
+                days(f.moment),
+                f.stage,
+                f.point,
+                f.margin,
+                f.formation_level
+            ));
+            let words = |t: Option<f64>, held: &str| {
+                t.map_or(held.to_string(), |t| {
+                    format!(
+                        "factor of safety against uplift 1.0 after {}",
+                        duration_words(t)
+                    )
+                })
+            };
+            s.push_str(&format!(
+                "    every pump off:      {}\n",
+                words(f.all_off, "factor of safety stays above 1.0 for a year")
+            ));
+            s.push_str(&format!(
+                "    well {} off alone: {}\n",
+                f.well,
+                words(
+                    f.well_off,
+                    "the other wells keep the factor of safety above 1.0"
+                )
+            ));
+        }
         Some(f) => {
             s.push_str(&format!(
                 "\n  TIME TO FLOOD (worst moment: day {}, stage \"{}\", {} with {:.2} m below formation {:.2} m)\n",

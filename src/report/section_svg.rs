@@ -176,7 +176,11 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
                 r##"<line x1="{a:.1}" x2="{b:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#c00" stroke-width="1.2" stroke-dasharray="6 3"/><text x="{:.1}" y="{:.1}" fill="#c00" font-size="11">{}</text>"##,
                 a + 4.0,
                 py(t) + 13.0,
-                esc(&format!("target {}", f.level(t))),
+                esc(&format!(
+                    "{} {}",
+                    if e.relief { "relief head" } else { "target" },
+                    f.level(t)
+                )),
                 y = py(t)
             );
         }
@@ -239,11 +243,16 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     }
     // Legend.
     let ly = H - 30.0;
+    let target_label = if s.excavations.iter().any(|e| e.relief) {
+        "target level / relief head"
+    } else {
+        "target level"
+    };
     let items: [(&str, &str, &str); 6] = [
         ("#5a3d1e", "none", "ground, aquifer top and base"),
         ("#1f5fbf", "8 4", "water level before pumping"),
         ("#1f5fbf", "none", "water level while pumping"),
-        ("#c00", "6 3", "target level"),
+        ("#c00", "6 3", target_label),
         ("#222", "2 1.5", "well screen"),
         ("#e07b00", "none", "pump intake"),
     ];

@@ -19,9 +19,14 @@
 //! (to 60 s), so the worst moment itself is found, not the nearest output time. The same is done
 //! there with only the most important well off (the one giving the most drawdown at that point at
 //! that moment). Searched up to [`FLOOD_SEARCH`] after the failure.
+//!
+//! Relief excavations (`control = "relieve"`): a stage is ready when its points stand at the
+//! relief head, and "flood" is the base lifting: the time until the head rises to the level at
+//! which the factor of safety against uplift falls to 1.0 (formation level replaced by that head).
 
 use crate::field::checkpoints::{check_points, PointKind};
-use crate::input::model::Model;
+use crate::input::model::{Control, Model};
+use crate::physics::uplift::{overburden, required_head};
 use crate::transient::programme::{diffusion_parameters, switched_off, ProgrammeSetup};
 use crate::transient::steady_link::{steady_link, SteadyLink};
 use crate::transient::well_levels::{breaches, level_in_well, lowest_allowed, WellBreach};
@@ -106,11 +111,14 @@ pub struct Flood {
     pub stage: String,
     /// Point that floods.
     pub point: String,
-    /// Formation level there, m.
+    /// Level the water must stay below, m: formation, or for a relief excavation the head at
+    /// which the factor of safety against uplift falls to 1.0 (as a field level).
     pub formation_level: f64,
-    /// Margin below formation at the failure, m.
+    /// The excavation is relief only (`control = "relieve"`): "flood" means uplift FoS 1.0.
+    pub relief: bool,
+    /// Margin below that level at the failure, m.
     pub margin: f64,
-    /// Time from failure until water stands above formation with every pump off, s (`None`:
+    /// Time from failure until water stands above that level with every pump off, s (`None`:
     /// not within [`FLOOD_SEARCH`]).
     pub all_off: Option<f64>,
     /// The most important well.
@@ -318,7 +326,8 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
         .enumerate()
         .map(|(k, st)| {
             let exc = &model.excavations[st.excavation];
-            let target = st.formation_level - exc.target_margin;
+            let target = relief_levels(model, st.excavation, st.formation_level)
+                .map_or(st.formation_level - exc.target_margin, |r| r.0);
             let need = h0 - target;
             let idx = in_exc(st.excavation);
             let all_met = |t: f64| {
@@ -447,6 +456,22 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
     }
 }
 
+/// For a stage of a relief excavation (`control = "relieve"`): the relief head at the required
+/// factor of safety and the head at which the factor falls to 1.0, both as field levels
+/// (h_req = z_top + σ_v/(γ_w·FoS), [`crate::physics::uplift`], taken off the initial level as
+/// [`crate::field::checkpoints::field_target`] does); `None` for other excavations.
+fn relief_levels(model: &Model, excavation: usize, formation: f64) -> Option<(f64, f64)> {
+    let u = model.uplift.as_ref()?;
+    if model.excavations[excavation].control != Control::Relieve {
+        return None;
+    }
+    let sigma = overburden(u.soil_unit_weight, formation, u.layer_top);
+    let field = |fos: f64| {
+        model.aquifer.initial_level - (u.piezometric_level - required_head(sigma, u.layer_top, fos))
+    };
+    Some((field(u.factor_of_safety), field(1.0)))
+}
+
 /// The failure at one moment `t` in stage `k`: the excavation point with the least margin below
 /// formation (none when the stage is not dry there), that margin, and the time until water stands
 /// above formation there with every pump off.
@@ -462,7 +487,9 @@ fn flood_at(
 ) -> Option<FloodMoment> {
     let prog = model.programme.as_ref()?;
     let h0 = model.aquifer.initial_level;
-    let f = prog.stages[k].formation_level;
+    let st = &prog.stages[k];
+    let f =
+        relief_levels(model, st.excavation, st.formation_level).map_or(st.formation_level, |r| r.1);
     let (i, margin) = idx
         .iter()
         .map(|&i| (i, f - (h0 - setup.model.drawdown_at(points[i].position, t))))
@@ -602,7 +629,10 @@ fn flood(
             }
         })
         .collect();
-    let limit = h0 - prog.stages[k].formation_level;
+    let st = &prog.stages[k];
+    let relief = relief_levels(model, st.excavation, st.formation_level);
+    let level = relief.map_or(st.formation_level, |r| r.1);
+    let limit = h0 - level;
     let well_off = setup.with_schedules(sch).ok().and_then(|m| {
         // Only while the programme still pumps: beyond its end every pump stops anyway.
         let cap = (prog.duration - t).max(1.0);
@@ -612,7 +642,8 @@ fn flood(
         moment: t,
         stage: prog.stages[k].name.clone(),
         point: points[i].name.clone(),
-        formation_level: prog.stages[k].formation_level,
+        formation_level: level,
+        relief: relief.is_some(),
         margin,
         all_off,
         well: setup.wells[w_best].name.clone(),

@@ -177,11 +177,26 @@ pub fn inputs(cx: &Context) -> Part {
             f.level(e.formation_level),
             "[[excavation]] formation_level",
         );
-        add(
-            &format!("{}: target water level", e.name),
-            f.level(e.target_level()),
-            "formation − target_margin",
-        );
+        match crate::field::checkpoints::design_target(m, e) {
+            crate::field::checkpoints::DesignTarget {
+                level: Some(t),
+                relief: true,
+            } => add(
+                &format!("{}: relief head (confined layer)", e.name),
+                f.level(t),
+                "[uplift]: layer top + soil weight above / (γ_w · factor_of_safety)",
+            ),
+            crate::field::checkpoints::DesignTarget { level: None, .. } => add(
+                &format!("{}: relief head (confined layer)", e.name),
+                "none needed".to_string(),
+                "[uplift]",
+            ),
+            _ => add(
+                &format!("{}: target water level", e.name),
+                f.level(e.target_level()),
+                "formation − target_margin",
+            ),
+        }
     }
     add(
         "influence method",

@@ -120,7 +120,13 @@ pub(super) fn draw_excavations(
                 2
             },
         );
-        let target = format!("target ≤ {} {lu}", signed(u.length(e.target_level()), dl));
+        // Relief (`control = "relieve"`, or `"both"` where it is lower): the relief head.
+        let design = crate::field::checkpoints::design_target(run.model, e);
+        let target = match (design.level, design.relief) {
+            (Some(t), true) => format!("relief head ≤ {} {lu}", signed(u.length(t), dl)),
+            (Some(t), false) => format!("target ≤ {} {lu}", signed(u.length(t), dl)),
+            (None, _) => "relief head: none needed".to_string(),
+        };
         let formation = format!("formation {} {lu}", signed(u.length(e.formation_level), dl));
         let (s1, s2) = (13.0, 11.0);
         let w = text_width(&name, s1).max(text_width(&formation, s2)) + 8.0;
