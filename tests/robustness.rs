@@ -103,7 +103,7 @@ fn dev_zero_and_a_huge_file_are_refused_quickly_with_the_cap() {
     let run = drydig(&["estimate", "/dev/zero"]);
     assert_clean_exit(&run, &[2], "/dev/zero");
     assert!(
-        text(&run.stderr).contains("16 MiB"),
+        text(&run.stderr).contains("not a regular file"),
         "{}",
         text(&run.stderr)
     );
