@@ -357,8 +357,14 @@ fn a_missing_file_a_folder_and_a_zero_byte_file_are_bad_input() {
 fn a_self_crossing_drawn_outline_is_called_self_crossing() {
     let base = std::fs::read_to_string(corpus_dir().join("outline_collinear.toml")).unwrap();
     for (what, ring) in [
-        ("bow-tie", "[[1000,0],[1040,30],[1040,0],[1000,30],[1000,0]]"),
-        ("figure of eight", "[[1000,0],[1040,30],[1040,0],[1000,20],[1000,0]]"),
+        (
+            "bow-tie",
+            "[[1000,0],[1040,30],[1040,0],[1000,30],[1000,0]]",
+        ),
+        (
+            "figure of eight",
+            "[[1000,0],[1040,30],[1040,0],[1000,20],[1000,0]]",
+        ),
     ] {
         let d = tempfile::tempdir().unwrap();
         let gj = d.path().join("site.geojson");

@@ -149,7 +149,10 @@ fn wells_csv_of_a_foreign_file_is_not_echoed() {
         !err.contains("root:x") && !err.contains("/bin/bash"),
         "{err}"
     );
-    assert!(err.contains("name, x_m (or x), y_m (or y), rate_l_per_s"), "{err}");
+    assert!(
+        err.contains("name, x_m (or x), y_m (or y), rate_l_per_s"),
+        "{err}"
+    );
 }
 
 // The wiring from [site] crs to the GeoJSON reader: a standard lon/lat outline (RFC 7946, no crs
