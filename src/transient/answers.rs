@@ -29,7 +29,9 @@ use crate::input::model::{Control, Model};
 use crate::physics::uplift::{overburden, required_head};
 use crate::transient::programme::{diffusion_parameters, switched_off, ProgrammeSetup};
 use crate::transient::steady_link::{steady_link, SteadyLink};
-use crate::transient::well_levels::{breaches, level_in_well, lowest_allowed, WellBreach};
+use crate::transient::well_levels::{
+    breaches, first_true, level_in_well, lowest_allowed, WellBreach,
+};
 use crate::transient::TransientModel;
 use rayon::prelude::*;
 
@@ -213,22 +215,6 @@ pub fn output_times(starts: &[f64], duration: f64, recovery: f64, step: f64) -> 
     t
 }
 
-/// Bisection on a predicate that is false at `lo` and true at `hi`, to 1 s: the first time true.
-fn bisect(mut lo: f64, mut hi: f64, ok: impl Fn(f64) -> bool) -> f64 {
-    for _ in 0..200 {
-        if hi - lo <= 1.0 {
-            break;
-        }
-        let mid = 0.5 * (lo + hi);
-        if ok(mid) {
-            hi = mid;
-        } else {
-            lo = mid;
-        }
-    }
-    hi
-}
-
 /// First time after `from` (s) that the drawdown at `point` falls below `limit` (m), searched
 /// to `from + cap`: 300 times spaced geometrically from 1 s, then bisection. `None` if it
 /// stays at or above the limit.
@@ -249,7 +235,7 @@ pub fn time_until_below(
     for i in 1..=n {
         let t = from + ratio.powi(i);
         if below(t) {
-            return Some(bisect(lo, t, below) - from);
+            return Some(first_true(lo, t, below) - from);
         }
         lo = t;
     }
@@ -261,7 +247,7 @@ fn first_crossing(times: &[f64], values: &[bool], ok: impl Fn(f64) -> bool) -> O
     if k == 0 {
         return Some(times[0]);
     }
-    Some(bisect(times[k - 1], times[k], ok))
+    Some(first_true(times[k - 1], times[k], ok))
 }
 
 /// Answer the programme on its setup. See the module notes for the method.

@@ -88,7 +88,7 @@ pub fn level_in_well(
 }
 
 /// Bisection on a predicate false at `lo` and true at `hi`, to 1 s: the first time true.
-fn first_true(mut lo: f64, mut hi: f64, ok: impl Fn(f64) -> bool) -> f64 {
+pub(crate) fn first_true(mut lo: f64, mut hi: f64, ok: impl Fn(f64) -> bool) -> f64 {
     for _ in 0..200 {
         if hi - lo <= 1.0 {
             break;
