@@ -10,8 +10,12 @@ fn days(t: f64) -> String {
     format!("{:.1}", t / DAY)
 }
 
+/// A duration in words: seconds below two minutes (a relief well field can lose its safety
+/// against uplift within seconds of the pumps stopping), then minutes, hours, days.
 fn duration_words(t: f64) -> String {
-    if t < 3600.0 {
+    if t < 120.0 {
+        format!("{:.0} s", t)
+    } else if t < 3600.0 {
         format!("{:.0} min", t / 60.0)
     } else if t < 2.0 * DAY {
         format!("{:.1} h", t / 3600.0)
@@ -293,4 +297,19 @@ pub fn to_csv(model: &Model, a: &ProgrammeAnswers) -> Vec<u8> {
         s.push('\n');
     }
     s.into_bytes()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::duration_words;
+
+    #[test]
+    fn short_durations_are_not_rounded_to_zero_minutes() {
+        // 7 s is what a confined layer with S = 2e-4 can take to recover to uplift after the
+        // pumps stop (tests/relief.rs); "0 min" would read as "at once" or as "no answer".
+        assert_eq!(duration_words(6.7), "7 s");
+        assert_eq!(duration_words(119.0), "119 s");
+        assert_eq!(duration_words(150.0), "2 min");
+        assert_eq!(duration_words(5400.0), "1.5 h");
+    }
 }
