@@ -115,95 +115,7 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
         let Some(geometry) = &f.geometry else {
             return Err(err(path, field, "the feature has no geometry"));
         };
-        let polygon = |rings: &Vec<Vec<Position>>,
-                       part: Option<usize>|
-         -> Result<Shape<Polygon<f64>>, InputError> {
-            let field = match part {
-                Some(k) => format!("{field} part {}", k + 1),
-                None => field.clone(),
-            };
-            let mut ls = Vec::new();
-            // Finite numbers here; vertices and area once the coordinates are metres on the
-            // grid (after any projection from longitude/latitude), in `refuse_bad_rings`.
-            for ring in rings {
-                ls.push(line_string(&positions(path, &field, ring)?));
-            }
-            if ls.is_empty() {
-                return Err(err(path, field, "the polygon has no rings"));
-            }
-            let exterior = ls.remove(0);
-            Ok(Shape {
-                name: match part {
-                    Some(k) => format!("{name} (part {})", k + 1),
-                    None => name.clone(),
-                },
-                source: format!("features[{i}]"),
-                geometry: Polygon::new(exterior, ls),
-            })
-        };
-        match &geometry.value {
-            GeometryValue::Polygon { coordinates } => {
-                drawing.polygons.push(polygon(coordinates, None)?)
-            }
-            GeometryValue::MultiPolygon { coordinates } => {
-                let single = coordinates.len() == 1;
-                for (k, rings) in coordinates.iter().enumerate() {
-                    drawing
-                        .polygons
-                        .push(polygon(rings, if single { None } else { Some(k) })?);
-                }
-            }
-            GeometryValue::LineString { coordinates } => {
-                let pts = positions(path, &field, coordinates)?;
-                if pts.len() < 2 {
-                    return Err(err(path, field, "a line needs at least 2 vertices"));
-                }
-                drawing.lines.push(Shape {
-                    name: name.clone(),
-                    source: format!("features[{i}]"),
-                    geometry: line_string(&pts),
-                });
-            }
-            GeometryValue::MultiLineString { coordinates } => {
-                for (k, line) in coordinates.iter().enumerate() {
-                    let pts = positions(path, &field, line)?;
-                    if pts.len() < 2 {
-                        return Err(err(path, field, "a line needs at least 2 vertices"));
-                    }
-                    drawing.lines.push(Shape {
-                        name: format!("{name} (part {})", k + 1),
-                        source: format!("features[{i}]"),
-                        geometry: line_string(&pts),
-                    });
-                }
-            }
-            GeometryValue::Point { coordinates } => {
-                let p = positions(path, &field, std::slice::from_ref(coordinates))?[0];
-                drawing.points.push(Marker {
-                    name: name.clone(),
-                    source: format!("features[{i}]"),
-                    at: Point::new(p.0, p.1),
-                    radius: None,
-                });
-            }
-            GeometryValue::MultiPoint { coordinates } => {
-                for (k, p) in positions(path, &field, coordinates)?.iter().enumerate() {
-                    drawing.points.push(Marker {
-                        name: format!("{name} {}", k + 1),
-                        source: format!("features[{i}]"),
-                        at: Point::new(p.0, p.1),
-                        radius: None,
-                    });
-                }
-            }
-            GeometryValue::GeometryCollection { .. } => {
-                return Err(err(
-                    path,
-                    field,
-                    "a GeometryCollection is not read; give one Polygon, LineString or Point per feature",
-                ))
-            }
-        }
+        add_feature(path, &mut drawing, i, &name, geometry)?;
     }
     if drawing.is_empty() {
         let present = if seen_values.is_empty() {
@@ -217,10 +129,122 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
             format!("no feature matches ({present})"),
         ));
     }
-    let geographic = looks_geographic(&drawing) && crs_named.as_deref().is_none_or(is_wgs84);
+    onto_site_grid(path, &mut drawing, crs_named.as_deref())?;
+    refuse_bad_rings(path, &drawing)?;
+    Ok(drawing)
+}
+
+/// Adds one feature's geometry (the `i`-th feature, named `name`) to the drawing: polygons with
+/// their holes, lines, points; multi-parts are numbered; a GeometryCollection is refused.
+fn add_feature(
+    path: &Path,
+    drawing: &mut Drawing,
+    i: usize,
+    name: &str,
+    geometry: &geojson::Geometry,
+) -> Result<(), InputError> {
+    let field = format!("features[{i}] (\"{name}\")");
+    let polygon = |rings: &Vec<Vec<Position>>,
+                   part: Option<usize>|
+     -> Result<Shape<Polygon<f64>>, InputError> {
+        let field = match part {
+            Some(k) => format!("{field} part {}", k + 1),
+            None => field.clone(),
+        };
+        let mut ls = Vec::new();
+        // Finite numbers here; vertices and area once the coordinates are metres on the
+        // grid (after any projection from longitude/latitude), in `refuse_bad_rings`.
+        for ring in rings {
+            ls.push(line_string(&positions(path, &field, ring)?));
+        }
+        if ls.is_empty() {
+            return Err(err(path, field, "the polygon has no rings"));
+        }
+        let exterior = ls.remove(0);
+        Ok(Shape {
+            name: match part {
+                Some(k) => format!("{name} (part {})", k + 1),
+                None => name.to_string(),
+            },
+            source: format!("features[{i}]"),
+            geometry: Polygon::new(exterior, ls),
+        })
+    };
+    match &geometry.value {
+        GeometryValue::Polygon { coordinates } => {
+            drawing.polygons.push(polygon(coordinates, None)?)
+        }
+        GeometryValue::MultiPolygon { coordinates } => {
+            let single = coordinates.len() == 1;
+            for (k, rings) in coordinates.iter().enumerate() {
+                drawing
+                    .polygons
+                    .push(polygon(rings, if single { None } else { Some(k) })?);
+            }
+        }
+        GeometryValue::LineString { coordinates } => {
+            let pts = positions(path, &field, coordinates)?;
+            if pts.len() < 2 {
+                return Err(err(path, field, "a line needs at least 2 vertices"));
+            }
+            drawing.lines.push(Shape {
+                name: name.to_string(),
+                source: format!("features[{i}]"),
+                geometry: line_string(&pts),
+            });
+        }
+        GeometryValue::MultiLineString { coordinates } => {
+            for (k, line) in coordinates.iter().enumerate() {
+                let pts = positions(path, &field, line)?;
+                if pts.len() < 2 {
+                    return Err(err(path, field, "a line needs at least 2 vertices"));
+                }
+                drawing.lines.push(Shape {
+                    name: format!("{name} (part {})", k + 1),
+                    source: format!("features[{i}]"),
+                    geometry: line_string(&pts),
+                });
+            }
+        }
+        GeometryValue::Point { coordinates } => {
+            let p = positions(path, &field, std::slice::from_ref(coordinates))?[0];
+            drawing.points.push(Marker {
+                name: name.to_string(),
+                source: format!("features[{i}]"),
+                at: Point::new(p.0, p.1),
+                radius: None,
+            });
+        }
+        GeometryValue::MultiPoint { coordinates } => {
+            for (k, p) in positions(path, &field, coordinates)?.iter().enumerate() {
+                drawing.points.push(Marker {
+                    name: format!("{name} {}", k + 1),
+                    source: format!("features[{i}]"),
+                    at: Point::new(p.0, p.1),
+                    radius: None,
+                });
+            }
+        }
+        GeometryValue::GeometryCollection { .. } => return Err(err(
+            path,
+            field,
+            "a GeometryCollection is not read; give one Polygon, LineString or Point per feature",
+        )),
+    }
+    Ok(())
+}
+
+/// Coordinates that look like longitude/latitude are projected with the site CRS when the design
+/// file gives one, else refused with what to do; anything else is taken as the site grid.
+fn onto_site_grid(
+    path: &Path,
+    drawing: &mut Drawing,
+    crs_named: Option<&str>,
+) -> Result<(), InputError> {
+    let geographic = looks_geographic(drawing) && crs_named.is_none_or(is_wgs84);
     if geographic {
         if let Some(site) = site_crs() {
-            project_lon_lat(path, &mut drawing, &site)?;
+            project_lon_lat(path, drawing, &site)?;
         }
     }
     if geographic && site_crs().is_none() {
@@ -233,15 +257,14 @@ pub fn parse(path: &Path, text: &str, filter: &PropertyFilter) -> Result<Drawing
                  its grid (e.g. a national grid or UTM zone) and name it in a top-level \"crs\" \
                  member, or give the site's grid as [site] crs and the longitudes/latitudes are \
                  projected onto it",
-                match &crs_named {
+                match crs_named {
                     Some(c) => format!(", CRS \"{c}\""),
                     None => ", no CRS named".into(),
                 }
             ),
         ));
     }
-    refuse_bad_rings(path, &drawing)?;
-    Ok(drawing)
+    Ok(())
 }
 
 thread_local! {

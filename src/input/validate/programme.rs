@@ -99,17 +99,7 @@ pub fn programme(
     ground: f64,
 ) -> Result<Option<Programme>, InputError> {
     let Some(p) = raw else { return Ok(None) };
-    if aquifer.storage().is_none_or(|s| !(s > 0.0 && s < 1.0)) {
-        let field = match aquifer.kind {
-            crate::physics::potential::AquiferKind::Unconfined => "aquifer.specific_yield",
-            _ => "aquifer.storativity",
-        };
-        return Err(rep.error(
-            field,
-            None,
-            "the programme works in time and needs the storage coefficient: specific_yield for an unconfined aquifer (usual 0.05 … 0.30), storativity when confined or leaky (usual 1e-5 … 1e-3), between 0 and 1",
-        ));
-    }
+    storage_given(rep, aquifer)?;
     let dur = duration(rep, "programme.duration", &p.duration, false)?;
     let step = match &p.output_step {
         Some(q) => duration(rep, "programme.output_step", q, false)?,
@@ -129,6 +119,67 @@ pub fn programme(
             ),
         ));
     }
+    let map_times = map_times(rep, p, dur + recovery)?;
+    let start_day = match &p.start_date {
+        Some(d) => Some(days_from_date(d).ok_or_else(|| {
+            rep.error(
+                "programme.start_date",
+                None,
+                format!("\"{d}\" is not a date written YYYY-MM-DD (e.g. \"2027-03-01\")"),
+            )
+        })?),
+        None => None,
+    };
+    if p.stage.is_empty() {
+        return Err(rep.error(
+            "programme.stage",
+            None,
+            "at least one [[programme.stage]] is needed (name, start or date, formation_level)",
+        ));
+    }
+    let site = StageSite {
+        rep,
+        excavations,
+        aquifer,
+        ground,
+        start_day,
+        duration: dur,
+    };
+    let mut stages: Vec<Stage> = Vec::new();
+    for (i, s) in p.stage.iter().enumerate() {
+        let next = stage(&site, i, s, stages.last())?;
+        stages.push(next);
+    }
+    Ok(Some(Programme {
+        start_day,
+        duration: dur,
+        output_step: step,
+        recovery,
+        map_times,
+        stages,
+        points: points(rep, p)?,
+    }))
+}
+
+/// The programme works in time, so the aquifer must give its storage coefficient (0 < S < 1).
+fn storage_given(rep: &Reporter, aquifer: &Aquifer) -> Result<(), InputError> {
+    if aquifer.storage().is_none_or(|s| !(s > 0.0 && s < 1.0)) {
+        let field = match aquifer.kind {
+            crate::physics::potential::AquiferKind::Unconfined => "aquifer.specific_yield",
+            _ => "aquifer.storativity",
+        };
+        return Err(rep.error(
+            field,
+            None,
+            "the programme works in time and needs the storage coefficient: specific_yield for an unconfined aquifer (usual 0.05 … 0.30), storativity when confined or leaky (usual 1e-5 … 1e-3), between 0 and 1",
+        ));
+    }
+    Ok(())
+}
+
+/// Map times: at most `MAX_MAPS`, each within the programme plus recovery (`end`, s), and no two
+/// on the same map file.
+fn map_times(rep: &Reporter, p: &schema::Programme, end: f64) -> Result<Vec<f64>, InputError> {
     if p.map_times.len() > MAX_MAPS {
         return Err(rep.error(
             "programme.map_times",
@@ -139,14 +190,14 @@ pub fn programme(
     let mut map_times = Vec::new();
     for (i, q) in p.map_times.iter().enumerate() {
         let t = duration(rep, &format!("programme.map_times[{}]", i + 1), q, false)?;
-        if t > dur + recovery {
+        if t > end {
             return Err(rep.error(
                 format!("programme.map_times[{}]", i + 1),
                 q.span.clone(),
                 format!(
                     "{:.1} days is after the end of the recovery ({:.1} days after day 0)",
                     t / DAY,
-                    (dur + recovery) / DAY
+                    end / DAY
                 ),
             ));
         }
@@ -165,159 +216,179 @@ pub fn programme(
         }
         map_times.push(t);
     }
-    let start_day = match &p.start_date {
-        Some(d) => Some(days_from_date(d).ok_or_else(|| {
-            rep.error(
-                "programme.start_date",
-                None,
-                format!("\"{d}\" is not a date written YYYY-MM-DD (e.g. \"2027-03-01\")"),
-            )
-        })?),
-        None => None,
-    };
-    if p.stage.is_empty() {
-        return Err(rep.error(
-            "programme.stage",
-            None,
-            "at least one [[programme.stage]] is needed (name, start or date, formation_level)",
-        ));
+    Ok(map_times)
+}
+
+/// What every stage is checked against.
+struct StageSite<'a> {
+    rep: &'a Reporter<'a>,
+    excavations: &'a [Excavation],
+    aquifer: &'a Aquifer,
+    ground: f64,
+    /// Day number of `programme.start_date`, when given.
+    start_day: Option<i64>,
+    /// Programme duration (s).
+    duration: f64,
+}
+
+/// One `[[programme.stage]]` (the `i`-th, 0-based): name, start in time order before the end,
+/// excavation known, formation below ground and above the base, rate, wells.
+fn stage(
+    site: &StageSite,
+    i: usize,
+    s: &schema::Stage,
+    prev: Option<&Stage>,
+) -> Result<Stage, InputError> {
+    let (rep, ground, aquifer, dur) = (site.rep, site.ground, site.aquifer, site.duration);
+    let f = format!("programme.stage[{}]", i + 1);
+    if s.name.trim().is_empty() {
+        return Err(rep.error(format!("{f}.name"), None, "must not be empty"));
     }
-    let mut stages: Vec<Stage> = Vec::new();
-    for (i, s) in p.stage.iter().enumerate() {
-        let f = format!("programme.stage[{}]", i + 1);
-        if s.name.trim().is_empty() {
-            return Err(rep.error(format!("{f}.name"), None, "must not be empty"));
-        }
-        if let Some(m) = name_problem(&s.name) {
-            return Err(rep.error(format!("{f}.name"), None, m));
-        }
-        let start =
-            match (&s.start, &s.date) {
-                (Some(q), None) => duration(rep, &format!("{f}.start"), q, true)?,
-                (None, Some(d)) => {
-                    let day = days_from_date(d).ok_or_else(|| {
-                        rep.error(
-                            format!("{f}.date"),
-                            None,
-                            format!("\"{d}\" is not a date written YYYY-MM-DD"),
-                        )
-                    })?;
-                    let Some(d0) = start_day else {
-                        return Err(rep.error(
-                            format!("{f}.date"),
-                            None,
-                            "a stage given by date needs programme.start_date (day 0)",
-                        ));
-                    };
-                    if day < d0 {
-                        return Err(rep.error(
-                            format!("{f}.date"),
-                            None,
-                            format!("{d} is before programme.start_date"),
-                        ));
-                    }
-                    (day - d0) as f64 * DAY
-                }
-                (None, None) if i == 0 => 0.0,
-                _ => return Err(rep.error(
-                    format!("{f}.start"),
-                    None,
-                    "give either start (\"21 days\") or date (\"2027-03-22\"), not both or neither",
-                )),
-            };
-        if let Some(prev) = stages.last() {
-            if start <= prev.start {
-                return Err(rep.error(
-                    format!("{f}.start"),
-                    s.start.as_ref().and_then(|q| q.span.clone()),
-                    format!(
-                        "day {:.2} is not after the stage before (day {:.2}): stages are in time order",
-                        start / DAY,
-                        prev.start / DAY
-                    ),
-                ));
-            }
-        }
-        if start >= dur {
+    if let Some(m) = name_problem(&s.name) {
+        return Err(rep.error(format!("{f}.name"), None, m));
+    }
+    let start = stage_start(site, i, s)?;
+    if let Some(prev) = prev {
+        if start <= prev.start {
             return Err(rep.error(
                 format!("{f}.start"),
                 s.start.as_ref().and_then(|q| q.span.clone()),
                 format!(
-                    "day {:.2} is not before the end of the programme (duration {:.2} days)",
+                    "day {:.2} is not after the stage before (day {:.2}): stages are in time order",
                     start / DAY,
-                    dur / DAY
+                    prev.start / DAY
                 ),
             ));
         }
-        let excavation = match &s.excavation {
-            None => 0,
-            Some(name) => excavations
-                .iter()
-                .position(|e| &e.name == name)
-                .ok_or_else(|| {
-                    rep.error(
-                        format!("{f}.excavation"),
-                        None,
-                        format!(
-                            "no excavation named \"{name}\"; valid: {}",
-                            excavations
-                                .iter()
-                                .map(|e| format!("\"{}\"", e.name))
-                                .collect::<Vec<_>>()
-                                .join(", ")
-                        ),
-                    )
-                })?,
-        };
-        let fl = s.formation_level.si;
-        if !(fl.is_finite() && fl < ground && fl > aquifer.base_level) {
-            return Err(rep.error(
-                format!("{f}.formation_level"),
-                s.formation_level.span.clone(),
-                format!(
-                    "{fl} m must lie below ground ({ground} m) and above the aquifer base ({} m)",
-                    aquifer.base_level
-                ),
-            ));
-        }
-        let rate = match s.rate.as_deref().map(str::trim) {
-            None | Some("as designed") => StageRate::AsDesigned,
-            Some(text) => {
-                let q = parse::<FlowKind>(text).map_err(|e| {
-                    rep.error(
-                        format!("{f}.rate"),
-                        None,
-                        format!("{e}; or write \"as designed\""),
-                    )
-                })?;
-                if q.is_nan() || q <= 0.0 {
-                    return Err(rep.error(
-                        format!("{f}.rate"),
-                        None,
-                        "must be greater than zero, or \"as designed\"",
-                    ));
-                }
-                StageRate::Each(q)
-            }
-        };
-        if let Some(w) = &s.wells {
-            if w.is_empty() {
-                return Err(rep.error(
-                    format!("{f}.wells"),
+    }
+    if start >= dur {
+        return Err(rep.error(
+            format!("{f}.start"),
+            s.start.as_ref().and_then(|q| q.span.clone()),
+            format!(
+                "day {:.2} is not before the end of the programme (duration {:.2} days)",
+                start / DAY,
+                dur / DAY
+            ),
+        ));
+    }
+    let excavation = match &s.excavation {
+        None => 0,
+        Some(name) => site
+            .excavations
+            .iter()
+            .position(|e| &e.name == name)
+            .ok_or_else(|| {
+                rep.error(
+                    format!("{f}.excavation"),
                     None,
-                    "an empty list: name the wells that run, or leave wells out for every well",
+                    format!(
+                        "no excavation named \"{name}\"; valid: {}",
+                        site.excavations
+                            .iter()
+                            .map(|e| format!("\"{}\"", e.name))
+                            .collect::<Vec<_>>()
+                            .join(", ")
+                    ),
+                )
+            })?,
+    };
+    let fl = s.formation_level.si;
+    if !(fl.is_finite() && fl < ground && fl > aquifer.base_level) {
+        return Err(rep.error(
+            format!("{f}.formation_level"),
+            s.formation_level.span.clone(),
+            format!(
+                "{fl} m must lie below ground ({ground} m) and above the aquifer base ({} m)",
+                aquifer.base_level
+            ),
+        ));
+    }
+    if let Some(w) = &s.wells {
+        if w.is_empty() {
+            return Err(rep.error(
+                format!("{f}.wells"),
+                None,
+                "an empty list: name the wells that run, or leave wells out for every well",
+            ));
+        }
+    }
+    Ok(Stage {
+        name: s.name.trim().to_string(),
+        start,
+        excavation,
+        formation_level: fl,
+        wells: s.wells.clone(),
+        rate: stage_rate(rep, &f, s)?,
+    })
+}
+
+/// A stage's start (s after day 0): `start` as a duration, or `date` counted from
+/// `programme.start_date`; the first stage may give neither (day 0).
+fn stage_start(site: &StageSite, i: usize, s: &schema::Stage) -> Result<f64, InputError> {
+    let rep = site.rep;
+    let f = format!("programme.stage[{}]", i + 1);
+    match (&s.start, &s.date) {
+        (Some(q), None) => duration(rep, &format!("{f}.start"), q, true),
+        (None, Some(d)) => {
+            let day = days_from_date(d).ok_or_else(|| {
+                rep.error(
+                    format!("{f}.date"),
+                    None,
+                    format!("\"{d}\" is not a date written YYYY-MM-DD"),
+                )
+            })?;
+            let Some(d0) = site.start_day else {
+                return Err(rep.error(
+                    format!("{f}.date"),
+                    None,
+                    "a stage given by date needs programme.start_date (day 0)",
+                ));
+            };
+            if day < d0 {
+                return Err(rep.error(
+                    format!("{f}.date"),
+                    None,
+                    format!("{d} is before programme.start_date"),
                 ));
             }
+            Ok((day - d0) as f64 * DAY)
         }
-        stages.push(Stage {
-            name: s.name.trim().to_string(),
-            start,
-            excavation,
-            formation_level: fl,
-            wells: s.wells.clone(),
-            rate,
-        });
+        (None, None) if i == 0 => Ok(0.0),
+        _ => Err(rep.error(
+            format!("{f}.start"),
+            None,
+            "give either start (\"21 days\") or date (\"2027-03-22\"), not both or neither",
+        )),
     }
+}
+
+/// A stage's rate: "as designed" (or absent), or a flow per well greater than zero.
+fn stage_rate(rep: &Reporter, f: &str, s: &schema::Stage) -> Result<StageRate, InputError> {
+    match s.rate.as_deref().map(str::trim) {
+        None | Some("as designed") => Ok(StageRate::AsDesigned),
+        Some(text) => {
+            let q = parse::<FlowKind>(text).map_err(|e| {
+                rep.error(
+                    format!("{f}.rate"),
+                    None,
+                    format!("{e}; or write \"as designed\""),
+                )
+            })?;
+            if q.is_nan() || q <= 0.0 {
+                return Err(rep.error(
+                    format!("{f}.rate"),
+                    None,
+                    "must be greater than zero, or \"as designed\"",
+                ));
+            }
+            Ok(StageRate::Each(q))
+        }
+    }
+}
+
+/// Named output points: finite site-grid coordinates within range, names by the one name rule.
+fn points(rep: &Reporter, p: &schema::Programme) -> Result<Vec<(String, [f64; 2])>, InputError> {
     let mut points = Vec::new();
     for (i, q) in p.point.iter().enumerate() {
         if !(q.x.is_finite() && q.y.is_finite()) || q.x.abs() > MAX_COORD || q.y.abs() > MAX_COORD {
@@ -332,15 +403,7 @@ pub fn programme(
         }
         points.push((q.name.clone(), [q.x, q.y]));
     }
-    Ok(Some(Programme {
-        start_day,
-        duration: dur,
-        output_step: step,
-        recovery,
-        map_times,
-        stages,
-        points,
-    }))
+    Ok(points)
 }
 
 #[cfg(test)]
