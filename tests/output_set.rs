@@ -110,6 +110,29 @@ fn a_run_writes_a_whole_set_with_its_manifest_and_ordinary_modes() {
 }
 
 #[test]
+fn the_drawings_a_design_file_reads_are_inputs_in_the_manifest() {
+    let d = tempfile::tempdir().unwrap();
+    let out = d.path().join("out");
+    let f = layout("riverside_basement_drawing.toml");
+    let run = drydig(&["check", f.to_str().unwrap(), "-o", out.to_str().unwrap()]);
+    assert!(
+        run.status.code().is_some_and(|c| c == 0 || c == 3),
+        "{}",
+        String::from_utf8_lossy(&run.stderr)
+    );
+    let m: serde_json::Value =
+        serde_json::from_slice(&std::fs::read(out.join("drydig-run.json")).unwrap()).unwrap();
+    let dxf = layout("drawings/riverside_site.dxf");
+    let listed = m["inputs"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|i| i["path"].as_str().unwrap().ends_with("riverside_site.dxf"))
+        .unwrap_or_else(|| panic!("the drawing is not among the inputs: {}", m["inputs"]));
+    assert_eq!(listed["sha256"].as_str().unwrap(), sha256sum(&dxf));
+}
+
+#[test]
 fn another_sites_files_are_replaced_not_left_beside_the_new_ones() {
     let d = tempfile::tempdir().unwrap();
     let out = d.path().join("out");

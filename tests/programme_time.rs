@@ -345,3 +345,39 @@ fn design_by_day_holds_the_wells_above_their_floor_for_the_whole_programme() {
     let q_max = reference("programme_time.csv", "floor_rate_3_days_m3_per_s") * 1e3;
     assert!(q <= q_max + 1e-6, "{q} L/s > {q_max} L/s");
 }
+
+#[test]
+fn one_well_with_one_well_out_fails_by_day_as_it_fails_steady() {
+    // With its only well out nothing pumps, so no target below the initial level can be met:
+    // the by-day design must judge it as the steady design does (common practice (no source):
+    // a one-well-out allowance needs a second well or a standby).
+    let path = manifest().join("tests/programme/floor_well.toml");
+    let text = std::fs::read_to_string(&path)
+        .unwrap()
+        .replace("one_well_out = false", "one_well_out = true");
+    let dir = tempfile::tempdir().unwrap();
+    let design = dir.path().join("one_well.toml");
+    std::fs::write(&design, text).unwrap();
+    let by_day = dir.path().join("by_day");
+    let (code, out, err) = run(&[
+        "design",
+        design.to_str().unwrap(),
+        "--by-day",
+        "1",
+        "-o",
+        by_day.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 3, "{out}{err}");
+    assert!(
+        out.contains("one well cannot meet any target with one well out"),
+        "{out}"
+    );
+    let steady = dir.path().join("steady");
+    let (code, out, err) = run(&[
+        "design",
+        design.to_str().unwrap(),
+        "-o",
+        steady.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 3, "{out}{err}");
+}

@@ -89,7 +89,11 @@ pub fn read_csv(model: &Model, path: &Path) -> Result<Vec<Well>, InputError> {
                     } else {
                         ""
                     };
-                    err(Some(line), field, format!("\"{t}\" is not a finite number{hint}"))
+                    err(
+                        Some(line),
+                        field,
+                        format!("\"{}\" is not a finite number{hint}", cell_shown(t)),
+                    )
                 })
         };
         if wells.len() >= MAX_WELLS {
@@ -203,6 +207,20 @@ pub fn csv_name(cell: &str) -> String {
     }
 }
 
+/// A cell as an error message shows it: at most 24 characters, control characters replaced by
+/// `?`, so a wrong file named as the wells CSV is not echoed to the terminal.
+fn cell_shown(cell: &str) -> String {
+    let mut shown: String = cell
+        .chars()
+        .take(24)
+        .map(|c| if c.is_control() { '?' } else { c })
+        .collect();
+    if cell.chars().count() > 24 {
+        shown.push('…');
+    }
+    shown
+}
+
 /// The inverse of [`csv_name`]: a text cell safe for a spreadsheet and for a CSV reader that
 /// skips `#` lines.
 pub fn csv_text(text: &str) -> String {
@@ -228,5 +246,17 @@ mod tests {
         assert_eq!(number("1,000.5", true), None);
         assert!(header_uses_semicolons(b"# wells\nname;x;y;rate_l_per_s\n"));
         assert!(!header_uses_semicolons(b"name,x,y,rate_l_per_s\n"));
+    }
+
+    // A cell is shown, never the file: a binary or foreign file named as the wells CSV must not
+    // reach the terminal (control characters would act on it). common practice (no source).
+    #[test]
+    fn a_bad_cell_is_shown_short_and_printable() {
+        assert_eq!(cell_shown("12.x"), "12.x");
+        assert_eq!(cell_shown("\u{1b}[2J"), "?[2J");
+        let long = "9".repeat(100);
+        let shown = cell_shown(&long);
+        assert_eq!(shown.chars().count(), 25);
+        assert!(shown.ends_with('…'));
     }
 }

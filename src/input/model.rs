@@ -85,6 +85,9 @@ pub struct Model {
     /// The unit of the DXF drawing the design file reads (`design.dxf` is written in it);
     /// `None` without one (metres).
     pub drawing_unit: Option<crate::input::import::dxf_in::DrawingUnit>,
+    /// The drawings (DXF, GeoJSON) the design file reads geometry from: inputs of the run, listed
+    /// in the manifest and never overwritten by an output.
+    pub drawings: Vec<std::path::PathBuf>,
 }
 
 /// Output settings of `[output]` beyond units and map quantity, in SI.

@@ -71,9 +71,11 @@ pub fn ensure_finite(what: &str, text: &[u8]) -> anyhow::Result<()> {
     Ok(())
 }
 
-/// The input files a run of `model` reads: the design file, a layout CSV, and `--wells`.
+/// The input files a run of `model` reads: the design file, the drawings it names, a layout CSV,
+/// and `--wells`.
 pub fn inputs_of(model: &Model, wells_csv: Option<&Path>) -> Vec<PathBuf> {
     let mut v = vec![model.file.clone()];
+    v.extend(model.drawings.iter().cloned());
     if let Some(LayoutKind::Csv { path }) = model.layout.as_ref().map(|l| &l.kind) {
         v.push(path.clone());
     }

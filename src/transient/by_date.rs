@@ -251,8 +251,12 @@ fn rates_at(
             return None;
         }
         let q: Vec<f64> = sol.values.iter().map(|q| q.max(0.0)).collect();
-        if !model.design.one_well_out || wells.len() < 2 {
+        if !model.design.one_well_out || wells.is_empty() {
             return Some(q);
+        }
+        if wells.len() == 1 {
+            // With its only well out nothing pumps: as the steady design judges it.
+            return None;
         }
         // one well out: for each well, the point that fails worst without it gets a row
         let mut added = false;
@@ -437,9 +441,12 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
         }
         _ => {
             let wells = layout::from_model(model, None)?.wells;
+            let single = wells.len() == 1;
             notes.push("the layout's wells are kept; only their rates are found".into());
             let r = try_wells(wells, &mut trials);
-            if r.is_none() {
+            if r.is_none() && single && d.one_well_out {
+                notes.push("one well cannot meet any target with one well out (nothing pumps while it is out): add a well, or set allowances.one_well_out = false and keep a standby pump".into());
+            } else if r.is_none() {
                 notes.push(format!(
                     "these wells cannot meet every target by day {day} within the pump capacity and well levels"
                 ));

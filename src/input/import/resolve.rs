@@ -28,6 +28,8 @@ pub struct Resolved {
     /// Fields of the rewritten text that came from a drawing (`well[3]`,
     /// `excavation[1].outline`), each with where in which drawing.
     pub sources: Vec<(String, String)>,
+    /// Every drawing read, once each, in the order first read (inputs of the run).
+    pub files: Vec<PathBuf>,
 }
 
 impl Resolved {
@@ -246,6 +248,7 @@ struct Log {
     notes: Vec<String>,
     unit: Option<DrawingUnit>,
     sources: Vec<(String, String)>,
+    files: Vec<PathBuf>,
 }
 
 impl Log {
@@ -259,6 +262,9 @@ impl Log {
 fn note(log: &mut Log, field: &str, r: &Reference, got: &Drawing, item: &str) {
     if log.unit.is_none() {
         log.unit = got.unit;
+    }
+    if !log.files.contains(&r.file) {
+        log.files.push(r.file.clone());
     }
     let notes = &mut log.notes;
     let mut s = format!("{field}: {item} read from {}", r.shown);
@@ -435,5 +441,6 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
         notes: log.notes,
         drawing_unit: log.unit,
         sources: log.sources,
+        files: log.files,
     }))
 }

@@ -66,6 +66,7 @@ pub fn from_str(path: &Path, source: &str) -> Result<Model, InputError> {
         let mut model = validate(path, &rep, raw).map_err(|e| r.locate(source, e))?;
         model.import_notes = r.notes;
         model.drawing_unit = r.drawing_unit;
+        model.drawings = r.files;
         return Ok(model);
     }
     let raw: DesignFile = toml::from_str(source).map_err(|e| parse_error(&rep, source, &e))?;
@@ -311,6 +312,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         crs_warnings,
         import_notes: Vec::new(),
         drawing_unit: None,
+        drawings: Vec::new(),
     };
     crate::input::validate::sides::check_points_and_neighbours(&model)?;
     let listed: Vec<(&str, [f64; 2], f64)> = model
