@@ -172,3 +172,33 @@ start = "0 days"
 formation_level = "4.5 m"
 rate = "6 L/s"
 "#;
+
+/// `control = "both"` in time: the stage floods at the lower of formation and the head at uplift
+/// FoS 1.0 (as a field level), as the steady design takes the lower of the two targets. With the
+/// confined layer's piezometric level 7.5 m above the pumped aquifer's water level (an artesian
+/// layer, invented), the uplift level h₁ = 2.0 + 20·2.5/9.81 = 7.0968 m lies at
+/// 17.5 − (25.0 − 7.0968) = −0.4032 m as a field level, below formation (4.5 m), so uplift
+/// governs the flood (hand computation with the formula in the module docs).
+#[test]
+fn a_both_controlled_stage_floods_at_the_lower_of_formation_and_uplift() {
+    let text = std::fs::read_to_string(shaft())
+        .expect("demo")
+        .replace("control = \"relieve\"", "control = \"both\"")
+        .replace(
+            "piezometric_level = \"17.5 m\"",
+            "piezometric_level = \"25.0 m\"",
+        )
+        + PROGRAMME;
+    let m = drydig::input::validate::file::from_str(std::path::Path::new("shaft.toml"), &text)
+        .expect("demo with a programme loads");
+    let setup = drydig::transient::programme::setup(&m).expect("programme set up");
+    let a = drydig::transient::answers::answer(&m, &setup);
+    let f = a.flood.expect("a failure moment");
+    let h1_field = INITIAL_HEAD - (25.0 - (2.0 + 20.0 * 2.5 / 9.81));
+    assert!(f.relief, "uplift governs");
+    assert!(
+        (f.formation_level - h1_field).abs() < 1e-9,
+        "flood level {} m, by hand {h1_field} m",
+        f.formation_level
+    );
+}

@@ -311,9 +311,7 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
         .iter()
         .enumerate()
         .map(|(k, st)| {
-            let exc = &model.excavations[st.excavation];
-            let target = relief_levels(model, st.excavation, st.formation_level)
-                .map_or(st.formation_level - exc.target_margin, |r| r.0);
+            let target = stage_levels(model, st.excavation, st.formation_level).target;
             let need = h0 - target;
             let idx = in_exc(st.excavation);
             let all_met = |t: f64| {
@@ -442,20 +440,53 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
     }
 }
 
-/// For a stage of a relief excavation (`control = "relieve"`): the relief head at the required
-/// factor of safety and the head at which the factor falls to 1.0, both as field levels
-/// (h_req = z_top + σ_v/(γ_w·FoS), [`crate::physics::uplift`], taken off the initial level as
-/// [`crate::field::checkpoints::field_target`] does); `None` for other excavations.
-fn relief_levels(model: &Model, excavation: usize, formation: f64) -> Option<(f64, f64)> {
-    let u = model.uplift.as_ref()?;
-    if model.excavations[excavation].control != Control::Relieve {
-        return None;
-    }
+/// The levels a stage is judged by, as field levels (m).
+struct StageLevels {
+    /// The level the water must be below before digging: formation − margin, or for relief the
+    /// head at the required factor of safety against uplift (the lower of the two for
+    /// `control = "both"`).
+    target: f64,
+    /// The level above which the stage floods: water above formation, or for relief the head at
+    /// which the uplift factor of safety falls to 1.0 (the lower of the two for `"both"`).
+    flood: f64,
+    /// The flood level is the uplift one.
+    relief: bool,
+}
+
+/// The levels of a stage at `formation` in `excavation` by its `control`: `"dewater"` formation
+/// (− margin), `"relieve"` the relief heads (h_req = z_top + σ_v/(γ_w·FoS),
+/// [`crate::physics::uplift`], taken off the initial level as
+/// [`crate::field::checkpoints::field_target`] does) at the required factor of safety and at
+/// 1.0, `"both"` the lower of each pair — the same rule as the steady design's
+/// [`crate::field::checkpoints::design_target`].
+fn stage_levels(model: &Model, excavation: usize, formation: f64) -> StageLevels {
+    let e = &model.excavations[excavation];
+    let dewater = StageLevels {
+        target: formation - e.target_margin,
+        flood: formation,
+        relief: false,
+    };
+    let Some(u) = model.uplift.as_ref() else {
+        return dewater;
+    };
     let sigma = overburden(u.soil_unit_weight, formation, u.layer_top);
     let field = |fos: f64| {
         model.aquifer.initial_level - (u.piezometric_level - required_head(sigma, u.layer_top, fos))
     };
-    Some((field(u.factor_of_safety), field(1.0)))
+    let (required, at_one) = (field(u.factor_of_safety), field(1.0));
+    match e.control {
+        Control::Dewater => dewater,
+        Control::Relieve => StageLevels {
+            target: required,
+            flood: at_one,
+            relief: true,
+        },
+        Control::Both => StageLevels {
+            target: required.min(dewater.target),
+            flood: at_one.min(formation),
+            relief: at_one < formation,
+        },
+    }
 }
 
 /// The failure at one moment `t` in stage `k`: the excavation point with the least margin below
@@ -474,8 +505,7 @@ fn flood_at(
     let prog = model.programme.as_ref()?;
     let h0 = model.aquifer.initial_level;
     let st = &prog.stages[k];
-    let f =
-        relief_levels(model, st.excavation, st.formation_level).map_or(st.formation_level, |r| r.1);
+    let f = stage_levels(model, st.excavation, st.formation_level).flood;
     let (i, margin) = idx
         .iter()
         .map(|&i| (i, f - (h0 - setup.model.drawdown_at(points[i].position, t))))
@@ -616,8 +646,8 @@ fn flood(
         })
         .collect();
     let st = &prog.stages[k];
-    let relief = relief_levels(model, st.excavation, st.formation_level);
-    let level = relief.map_or(st.formation_level, |r| r.1);
+    let levels = stage_levels(model, st.excavation, st.formation_level);
+    let level = levels.flood;
     let limit = h0 - level;
     let well_off = setup.with_schedules(sch).ok().and_then(|m| {
         // Only while the programme still pumps: beyond its end every pump stops anyway.
@@ -629,7 +659,7 @@ fn flood(
         stage: prog.stages[k].name.clone(),
         point: points[i].name.clone(),
         formation_level: level,
-        relief: relief.is_some(),
+        relief: levels.relief,
         margin,
         all_off,
         well: setup.wells[w_best].name.clone(),
