@@ -23,11 +23,13 @@
 //! [`cli`] holds the command-line arguments; the binary only parses, calls, prints and exits.
 #![forbid(unsafe_code)]
 
+pub mod app;
 pub mod caution;
 pub mod check;
 pub mod cli;
 pub mod estimate;
 pub mod field;
+pub mod findings;
 pub mod geometry;
 pub mod input;
 pub mod optimise;

@@ -9,6 +9,7 @@
 
 use crate::check::run::CheckRun;
 use crate::field::grid::LevelGrid;
+use crate::safety::neighbours::NeighbourResult;
 use crate::input::model::MapQuantity;
 use crate::physics::images::BoundaryKind;
 use geo::orient::{Direction, Orient};
@@ -109,7 +110,7 @@ fn round(v: f64, d: i32) -> f64 {
 /// The layout: excavations, wells, the lines wells were set out on, boundaries, neighbours
 /// (with their status, worst drawdown and settlement), keep-out zones and check points (with
 /// level, target and margin), each feature with a `kind` property.
-pub fn layout_geojson(run: &CheckRun) -> String {
+pub fn layout_geojson(run: &CheckRun, assessed: &[NeighbourResult]) -> String {
     let model = run.model;
     let mut features = Vec::new();
     for e in &model.excavations {
@@ -160,8 +161,7 @@ pub fn layout_geojson(run: &CheckRun) -> String {
             }),
         ));
     }
-    let assessed = crate::safety::neighbours::assess_run(run);
-    for (n, a) in model.neighbours.iter().zip(&assessed) {
+    for (n, a) in model.neighbours.iter().zip(assessed) {
         features.push(feature(
             polygon(&n.footprint),
             json!({

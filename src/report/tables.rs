@@ -7,6 +7,7 @@
 //! quantity (`x_m`, `rate_l_per_s`, `rate_m3_per_day`).
 
 use crate::check::run::CheckRun;
+use crate::findings::check::CheckFindings;
 use crate::input::model::Model;
 use crate::physics::images::BoundaryKind;
 use serde_json::{json, Value};
@@ -184,10 +185,8 @@ pub fn model_record(model: &Model) -> Value {
 }
 
 /// `summary.json`.
-pub fn summary_json(
-    run: &CheckRun,
-    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
-) -> Value {
+pub fn summary_json(found: &CheckFindings) -> Value {
+    let run = &found.run;
     let e = &run.evaluation;
     let worst = e.worst_point.map(|i| &e.points[i]);
     json!({
@@ -202,6 +201,8 @@ pub fn summary_json(
         "net_flow_m3_per_day": e.net_flow_m3_per_s * 86_400.0,
         "design_flow_m3_per_day": e.design_flow_m3_per_s * 86_400.0,
         "design_flow_l_per_s": e.design_flow_m3_per_s * 1e3,
+        "verdict": found.verdict,
+        "exit_code": found.verdict.exit_code(),
         "targets_met": e.targets_met,
         "wells_within_limits": e.wells_ok,
         "check_point_count": e.points.len(),
@@ -210,10 +211,10 @@ pub fn summary_json(
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
         "placement_notes": run.placement.notes,
         "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems})).collect::<Vec<_>>(),
-        "neighbours": crate::safety::neighbours::assess_run(run),
+        "neighbours": found.neighbours,
         "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
-        "uplift": crate::safety::uplift::assess_run(run),
-        "recharge_sizing": recharge,
+        "uplift": found.uplift,
+        "recharge_sizing": found.recharge,
         "caution": super::CAUTION,
     })
 }

@@ -1,7 +1,7 @@
 //! The result parts of `report.html`: estimate against design, the map, the section, the wells
 //! table and the worst check points.
 
-use super::build::Context;
+use super::context::Context;
 use super::page::{facts, inline_svg, table, Part};
 use crate::field::checkpoints::PointKind;
 use crate::report::format::esc;
@@ -12,7 +12,7 @@ const MAX_WELL_ROWS: usize = 60;
 /// The quick estimate beside the superposition result.
 pub fn estimate(cx: &Context) -> Part {
     let f = &cx.f;
-    let est = crate::estimate::estimate(cx.run.model);
+    let est = &cx.found.estimate;
     let e = &cx.run.evaluation;
     let quick = est.total_flow_m3_per_day / 86_400.0;
     let mut rows: Vec<Vec<String>> = Vec::new();

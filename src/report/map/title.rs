@@ -5,7 +5,7 @@
 use crate::check::run::CheckRun;
 use crate::field::grid::ContourSet;
 use crate::report::map::layers::group;
-use crate::report::map::options::{MapOptions, NeighbourStatus};
+use crate::report::map::options::MapOptions;
 use crate::report::map::page::{FAIL, FOOTER_TOP, INK, PANEL, PLAN};
 use crate::report::map::text::{decimals, lines_of, r1, signed, text};
 use crate::report::{thousands, CAUTION};
@@ -92,23 +92,15 @@ pub(super) fn title_block(
         ),
         false,
     ));
-    let result = if e.targets_met && e.wells_ok {
-        "Result: every target met".to_string()
-    } else if !e.targets_met {
-        format!("Result: target NOT met at {} check points", e.unmet_count)
-    } else {
-        "Result: targets met; some wells over limits".to_string()
-    };
-    raw.push((12.0, result, true));
-    let over = opts.neighbour_status.as_ref().map_or(0, |v| {
-        v.iter()
-            .filter(|s| **s == NeighbourStatus::OverLimit)
-            .count()
-    });
-    if over > 0 {
+    // The verdict's row is drawn in the failure colour when the verdict is not met.
+    let mut alarm = None;
+    if let Some(v) = &opts.verdict {
+        if !v.is_met() {
+            alarm = Some(raw.len());
+        }
         raw.push((
             12.0,
-            format!("Result: {over} neighbour(s) over a limit"),
+            format!("Result: {}", crate::report::verdict::headline(v, &fl)),
             true,
         ));
     }
@@ -145,13 +137,9 @@ pub(super) fn title_block(
     // Wrap each row to the column's width.
     let avail = PANEL[1] - PANEL[0] - 24.0;
     let mut rows: Vec<(f64, String, bool, &str)> = Vec::new();
-    for (size, words, bold) in raw {
+    for (i, (size, words, bold)) in raw.into_iter().enumerate() {
         let chars = (avail / (0.62 * size)).floor().max(10.0) as usize;
-        let fill = if words.starts_with("Result: target NOT") || words.contains("over a limit") {
-            FAIL
-        } else {
-            INK
-        };
+        let fill = if alarm == Some(i) { FAIL } else { INK };
         for l in lines_of(&words, chars) {
             rows.push((size, l, bold, fill));
         }
