@@ -189,7 +189,7 @@ fn demo(file: &str) -> (Demo, String, String, f64) {
     };
     (
         d,
-        layout_geojson(&r),
+        layout_geojson(&r, &drydig::safety::neighbours::assess_run(&r)),
         contours_geojson(&r, &grid),
         grid.step,
     )
