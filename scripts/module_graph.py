@@ -48,6 +48,16 @@ REPORT_ALLOWED = {
     ("check", "section", "well_band"),           # the drawn width of a well on the section
     ("optimise", "standby", "is_standby"),       # reads the well's standby flag
     ("input", "validate", "programme", "map_file_name"),
+    # Renderers that still live in test_analysis (to move into report/ with the plot kit).
+    ("test_analysis", "aquifer_lines"),                # the fit as design-file lines
+    ("test_analysis", "chart", "pumping_test_svg"),    # the pumping-test chart
+}
+# Engine calls report/ still makes, each named with why it is still there; the list may only
+# shrink. The map's detail panel computes its finer grid over a window chosen from the page
+# geometry; settlement.svg computes its settlement grids (the file belongs to the settlement work).
+REPORT_KNOWN = {
+    ("report", "map", "inset"): {"field::grid::LevelGrid::compute"},
+    ("report", "neighbours", "settlement_svg"): {"safety::neighbours"},
 }
 
 def is_data(name):
@@ -74,6 +84,8 @@ def add_edge(mod, full):
 
 def report_check(mod, path, full):
     if not mod or mod[0] != "report" or not full or full[0] not in ENGINE:
+        return
+    if "::".join(full) in REPORT_KNOWN.get(mod, ()):
         return
     target = resolve(full)
     if target is None:
@@ -119,7 +131,8 @@ for mod, names in imported_types.items():
     code = "\n".join(l.split("//")[0] for l in path.read_text().splitlines()).split("#[cfg(test)]")[0]
     for name, full in names:
         for call in re.finditer(r"\b" + name + r"::([a-z_][A-Za-z0-9_]*)\s*[(<]", code):
-            if full + (call.group(1),) not in REPORT_ALLOWED:
+            named = "::".join(full + (call.group(1),))
+            if full + (call.group(1),) not in REPORT_ALLOWED and named not in REPORT_KNOWN.get(mod, ()):
                 report_problems.append(f"{path.relative_to(ROOT.parent)} calls the engine: {'::'.join(full)}::{call.group(1)}")
 
 # Tarjan's strongly connected components.

@@ -10,6 +10,8 @@ use crate::findings::commands::{
 use crate::findings::design::DesignFindings;
 use crate::findings::verdict::Verdict;
 use crate::input::error::InputError;
+use crate::input::model::Model;
+use crate::input::units::UnitSystem;
 use crate::input::validate::file as model;
 use crate::report;
 use std::path::{Path, PathBuf};
@@ -41,6 +43,17 @@ pub struct Outputs {
 }
 
 impl Outputs {
+    fn printed(text: String, messages: Vec<String>) -> Self {
+        Outputs {
+            out: None,
+            files: Vec::new(),
+            inputs: Vec::new(),
+            text,
+            messages,
+            verdict: Verdict::Met,
+        }
+    }
+
     fn written(out: PathBuf, files: Vec<(String, Vec<u8>)>, inputs: Vec<PathBuf>) -> Self {
         Outputs {
             out: Some(out),
@@ -66,14 +79,7 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
             } else {
                 report::estimate_text::to_text(&est, units)
             };
-            Ok(Outputs {
-                out: None,
-                files: Vec::new(),
-                inputs: Vec::new(),
-                text,
-                messages: Vec::new(),
-                verdict: Verdict::Met,
-            })
+            Ok(Outputs::printed(text, Vec::new()))
         }
         Command::Check {
             file,
@@ -85,20 +91,7 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
             let mut model = model::load(&file)?;
             // The files (report, maps) follow `--units` too.
             model.units = units.map(Into::into).unwrap_or(model.units);
-            let found = if size_recharge {
-                let (run, sizing) = crate::optimise::recharge::run_sized(&model, wells.as_deref())?;
-                CheckFindings::build(run, Some(sizing))
-            } else {
-                CheckFindings::build(crate::check::run::run(&model, wells.as_deref())?, None)
-            };
-            let mut o = Outputs::written(
-                out,
-                report::check_files(&found)?,
-                report::files::inputs_of(&model, wells.as_deref()),
-            );
-            o.text = report::check_text::to_text(&found, model.units);
-            o.verdict = found.verdict;
-            Ok(o)
+            check(&model, out, wells.as_deref(), size_recharge)
         }
         Command::Design {
             file,
@@ -114,23 +107,7 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
                 return by_day_outputs(&model, day, out);
             }
             model.units = units.map(Into::into).unwrap_or(model.units);
-            let price_list = prices
-                .as_deref()
-                .map(crate::input::prices::read)
-                .transpose()?;
-            let design = crate::optimise::search::design(&model, rates.into())?;
-            let found = DesignFindings::build(&model, design);
-            let mut inputs = report::files::inputs_of(&model, None);
-            inputs.extend(prices);
-            let files = report::design_text::files(&model, &found, price_list.as_deref())?;
-            let mut o = Outputs::written(out, files, inputs);
-            if verbose {
-                o.messages.push(crate::work_counts::summary());
-            }
-            o.text =
-                report::design_text::to_text(&model, &found, model.units, price_list.as_deref());
-            o.verdict = found.verdict;
-            Ok(o)
+            design(&model, out, rates.into(), prices, verbose)
         }
         Command::Sweep {
             file,
@@ -142,46 +119,10 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let plan = crate::optimise::sweep::plan(&model, from, to, step)?;
-            progress.start(plan.values.len());
-            let sweep = crate::optimise::sweep::run(&model, &plan, &|| progress.tick())?;
-            progress.finish();
-            let files = vec![
-                (
-                    "sweep.csv".to_string(),
-                    report::design_text::trials_csv(&sweep.trials, Some(&sweep.values))?,
-                ),
-                (
-                    "sweep.svg".to_string(),
-                    report::sweep_chart::render_in(&model.name, &sweep, units).into_bytes(),
-                ),
-            ];
-            let mut o = Outputs::written(out, files, report::files::inputs_of(&model, None));
-            o.text = report::design_text::sweep_text(&model, &sweep, units);
-            o.verdict = sweep_verdict(&sweep);
-            Ok(o)
+            sweep(&model, (from, to, step), out, units, progress)
         }
         Command::Programme { file, out, wells } => {
-            let model = model::load(&file)?;
-            let setup = crate::transient::programme::setup_from(&model, wells.as_deref())?;
-            let answers = crate::transient::answers::answer(&model, &setup);
-            let mut files = vec![(
-                "programme.csv".to_string(),
-                report::programme_text::to_csv(&model, &answers),
-            )];
-            files.extend(report::programme_charts::charts(&model, &answers));
-            let positions: Vec<[f64; 2]> = setup.wells.iter().map(|w| w.position).collect();
-            for m in &answers.maps {
-                files.push((
-                    crate::input::validate::programme::map_file_name(m.time),
-                    report::programme_map::map_svg(&model, m, &positions).into_bytes(),
-                ));
-            }
-            let inputs = report::files::inputs_of(&model, wells.as_deref());
-            let mut o = Outputs::written(out, files, inputs);
-            o.text = report::programme_text::to_text(&model, &answers);
-            o.verdict = programme_verdict(&answers);
-            Ok(o)
+            programme(&model::load(&file)?, out, wells.as_deref())
         }
         Command::PumpingTest {
             file,
@@ -214,28 +155,113 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
         }
         Command::New { file } => {
             crate::input::starter::write_new(&file)?;
-            Ok(Outputs {
-                out: None,
-                files: Vec::new(),
-                inputs: Vec::new(),
-                text: String::new(),
-                messages: vec![format!(
-                    "wrote {} — edit it, then run: drydig estimate {}",
-                    file.display(),
-                    file.display()
-                )],
-                verdict: Verdict::Met,
-            })
+            let note = format!(
+                "wrote {} — edit it, then run: drydig estimate {}",
+                file.display(),
+                file.display()
+            );
+            Ok(Outputs::printed(String::new(), vec![note]))
         }
     }
 }
 
-/// `design --by-day`: the design for one day of the programme.
-fn by_day_outputs(
-    model: &crate::input::model::Model,
-    day: f64,
+/// `check`: one layout evaluated (with recharge wells sized when asked).
+fn check(
+    model: &Model,
     out: PathBuf,
+    wells: Option<&Path>,
+    size_recharge: bool,
 ) -> anyhow::Result<Outputs> {
+    let found = if size_recharge {
+        let (run, sizing) = crate::optimise::recharge::run_sized(model, wells)?;
+        CheckFindings::build(run, Some(sizing))
+    } else {
+        CheckFindings::build(crate::check::run::run(model, wells)?, None)
+    };
+    let inputs = report::files::inputs_of(model, wells);
+    let mut o = Outputs::written(out, report::check_files(&found)?, inputs);
+    o.text = report::check_text::to_text(&found, model.units);
+    o.verdict = found.verdict;
+    Ok(o)
+}
+
+/// `design`: the fewest wells, the chosen layout checked, the bid priced with `prices`.
+fn design(
+    model: &Model,
+    out: PathBuf,
+    rates: crate::optimise::rates::RateOption,
+    prices: Option<PathBuf>,
+    verbose: bool,
+) -> anyhow::Result<Outputs> {
+    let price_list = prices
+        .as_deref()
+        .map(crate::input::prices::read)
+        .transpose()?;
+    let found = DesignFindings::build(model, crate::optimise::search::design(model, rates)?);
+    let mut inputs = report::files::inputs_of(model, None);
+    inputs.extend(prices);
+    let files = report::design_text::files(model, &found, price_list.as_deref())?;
+    let mut o = Outputs::written(out, files, inputs);
+    if verbose {
+        o.messages.push(crate::work_counts::summary());
+    }
+    o.text = report::design_text::to_text(model, &found, model.units, price_list.as_deref());
+    o.verdict = found.verdict;
+    Ok(o)
+}
+
+/// `sweep`: a range of counts or spacings, `[from, to, step]` as given.
+fn sweep(
+    model: &Model,
+    (from, to, step): (f64, f64, Option<f64>),
+    out: PathBuf,
+    units: UnitSystem,
+    progress: &dyn Progress,
+) -> anyhow::Result<Outputs> {
+    let plan = crate::optimise::sweep::plan(model, from, to, step)?;
+    progress.start(plan.values.len());
+    let sweep = crate::optimise::sweep::run(model, &plan, &|| progress.tick())?;
+    progress.finish();
+    let files = vec![
+        (
+            "sweep.csv".to_string(),
+            report::design_text::trials_csv(&sweep.trials, Some(&sweep.values))?,
+        ),
+        (
+            "sweep.svg".to_string(),
+            report::sweep_chart::render_in(&model.name, &sweep, units).into_bytes(),
+        ),
+    ];
+    let mut o = Outputs::written(out, files, report::files::inputs_of(model, None));
+    o.text = report::design_text::sweep_text(model, &sweep, units);
+    o.verdict = sweep_verdict(&sweep);
+    Ok(o)
+}
+
+/// `programme`: days to dig each stage, hydrographs, volumes and maps in time.
+fn programme(model: &Model, out: PathBuf, wells: Option<&Path>) -> anyhow::Result<Outputs> {
+    let setup = crate::transient::programme::setup_from(model, wells)?;
+    let answers = crate::transient::answers::answer(model, &setup);
+    let mut files = vec![(
+        "programme.csv".to_string(),
+        report::programme_text::to_csv(model, &answers),
+    )];
+    files.extend(report::programme_charts::charts(model, &answers));
+    let positions: Vec<[f64; 2]> = setup.wells.iter().map(|w| w.position).collect();
+    for m in &answers.maps {
+        files.push((
+            crate::input::validate::programme::map_file_name(m.time),
+            report::programme_map::map_svg(model, m, &positions).into_bytes(),
+        ));
+    }
+    let mut o = Outputs::written(out, files, report::files::inputs_of(model, wells));
+    o.text = report::programme_text::to_text(model, &answers);
+    o.verdict = programme_verdict(&answers);
+    Ok(o)
+}
+
+/// `design --by-day`: the design for one day of the programme.
+fn by_day_outputs(model: &Model, day: f64, out: PathBuf) -> anyhow::Result<Outputs> {
     let d = crate::transient::by_date::design_by_day(model, day)?;
     let files = vec![("by_day.csv".to_string(), report::by_day_text::to_csv(&d))];
     let mut o = Outputs::written(out, files, report::files::inputs_of(model, None));

@@ -166,10 +166,8 @@ fn us_demo_report_and_map_show_no_si_unit() {
 fn section_levels_equal_the_superposition_at_the_same_points() {
     let m = model::load(&demo("riverside_basement.toml")).unwrap();
     let run = check::run(&m, None).unwrap();
-    let s = drydig::findings::section::section_of(
-        &run,
-        &drydig::safety::neighbours::assess_run(&run),
-    );
+    let s =
+        drydig::findings::section::section_of(&run, &drydig::safety::neighbours::assess_run(&run));
     assert_eq!(s.samples.len(), section::SAMPLES);
     let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
     // Field::level is the plain R-tree sum; the section comes from Field::levels (flat arrays
@@ -289,8 +287,8 @@ rate = "3 L/s"
         &run,
         &drydig::safety::neighbours::assess_run(&run),
     )
-        .parse()
-        .unwrap();
+    .parse()
+    .unwrap();
     let first = fc
         .features
         .iter()

@@ -21,7 +21,9 @@ struct Seen {
 
 fn run(demo: &str, command: &str) -> Seen {
     let dir = tempfile::tempdir().unwrap();
-    let file = Path::new(env!("CARGO_MANIFEST_DIR")).join("layouts").join(demo);
+    let file = Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("layouts")
+        .join(demo);
     let out = Command::new(env!("CARGO_BIN_EXE_drydig"))
         .args([command, file.to_str().unwrap(), "-o"])
         .arg(dir.path())
@@ -45,7 +47,9 @@ fn run(demo: &str, command: &str) -> Seen {
     let tag = &map[open..at];
     let fill = tag.split("fill=\"").nth(1).unwrap();
     let map_fill = fill[..fill.find('"').unwrap()].to_string();
-    let map_first_words = map[at..at + map[at..].find('<').unwrap()].trim().to_string();
+    let map_first_words = map[at..at + map[at..].find('<').unwrap()]
+        .trim()
+        .to_string();
     Seen {
         code: out.status.code().unwrap(),
         terminal,
@@ -58,11 +62,19 @@ fn run(demo: &str, command: &str) -> Seen {
 
 fn agree(demo: &str, command: &str, met: bool, words: &str) {
     let s = run(demo, command);
-    assert!(s.terminal.contains(words), "{demo} {command}: {}", s.terminal);
+    assert!(
+        s.terminal.contains(words),
+        "{demo} {command}: {}",
+        s.terminal
+    );
     assert_eq!(s.code, if met { 0 } else { 3 }, "{demo} {command}");
     // The same wording, HTML-escaped, in the report.
     let escaped = s.terminal.replace('&', "&amp;").replace('<', "&lt;");
-    assert_eq!(s.html_result, format!("Result: {escaped}"), "{demo} {command}");
+    assert_eq!(
+        s.html_result,
+        format!("Result: {escaped}"),
+        "{demo} {command}"
+    );
     assert_eq!(s.html_bad, !met, "{demo} {command}");
     // The map wraps the row; its first line is the start of the same wording.
     let first = s.map_first_words.trim_start_matches("Result: ");
@@ -84,12 +96,22 @@ fn met_reads_the_same_everywhere_and_exits_zero() {
 fn wells_over_their_limits_read_the_same_everywhere() {
     // The trench's wellpoints run above their suction limit in `check` (the design file's
     // rates); targets are met, but the verdict is not met.
-    agree("pipeline_trench.toml", "check", false, "wells over their limits");
+    agree(
+        "pipeline_trench.toml",
+        "check",
+        false,
+        "wells over their limits",
+    );
 }
 
 #[test]
 fn a_neighbour_over_a_limit_reads_the_same_everywhere() {
-    agree("riverside_basement.toml", "check", false, "neighbours over a limit");
+    agree(
+        "riverside_basement.toml",
+        "check",
+        false,
+        "neighbours over a limit",
+    );
 }
 
 #[test]

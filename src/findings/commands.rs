@@ -70,7 +70,11 @@ pub struct PumpingTestFindings {
 impl PumpingTestFindings {
     /// Fit `data` (recovery only when `recovery_after`, s of pumping, is given) and choose the
     /// fit of method `prefer`, else the first that succeeded.
-    pub fn build(data: PumpingTestData, recovery_after: Option<f64>, prefer: Option<Method>) -> Self {
+    pub fn build(
+        data: PumpingTestData,
+        recovery_after: Option<f64>,
+        prefer: Option<Method>,
+    ) -> Self {
         let fits = fits(&data, recovery_after);
         let chosen = chosen(&fits, prefer);
         let verdict = if chosen.is_some() {

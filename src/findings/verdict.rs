@@ -87,13 +87,20 @@ impl Verdict {
 
 /// Neighbours over a limit.
 pub fn neighbours_over(neighbours: &[NeighbourResult]) -> usize {
-    neighbours.iter().filter(|n| n.status == Status::Fail).count()
+    neighbours
+        .iter()
+        .filter(|n| n.status == Status::Fail)
+        .count()
 }
 
 /// The verdict of one evaluated layout and its neighbours.
 pub fn of_evaluation(e: &Evaluation, neighbours: &[NeighbourResult]) -> Verdict {
     let short = Shortfalls {
-        points_above_target: if e.targets_met { 0 } else { e.unmet_count.max(1) },
+        points_above_target: if e.targets_met {
+            0
+        } else {
+            e.unmet_count.max(1)
+        },
         wells_over_limits: e.wells.iter().filter(|w| !w.problems.is_empty()).count(),
         neighbours_over_limits: neighbours_over(neighbours),
     };

@@ -154,7 +154,7 @@ pub fn well_table(run: &CheckRun, units: UnitSystem) -> String {
             if r.problems.is_empty() {
                 "ok".to_string()
             } else {
-                r.problems.join("; ")
+                super::problems::well_problems(&r.problems, &f)
             }
         ));
     }

@@ -4,10 +4,10 @@
 
 use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
+use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::prices::Price;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
-use crate::findings::design::DesignFindings;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::trial::Trial;
 use serde_json::{json, Value};
@@ -194,8 +194,7 @@ pub fn files(
     out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
     if let Some(c) = &found.chosen {
         let b = &c.bid;
-        let lines =
-            super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, model.units);
+        let lines = super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, model.units);
         out.push(("bid.csv".into(), super::bid_out::bid_csv(&lines, prices)?));
         out.push((
             "bid.json".into(),
@@ -374,7 +373,11 @@ pub fn to_text(
             ))
         ));
         out.push_str(&allowance_text(model, design, r, units));
-        let b = found.chosen.as_ref().map(|c| &c.bid).expect("a run has findings");
+        let b = found
+            .chosen
+            .as_ref()
+            .map(|c| &c.bid)
+            .expect("a run has findings");
         out.push_str(&super::bid_out::bid_text(
             &super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, units),
             prices,

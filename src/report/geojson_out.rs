@@ -9,9 +9,11 @@
 
 use crate::check::run::CheckRun;
 use crate::field::grid::LevelGrid;
-use crate::safety::neighbours::NeighbourResult;
 use crate::input::model::MapQuantity;
+use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
+use crate::report::problems::well_problems;
+use crate::safety::neighbours::NeighbourResult;
 use geo::orient::{Direction, Orient};
 use geo::Polygon;
 use geojson::{Feature, FeatureCollection, Geometry, JsonObject};
@@ -112,6 +114,8 @@ fn round(v: f64, d: i32) -> f64 {
 /// level, target and margin), each feature with a `kind` property.
 pub fn layout_geojson(run: &CheckRun, assessed: &[NeighbourResult]) -> String {
     let model = run.model;
+    // Status words in SI, as every number of the file.
+    let si = crate::report::format::Fmt::new(UnitSystem::Si, model.ground_level);
     let mut features = Vec::new();
     for e in &model.excavations {
         features.push(feature(
@@ -135,7 +139,7 @@ pub fn layout_geojson(run: &CheckRun, assessed: &[NeighbourResult]) -> String {
                 "level_m": level(r.level_m),
                 "drawdown_m": round(r.drawdown_m, 4),
                 "radius_m": w.radius,
-                "status": if r.problems.is_empty() { "ok".to_string() } else { r.problems.join("; ") },
+                "status": if r.problems.is_empty() { "ok".to_string() } else { well_problems(&r.problems, &si) },
             }),
         ));
     }

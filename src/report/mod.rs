@@ -15,6 +15,7 @@ pub mod geojson_wgs84;
 pub mod html;
 pub mod map;
 pub mod neighbours;
+pub mod problems;
 pub mod programme_charts;
 pub mod programme_map;
 pub mod programme_text;

@@ -9,7 +9,10 @@
 use crate::check::run::CheckRun;
 use crate::findings::check::CheckFindings;
 use crate::input::model::Model;
+use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
+use crate::report::format::Fmt;
+use crate::report::problems::{well_problem, well_problems};
 use serde_json::{json, Value};
 
 /// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
@@ -39,6 +42,8 @@ fn level_state(level: Option<f64>) -> String {
 
 /// `wells.csv`: one row per well, SI units in the headers.
 pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
+    // The status words of a machine file: SI, whatever the user's units.
+    let si = Fmt::new(UnitSystem::Si, run.model.ground_level);
     let mut w = csv::Writer::from_writer(Vec::new());
     w.write_record([
         "name",
@@ -80,7 +85,7 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
             if r.problems.is_empty() {
                 "ok".into()
             } else {
-                r.problems.join("; ")
+                well_problems(&r.problems, &si)
             },
             well.note.clone().unwrap_or_default(),
             r.aquifer_level_m.map_or(String::new(), |z| fixed(z, 3)),
@@ -189,6 +194,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
     let run = &found.run;
     let e = &run.evaluation;
     let worst = e.worst_point.map(|i| &e.points[i]);
+    let si = Fmt::new(UnitSystem::Si, run.model.ground_level);
     json!({
         "drydig_version": env!("CARGO_PKG_VERSION"),
         "inputs": model_record(run.model),
@@ -210,7 +216,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "lowest_margin_m": worst.and_then(|p| p.margin_m),
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
         "placement_notes": run.placement.notes,
-        "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems})).collect::<Vec<_>>(),
+        "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems.iter().map(|p| well_problem(p, &si)).collect::<Vec<_>>()})).collect::<Vec<_>>(),
         "neighbours": found.neighbours,
         "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
         "uplift": found.uplift,

@@ -25,4 +25,3 @@ pub struct Context<'a> {
     /// Date of the run.
     pub date: String,
 }
-

@@ -123,7 +123,10 @@ pub fn wells(cx: &Context) -> Part {
                 if w.problems.is_empty() {
                     "ok".into()
                 } else {
-                    format!("<span class=\"bad\">{}</span>", esc(&w.problems.join("; ")))
+                    format!(
+                        "<span class=\"bad\">{}</span>",
+                        esc(&crate::report::problems::well_problems(&w.problems, f))
+                    )
                 },
             ]
         })
