@@ -101,9 +101,9 @@ mod tests {
 
     #[test]
     fn a_suction_problem_reads_in_feet_in_us_units() {
-        // 1 ft = 0.3048 m (NIST SP 811, App. B): 6.28 m = 20.6 ft, 7.00 m = 23.0 ft.
+        // 1 ft = 0.3048 m (NIST SP 811, App. B): 6.35 m = 20.8 ft, 7.00 m = 23.0 ft.
         let p = WellProblem::BelowSuctionLimit {
-            level: 6.28,
+            level: 6.35,
             well_loss: 0.0,
             limit: 7.0,
             header: 13.0,
@@ -111,12 +111,12 @@ mod tests {
         };
         let us = well_problem(&p, &Fmt::new(UnitSystem::Us, 15.0));
         assert!(
-            us.starts_with("level 20.6 ft is below what suction can lift (23.0 ft"),
+            us.starts_with("level 20.8 ft is below what suction can lift (23.0 ft"),
             "{us}"
         );
         assert!(!us.contains(" m "), "{us}");
         let si = well_problem(&p, &Fmt::new(UnitSystem::Si, 15.0));
-        assert!(si.starts_with("level 6.28 m is below what suction can lift (7.00 m = header 13.00 m − suction limit 6.00 m), by 0.72 m"), "{si}");
+        assert!(si.starts_with("level 6.35 m is below what suction can lift (7.00 m = header 13.00 m − suction limit 6.00 m), by 0.65 m"), "{si}");
     }
 
     #[test]
