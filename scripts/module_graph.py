@@ -54,10 +54,9 @@ REPORT_ALLOWED = {
 }
 # Engine calls report/ still makes, each named with why it is still there; the list may only
 # shrink. The map's detail panel computes its finer grid over a window chosen from the page
-# geometry; settlement.svg computes its settlement grids (the file belongs to the settlement work).
+# geometry.
 REPORT_KNOWN = {
     ("report", "map", "inset"): {"field::grid::LevelGrid::compute"},
-    ("report", "neighbours", "settlement_svg"): {"safety::neighbours"},
 }
 
 def is_data(name):

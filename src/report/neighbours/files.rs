@@ -20,7 +20,7 @@ pub fn files(found: &CheckFindings) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
         ),
         (
             "settlement.svg".into(),
-            settlement_svg(run, results).into_bytes(),
+            settlement_svg(run, results, &found.settlement).into_bytes(),
         ),
     ])
 }
