@@ -239,30 +239,8 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
                 });
             }
             let (highest, injection_cap) = if w.rate < 0.0 {
-                let full_wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
-                let full = sichardt_well_capacity(w.radius, full_wetted, aq.conductivity);
-                let full = spec.pump_capacity.map_or(full, |p| p.min(full));
-                let inj = model.as_built.injection_fraction * full;
-                let top = model.as_built.max_injection_level;
-                if lv != Level::Dry && z > top + TARGET_TOLERANCE {
-                    problems.push(WellProblem::AboveHighestRechargeLevel {
-                        level: z,
-                        highest: top,
-                        basis: model.as_built.injection_basis.clone(),
-                    });
-                }
-                if -w.rate > inj * (1.0 + 1e-9) {
-                    problems.push(WellProblem::OverInjectionCapacity {
-                        rate: -w.rate,
-                        capacity: inj,
-                        fraction: model.as_built.injection_fraction,
-                        abstraction_capacity: full,
-                        default_fraction: (model.as_built.injection_fraction
-                            - crate::input::model::DEFAULT_INJECTION_FRACTION)
-                            .abs()
-                            < 1e-12,
-                    });
-                }
+                let wet = lv != Level::Dry;
+                let (top, inj) = recharge_limits(model, aq, w, wet, z, &mut problems);
                 (Some(top), Some(inj))
             } else {
                 (None, None)
@@ -322,4 +300,43 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
         targets_met: unmet_count == 0,
         wells_ok,
     }
+}
+
+/// A recharge well's highest allowed level (m) and injection capacity (m³/s, a fraction of its
+/// abstraction capacity with the full screen wetted), with the problems of level `z` (when
+/// `wet`) and rate against them pushed to `problems`.
+fn recharge_limits(
+    model: &Model,
+    aq: &crate::physics::potential::Aquifer,
+    w: &Well,
+    wet: bool,
+    z: f64,
+    problems: &mut Vec<WellProblem>,
+) -> (f64, f64) {
+    let spec = &model.wells;
+    let full_wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
+    let full = sichardt_well_capacity(w.radius, full_wetted, aq.conductivity);
+    let full = spec.pump_capacity.map_or(full, |p| p.min(full));
+    let inj = model.as_built.injection_fraction * full;
+    let top = model.as_built.max_injection_level;
+    if wet && z > top + TARGET_TOLERANCE {
+        problems.push(WellProblem::AboveHighestRechargeLevel {
+            level: z,
+            highest: top,
+            basis: model.as_built.injection_basis.clone(),
+        });
+    }
+    if -w.rate > inj * (1.0 + 1e-9) {
+        problems.push(WellProblem::OverInjectionCapacity {
+            rate: -w.rate,
+            capacity: inj,
+            fraction: model.as_built.injection_fraction,
+            abstraction_capacity: full,
+            default_fraction: (model.as_built.injection_fraction
+                - crate::input::model::DEFAULT_INJECTION_FRACTION)
+                .abs()
+                < 1e-12,
+        });
+    }
+    (top, inj)
 }
