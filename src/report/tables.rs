@@ -8,7 +8,7 @@
 
 use crate::check::run::CheckRun;
 use crate::findings::check::CheckFindings;
-use crate::input::model::Model;
+use crate::input::model::{Model, WellLossSpec};
 use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
 use crate::report::format::Fmt;
@@ -179,7 +179,11 @@ pub fn model_record(model: &Model) -> Value {
             "header_level_m": model.as_built.header_level,
             "suction_floor_m": model.as_built.suction_floor(model.wells.suction_limit),
             "anisotropy_kv_kh": model.as_built.anisotropy,
-            "well_loss": format!("{:?}", model.as_built.loss),
+            "well_loss": match model.as_built.loss {
+                WellLossSpec::None => json!({"kind": "none"}),
+                WellLossSpec::Jacob(c) => json!({"kind": "jacob", "c_s2_per_m5": c}),
+                WellLossSpec::Efficiency(e) => json!({"kind": "efficiency", "efficiency": e}),
+            },
             "min_spacing_m": model.as_built.min_spacing,
             "max_spacing_m": model.as_built.max_spacing,
             "injection_fraction": model.as_built.injection_fraction,

@@ -3,6 +3,7 @@
 
 use super::context::Context;
 use super::page::{facts, inline_svg, table, Part};
+use crate::estimate::FlowMethod;
 use crate::field::checkpoints::PointKind;
 use crate::report::format::esc;
 
@@ -19,10 +20,11 @@ pub fn estimate(cx: &Context) -> Part {
     for x in &est.excavations {
         rows.push(vec![
             esc(&x.name),
-            esc(&format!("{:?}", x.flow_method)
-                .replace("EquivalentWell", "equivalent well")
-                .replace("LineSlot", "line slot")
-                .replace("NoneNeeded", "none needed")),
+            esc(match x.flow_method {
+                FlowMethod::EquivalentWell => "equivalent well",
+                FlowMethod::LineSlot => "line slot",
+                FlowMethod::NoneNeeded => "none needed",
+            }),
             esc(&f.length(x.radius_of_influence_m)),
             esc(&f.flow(x.total_flow_m3_per_day / 86_400.0)),
             format!("{}", x.rough_well_count),
