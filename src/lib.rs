@@ -16,18 +16,23 @@
 //! 8. [`transient`] — time: Theis / Hantush superposition in space and time with rates that change
 //!    in steps, images in time.
 //! 9. [`test_analysis`] — a constant-rate pumping test fitted for T, S (and B).
-//! 10. [`report`] — output formats only: terminal text, tables, GeoJSON, SVG maps and charts.
+//! 10. [`findings`] — every result the outputs show, built once per run, with the one verdict.
+//! 11. [`report`] — output formats only, reading findings: terminal text, tables, GeoJSON, SVG
+//!     maps and charts.
+//! 12. [`app`] — one command: model → findings → rendered outputs.
 //!
 //! [`work_counts`] counts the work done (LP solves, kernel sums), for `design -v`.
 //!
 //! [`cli`] holds the command-line arguments; the binary only parses, calls, prints and exits.
 #![forbid(unsafe_code)]
 
+pub mod app;
 pub mod caution;
 pub mod check;
 pub mod cli;
 pub mod estimate;
 pub mod field;
+pub mod findings;
 pub mod geometry;
 pub mod input;
 pub mod optimise;

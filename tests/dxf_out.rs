@@ -106,7 +106,8 @@ fn compare(demo: &str, unit_code: i64, metres_per_unit: f64) {
         .find(|l| l["layer"] == "DRYDIG-SECTION")
         .expect("section line");
     let a = &section["ends"][0];
-    let s = drydig::report::section_svg::section_of(&run);
+    let s =
+        drydig::findings::section::section_of(&run, &drydig::safety::neighbours::assess_run(&run));
     let x = a[0].as_f64().unwrap() * metres_per_unit;
     assert!((x - s.line[0][0]).abs() < 1e-4, "{x} vs {:?}", s.line);
 }

@@ -70,7 +70,8 @@ fn demo_reads_the_site_from_the_dxf_drawing() {
         m.import_notes
     );
     let run = check::run(&m, None).unwrap();
-    let files = drydig::report::check_files(&run, None).unwrap();
+    let found = drydig::findings::check::CheckFindings::build(run, None);
+    let files = drydig::report::check_files(&found).unwrap();
     let html = &files.iter().find(|(n, _)| n == "report.html").unwrap().1;
     assert!(String::from_utf8_lossy(html).contains("flattened"));
 }
@@ -81,7 +82,10 @@ fn geojson_round_trip_gives_the_same_outline_and_result() {
     let text = variant("crs = \"+proj", "# crs = \"+proj");
     let first = load_text(&text).unwrap();
     let run1 = check::run(&first, None).unwrap();
-    let gj = drydig::report::geojson_out::layout_geojson(&run1);
+    let gj = drydig::report::geojson_out::layout_geojson(
+        &run1,
+        &drydig::safety::neighbours::assess_run(&run1),
+    );
     let dir = tempfile::tempdir().unwrap();
     let gj_path = dir.path().join("layout.geojson");
     std::fs::write(&gj_path, gj).unwrap();

@@ -189,7 +189,7 @@ fn demo(file: &str) -> (Demo, String, String, f64) {
     };
     (
         d,
-        layout_geojson(&r),
+        layout_geojson(&r, &drydig::safety::neighbours::assess_run(&r)),
         contours_geojson(&r, &grid),
         grid.step,
     )
@@ -608,6 +608,7 @@ fn neighbour_statuses_reach_the_legend() {
             NeighbourStatus::WithinLimits,
         ]),
         command: None,
+        verdict: None,
     };
     let facts = parse_svg(&map_svg_with(&r, &grid, "2025-01-31", &opts));
     let legend = texts_in(&facts, "legend");
@@ -620,6 +621,7 @@ fn neighbour_statuses_reach_the_legend() {
     let wrong = MapOptions {
         neighbour_status: Some(vec![NeighbourStatus::OverLimit]),
         command: None,
+        verdict: None,
     };
     let facts = parse_svg(&map_svg_with(&r, &grid, "2025-01-31", &wrong));
     let legend = texts_in(&facts, "legend");

@@ -486,7 +486,7 @@ fn failing_neighbours_set_exit_code_3() {
     ]);
     let stdout = text(&run.stdout);
     assert!(
-        stdout.contains("RESULT: every target met, every well within its limits"),
+        stdout.contains("RESULT: NOT MET: 1 neighbour over a limit"),
         "{stdout}"
     );
     assert!(

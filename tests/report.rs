@@ -18,8 +18,9 @@ fn demo(name: &str) -> PathBuf {
         .join(name)
 }
 
-fn files_of(run: &CheckRun) -> Vec<(String, Vec<u8>)> {
-    drydig::report::check_files(run, None).expect("files render")
+fn files_of(run: CheckRun) -> Vec<(String, Vec<u8>)> {
+    let found = drydig::findings::check::CheckFindings::build(run, None);
+    drydig::report::check_files(&found).expect("files render")
 }
 
 fn file<'a>(files: &'a [(String, Vec<u8>)], name: &str) -> &'a str {
@@ -66,7 +67,7 @@ fn report_has_every_section_and_nothing_external() {
     ] {
         let m = model::load(&demo(name)).unwrap();
         let run = check::run(&m, None).unwrap();
-        let files = files_of(&run);
+        let files = files_of(run);
         let html = file(&files, "report.html");
         for id in SECTION_IDS {
             assert!(
@@ -121,7 +122,7 @@ fn us_demo_report_and_map_show_no_si_unit() {
     let m = model::load(&demo("leaky_underpass.toml")).unwrap();
     assert_eq!(m.units, drydig::input::units::UnitSystem::Us);
     let run = check::run(&m, None).unwrap();
-    let files = files_of(&run);
+    let files = files_of(run);
     let html = file(&files, "report.html");
     // Snapshot of the wells table's head and first row's position and rate.
     assert!(
@@ -165,7 +166,8 @@ fn us_demo_report_and_map_show_no_si_unit() {
 fn section_levels_equal_the_superposition_at_the_same_points() {
     let m = model::load(&demo("riverside_basement.toml")).unwrap();
     let run = check::run(&m, None).unwrap();
-    let s = drydig::report::section_svg::section_of(&run);
+    let s =
+        drydig::findings::section::section_of(&run, &drydig::safety::neighbours::assess_run(&run));
     assert_eq!(s.samples.len(), section::SAMPLES);
     let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
     // Field::level is the plain R-tree sum; the section comes from Field::levels (flat arrays
@@ -281,9 +283,12 @@ rate = "3 L/s"
     );
     let m = model::from_str(Path::new("grid.toml"), &text).unwrap();
     let run = check::run(&m, None).unwrap();
-    let fc: geojson::FeatureCollection = drydig::report::geojson_out::layout_geojson(&run)
-        .parse()
-        .unwrap();
+    let fc: geojson::FeatureCollection = drydig::report::geojson_out::layout_geojson(
+        &run,
+        &drydig::safety::neighbours::assess_run(&run),
+    )
+    .parse()
+    .unwrap();
     let first = fc
         .features
         .iter()

@@ -199,8 +199,15 @@ fn recharge_wells_are_held_to_their_capacity_and_level() {
     // Sichardt on the full 5 m screen: 2π·0.15·√1e-4/15·5 = 1.5708e-3 m³/s; half of it
     assert!((inj - 0.5 * 2.0 * PI * 0.15 * 1e-2 / 15.0 * 5.0).abs() < 1e-12);
     assert!((w.highest_allowed_level_m.unwrap() - 29.0).abs() < 1e-12);
-    assert!(w.problems.iter().any(|p| p.contains("injection capacity")));
-    assert!(w.problems.iter().any(|p| p.contains("highest allowed")));
+    use drydig::check::evaluate::WellProblem;
+    assert!(w.problems.iter().any(|p| matches!(
+        p,
+        WellProblem::OverInjectionCapacity { capacity, .. } if (capacity - inj).abs() < 1e-15
+    )));
+    assert!(w.problems.iter().any(|p| matches!(
+        p,
+        WellProblem::AboveHighestRechargeLevel { highest, .. } if (highest - 29.0).abs() < 1e-12
+    )));
     assert!(!e.wells_ok);
 }
 

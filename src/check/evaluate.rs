@@ -21,6 +21,68 @@ use serde::Serialize;
 /// Tolerance on targets, m: a point within a millimetre of its target counts as meeting it.
 pub const TARGET_TOLERANCE: f64 = 1e-3;
 
+/// What is wrong at a well, with its numbers in SI (m, m³/s); worded in the user's units by
+/// `report::problems`.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "problem", rename_all = "kebab-case")]
+pub enum WellProblem {
+    /// The rate is more than the aquifer can give at the well.
+    PumpedDry,
+    /// A deep well's level is below its pump intake + submergence.
+    BelowPumpIntake {
+        /// Level in the well, m.
+        level: f64,
+        /// Well loss included in the level, m (0: none).
+        well_loss: f64,
+        /// Lowest level allowed, m.
+        lowest: f64,
+    },
+    /// A wellpoint's level is below what suction can lift from its header.
+    BelowSuctionLimit {
+        /// Level in the well, m.
+        level: f64,
+        /// Well loss included in the level, m (0: none).
+        well_loss: f64,
+        /// Lowest level allowed (header − suction limit, or the pump intake), m.
+        limit: f64,
+        /// Header level, m.
+        header: f64,
+        /// Suction limit, m.
+        suction_limit: f64,
+    },
+    /// A recharge well's level is above the highest allowed.
+    AboveHighestRechargeLevel {
+        /// Level in the well, m.
+        level: f64,
+        /// Highest level allowed, m.
+        highest: f64,
+        /// Where that level comes from (the design file's words).
+        basis: String,
+    },
+    /// A recharge well injects more than its injection capacity.
+    OverInjectionCapacity {
+        /// Injection rate (positive), m³/s.
+        rate: f64,
+        /// Injection capacity, m³/s.
+        capacity: f64,
+        /// Fraction of the abstraction capacity.
+        fraction: f64,
+        /// Abstraction capacity, m³/s.
+        abstraction_capacity: f64,
+        /// The fraction is the default one (common practice, no source).
+        default_fraction: bool,
+    },
+    /// The rate exceeds the well's capacity.
+    OverCapacity {
+        /// Rate, m³/s.
+        rate: f64,
+        /// Capacity, m³/s.
+        capacity: f64,
+        /// The pump limits it (else Sichardt's entrance gradient on the wetted screen).
+        by_pump: bool,
+    },
+}
+
 /// Result at one well.
 #[derive(Debug, Clone, Serialize)]
 pub struct WellResult {
@@ -50,7 +112,7 @@ pub struct WellResult {
     /// Recharge wells: the injection capacity, m³/s (a fraction of the abstraction capacity).
     pub injection_capacity_m3_per_s: Option<f64>,
     /// What is wrong, if anything.
-    pub problems: Vec<String>,
+    pub problems: Vec<WellProblem>,
 }
 
 /// Result at one check point.
@@ -141,7 +203,11 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
                 _ => 0.0,
             };
             // the loss lowers the level in a pumped well and raises it in a recharge well
-            let z = if w.rate < 0.0 { face + loss } else { face - loss };
+            let z = if w.rate < 0.0 {
+                face + loss
+            } else {
+                face - loss
+            };
             let lowest = match w.kind {
                 WellKind::DeepWell => w.pump_intake + spec.submergence,
                 WellKind::Wellpoint => model
@@ -154,73 +220,37 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
             let cap = spec.pump_capacity.map_or(sichardt, |p| p.min(sichardt));
             let mut problems = Vec::new();
             if lv == Level::Dry {
-                problems.push(
-                    "pumped dry: the rate is more than the aquifer can give here".to_string(),
-                );
+                problems.push(WellProblem::PumpedDry);
             } else if w.rate > 0.0 && z < lowest - TARGET_TOLERANCE {
-                let with_loss = if loss > 0.0 {
-                    format!(" (with a well loss of {loss:.2} m)")
-                } else {
-                    String::new()
-                };
+                let well_loss = loss.max(0.0);
                 problems.push(match w.kind {
-                    WellKind::DeepWell => format!(
-                        "level {z:.2} m{with_loss} is below the pump intake + submergence ({lowest:.2} m)"
-                    ),
-                    WellKind::Wellpoint => format!(
-                        "level {z:.2} m{with_loss} is below what suction can lift ({lowest:.2} m = header {:.2} m − suction limit {:.2} m), by {:.2} m: one stage cannot do it — a second stage or deep wells",
-                        model.as_built.header_level,
-                        spec.suction_limit,
-                        lowest - z
-                    ),
+                    WellKind::DeepWell => WellProblem::BelowPumpIntake {
+                        level: z,
+                        well_loss,
+                        lowest,
+                    },
+                    WellKind::Wellpoint => WellProblem::BelowSuctionLimit {
+                        level: z,
+                        well_loss,
+                        limit: lowest,
+                        header: model.as_built.header_level,
+                        suction_limit: spec.suction_limit,
+                    },
                 });
             }
             let (highest, injection_cap) = if w.rate < 0.0 {
-                let full_wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
-                let full = sichardt_well_capacity(w.radius, full_wetted, aq.conductivity);
-                let full = spec.pump_capacity.map_or(full, |p| p.min(full));
-                let inj = model.as_built.injection_fraction * full;
-                let top = model.as_built.max_injection_level;
-                if lv != Level::Dry && z > top + TARGET_TOLERANCE {
-                    problems.push(format!(
-                        "recharge level {z:.2} m is above the highest allowed {top:.2} m ({}), by {:.2} m",
-                        model.as_built.injection_basis,
-                        z - top
-                    ));
-                }
-                if -w.rate > inj * (1.0 + 1e-9) {
-                    problems.push(format!(
-                        "injection {:.2} L/s exceeds its injection capacity {:.2} L/s ({:.0} % of the abstraction capacity {:.2} L/s{})",
-                        -w.rate * 1e3,
-                        inj * 1e3,
-                        model.as_built.injection_fraction * 100.0,
-                        full * 1e3,
-                        if (model.as_built.injection_fraction
-                            - crate::input::model::DEFAULT_INJECTION_FRACTION)
-                            .abs()
-                            < 1e-12
-                        {
-                            "; default fraction, common practice (no source)"
-                        } else {
-                            ""
-                        }
-                    ));
-                }
+                let wet = lv != Level::Dry;
+                let (top, inj) = recharge_limits(model, aq, w, wet, z, &mut problems);
                 (Some(top), Some(inj))
             } else {
                 (None, None)
             };
             if w.rate > cap * (1.0 + 1e-9) {
-                problems.push(format!(
-                    "rate {:.2} L/s exceeds its capacity {:.2} L/s ({})",
-                    w.rate * 1e3,
-                    cap * 1e3,
-                    if cap < sichardt {
-                        "pump"
-                    } else {
-                        "Sichardt entrance gradient on the wetted screen"
-                    }
-                ));
+                problems.push(WellProblem::OverCapacity {
+                    rate: w.rate,
+                    capacity: cap,
+                    by_pump: cap < sichardt,
+                });
             }
             let wet = |v: f64| match lv {
                 Level::Wet(_) => Some(v),
@@ -270,4 +300,43 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
         targets_met: unmet_count == 0,
         wells_ok,
     }
+}
+
+/// A recharge well's highest allowed level (m) and injection capacity (m³/s, a fraction of its
+/// abstraction capacity with the full screen wetted), with the problems of level `z` (when
+/// `wet`) and rate against them pushed to `problems`.
+fn recharge_limits(
+    model: &Model,
+    aq: &crate::physics::potential::Aquifer,
+    w: &Well,
+    wet: bool,
+    z: f64,
+    problems: &mut Vec<WellProblem>,
+) -> (f64, f64) {
+    let spec = &model.wells;
+    let full_wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
+    let full = sichardt_well_capacity(w.radius, full_wetted, aq.conductivity);
+    let full = spec.pump_capacity.map_or(full, |p| p.min(full));
+    let inj = model.as_built.injection_fraction * full;
+    let top = model.as_built.max_injection_level;
+    if wet && z > top + TARGET_TOLERANCE {
+        problems.push(WellProblem::AboveHighestRechargeLevel {
+            level: z,
+            highest: top,
+            basis: model.as_built.injection_basis.clone(),
+        });
+    }
+    if -w.rate > inj * (1.0 + 1e-9) {
+        problems.push(WellProblem::OverInjectionCapacity {
+            rate: -w.rate,
+            capacity: inj,
+            fraction: model.as_built.injection_fraction,
+            abstraction_capacity: full,
+            default_fraction: (model.as_built.injection_fraction
+                - crate::input::model::DEFAULT_INJECTION_FRACTION)
+                .abs()
+                < 1e-12,
+        });
+    }
+    (top, inj)
 }

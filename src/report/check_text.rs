@@ -2,6 +2,7 @@
 
 use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
+use crate::findings::check::CheckFindings;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 
 fn flow(q: f64, units: UnitSystem) -> String {
@@ -12,11 +13,8 @@ fn flow(q: f64, units: UnitSystem) -> String {
 }
 
 /// The summary table.
-pub fn to_text(
-    run: &CheckRun,
-    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
-    units: UnitSystem,
-) -> String {
+pub fn to_text(found: &CheckFindings, units: UnitSystem) -> String {
+    let run = &found.run;
     let e = &run.evaluation;
     let m = run.model;
     let lu = units.length_unit();
@@ -111,18 +109,12 @@ pub fn to_text(
             ));
         }
     }
-    let verdict = match (e.targets_met, e.wells_ok) {
-        (true, true) => "RESULT: every target met, every well within its limits",
-        (true, false) => "RESULT: targets met, but some wells exceed their limits (see status)",
-        (false, _) => "RESULT: targets NOT met",
-    };
-    out.push_str(&super::neighbours::text::text(run, recharge, units));
-    let neighbours_note = if crate::safety::neighbours::all_pass(run) {
-        ""
-    } else {
-        "; a neighbour is over a limit (see above)"
-    };
-    out.push_str(&format!("\n{verdict}{neighbours_note}\n\n"));
+    out.push_str(&super::neighbours::text::text(found, units));
+    let f = super::format::Fmt::new(units, m.ground_level);
+    out.push_str(&format!(
+        "\nRESULT: {}\n\n",
+        super::verdict::headline(&found.verdict, &f)
+    ));
     out.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, ""));
     out
 }
@@ -162,7 +154,7 @@ pub fn well_table(run: &CheckRun, units: UnitSystem) -> String {
             if r.problems.is_empty() {
                 "ok".to_string()
             } else {
-                r.problems.join("; ")
+                super::problems::well_problems(&r.problems, &f)
             }
         ));
     }

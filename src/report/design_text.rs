@@ -4,12 +4,11 @@
 
 use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
+use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::prices::Price;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
-use crate::optimise::bid::bid_of;
-use crate::optimise::individual::summarise_binding;
-use crate::optimise::outcome::{is_met, Design, Outcome};
+use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::trial::Trial;
 use serde_json::{json, Value};
 
@@ -58,15 +57,18 @@ fn trial_json(t: &Trial) -> Value {
 }
 
 /// `design.json`: everything about the search, the choice and the bid.
-pub fn design_json(model: &Model, design: &Design, run: Option<&CheckRun>) -> Value {
+pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
+    let design = &found.design;
+    let run = found.chosen.as_ref().map(|c| &c.run);
     let total = run.map_or(0.0, |r| r.evaluation.total_abstraction_m3_per_s);
     let (est, ratio) = estimate_comparison(design, total);
-    let bid = run.map(|r| bid_of(model, r));
+    let bid = found.chosen.as_ref().map(|c| &c.bid);
     json!({
         "drydig_version": env!("CARGO_PKG_VERSION"),
         "project": model.name,
         "outcome": design.outcome,
-        "met": is_met(design, run),
+        "met": found.verdict.is_met(),
+        "verdict": found.verdict,
         "rates_asked": design.asked,
         "rates_used": design.used,
         "search": design.search,
@@ -177,27 +179,26 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
 /// `design.csv` and `bid.csv`.
 pub fn files(
     model: &Model,
-    design: &Design,
-    run: Option<&CheckRun>,
+    found: &DesignFindings,
     prices: Option<&[Price]>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
-    let mut out = match run {
-        Some(r) => super::check_files_for(r, None, Some(design))?,
+    let design = &found.design;
+    let mut out = match &found.chosen {
+        Some(c) => super::check_files_for(c, Some(design))?,
         None => Vec::new(),
     };
     out.push((
         "design.json".into(),
-        serde_json::to_vec_pretty(&design_json(model, design, run))?,
+        serde_json::to_vec_pretty(&design_json(model, found))?,
     ));
     out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
-    if let Some(r) = run {
-        let b = bid_of(model, r);
-        let lines =
-            super::bid_out::lines(&b, design.estimate.total_flow_l_per_s / 1e3, model.units);
+    if let Some(c) = &found.chosen {
+        let b = &c.bid;
+        let lines = super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, model.units);
         out.push(("bid.csv".into(), super::bid_out::bid_csv(&lines, prices)?));
         out.push((
             "bid.json".into(),
-            serde_json::to_vec_pretty(&super::bid_out::bid_json(&b, &lines, prices))?,
+            serde_json::to_vec_pretty(&super::bid_out::bid_json(b, &lines, prices))?,
         ));
     }
     Ok(out)
@@ -266,11 +267,12 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
 /// The terminal summary of a design.
 pub fn to_text(
     model: &Model,
-    design: &Design,
-    run: Option<&CheckRun>,
+    found: &DesignFindings,
     units: UnitSystem,
     prices: Option<&[Price]>,
 ) -> String {
+    let design = &found.design;
+    let run = found.chosen.as_ref().map(|c| &c.run);
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
     let mut out = format!("drydig design — {}\n", model.name);
@@ -293,11 +295,16 @@ pub fn to_text(
         out.push_str(&trials_table(&design.trials, units, None));
     }
     out.push('\n');
+    let f = super::format::Fmt::new(units, model.ground_level);
+    out.push_str(&format!(
+        "RESULT: {}\n",
+        super::verdict::headline(&found.verdict, &f)
+    ));
     match &design.outcome {
         Outcome::Met { count, .. } => {
             let used = design.used.unwrap_or(design.asked);
             out.push_str(&format!(
-                "RESULT: targets met with {count} wells, {}\n",
+                "  chosen layout: {count} wells, {}\n",
                 used.describe()
             ));
             if let Some(n) = design.smallest_individual {
@@ -318,16 +325,13 @@ pub fn to_text(
             shortfall_m,
         } => {
             out.push_str(&format!(
-                "RESULT: NOT MET — no layout tried meets every target within the well limits.\n  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
+                "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
                 position[0],
                 position[1],
                 l(*shortfall_m)
             ));
         }
-        Outcome::Impossible { reason } => {
-            out.push_str("RESULT: IMPOSSIBLE with this kind of layout\n");
-            out.push_str(&wrap(&format!("reason: {reason}"), 96, "  "));
-        }
+        Outcome::Impossible { .. } => {}
     }
     if !design.binding.is_empty() {
         out.push_str(&wrap(
@@ -369,9 +373,13 @@ pub fn to_text(
             ))
         ));
         out.push_str(&allowance_text(model, design, r, units));
-        let b = bid_of(model, r);
+        let b = found
+            .chosen
+            .as_ref()
+            .map(|c| &c.bid)
+            .expect("a run has findings");
         out.push_str(&super::bid_out::bid_text(
-            &super::bid_out::lines(&b, design.estimate.total_flow_l_per_s / 1e3, units),
+            &super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, units),
             prices,
         ));
         for n in &r.placement.notes {
@@ -384,10 +392,10 @@ pub fn to_text(
     for n in &model.crs_warnings {
         out.push_str(&wrap(&format!("warning: {n}"), 96, ""));
     }
-    if let Some(r) = run {
-        if !r.model.neighbours.is_empty() || r.model.uplift.is_some() {
+    if let Some(c) = &found.chosen {
+        if !c.run.model.neighbours.is_empty() || c.run.model.uplift.is_some() {
             out.push_str("\nneighbours and base uplift for the chosen layout:\n");
-            out.push_str(&super::neighbours::text::text(r, None, units));
+            out.push_str(&super::neighbours::text::text(c, units));
         }
     }
     out.push('\n');
@@ -476,4 +484,44 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
         ));
     }
     out
+}
+
+/// Short summary of binding constraints: "targets at 7 points (…); capacity: W01, W04".
+fn summarise_binding(binding: &[String]) -> String {
+    let targets: Vec<&str> = binding
+        .iter()
+        .filter_map(|b| b.strip_prefix("target at "))
+        .collect();
+    let mut parts = Vec::new();
+    if !targets.is_empty() {
+        let shown: Vec<&str> = targets.iter().take(3).copied().collect();
+        parts.push(format!(
+            "targets at {} point{} ({}{})",
+            targets.len(),
+            if targets.len() == 1 { "" } else { "s" },
+            shown.join(", "),
+            if targets.len() > 3 { ", …" } else { "" }
+        ));
+    }
+    let wells: Vec<&String> = binding
+        .iter()
+        .filter(|b| !b.starts_with("target at "))
+        .collect();
+    if !wells.is_empty() {
+        let shown: Vec<&str> = wells.iter().take(4).map(|s| s.as_str()).collect();
+        parts.push(format!(
+            "{}{}",
+            shown.join("; "),
+            if wells.len() > 4 {
+                format!("; and {} more well limits", wells.len() - 4)
+            } else {
+                String::new()
+            }
+        ));
+    }
+    if parts.is_empty() {
+        "none".into()
+    } else {
+        parts.join("; ")
+    }
 }

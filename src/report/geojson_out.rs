@@ -10,7 +10,10 @@
 use crate::check::run::CheckRun;
 use crate::field::grid::LevelGrid;
 use crate::input::model::MapQuantity;
+use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
+use crate::report::problems::well_problems;
+use crate::safety::neighbours::NeighbourResult;
 use geo::orient::{Direction, Orient};
 use geo::Polygon;
 use geojson::{Feature, FeatureCollection, Geometry, JsonObject};
@@ -109,8 +112,10 @@ fn round(v: f64, d: i32) -> f64 {
 /// The layout: excavations, wells, the lines wells were set out on, boundaries, neighbours
 /// (with their status, worst drawdown and settlement), keep-out zones and check points (with
 /// level, target and margin), each feature with a `kind` property.
-pub fn layout_geojson(run: &CheckRun) -> String {
+pub fn layout_geojson(run: &CheckRun, assessed: &[NeighbourResult]) -> String {
     let model = run.model;
+    // Status words in SI, as every number of the file.
+    let si = crate::report::format::Fmt::new(UnitSystem::Si, model.ground_level);
     let mut features = Vec::new();
     for e in &model.excavations {
         features.push(feature(
@@ -134,7 +139,7 @@ pub fn layout_geojson(run: &CheckRun) -> String {
                 "level_m": level(r.level_m),
                 "drawdown_m": round(r.drawdown_m, 4),
                 "radius_m": w.radius,
-                "status": if r.problems.is_empty() { "ok".to_string() } else { r.problems.join("; ") },
+                "status": if r.problems.is_empty() { "ok".to_string() } else { well_problems(&r.problems, &si) },
             }),
         ));
     }
@@ -160,8 +165,7 @@ pub fn layout_geojson(run: &CheckRun) -> String {
             }),
         ));
     }
-    let assessed = crate::safety::neighbours::assess_run(run);
-    for (n, a) in model.neighbours.iter().zip(&assessed) {
+    for (n, a) in model.neighbours.iter().zip(assessed) {
         features.push(feature(
             polygon(&n.footprint),
             json!({

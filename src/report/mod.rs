@@ -15,6 +15,7 @@ pub mod geojson_wgs84;
 pub mod html;
 pub mod map;
 pub mod neighbours;
+pub mod problems;
 pub mod programme_charts;
 pub mod programme_map;
 pub mod programme_text;
@@ -22,6 +23,9 @@ pub mod pumping_test_text;
 pub mod section_svg;
 pub mod sweep_chart;
 pub mod tables;
+pub mod verdict;
+
+use crate::findings::check::CheckFindings;
 
 /// The caution carried by every output (defined once in [`crate::caution`]).
 pub use crate::caution::CAUTION;
@@ -73,52 +77,48 @@ pub fn thousands(value: f64, decimals: usize) -> String {
     }
 }
 
-/// Every file `check` writes, rendered in memory: (name, bytes).
-pub fn check_files(
-    run: &crate::check::run::CheckRun,
-    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
-) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
-    check_files_for(run, recharge, None)
+/// Every file `check` writes, rendered in memory from its findings: (name, bytes).
+pub fn check_files(found: &CheckFindings) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
+    check_files_for(found, None)
 }
 
 /// Every file `check` writes, with `report.html` titled and filled for `design` when a design
 /// is given.
 pub fn check_files_for(
-    run: &crate::check::run::CheckRun,
-    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
+    found: &CheckFindings,
     design: Option<&crate::optimise::outcome::Design>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
-    let (map_files, grid) =
-        map::render::files_and_grid(run, if design.is_some() { "design" } else { "check" });
+    let run = &found.run;
+    let command = if design.is_some() { "design" } else { "check" };
     let mut files: Vec<(String, Vec<u8>)> = vec![
         (
             "summary.json".into(),
-            serde_json::to_vec_pretty(&tables::summary_json(run, recharge))?,
+            serde_json::to_vec_pretty(&tables::summary_json(found))?,
         ),
         ("wells.csv".into(), tables::wells_csv(run)?),
         ("checkpoints.csv".into(), tables::checkpoints_csv(run)?),
     ]
     .into_iter()
-    .chain(neighbours::files::files(run)?)
-    .chain(map_files)
+    .chain(neighbours::files::files(found)?)
+    .chain(map::render::files(found, command))
     .collect();
     let f = format::Fmt::new(run.model.units, run.model.ground_level);
-    let section = section_svg::section_of(run);
     files.push((
         "design.dxf".into(),
-        dxf_out::design_dxf(run, &grid, &section)?,
+        dxf_out::design_dxf(run, &found.grid, &found.section)?,
     ));
     let title = format!("Section — {}", run.model.name);
-    let section_svg = section_svg::render(run.model, &section, &f, &title);
+    let section_svg = section_svg::render(run.model, &found.section, &f, &title);
     let map_svg = files
         .iter()
         .find(|(n, _)| n == "map.svg")
         .map(|(_, b)| String::from_utf8_lossy(b).into_owned())
         .unwrap_or_default();
-    let cx = html::build::Context {
+    let cx = html::context::Context {
         run,
+        found,
         design,
-        command: if design.is_some() { "design" } else { "check" },
+        command,
         f,
         map_svg,
         section_svg: section_svg.clone(),

@@ -2,49 +2,8 @@
 //! best fit to paste into a design file, and `pumping_test.svg`.
 
 use super::{wrap, CAUTION};
-use crate::test_analysis::{
-    aquifer_lines, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown, fit_hantush,
-    fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
-};
-
-/// The fits that apply to `data`: recovery only when `recovery_after` (s of pumping) is given;
-/// otherwise Theis, Cooper–Jacob, Hantush, unconfined Theis (with a thickness) and
-/// distance–drawdown (two or more wells). Each entry is the method's name and its fit or the
-/// reason it could not be made.
-pub fn fits(
-    data: &PumpingTestData,
-    recovery_after: Option<f64>,
-) -> Vec<(String, Result<Fit, String>)> {
-    if let Some(tp) = recovery_after {
-        return vec![("Theis recovery".into(), fit_theis_recovery(data, tp, 0.0))];
-    }
-    let mut out = vec![
-        ("Theis".to_string(), fit_theis(data)),
-        ("Cooper–Jacob".to_string(), fit_cooper_jacob(data)),
-        ("Hantush–Jacob (leaky)".to_string(), fit_hantush(data)),
-    ];
-    if data.thickness.is_some() {
-        out.push((
-            "Theis with Jacob's correction".into(),
-            fit_theis_unconfined(data),
-        ));
-    }
-    if data.wells.len() >= 2 {
-        out.push(("distance–drawdown".into(), fit_distance_drawdown(data)));
-    }
-    out
-}
-
-/// The fit whose aquifer lines are printed and drawn: the one of method `prefer` when it
-/// succeeded, else the first that succeeded (Theis, in the order of [`fits`]). More parameters
-/// always fit closer, so the choice is the engineer's, not the least rms.
-pub fn best(fits: &[(String, Result<Fit, String>)], prefer: Option<Method>) -> Option<&Fit> {
-    let ok: Vec<&Fit> = fits.iter().filter_map(|(_, f)| f.as_ref().ok()).collect();
-    ok.iter()
-        .find(|f| Some(f.method) == prefer)
-        .or(ok.first())
-        .copied()
-}
+use crate::findings::commands::NamedFit;
+use crate::test_analysis::{aquifer_lines, chart::pumping_test_svg, Fit, Method, PumpingTestData};
 
 /// The method named on the command line: theis, cooper-jacob, hantush, unconfined, recovery,
 /// distance; `Err` lists the valid names.
@@ -65,11 +24,8 @@ pub fn method_named(name: &str) -> Result<Method, String> {
 }
 
 /// Terminal text: a line per method, then the aquifer lines of the best fit.
-pub fn to_text(
-    data: &PumpingTestData,
-    fits: &[(String, Result<Fit, String>)],
-    prefer: Option<Method>,
-) -> String {
+/// `best` is the chosen fit ([`crate::findings::commands::chosen`]).
+pub fn to_text(data: &PumpingTestData, fits: &[NamedFit], best: Option<&Fit>) -> String {
     let n: usize = data.wells.iter().map(|w| w.points.len()).sum();
     let mut s = format!(
         "PUMPING TEST  Q = {:.3} L/s, {} observation well{}, {n} readings\n\n",
@@ -103,7 +59,7 @@ pub fn to_text(
             Err(e) => s.push_str(&format!("  {name:<36} not fitted: {e}\n")),
         }
     }
-    if let Some(b) = best(fits, prefer) {
+    if let Some(b) = best {
         s.push_str(&format!(
             "\n  aquifer lines from the {} fit (paste into [aquifer]):\n\n",
             b.method.name()
@@ -120,12 +76,7 @@ pub fn to_text(
 }
 
 /// `pumping_test.svg` with the best fit's curves over the data, and `aquifer_lines.toml`.
-pub fn files(
-    data: &PumpingTestData,
-    fits: &[(String, Result<Fit, String>)],
-    prefer: Option<Method>,
-) -> Vec<(String, Vec<u8>)> {
-    let b = best(fits, prefer);
+pub fn files(data: &PumpingTestData, b: Option<&Fit>) -> Vec<(String, Vec<u8>)> {
     let mut out = vec![(
         "pumping_test.svg".to_string(),
         pumping_test_svg(&data.wells, b).into_bytes(),

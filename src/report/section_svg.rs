@@ -286,24 +286,3 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     o.push('\n');
     o
 }
-
-/// The section of a run: along `[output] section` when given, else by
-/// [`crate::check::section::default_line`] towards the neighbour with the largest drawdown.
-pub fn section_of(run: &crate::check::run::CheckRun) -> Section {
-    use geo::Centroid;
-    if let Some(line) = run.model.output.section {
-        return crate::check::section::section(run, line, "line given in [output] section");
-    }
-    let worst = crate::safety::neighbours::assess_run(run)
-        .into_iter()
-        .zip(&run.model.neighbours)
-        .max_by(|a, b| {
-            a.0.worst_drawdown
-                .drawdown_m
-                .total_cmp(&b.0.worst_drawdown.drawdown_m)
-        })
-        .and_then(|(_, n)| n.footprint.centroid())
-        .map(|c| [c.x(), c.y()]);
-    let (line, basis) = crate::check::section::default_line(run, worst);
-    crate::check::section::section(run, line, &basis)
-}

@@ -7,8 +7,12 @@
 //! quantity (`x_m`, `rate_l_per_s`, `rate_m3_per_day`).
 
 use crate::check::run::CheckRun;
-use crate::input::model::Model;
+use crate::findings::check::CheckFindings;
+use crate::input::model::{Model, WellLossSpec};
+use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
+use crate::report::format::Fmt;
+use crate::report::problems::{well_problem, well_problems};
 use serde_json::{json, Value};
 
 /// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
@@ -38,6 +42,8 @@ fn level_state(level: Option<f64>) -> String {
 
 /// `wells.csv`: one row per well, SI units in the headers.
 pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
+    // The status words of a machine file: SI, whatever the user's units.
+    let si = Fmt::new(UnitSystem::Si, run.model.ground_level);
     let mut w = csv::Writer::from_writer(Vec::new());
     w.write_record([
         "name",
@@ -79,7 +85,7 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
             if r.problems.is_empty() {
                 "ok".into()
             } else {
-                r.problems.join("; ")
+                well_problems(&r.problems, &si)
             },
             well.note.clone().unwrap_or_default(),
             r.aquifer_level_m.map_or(String::new(), |z| fixed(z, 3)),
@@ -173,7 +179,11 @@ pub fn model_record(model: &Model) -> Value {
             "header_level_m": model.as_built.header_level,
             "suction_floor_m": model.as_built.suction_floor(model.wells.suction_limit),
             "anisotropy_kv_kh": model.as_built.anisotropy,
-            "well_loss": format!("{:?}", model.as_built.loss),
+            "well_loss": match model.as_built.loss {
+                WellLossSpec::None => json!({"kind": "none"}),
+                WellLossSpec::Jacob(c) => json!({"kind": "jacob", "c_s2_per_m5": c}),
+                WellLossSpec::Efficiency(e) => json!({"kind": "efficiency", "efficiency": e}),
+            },
             "min_spacing_m": model.as_built.min_spacing,
             "max_spacing_m": model.as_built.max_spacing,
             "injection_fraction": model.as_built.injection_fraction,
@@ -184,12 +194,11 @@ pub fn model_record(model: &Model) -> Value {
 }
 
 /// `summary.json`.
-pub fn summary_json(
-    run: &CheckRun,
-    recharge: Option<&crate::optimise::recharge::RechargeSizing>,
-) -> Value {
+pub fn summary_json(found: &CheckFindings) -> Value {
+    let run = &found.run;
     let e = &run.evaluation;
     let worst = e.worst_point.map(|i| &e.points[i]);
+    let si = Fmt::new(UnitSystem::Si, run.model.ground_level);
     json!({
         "drydig_version": env!("CARGO_PKG_VERSION"),
         "inputs": model_record(run.model),
@@ -202,6 +211,8 @@ pub fn summary_json(
         "net_flow_m3_per_day": e.net_flow_m3_per_s * 86_400.0,
         "design_flow_m3_per_day": e.design_flow_m3_per_s * 86_400.0,
         "design_flow_l_per_s": e.design_flow_m3_per_s * 1e3,
+        "verdict": found.verdict,
+        "exit_code": found.verdict.exit_code(),
         "targets_met": e.targets_met,
         "wells_within_limits": e.wells_ok,
         "check_point_count": e.points.len(),
@@ -209,11 +220,11 @@ pub fn summary_json(
         "lowest_margin_m": worst.and_then(|p| p.margin_m),
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
         "placement_notes": run.placement.notes,
-        "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems})).collect::<Vec<_>>(),
-        "neighbours": crate::safety::neighbours::assess_run(run),
+        "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems.iter().map(|p| well_problem(p, &si)).collect::<Vec<_>>()})).collect::<Vec<_>>(),
+        "neighbours": found.neighbours,
         "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
-        "uplift": crate::safety::uplift::assess_run(run),
-        "recharge_sizing": recharge,
+        "uplift": found.uplift,
+        "recharge_sizing": found.recharge,
         "caution": super::CAUTION,
     })
 }

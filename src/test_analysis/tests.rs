@@ -269,8 +269,9 @@ type NamedFits = Vec<(String, Result<Fit, String>)>;
 
 /// Every fit of `data` as `drydig pumping-test` makes them, and its terminal text.
 fn everything(data: &PumpingTestData) -> (NamedFits, String) {
-    let fits = crate::report::pumping_test_text::fits(data, None);
-    let text = crate::report::pumping_test_text::to_text(data, &fits, None);
+    let fits = crate::findings::commands::fits(data, None);
+    let best = crate::findings::commands::chosen(&fits, None).and_then(|i| fits[i].1.as_ref().ok());
+    let text = crate::report::pumping_test_text::to_text(data, &fits, best);
     assert!(
         crate::report::files::has_non_finite(text.as_bytes()).is_none(),
         "{text}"

@@ -1,29 +1,9 @@
-//! Assembling `report.html` for `check` and `design`: the context every part reads, and the list
-//! of parts in order. A new feature adds a part by writing one `fn(&Context) -> Part` and one
+//! Assembling `report.html` for `check` and `design`: the list of parts in order (the context
+//! every part reads is in `context`). A new feature adds a part by writing one `fn(&Context) -> Part` and one
 //! line here.
 
+use super::context::Context;
 use super::page::{document, Part};
-use crate::check::run::CheckRun;
-use crate::optimise::outcome::Design;
-use crate::report::format::Fmt;
-
-/// What every part reads.
-pub struct Context<'a> {
-    /// The evaluated layout.
-    pub run: &'a CheckRun<'a>,
-    /// The design, for `design` reports.
-    pub design: Option<&'a Design>,
-    /// "check" or "design".
-    pub command: &'static str,
-    /// The number formatter.
-    pub f: Fmt,
-    /// The plan map, as written to `map.svg`.
-    pub map_svg: String,
-    /// The section, as written to `section.svg`.
-    pub section_svg: String,
-    /// Date of the run.
-    pub date: String,
-}
 
 /// The parts of a report, in order.
 pub fn parts(cx: &Context) -> Vec<Part> {

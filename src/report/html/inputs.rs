@@ -1,7 +1,7 @@
 //! The first parts of `report.html`: summary and result, inputs with their units and sources,
 //! methods and assumptions with each formula's source.
 
-use super::build::Context;
+use super::context::Context;
 use super::page::{facts, table, Part};
 use crate::input::model::{InfluenceMethod, WellKind, DEFAULT_CONTINGENCY};
 use crate::physics::potential::AquiferKind;
@@ -12,50 +12,12 @@ pub fn summary(cx: &Context) -> Part {
     let run = cx.run;
     let e = &run.evaluation;
     let f = &cx.f;
-    let neighbours_ok = crate::safety::neighbours::all_pass(run);
-    let ok = match cx.design {
-        Some(d) => crate::optimise::outcome::is_met(d, Some(run)) && neighbours_ok,
-        None => e.targets_met && e.wells_ok && neighbours_ok,
-    };
     let mut body = String::new();
-    let verdict = match cx.design {
-        Some(d) => match &d.outcome {
-            crate::optimise::outcome::Outcome::Met { count, .. } => format!(
-                "Design found: {count} wells meet every target within every well limit."
-            ),
-            crate::optimise::outcome::Outcome::NotMet {
-                count,
-                worst_point,
-                shortfall_m,
-                ..
-            } => format!(
-                "No layout tried meets every target; the best ({count} wells) leaves the water {} above target at {worst_point}.",
-                f.length(*shortfall_m)
-            ),
-            crate::optimise::outcome::Outcome::Impossible { reason } => {
-                format!("No layout of this kind can work: {reason}")
-            }
-        },
-        None if ok => "Every target is met, every well is within its limits and every neighbour within its limits.".into(),
-        None => {
-            let mut why = Vec::new();
-            if !e.targets_met {
-                why.push(format!("{} check points above target", e.unmet_count));
-            }
-            if !e.wells_ok {
-                why.push("a well over its limits".to_string());
-            }
-            if !neighbours_ok {
-                why.push("a neighbour over its limits".to_string());
-            }
-            format!("Not met: {}.", why.join(", "))
-        }
-    };
-    let verdict = if cx.design.is_some() && !neighbours_ok {
-        format!("{verdict} A neighbour is over a limit (see Neighbours).")
-    } else {
-        verdict
-    };
+    let verdict = format!(
+        "Result: {}",
+        crate::report::verdict::headline(&cx.found.verdict, f)
+    );
+    let ok = cx.found.verdict.is_met();
     body.push_str(&format!(
         "<p class=\"result{}\">{}</p>\n",
         if ok { "" } else { " bad" },

@@ -1,8 +1,9 @@
 //! The result parts of `report.html`: estimate against design, the map, the section, the wells
 //! table and the worst check points.
 
-use super::build::Context;
+use super::context::Context;
 use super::page::{facts, inline_svg, table, Part};
+use crate::estimate::FlowMethod;
 use crate::field::checkpoints::PointKind;
 use crate::report::format::esc;
 
@@ -12,17 +13,18 @@ const MAX_WELL_ROWS: usize = 60;
 /// The quick estimate beside the superposition result.
 pub fn estimate(cx: &Context) -> Part {
     let f = &cx.f;
-    let est = crate::estimate::estimate(cx.run.model);
+    let est = &cx.found.estimate;
     let e = &cx.run.evaluation;
     let quick = est.total_flow_m3_per_day / 86_400.0;
     let mut rows: Vec<Vec<String>> = Vec::new();
     for x in &est.excavations {
         rows.push(vec![
             esc(&x.name),
-            esc(&format!("{:?}", x.flow_method)
-                .replace("EquivalentWell", "equivalent well")
-                .replace("LineSlot", "line slot")
-                .replace("NoneNeeded", "none needed")),
+            esc(match x.flow_method {
+                FlowMethod::EquivalentWell => "equivalent well",
+                FlowMethod::LineSlot => "line slot",
+                FlowMethod::NoneNeeded => "none needed",
+            }),
             esc(&f.length(x.radius_of_influence_m)),
             esc(&f.flow(x.total_flow_m3_per_day / 86_400.0)),
             format!("{}", x.rough_well_count),
@@ -123,7 +125,10 @@ pub fn wells(cx: &Context) -> Part {
                 if w.problems.is_empty() {
                     "ok".into()
                 } else {
-                    format!("<span class=\"bad\">{}</span>", esc(&w.problems.join("; ")))
+                    format!(
+                        "<span class=\"bad\">{}</span>",
+                        esc(&crate::report::problems::well_problems(&w.problems, f))
+                    )
                 },
             ]
         })

@@ -1,13 +1,13 @@
 //! The safety and bid parts of `report.html`: neighbours, base uplift, bid quantities, cautions.
 
-use super::build::Context;
+use super::context::Context;
 use super::page::{facts, table, Part};
 use crate::report::format::esc;
 
 /// Each neighbour: worst drawdown, settlement and distortion against the limits.
 pub fn neighbours(cx: &Context) -> Part {
     let f = &cx.f;
-    let results = crate::safety::neighbours::assess_run(cx.run);
+    let results = &cx.found.neighbours;
     if results.is_empty() {
         return Part::new(
             "neighbours",
@@ -16,7 +16,7 @@ pub fn neighbours(cx: &Context) -> Part {
         );
     }
     let mut rows = Vec::new();
-    for n in &results {
+    for n in results {
         let checks: Vec<String> = n
             .checks
             .iter()
@@ -67,7 +67,7 @@ pub fn neighbours(cx: &Context) -> Part {
 /// The base-uplift check of each excavation.
 pub fn uplift(cx: &Context) -> Part {
     let f = &cx.f;
-    let results = crate::safety::uplift::assess_run(cx.run);
+    let results = &cx.found.uplift;
     if results.is_empty() {
         return Part::new(
             "uplift",
@@ -116,7 +116,7 @@ pub fn uplift(cx: &Context) -> Part {
 /// The quantities a bid needs.
 pub fn bid(cx: &Context) -> Part {
     let f = &cx.f;
-    let b = crate::optimise::bid::bid_of(cx.run.model, cx.run);
+    let b = &cx.found.bid;
     let mut rows = vec![
         ("working wells", b.working_wells.to_string()),
         ("standby wells placed", b.standby_placed.len().to_string()),

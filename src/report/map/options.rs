@@ -3,8 +3,8 @@
 //! neighbour assessment of a run ([`crate::safety::neighbours`]) to those statuses. The map owns
 //! this mapping so that no report module has to import the map and be imported by it.
 
-use crate::check::run::CheckRun;
-use crate::safety::neighbours::{self, Status};
+use crate::findings::verdict::Verdict;
+use crate::safety::neighbours::{NeighbourResult, Status};
 
 /// How a neighbour stands against its limits, for colouring its footprint.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -47,16 +47,19 @@ pub struct MapOptions {
     pub neighbour_status: Option<Vec<NeighbourStatus>>,
     /// The command that drew the map ("check", "design"); `None`: "check".
     pub command: Option<&'static str>,
+    /// The verdict of the run, worded in the title block (in the failure colour when not met);
+    /// `None`: no result line.
+    pub verdict: Option<Verdict>,
 }
 
-/// The map's colouring of the neighbours by their status ([`neighbours::neighbour_status`]).
-pub fn map_options(run: &CheckRun) -> MapOptions {
+/// The map's colouring of the neighbours by their assessed status, and the run's verdict.
+pub fn map_options(neighbours: &[NeighbourResult], verdict: &Verdict) -> MapOptions {
     use NeighbourStatus as M;
     MapOptions {
         neighbour_status: Some(
-            neighbours::neighbour_status(run)
-                .into_iter()
-                .map(|(_, s, _)| match s {
+            neighbours
+                .iter()
+                .map(|n| match n.status {
                     Status::Pass => M::WithinLimits,
                     Status::Close => M::NearLimit,
                     Status::Fail => M::OverLimit,
@@ -65,5 +68,6 @@ pub fn map_options(run: &CheckRun) -> MapOptions {
                 .collect(),
         ),
         command: None,
+        verdict: Some(verdict.clone()),
     }
 }

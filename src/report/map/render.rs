@@ -4,6 +4,7 @@
 
 use crate::check::run::CheckRun;
 use crate::field::grid::LevelGrid;
+use crate::findings::check::CheckFindings;
 use crate::report::map::date::today;
 use crate::report::map::frame::scale_and_north;
 use crate::report::map::inset::{detail_plan, plan_detail};
@@ -108,38 +109,25 @@ fn hatch(id: &str, colour: &str, angle: f64, gap: f64) -> Pattern {
         )
 }
 
-/// The map and GeoJSON files of `check`: `map.svg`, `layout.geojson`, `contours.geojson`
-/// (one level grid for all three).
-pub fn files(run: &CheckRun) -> Vec<(String, Vec<u8>)> {
-    files_for(run, "check")
-}
-
-/// As [`files`], the map titled for `command` ("check", "design").
-pub fn files_for(run: &CheckRun, command: &'static str) -> Vec<(String, Vec<u8>)> {
-    files_and_grid(run, command).0
-}
-
-/// As [`files_for`], with the level grid behind them (for other drawings of the same run).
-pub fn files_and_grid(
-    run: &CheckRun,
-    command: &'static str,
-) -> (Vec<(String, Vec<u8>)>, LevelGrid) {
-    let grid = LevelGrid::for_run(&run.grid_source());
-    let mut opts = map_options(run);
+/// The map and GeoJSON files of an evaluated layout, the map titled for `command` ("check",
+/// "design"): `map.svg`, `layout.geojson`, `contours.geojson` (one level grid for all three).
+pub fn files(found: &CheckFindings, command: &'static str) -> Vec<(String, Vec<u8>)> {
+    let run = &found.run;
+    let grid = &found.grid;
+    let mut opts = map_options(&found.neighbours, &found.verdict);
     opts.command = Some(command);
-    let files = vec![
+    vec![
         (
             "map.svg".into(),
-            map_svg_with(run, &grid, &today(), &opts).into_bytes(),
+            map_svg_with(run, grid, &today(), &opts).into_bytes(),
         ),
         (
             "layout.geojson".into(),
-            crate::report::geojson_out::layout_geojson(run).into_bytes(),
+            crate::report::geojson_out::layout_geojson(run, &found.neighbours).into_bytes(),
         ),
         (
             "contours.geojson".into(),
-            crate::report::geojson_out::contours_geojson(run, &grid).into_bytes(),
+            crate::report::geojson_out::contours_geojson(run, grid).into_bytes(),
         ),
-    ];
-    (files, grid)
+    ]
 }

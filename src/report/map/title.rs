@@ -5,18 +5,67 @@
 use crate::check::run::CheckRun;
 use crate::field::grid::ContourSet;
 use crate::report::map::layers::group;
-use crate::report::map::options::{MapOptions, NeighbourStatus};
+use crate::report::map::options::MapOptions;
 use crate::report::map::page::{FAIL, FOOTER_TOP, INK, PANEL, PLAN};
 use crate::report::map::text::{decimals, lines_of, r1, signed, text};
 use crate::report::{thousands, CAUTION};
 use svg::node::element::{Group, Line, Rectangle};
 
+/// The title block: its rows wrapped to the column, the verdict's row in the failure colour
+/// when not met.
 pub(super) fn title_block(
     run: &CheckRun,
     set: &ContourSet,
     date: &str,
     opts: &MapOptions,
 ) -> Group {
+    let (raw, alarm) = title_rows(run, set, date, opts);
+    let x = PANEL[0] + 12.0;
+    let bottom = PLAN[3];
+    // Wrap each row to the column's width.
+    let avail = PANEL[1] - PANEL[0] - 24.0;
+    let mut rows: Vec<(f64, String, bool, &str)> = Vec::new();
+    for (i, (size, words, bold)) in raw.into_iter().enumerate() {
+        let chars = (avail / (0.62 * size)).floor().max(10.0) as usize;
+        let fill = if alarm == Some(i) { FAIL } else { INK };
+        for l in lines_of(&words, chars) {
+            rows.push((size, l, bold, fill));
+        }
+    }
+    let height: f64 = rows.iter().map(|r| r.0 + 6.0).sum::<f64>() + 18.0;
+    let top = bottom - height;
+    let mut g = group("title-block").add(
+        Rectangle::new()
+            .set("x", r1(PANEL[0]))
+            .set("y", r1(top))
+            .set("width", r1(PANEL[1] - PANEL[0]))
+            .set("height", r1(height))
+            .set("fill", "#f6f7f8")
+            .set("stroke", INK)
+            .set("stroke-width", 1.4),
+    );
+    let mut y = top + 8.0;
+    for (size, words, bold, fill) in rows {
+        y += size + 6.0;
+        let mut t = text(x, y, size, words).set("fill", fill);
+        if bold {
+            t = t.set("font-weight", "bold");
+        }
+        g = g.add(t);
+    }
+    g
+}
+
+/// One row of the title block: font size, words, bold.
+type Row = (f64, String, bool);
+
+/// The rows of the title block, and which of them is a verdict that is not met.
+fn title_rows(
+    run: &CheckRun,
+    set: &ContourSet,
+    date: &str,
+    opts: &MapOptions,
+) -> (Vec<Row>, Option<usize>) {
     let model = run.model;
     let e = &run.evaluation;
     let u = model.units;
@@ -24,9 +73,7 @@ pub(super) fn title_block(
     let lu = u.length_unit();
     let dec = decimals(u.length(set.interval)).min(3);
     let fl = crate::report::format::Fmt::new(u, model.ground_level);
-    let x = PANEL[0] + 12.0;
-    let bottom = PLAN[3];
-    let mut raw: Vec<(f64, String, bool)> = Vec::new();
+    let mut raw: Vec<Row> = Vec::new();
     raw.insert(0, (16.0, model.name.clone(), true));
     raw.push((
         12.0,
@@ -92,23 +139,15 @@ pub(super) fn title_block(
         ),
         false,
     ));
-    let result = if e.targets_met && e.wells_ok {
-        "Result: every target met".to_string()
-    } else if !e.targets_met {
-        format!("Result: target NOT met at {} check points", e.unmet_count)
-    } else {
-        "Result: targets met; some wells over limits".to_string()
-    };
-    raw.push((12.0, result, true));
-    let over = opts.neighbour_status.as_ref().map_or(0, |v| {
-        v.iter()
-            .filter(|s| **s == NeighbourStatus::OverLimit)
-            .count()
-    });
-    if over > 0 {
+    // The verdict's row is drawn in the failure colour when the verdict is not met.
+    let mut alarm = None;
+    if let Some(v) = &opts.verdict {
+        if !v.is_met() {
+            alarm = Some(raw.len());
+        }
         raw.push((
             12.0,
-            format!("Result: {over} neighbour(s) over a limit"),
+            format!("Result: {}", crate::report::verdict::headline(v, &fl)),
             true,
         ));
     }
@@ -142,42 +181,7 @@ pub(super) fn title_block(
         format!("Drawn by drydig {}", opts.command.unwrap_or("check")),
         false,
     ));
-    // Wrap each row to the column's width.
-    let avail = PANEL[1] - PANEL[0] - 24.0;
-    let mut rows: Vec<(f64, String, bool, &str)> = Vec::new();
-    for (size, words, bold) in raw {
-        let chars = (avail / (0.62 * size)).floor().max(10.0) as usize;
-        let fill = if words.starts_with("Result: target NOT") || words.contains("over a limit") {
-            FAIL
-        } else {
-            INK
-        };
-        for l in lines_of(&words, chars) {
-            rows.push((size, l, bold, fill));
-        }
-    }
-    let height: f64 = rows.iter().map(|r| r.0 + 6.0).sum::<f64>() + 18.0;
-    let top = bottom - height;
-    let mut g = group("title-block").add(
-        Rectangle::new()
-            .set("x", r1(PANEL[0]))
-            .set("y", r1(top))
-            .set("width", r1(PANEL[1] - PANEL[0]))
-            .set("height", r1(height))
-            .set("fill", "#f6f7f8")
-            .set("stroke", INK)
-            .set("stroke-width", 1.4),
-    );
-    let mut y = top + 8.0;
-    for (size, words, bold, fill) in rows {
-        y += size + 6.0;
-        let mut t = text(x, y, size, words).set("fill", fill);
-        if bold {
-            t = t.set("font-weight", "bold");
-        }
-        g = g.add(t);
-    }
-    g
+    (raw, alarm)
 }
 
 pub(super) fn caution_footer() -> Group {

@@ -113,34 +113,7 @@ pub(super) fn draw_wells(
         };
         let bw = text_width(&name, s1).max(text_width(&rate, s2)) + 4.0;
         let bh = s1 + s2 + 4.0;
-        // Outward from the nearest excavation centre, then round the compass.
-        let c = centres
-            .iter()
-            .min_by(|a, b| {
-                let da = (a[0] - w.position[0]).hypot(a[1] - w.position[1]);
-                let db = (b[0] - w.position[0]).hypot(b[1] - w.position[1]);
-                da.total_cmp(&db)
-            })
-            .copied()
-            .unwrap_or(w.position);
-        let mut dir = [w.position[0] - c[0], -(w.position[1] - c[1])];
-        let l = dir[0].hypot(dir[1]);
-        dir = if l > 1e-9 {
-            [dir[0] / l, dir[1] / l]
-        } else {
-            [0.0, -1.0]
-        };
-        let base = dir[1].atan2(dir[0]);
-        let mut cands = Vec::new();
-        for k in [0.0, 1.0, -1.0, 2.0, -2.0, 3.0, -3.0, 4.0] {
-            let a = base + k * std::f64::consts::FRAC_PI_4;
-            let (sa, ca) = a.sin_cos();
-            // Box centre so that the box's near edge sits just off the symbol.
-            let gap = r + 3.0;
-            let ex = ca * (gap + bw / 2.0);
-            let ey = sa * (gap + bh / 2.0);
-            cands.push([p[0] + ex, p[1] + ey]);
-        }
+        let cands = label_candidates(w.position, p, &centres, r, [bw, bh]);
         match place(occ, area, bw, bh, &cands) {
             Some(c) => {
                 labelled.push(p);
@@ -167,4 +140,44 @@ pub(super) fn draw_wells(
         .add(symbols)
         .add(labels);
     omitted
+}
+
+/// Where a well's label box (`size` w × h, px) may go, best first: outward from the nearest
+/// excavation centre, then round the compass in eighths, the box's near edge just off the
+/// symbol of radius `r` at page point `p`.
+fn label_candidates(
+    position: [f64; 2],
+    p: [f64; 2],
+    centres: &[[f64; 2]],
+    r: f64,
+    [bw, bh]: [f64; 2],
+) -> Vec<[f64; 2]> {
+    let c = centres
+        .iter()
+        .min_by(|a, b| {
+            let da = (a[0] - position[0]).hypot(a[1] - position[1]);
+            let db = (b[0] - position[0]).hypot(b[1] - position[1]);
+            da.total_cmp(&db)
+        })
+        .copied()
+        .unwrap_or(position);
+    let mut dir = [position[0] - c[0], -(position[1] - c[1])];
+    let l = dir[0].hypot(dir[1]);
+    dir = if l > 1e-9 {
+        [dir[0] / l, dir[1] / l]
+    } else {
+        [0.0, -1.0]
+    };
+    let base = dir[1].atan2(dir[0]);
+    let mut cands = Vec::new();
+    for k in [0.0, 1.0, -1.0, 2.0, -2.0, 3.0, -3.0, 4.0] {
+        let a = base + k * std::f64::consts::FRAC_PI_4;
+        let (sa, ca) = a.sin_cos();
+        // Box centre so that the box's near edge sits just off the symbol.
+        let gap = r + 3.0;
+        let ex = ca * (gap + bw / 2.0);
+        let ey = sa * (gap + bh / 2.0);
+        cands.push([p[0] + ex, p[1] + ey]);
+    }
+    cands
 }

@@ -2,7 +2,7 @@
 //! settlement, distortion, limits and their basis, and `neighbour_points.csv`, the corners and
 //! worst points of every building with level, drawdown and settlement.
 
-use crate::safety::neighbours::{self, NeighbourResult};
+use crate::safety::neighbours::{NeighbourResult, Sample};
 
 /// `neighbours.csv`: one row per neighbour.
 pub fn neighbours_csv(results: &[NeighbourResult]) -> anyhow::Result<Vec<u8>> {
@@ -70,7 +70,7 @@ pub fn neighbour_points_csv(results: &[NeighbourResult]) -> anyhow::Result<Vec<u
         "settlement_mm",
     ])?;
     for r in results {
-        let mut rows: Vec<(String, &neighbours::Sample)> =
+        let mut rows: Vec<(String, &Sample)> =
             r.corners.iter().map(|c| (c.name.clone(), c)).collect();
         rows.push((
             format!("worst drawdown ({})", r.worst_drawdown.name),

@@ -4,6 +4,7 @@
 //! caution.
 
 use crate::check::run::CheckRun;
+use crate::findings::settlement_grid::SettlementGrid;
 use crate::report::neighbours::settlement_plot::{
     fmt_step, fmt_value, label, nice_step, path_data, polyline_data, ramp, Grid, View, FOOT_H,
     MARGIN, PANEL_W, PLOT_W, TITLE_H,
@@ -11,15 +12,18 @@ use crate::report::neighbours::settlement_plot::{
 use crate::report::neighbours::status::status_colour;
 use crate::report::neighbours::text::{ratio_text, truncate};
 use crate::report::{wrap, CAUTION};
-use crate::safety::neighbours::{self, NeighbourResult, Status};
-use geo::BoundingRect;
+use crate::safety::neighbours::{NeighbourResult, Status};
 use svg::node::element::{Circle, ClipPath, Definitions, Group, Line, Path as SvgPath, Rectangle};
 use svg::Document;
 
 /// `settlement.svg`: settlement bands under each neighbour (from its own soil profile and the
 /// drawdown there), drawdown isolines for context, the excavation and the wells, each building
 /// outlined in its status colour.
-pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
+pub fn settlement_svg(
+    run: &CheckRun,
+    results: &[NeighbourResult],
+    settlement: &[SettlementGrid],
+) -> String {
     let model = run.model;
     let u = model.units;
     let us = u == crate::input::units::UnitSystem::Us;
@@ -79,40 +83,20 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult]) -> String {
     let width = MARGIN * 2.0 + PLOT_W + PANEL_W;
     let height = TITLE_H + plot_h + FOOT_H;
 
-    // Settlement grids under each neighbour with a profile.
+    // Settlement grids under each neighbour with a profile (computed in the findings).
     let mut grids: Vec<(usize, Grid)> = Vec::new();
     let mut max_rho: f64 = 0.0;
-    for (i, n) in model.neighbours.iter().enumerate() {
-        if n.layers.is_empty() {
-            continue;
-        }
-        let Some(bb) = n.footprint.bounding_rect() else {
-            continue;
-        };
-        let span = bb.width().max(bb.height());
-        let h = (span / 60.0).max(0.1);
-        let nx = (bb.width() / h).ceil() as usize + 3;
-        let ny = (bb.height() / h).ceil() as usize + 3;
-        let (gx, gy) = (bb.min().x - h, bb.min().y - h);
-        let pts = Grid::points(gx, gy, h, nx, ny);
-        let levels = run.field.levels(&pts, &rates);
-        let h0 = aq.initial_level;
-        let values: Vec<f64> = levels
-            .iter()
-            .map(|lv| {
-                neighbours::settlement_at(model, n, h0, lv.or_base(aq.base_level)).unwrap_or(0.0)
-                    * sc
-            })
-            .collect();
+    for g in settlement {
+        let values: Vec<f64> = g.settlement_m.iter().map(|s| s * sc).collect();
         max_rho = values.iter().copied().fold(max_rho, f64::max);
         grids.push((
-            i,
+            g.neighbour,
             Grid {
-                x0: gx,
-                y0: gy,
-                h,
-                nx,
-                ny,
+                x0: g.x0,
+                y0: g.y0,
+                h: g.h,
+                nx: g.nx,
+                ny: g.ny,
                 values,
             },
         ));

@@ -3,12 +3,12 @@
 //! check of each excavation, the recharge sizing, and the closing neighbours verdict; with the
 //! ratio, millimetre and truncation helpers it writes them with.
 
-use crate::check::run::CheckRun;
+use crate::findings::check::CheckFindings;
 use crate::input::units::UnitSystem;
 use crate::optimise::recharge::RechargeSizing;
 use crate::report::wrap;
-use crate::safety::neighbours::{self, NeighbourResult, Status};
-use crate::safety::uplift::{self, UpliftResult};
+use crate::safety::neighbours::{NeighbourResult, Status, RULE_OF_THUMB_LABEL};
+use crate::safety::uplift::UpliftResult;
 
 pub(super) fn ratio_text(beta: f64) -> String {
     if beta <= 0.0 {
@@ -67,11 +67,12 @@ fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
 }
 
 /// Terminal section: neighbours table, uplift, recharge sizing, and the neighbours verdict.
-pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem) -> String {
+pub fn text(found: &CheckFindings, units: UnitSystem) -> String {
+    let recharge = found.recharge.as_ref();
     let mut out = String::new();
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
-    let results = neighbours::assess_run(run);
+    let results = &found.neighbours;
     if !results.is_empty() {
         out.push_str("\nneighbours (drawdown from superposition; settlement by 1D consolidation on the listed layers)\n");
         out.push_str(&format!(
@@ -85,7 +86,7 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
             "limit",
             "status"
         ));
-        for r in &results {
+        for r in results {
             let find = |q: &str| r.checks.iter().find(|c| c.quantity == q);
             let lim_dd = find("drawdown").map_or("—".into(), |c| format!("{:.2}", l(c.limit)));
             let (rho, lim_rho) = match (&r.worst_settlement, find("settlement")) {
@@ -140,12 +141,12 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
             .any(|c| c.basis != "design file")
         {
             out.push_str(&wrap(
-                &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", neighbours::RULE_OF_THUMB_LABEL),
+                &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", RULE_OF_THUMB_LABEL),
                 96,
                 "  ",
             ));
         }
-        for r in &results {
+        for r in results {
             out.push_str(&format!(
                 "  {} — layers from the {} at {:.2} {lu}; Δσ′ form: {}\n",
                 r.name,
@@ -194,8 +195,7 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
             }
         }
     }
-    let up = uplift::assess_run(run);
-    for u in &up {
+    for u in &found.uplift {
         out.push_str(&uplift_text(u, units));
     }
     if let Some(rs) = recharge {

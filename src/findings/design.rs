@@ -1,0 +1,39 @@
+//! The findings of `design`: the search, and the chosen (or best) layout evaluated as `check`
+//! evaluates it, with the one verdict of the run.
+
+use crate::findings::check::CheckFindings;
+use crate::findings::verdict::{of_design, Verdict};
+use crate::input::model::Model;
+use crate::optimise::outcome::{final_run, Design};
+
+/// Everything the outputs of `design` show.
+pub struct DesignFindings<'a> {
+    /// How the search ended, the layouts tried, notes.
+    pub design: Design,
+    /// The chosen (or best) layout, when there is one.
+    pub chosen: Option<CheckFindings<'a>>,
+    /// Met, or what is short.
+    pub verdict: Verdict,
+}
+
+impl<'a> DesignFindings<'a> {
+    /// The findings of `design` on `model`.
+    pub fn build(model: &'a Model, design: Design) -> Self {
+        let mut chosen = final_run(model, &design).map(|run| CheckFindings::build(run, None));
+        let verdict = of_design(
+            &design,
+            chosen
+                .as_ref()
+                .map(|c| (&c.run.evaluation, c.neighbours.as_slice())),
+        );
+        if let Some(c) = chosen.as_mut() {
+            // The report of the chosen layout carries the design's verdict.
+            c.verdict = verdict.clone();
+        }
+        DesignFindings {
+            design,
+            chosen,
+            verdict,
+        }
+    }
+}

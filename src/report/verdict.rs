@@ -1,0 +1,101 @@
+//! The one wording of the verdict ([`Verdict`]), shared by the terminal, `report.html` and
+//! `map.svg`; lengths in the user's units.
+
+use crate::findings::verdict::{Shortfalls, Verdict};
+use crate::report::format::Fmt;
+
+fn count(n: usize, one: &str, many: &str) -> String {
+    if n == 1 {
+        format!("1 {one}")
+    } else {
+        format!("{n} {many}")
+    }
+}
+
+fn shortfalls(s: &Shortfalls) -> Vec<String> {
+    let mut parts = Vec::new();
+    if s.points_above_target > 0 {
+        parts.push(count(
+            s.points_above_target,
+            "check point above target",
+            "check points above target",
+        ));
+    }
+    if s.wells_over_limits > 0 {
+        parts.push(count(
+            s.wells_over_limits,
+            "well over its limits",
+            "wells over their limits",
+        ));
+    }
+    if s.neighbours_over_limits > 0 {
+        parts.push(count(
+            s.neighbours_over_limits,
+            "neighbour over a limit",
+            "neighbours over a limit",
+        ));
+    }
+    parts
+}
+
+/// The verdict in words, one line: what is met, or what is short.
+pub fn headline(v: &Verdict, f: &Fmt) -> String {
+    match v {
+        Verdict::Met => "every target met; every well and every neighbour within its limits".into(),
+        Verdict::NotMet(s) => {
+            let parts = shortfalls(s);
+            if parts.is_empty() {
+                "NOT MET: the chosen layout could not be evaluated".into()
+            } else {
+                format!("NOT MET: {}", parts.join("; "))
+            }
+        }
+        Verdict::NoLayoutMeets {
+            count: n,
+            worst_point,
+            shortfall_m,
+            neighbours_over_limits,
+        } => {
+            let mut s = format!(
+                "NOT MET: no layout tried meets every target within the well limits; the best ({n} wells) leaves the water {} above target at {worst_point}",
+                f.length(*shortfall_m)
+            );
+            if *neighbours_over_limits > 0 {
+                s.push_str("; ");
+                s.push_str(&count(
+                    *neighbours_over_limits,
+                    "neighbour over a limit",
+                    "neighbours over a limit",
+                ));
+            }
+            s
+        }
+        Verdict::Impossible { reason } => {
+            format!("IMPOSSIBLE with this kind of layout: {reason}")
+        }
+        Verdict::NoValueMeets => "NOT MET: no value of the range meets every target".into(),
+        Verdict::ProgrammeShort {
+            stages_unreached,
+            well_breaches,
+        } => {
+            let mut parts = Vec::new();
+            if *stages_unreached > 0 {
+                parts.push(count(
+                    *stages_unreached,
+                    "stage never reached",
+                    "stages never reached",
+                ));
+            }
+            if *well_breaches > 0 {
+                parts.push(count(
+                    *well_breaches,
+                    "well scheduled below its lowest level",
+                    "wells scheduled below their lowest level",
+                ));
+            }
+            format!("NOT MET: {}", parts.join("; "))
+        }
+        Verdict::DayNotMet => "NOT MET on the day".into(),
+        Verdict::NoFit => "NOT MET: no method fitted the data".into(),
+    }
+}
