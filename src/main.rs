@@ -39,6 +39,7 @@ fn print(text: &str) -> anyhow::Result<()> {
 }
 
 fn run(cli: Cli) -> anyhow::Result<ExitCode> {
+    let chatter = cli.chatter();
     match cli.command {
         Command::Estimate { file, json, units } => {
             let model = model::load(&file)?;
@@ -90,15 +91,16 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             units,
             prices,
             by_day,
-            verbose,
         } => {
             let mut model = model::load(&file)?;
             if let Some(day) = by_day {
+                let units = units.map(Into::into).unwrap_or(model.units);
                 let d = drydig::transient::by_date::design_by_day(&model, day)?;
-                let files = vec![("by_day.csv".to_string(), report::by_day_text::to_csv(&d))];
+                let csv = report::by_day_text::to_csv(&d, units);
+                let files = vec![("by_day.csv".to_string(), csv)];
                 let inputs = report::files::inputs_of(&model, None);
                 report::files::write_set(&out, &files, &inputs)?;
-                print(&report::by_day_text::to_text(&model, &d))?;
+                print(&report::by_day_text::to_text(&model, &d, units))?;
                 print(&format!("outputs written to {}\n", out.display()))?;
                 return Ok(if d.met {
                     ExitCode::SUCCESS
@@ -113,9 +115,11 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 .as_deref()
                 .map(drydig::input::prices::read)
                 .transpose()?;
+            let progress = drydig::cli::progress_layouts(chatter, model.units);
             let design = drydig::optimise::search::design(&model, rates.into())?;
+            progress.finish();
             let run = drydig::optimise::outcome::final_run(&model, &design);
-            if verbose {
+            if chatter == drydig::cli::Chatter::Verbose {
                 eprintln!("{}", drydig::work_counts::summary());
             }
             let files =
@@ -152,11 +156,17 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
+            let ring = model.layout.as_ref().is_some_and(|l| {
+                matches!(l.kind, drydig::input::model::LayoutKind::Ring { .. })
+            });
+            let [from, to, step] = drydig::cli::sweep_bounds(
+                ring,
+                [("--from", Some(from)), ("--to", Some(to)), ("--step", step)],
+            )
+            .map_err(|e| bad_arg("--from/--to/--step", e))?;
+            let (from, to) = (from.unwrap_or(0.0), to.unwrap_or(0.0));
             let plan = drydig::optimise::sweep::plan(&model, from, to, step)?;
-            let bar = indicatif::ProgressBar::new(plan.values.len() as u64);
-            if !std::io::IsTerminal::is_terminal(&std::io::stderr()) || plan.values.len() < 4 {
-                bar.set_draw_target(indicatif::ProgressDrawTarget::hidden());
-            }
+            let bar = drydig::cli::progress_counted(chatter, plan.values.len(), "layouts");
             let sweep = drydig::optimise::sweep::run(&model, &plan, &|| bar.inc(1))?;
             bar.finish_and_clear();
             let files = vec![
@@ -183,8 +193,15 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 ExitCode::from(3)
             })
         }
-        Command::Programme { file, out, wells } => {
-            let model = model::load(&file)?;
+        Command::Programme {
+            file,
+            out,
+            wells,
+            units,
+        } => {
+            let mut model = model::load(&file)?;
+            // The text, the added CSV columns, the charts and the maps follow `--units`.
+            model.units = units.map(Into::into).unwrap_or(model.units);
             let setup = drydig::transient::programme::setup_from(&model, wells.as_deref())?;
             let answers = drydig::transient::answers::answer(&model, &setup);
             let mut files = vec![(
@@ -220,13 +237,11 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             thickness,
             recovery_after,
             method,
+            units,
             out,
         } => {
-            let prefer = method
-                .as_deref()
-                .map(report::pumping_test_text::method_named)
-                .transpose()
-                .map_err(|e| bad_arg("--method", e))?;
+            let prefer = method.map(Into::into);
+            let units = units.map_or(drydig::input::units::UnitSystem::Si, Into::into);
             let data = pumping_test_data(&file, &rate, &distance, thickness.as_deref())?;
             let recovery = recovery_after
                 .as_deref()
@@ -238,9 +253,11 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let fits = report::pumping_test_text::fits(&data, recovery);
             report::files::write_all(
                 &out,
-                &report::pumping_test_text::files(&data, &fits, prefer),
+                &report::pumping_test_text::files(&data, &fits, prefer, units),
             )?;
-            print(&report::pumping_test_text::to_text(&data, &fits, prefer))?;
+            print(&report::pumping_test_text::to_text(
+                &data, &fits, prefer, units,
+            ))?;
             print(&format!("outputs written to {}\n", out.display()))?;
             Ok(if fits.iter().any(|(_, f)| f.is_ok()) {
                 ExitCode::SUCCESS

@@ -154,6 +154,7 @@ pub(super) fn try_placement(
 ) -> TrialRun {
     crate::work_counts::add(&crate::work_counts::TRIALS, 1);
     let count = placement.wells.len();
+    crate::work_counts::trying(count, spacing);
     let rates = LayoutRates::new(model, points, placement.wells.clone());
     let mut uniform = rates.uniform();
     if model.design.one_well_out && count > 0 {

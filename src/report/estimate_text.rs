@@ -1,5 +1,6 @@
 //! The quick estimate as a readable terminal table, and as JSON.
 
+use super::format::Fmt;
 use super::{thousands, wrap, CAUTION};
 use crate::estimate::{Estimate, ExcavationEstimate, FlowMethod};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
@@ -12,11 +13,7 @@ fn flow(m3_per_day: f64, units: UnitSystem) -> String {
             thousands(m3_per_day, 0),
             m3s * 1e3
         ),
-        UnitSystem::Us => format!(
-            "{} US gpm  ({} m³/day)",
-            thousands(m3s_to_gpm(m3s), 0),
-            thousands(m3_per_day, 0)
-        ),
+        UnitSystem::Us => format!("{} US gpm", thousands(m3s_to_gpm(m3s), 0)),
     }
 }
 
@@ -112,7 +109,15 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
         row(out, "flow through the long sides", flow(sides, units));
         row(out, "flow through the ends", flow(ends, units));
         if let Some(per100) = e.flow_per_100m_m3_per_day {
-            row(out, "flow per 100 m of trench", flow(per100, units));
+            match units {
+                UnitSystem::Si => row(out, "flow per 100 m of trench", flow(per100, units)),
+                // 100 ft = 30.48 m of trench.
+                UnitSystem::Us => row(
+                    out,
+                    "flow per 100 ft of trench",
+                    flow(per100 * 0.3048, units),
+                ),
+            }
         }
     }
     row(
@@ -155,11 +160,22 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
 pub fn to_text(est: &Estimate, units: UnitSystem) -> String {
     let mut out = String::new();
     out.push_str(&format!("drydig quick estimate — {}\n", est.project));
+    let (k, t) = match units {
+        UnitSystem::Si => (
+            format!("{:.2e} m/s", est.conductivity_m_per_s),
+            format!("{:.2e} m²/s", est.transmissivity_m2_per_s),
+        ),
+        UnitSystem::Us => {
+            let f = Fmt::new(units, 0.0);
+            (
+                f.conductivity(est.conductivity_m_per_s),
+                f.transmissivity(est.transmissivity_m2_per_s),
+            )
+        }
+    };
     out.push_str(&format!(
-        "aquifer: {}; K = {:.2e} m/s; T = {:.2e} m²/s; groundwater {}; base {}\n",
+        "aquifer: {}; K = {k}; T = {t}; groundwater {}; base {}\n",
         est.aquifer,
-        est.conductivity_m_per_s,
-        est.transmissivity_m2_per_s,
         len(est.groundwater_level_m, units),
         len(est.aquifer_base_level_m, units)
     ));

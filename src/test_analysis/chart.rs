@@ -2,6 +2,7 @@
 //! (left, the type-curve view) and semi-log axes (right, the Cooper–Jacob view).
 
 use super::{Fit, ObservationWell};
+use crate::input::units::UnitSystem;
 use svg::node::element::{Circle, Group, Line, Path, Rectangle, Text};
 use svg::Document;
 
@@ -48,7 +49,7 @@ impl Axes {
     }
 }
 
-fn frame(ax: &Axes, title: &str) -> Group {
+fn frame(ax: &Axes, title: &str, lu: &str) -> Group {
     let mut g = Group::new().add(
         Rectangle::new()
             .set("x", r1(ax.x0))
@@ -110,20 +111,30 @@ fn frame(ax: &Axes, title: &str) -> Group {
         "time since pumping started (s)",
     ))
     .add(
-        text(ax.x0 - 48.0, TOP + PH / 2.0, 12.0, "middle", "drawdown (m)").set(
+        text(
+            ax.x0 - 48.0,
+            TOP + PH / 2.0,
+            12.0,
+            "middle",
+            format!("drawdown ({lu})"),
+        )
+        .set(
             "transform",
             format!("rotate(-90 {} {})", r1(ax.x0 - 48.0), r1(TOP + PH / 2.0)),
         ),
     )
 }
 
-fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
+/// The observations and fitted curves, drawdowns multiplied by `scale` (1 for m, 1/0.3048 for
+/// ft).
+fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>, scale: f64) -> Group {
     let mut g = Group::new();
     for (k, w) in wells.iter().enumerate() {
         let c = COLOURS[k % COLOURS.len()];
         // One circle per pixel: a logger's 10⁶ readings draw as the curve they make.
         let mut drawn = std::collections::HashSet::new();
         for &(t, s) in &w.points {
+            let s = s * scale;
             if ax.inside(t, s) && drawn.insert((ax.px(t) as i32, ax.py(s) as i32)) {
                 g = g.add(
                     Circle::new()
@@ -139,7 +150,7 @@ fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
             let mut d = String::new();
             for i in 0..=120 {
                 let t = 10f64.powf(ax.lx.0 + (ax.lx.1 - ax.lx.0) * i as f64 / 120.0);
-                let s = f.model_drawdown(w.distance, t);
+                let s = f.model_drawdown(w.distance, t) * scale;
                 if ax.inside(t, s) {
                     let cmd = if d.is_empty() { 'M' } else { 'L' };
                     d.push_str(&format!("{cmd}{} {} ", r1(ax.px(t)), r1(ax.py(s))));
@@ -161,11 +172,14 @@ fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
 
 /// SVG of the observations of `wells` (open circles) and the fitted model of `fit` (lines), on
 /// log–log and semi-log axes, with a legend and the fitted values. Points that cannot be shown
-/// (zero drawdown on a log axis) are left out; no non-finite number is written.
-pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String {
+/// (zero drawdown on a log axis) are left out; no non-finite number is written. Lengths are in
+/// `units` (the data stay SI; only the drawing converts).
+pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>, units: UnitSystem) -> String {
+    let f = crate::report::format::Fmt::new(units, 0.0);
+    let k = units.length(1.0);
     let pts: Vec<(f64, f64)> = wells
         .iter()
-        .flat_map(|w| w.points.iter().copied())
+        .flat_map(|w| w.points.iter().map(|&(t, s)| (t, s * k)))
         .collect();
     let tmin = pts
         .iter()
@@ -218,10 +232,10 @@ pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String 
                 .set("height", H)
                 .set("fill", "white"),
         )
-        .add(frame(&loglog, "log–log"))
-        .add(frame(&semilog, "semi-log"))
-        .add(series(&loglog, wells, fit))
-        .add(series(&semilog, wells, fit));
+        .add(frame(&loglog, "log–log", f.lu()))
+        .add(frame(&semilog, "semi-log", f.lu()))
+        .add(series(&loglog, wells, fit, k))
+        .add(series(&semilog, wells, fit, k));
     let mut legend = String::new();
     for (k, w) in wells.iter().enumerate() {
         doc = doc.add(
@@ -230,24 +244,24 @@ pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String 
                 H - 14.0,
                 12.0,
                 "start",
-                format!("○ {} (r = {} m)", w.name, w.distance),
+                format!("○ {} (r = {})", w.name, f.length(w.distance)),
             )
             .set("fill", COLOURS[k % COLOURS.len()]),
         );
     }
-    if let Some(f) = fit {
-        legend.push_str(&format!(
-            "{}: T = {:.3e} m²/s",
-            f.method.name(),
-            f.transmissivity.value
-        ));
-        if let Some(s) = f.storativity {
+    if let Some(fit) = fit {
+        let t = match units {
+            UnitSystem::Si => format!("{:.3e} m²/s", fit.transmissivity.value),
+            UnitSystem::Us => f.transmissivity(fit.transmissivity.value),
+        };
+        legend.push_str(&format!("{}: T = {t}", fit.method.name()));
+        if let Some(s) = fit.storativity {
             legend.push_str(&format!(", S = {:.3e}", s.value));
         }
-        if let Some(b) = f.leakage_factor {
-            legend.push_str(&format!(", B = {:.1} m", b.value));
+        if let Some(b) = fit.leakage_factor {
+            legend.push_str(&format!(", B = {}", f.length(b.value)));
         }
-        legend.push_str(&format!(", rms {:.3} m", f.rms));
+        legend.push_str(&format!(", rms {}", f.length_fine(fit.rms)));
     } else {
         legend.push_str("observations");
     }

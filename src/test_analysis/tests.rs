@@ -233,7 +233,7 @@ fn chart_and_design_lines() {
     // practice (no source))
     let data = load(OUDE_KORENDIJK, 788.0 / 86_400.0, Some(7.0));
     let fit = fit_theis(&data).unwrap();
-    let svg = chart::pumping_test_svg(&data.wells, Some(&fit));
+    let svg = chart::pumping_test_svg(&data.wells, Some(&fit), crate::input::units::UnitSystem::Si);
     assert!(svg.starts_with("<svg"));
     assert!(
         svg.matches("<path").count() >= 4,
@@ -270,7 +270,7 @@ type NamedFits = Vec<(String, Result<Fit, String>)>;
 /// Every fit of `data` as `drydig pumping-test` makes them, and its terminal text.
 fn everything(data: &PumpingTestData) -> (NamedFits, String) {
     let fits = crate::report::pumping_test_text::fits(data, None);
-    let text = crate::report::pumping_test_text::to_text(data, &fits, None);
+    let text = crate::report::pumping_test_text::to_text(data, &fits, None, crate::input::units::UnitSystem::Si);
     assert!(
         crate::report::files::has_non_finite(text.as_bytes()).is_none(),
         "{text}"
