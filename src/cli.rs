@@ -104,17 +104,18 @@ pub fn parse_sweep_value(text: &str) -> Result<SweepValue, String> {
 }
 
 /// The sweep bounds as numbers for `optimise::sweep::plan`: a ring is swept by count, so a
-/// length unit on its bounds is refused, naming the flag.
-pub fn sweep_bounds(
+/// length unit on its bounds is refused: `Err` names the flag and why.
+pub fn sweep_bounds<'a>(
     ring: bool,
-    bounds: [(&str, Option<SweepValue>); 3],
-) -> Result<[Option<f64>; 3], String> {
+    bounds: [(&'a str, Option<SweepValue>); 3],
+) -> Result<[Option<f64>; 3], (&'a str, String)> {
     let mut out = [None; 3];
     for (slot, (flag, v)) in out.iter_mut().zip(bounds) {
         if let Some(v) = v {
             if ring && v.with_unit {
-                return Err(format!(
-                    "{flag}: a ring is swept by well count; give a whole number without a unit"
+                return Err((
+                    flag,
+                    "a ring is swept by well count: give a whole number without a unit".into(),
                 ));
             }
             *slot = Some(v.value);

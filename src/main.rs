@@ -163,7 +163,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 ring,
                 [("--from", Some(from)), ("--to", Some(to)), ("--step", step)],
             )
-            .map_err(|e| bad_arg("--from/--to/--step", e))?;
+            .map_err(|(flag, e)| bad_arg(flag, e))?;
             let (from, to) = (from.unwrap_or(0.0), to.unwrap_or(0.0));
             let plan = drydig::optimise::sweep::plan(&model, from, to, step)?;
             let bar = drydig::cli::progress_counted(chatter, plan.values.len(), "layouts");
@@ -279,7 +279,7 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
 
 fn bad_arg(field: &str, message: String) -> anyhow::Error {
     InputError {
-        file: std::path::PathBuf::new(),
+        file: std::path::PathBuf::from("command line"),
         field: field.into(),
         line: None,
         message,

@@ -3,7 +3,6 @@
 pub mod as_built_text;
 pub mod bid_out;
 pub mod by_day_text;
-pub mod chart_axes;
 pub mod check_text;
 pub mod design_text;
 pub mod dxf_out;
@@ -15,6 +14,7 @@ pub mod geojson_wgs84;
 pub mod html;
 pub mod map;
 pub mod neighbours;
+pub mod plot_kit;
 pub mod programme_charts;
 pub mod programme_map;
 pub mod programme_text;
