@@ -5,7 +5,7 @@ use super::format::Fmt;
 use super::{wrap, CAUTION};
 use crate::input::units::UnitSystem;
 use crate::test_analysis::{
-    aquifer_lines, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown, fit_hantush,
+    aquifer_lines_in, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown, fit_hantush,
     fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
 };
 
@@ -101,7 +101,7 @@ pub fn to_text(
             "\n  aquifer lines from the {} fit (paste into [aquifer]):\n\n",
             b.method.name()
         ));
-        for line in aquifer_lines(b).lines() {
+        for line in aquifer_lines_in(b, units).lines() {
             s.push_str("    ");
             s.push_str(line);
             s.push('\n');
@@ -126,7 +126,10 @@ pub fn files(
         pumping_test_svg(&data.wells, b, units).into_bytes(),
     )];
     if let Some(b) = b {
-        out.push(("aquifer_lines.toml".into(), aquifer_lines(b).into_bytes()));
+        out.push((
+            "aquifer_lines.toml".into(),
+            aquifer_lines_in(b, units).into_bytes(),
+        ));
     }
     out
 }
