@@ -100,7 +100,9 @@ pub fn parse_sweep_value(text: &str) -> Result<SweepValue, String> {
             value,
             with_unit: true,
         })
-        .map_err(|e| format!("give a well count (\"12\") or a spacing with its unit (\"5 m\"): {e}"))
+        .map_err(|e| {
+            format!("give a well count (\"12\") or a spacing with its unit (\"5 m\"): {e}")
+        })
 }
 
 /// The sweep bounds as numbers for `optimise::sweep::plan`: a ring is swept by count, so a
@@ -305,7 +307,8 @@ fn progress_target(chatter: Chatter) -> indicatif::ProgressDrawTarget {
 
 /// A bar over `total` known steps (a sweep's layouts) with its ETA; hidden for fewer than 4.
 pub fn progress_counted(chatter: Chatter, total: usize, what: &str) -> indicatif::ProgressBar {
-    let bar = indicatif::ProgressBar::with_draw_target(Some(total as u64), progress_target(chatter));
+    let bar =
+        indicatif::ProgressBar::with_draw_target(Some(total as u64), progress_target(chatter));
     if total < 4 {
         bar.set_draw_target(indicatif::ProgressDrawTarget::hidden());
     }

@@ -156,9 +156,10 @@ fn run(cli: Cli) -> anyhow::Result<ExitCode> {
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            let ring = model.layout.as_ref().is_some_and(|l| {
-                matches!(l.kind, drydig::input::model::LayoutKind::Ring { .. })
-            });
+            let ring = model
+                .layout
+                .as_ref()
+                .is_some_and(|l| matches!(l.kind, drydig::input::model::LayoutKind::Ring { .. }));
             let [from, to, step] = drydig::cli::sweep_bounds(
                 ring,
                 [("--from", Some(from)), ("--to", Some(to)), ("--step", step)],

@@ -39,7 +39,8 @@ const SI: &[&str] = &[
 
 /// Whether `token` (a word of the text) is an SI unit, alone or after its number ("3m").
 fn is_si(token: &str) -> bool {
-    let unit = token.trim_start_matches(|c: char| c.is_ascii_digit() || "+-−.,\u{2009}".contains(c));
+    let unit =
+        token.trim_start_matches(|c: char| c.is_ascii_digit() || "+-−.,\u{2009}".contains(c));
     SI.contains(&unit)
 }
 
@@ -149,8 +150,17 @@ fn si_machine_column(header: &str) -> bool {
     let h = header.trim().to_lowercase();
     let first = h.split_whitespace().next().unwrap_or("");
     [
-        "_m", "_m2", "_m3", "_mm", "_l_per_s", "_m3_per_day", "_m3_per_s", "_m_per_s",
-        "_m2_per_s", "_kpa", "_kn",
+        "_m",
+        "_m2",
+        "_m3",
+        "_mm",
+        "_l_per_s",
+        "_m3_per_day",
+        "_m3_per_s",
+        "_m_per_s",
+        "_m2_per_s",
+        "_kpa",
+        "_kn",
     ]
     .iter()
     .any(|suffix| first.ends_with(suffix))
@@ -313,7 +323,10 @@ fn scanner_finds_si_and_passes_us() {
     assert!(csv_human_text("name,x_m,rate_l_per_s,x_ft\nW1,3.0 m,2 L/s,9.8\n").contains("W1"));
     assert!(si_tokens(&csv_human_text("name,x_m,note\nW1,3.0,below 2 m\n")).len() == 1);
     assert!(si_tokens(&svg_text("<svg><text x=\"1\">depth (ft)</text></svg>")).is_empty());
-    assert_eq!(si_tokens(&html_text("<p title=\"5 m\">5 <b>kPa</b></p>")).len(), 1);
+    assert_eq!(
+        si_tokens(&html_text("<p title=\"5 m\">5 <b>kPa</b></p>")).len(),
+        1
+    );
 }
 
 #[test]

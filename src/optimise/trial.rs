@@ -328,7 +328,12 @@ pub fn one_row_per_placement(trials: &mut Vec<Trial>) {
     };
     let mut kept: Vec<Trial> = Vec::with_capacity(trials.len());
     for t in trials.drain(..) {
-        match kept.iter_mut().rev().take_while(|k| k.count == t.count).find(|k| same(k, &t)) {
+        match kept
+            .iter_mut()
+            .rev()
+            .take_while(|k| k.count == t.count)
+            .find(|k| same(k, &t))
+        {
             Some(k) => {
                 if k.individual_status == "not run" && t.individual_status != "not run" {
                     *k = t;

@@ -96,7 +96,11 @@ pub fn to_text(model: &Model, d: &DatedDesign, units: UnitSystem) -> String {
             d.day
         ));
     }
-    s.push_str(&wrap(&format!("note: {}", allowances(model, d, &f)), 96, "  "));
+    s.push_str(&wrap(
+        &format!("note: {}", allowances(model, d, &f)),
+        96,
+        "  ",
+    ));
     for n in &d.notes {
         s.push_str(&format!("  note: {n}\n"));
     }

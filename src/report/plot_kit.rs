@@ -81,7 +81,10 @@ pub fn decimals(step: f64) -> usize {
 pub fn tick_label(v: f64, step: f64) -> String {
     let d = decimals(step);
     let s = format!("{v:.d$}");
-    if s.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+    if s.trim_start_matches('-')
+        .chars()
+        .all(|c| c == '0' || c == '.')
+    {
         s.trim_start_matches('-').to_string()
     } else {
         s
@@ -174,7 +177,8 @@ impl Frame {
     /// plot for the left axis, right of it for a second axis).
     pub fn y_title(&self, title: &str, x: f64) -> Text {
         let y = self.top + self.height / 2.0;
-        text(x, y, 12.0, "middle", title).set("transform", format!("rotate(-90 {} {})", r1(x), r1(y)))
+        text(x, y, 12.0, "middle", title)
+            .set("transform", format!("rotate(-90 {} {})", r1(x), r1(y)))
     }
 }
 

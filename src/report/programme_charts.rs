@@ -67,7 +67,13 @@ fn mark_lines(fr: &Frame, marks: &[(f64, String)]) -> Group {
                     .set("stroke", "#888888")
                     .set("stroke-dasharray", "4 3"),
             )
-            .add(text(x + 3.0, fr.top + 12.0 + row, 10.0, "start", name.clone()));
+            .add(text(
+                x + 3.0,
+                fr.top + 12.0 + row,
+                10.0,
+                "start",
+                name.clone(),
+            ));
     }
     g
 }
@@ -221,7 +227,13 @@ fn marks(model: &Model, a: &ProgrammeAnswers) -> Vec<(f64, String)> {
 
 /// The flow chart: total flow (rate unit) and the volume so far (thousands of the volume
 /// unit) against day.
-fn flow_chart(model: &Model, a: &ProgrammeAnswers, f: &Fmt, days: &[f64], marks: &[(f64, String)]) -> String {
+fn flow_chart(
+    model: &Model,
+    a: &ProgrammeAnswers,
+    f: &Fmt,
+    days: &[f64],
+    marks: &[(f64, String)],
+) -> String {
     let (ru, vu) = (f.rate_unit(), f.volume_unit());
     // thousands of m³ or of US gallons (1 m³ = 264.172 gal, NIST SP 811 App. B)
     let per_m3 = match f.units {
@@ -229,7 +241,10 @@ fn flow_chart(model: &Model, a: &ProgrammeAnswers, f: &Fmt, days: &[f64], marks:
         UnitSystem::Us => 1e3 / 3.785_411_784,
     };
     chart(
-        &format!("{} — flow ({ru}) and volume pumped (thousand {vu})", model.name),
+        &format!(
+            "{} — flow ({ru}) and volume pumped (thousand {vu})",
+            model.name
+        ),
         &format!("{ru}   |   thousand {vu}"),
         days,
         &[
@@ -258,7 +273,13 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
         .programme
         .iter()
         .flat_map(|p| &p.stages)
-        .map(|s| (s.start / DAY, f.length_number(s.formation_level), s.name.clone()))
+        .map(|s| {
+            (
+                s.start / DAY,
+                f.length_number(s.formation_level),
+                s.name.clone(),
+            )
+        })
         .collect();
     let mk = |kinds: &[SeriesKind]| -> Vec<Series> {
         a.hydrographs

@@ -3,8 +3,8 @@
 
 use super::format::Fmt;
 use super::{wrap, CAUTION};
-use crate::input::units::UnitSystem;
 use crate::input::model::Model;
+use crate::input::units::UnitSystem;
 use crate::transient::answers::{ProgrammeAnswers, SeriesKind};
 use crate::transient::programme::DAY;
 

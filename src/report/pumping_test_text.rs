@@ -5,8 +5,8 @@ use super::format::Fmt;
 use super::{wrap, CAUTION};
 use crate::input::units::UnitSystem;
 use crate::test_analysis::{
-    aquifer_lines_in, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown, fit_hantush,
-    fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
+    aquifer_lines_in, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown,
+    fit_hantush, fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
 };
 
 /// The fits that apply to `data`: recovery only when `recovery_after` (s of pumping) is given;
@@ -83,8 +83,10 @@ pub fn to_text(
                         "{:.4e} ± {:.2e}",
                         e.value, e.std_error
                     )),
-                    f.leakage_factor
-                        .map_or("—".to_string(), |b| format!("{:.0}", u.length_number(b.value))),
+                    f.leakage_factor.map_or("—".to_string(), |b| format!(
+                        "{:.0}",
+                        u.length_number(b.value)
+                    )),
                     u.length_number(f.rms)
                 ));
                 if let Some(u) = f.earliest_u {

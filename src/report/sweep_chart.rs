@@ -7,9 +7,9 @@
 //! the layout has reserve, below it no uniform rate within the limits is enough.
 
 use super::{wrap, CAUTION};
+use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::optimise::sweep::{Axis, Sweep};
 use crate::optimise::trial::Trial;
-use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::report::plot_kit::{legend, line, r1, text, ticks, Frame, LegendRow};
 use svg::node::element::{Circle, Group, Path, Rectangle};
 use svg::Document;
@@ -151,16 +151,14 @@ fn axes(sc: &Scales, sweep: &Sweep, units: UnitSystem) -> Group {
         )
         .add(fr.x_title(&x_name))
         .add(fr.y_title(flow_name, 26.0))
-        .add(
-            text(0.0, 0.0, 12.0, "middle", margin_name).set(
-                "transform",
-                format!(
-                    "translate({},{}) rotate(90)",
-                    r1(WIDTH - 24.0),
-                    r1(TOP + PLOT_HEIGHT / 2.0)
-                ),
+        .add(text(0.0, 0.0, 12.0, "middle", margin_name).set(
+            "transform",
+            format!(
+                "translate({},{}) rotate(90)",
+                r1(WIDTH - 24.0),
+                r1(TOP + PLOT_HEIGHT / 2.0)
             ),
-        )
+        ))
 }
 
 /// The zero-margin line across the plot, with its meaning.
@@ -280,7 +278,14 @@ fn caution() -> Group {
     let lines = wrap(&format!("CAUTION: {CAUTION}"), 130, "");
     for (k, l) in lines.lines().enumerate() {
         g = g.add(
-            text(LEFT, HEIGHT - 50.0 + 13.0 * k as f64, 10.0, "start", l.to_string()).set("fill", "#555"),
+            text(
+                LEFT,
+                HEIGHT - 50.0 + 13.0 * k as f64,
+                10.0,
+                "start",
+                l.to_string(),
+            )
+            .set("fill", "#555"),
         );
     }
     g

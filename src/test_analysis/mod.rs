@@ -704,7 +704,13 @@ pub fn aquifer_lines_in(fit: &Fit, units: crate::input::units::UnitSystem) -> St
     const FOOT: f64 = 0.3048;
     let (lu, tu, ku, t_k, k_k) = match units {
         UnitSystem::Si => ("m", "m2/s", "m/s", 1.0, 1.0),
-        UnitSystem::Us => ("ft", "ft2/d", "ft/day", 86_400.0 / (FOOT * FOOT), 86_400.0 / FOOT),
+        UnitSystem::Us => (
+            "ft",
+            "ft2/d",
+            "ft/day",
+            86_400.0 / (FOOT * FOOT),
+            86_400.0 / FOOT,
+        ),
     };
     let len = |m: f64| sig(units.length(m));
     let tr = fit.transmissivity;

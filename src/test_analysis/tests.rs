@@ -270,7 +270,12 @@ type NamedFits = Vec<(String, Result<Fit, String>)>;
 /// Every fit of `data` as `drydig pumping-test` makes them, and its terminal text.
 fn everything(data: &PumpingTestData) -> (NamedFits, String) {
     let fits = crate::report::pumping_test_text::fits(data, None);
-    let text = crate::report::pumping_test_text::to_text(data, &fits, None, crate::input::units::UnitSystem::Si);
+    let text = crate::report::pumping_test_text::to_text(
+        data,
+        &fits,
+        None,
+        crate::input::units::UnitSystem::Si,
+    );
     assert!(
         crate::report::files::has_non_finite(text.as_bytes()).is_none(),
         "{text}"
