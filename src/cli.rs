@@ -107,10 +107,10 @@ pub fn parse_sweep_value(text: &str) -> Result<SweepValue, String> {
 
 /// The sweep bounds as numbers for `optimise::sweep::plan`: a ring is swept by count, so a
 /// length unit on its bounds is refused: `Err` names the flag and why.
-pub fn sweep_bounds<'a>(
+pub fn sweep_bounds(
     ring: bool,
-    bounds: [(&'a str, Option<SweepValue>); 3],
-) -> Result<[Option<f64>; 3], (&'a str, String)> {
+    bounds: [(&str, Option<SweepValue>); 3],
+) -> Result<[Option<f64>; 3], (&str, String)> {
     let mut out = [None; 3];
     for (slot, (flag, v)) in out.iter_mut().zip(bounds) {
         if let Some(v) = v {
@@ -186,7 +186,7 @@ pub enum Command {
         /// Take the wells from this CSV (columns name, x, y, rate_l_per_s and optionally radius_m) instead of the layout.
         #[arg(long)]
         wells: Option<PathBuf>,
-        /// Units for the terminal output.
+        /// Units for the terminal text and the files people read (default: the design file's).
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Size the recharge wells (listed wells with a negative rate, the rate being each one's
@@ -206,7 +206,7 @@ pub enum Command {
         /// Rates for the chosen layout: individual (least total flow) or uniform (one pump size).
         #[arg(long, value_enum, default_value = "individual")]
         rates: RatesArg,
-        /// Units for the terminal output.
+        /// Units for the terminal text and the files people read (default: the design file's).
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Your own unit prices (CSV with columns item,price,unit; items named as in bid.csv,
@@ -237,7 +237,7 @@ pub enum Command {
         /// Output folder for sweep.csv and sweep.svg.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
         out: PathBuf,
-        /// Units for the terminal output.
+        /// Units for the terminal text and the files people read (default: the design file's).
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
     },
@@ -355,5 +355,81 @@ impl LayoutProgress {
     pub fn finish(self) {
         crate::work_counts::set_progress(None);
         self.bar.finish_and_clear();
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use clap::CommandFactory;
+
+    #[test]
+    fn sweep_bounds_take_units_as_the_design_file_does() {
+        // 1 ft = 0.3048 m (NIST SP 811 (2008) App. B).
+        let v = parse_sweep_value("16 ft").unwrap();
+        assert!((v.value - 4.8768).abs() < 1e-12 && v.with_unit);
+        assert_eq!(
+            parse_sweep_value("12").unwrap(),
+            SweepValue {
+                value: 12.0,
+                with_unit: false
+            }
+        );
+        assert!((parse_sweep_value("5 m").unwrap().value - 5.0).abs() < 1e-12);
+        let e = parse_sweep_value("5 furlongs").unwrap_err();
+        assert!(e.contains("ft") && e.contains("well count"), "{e}");
+        // a ring is swept by count: a unit is refused, naming the flag
+        let to = parse_sweep_value("8 m").unwrap();
+        let (flag, why) = sweep_bounds(
+            true,
+            [
+                ("--from", Some(parse_sweep_value("4").unwrap())),
+                ("--to", Some(to)),
+                ("--step", None),
+            ],
+        )
+        .unwrap_err();
+        assert_eq!(flag, "--to");
+        assert!(why.contains("whole number"), "{why}");
+        let ok = sweep_bounds(
+            false,
+            [("--from", Some(to)), ("--to", Some(to)), ("--step", None)],
+        );
+        assert_eq!(ok.unwrap(), [Some(8.0), Some(8.0), None]);
+    }
+
+    #[test]
+    fn help_lists_the_choices() {
+        let mut cmd = Cli::command();
+        cmd.build();
+        let help = cmd
+            .find_subcommand_mut("pumping-test")
+            .unwrap()
+            .render_long_help()
+            .to_string();
+        for choice in [
+            "theis",
+            "cooper-jacob",
+            "hantush",
+            "unconfined",
+            "recovery",
+            "distance",
+            "si",
+            "us",
+        ] {
+            assert!(help.contains(choice), "{choice} missing from:\n{help}");
+        }
+        let help = cmd
+            .find_subcommand_mut("design")
+            .unwrap()
+            .render_long_help()
+            .to_string();
+        assert!(
+            help.contains("individual") && help.contains("uniform") && help.contains("--quiet")
+        );
+        // -q and -v exclude each other
+        assert!(Cli::try_parse_from(["drydig", "-q", "-v", "new", "x.toml"]).is_err());
+        let cli = Cli::try_parse_from(["drydig", "estimate", "f.toml", "-q"]).unwrap();
+        assert_eq!(cli.chatter(), Chatter::Quiet);
     }
 }

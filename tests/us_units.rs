@@ -419,3 +419,46 @@ fn design_in_us_units_carries_no_si() {
     let found = for_every_demo(&["design"], Read::All, |_| Some(Vec::new()));
     assert!(found.is_empty(), "{}", report(&found));
 }
+
+/// The labels of `section.svg`'s distance axis (the text on the line under the plot).
+fn chainage_labels(svg: &str) -> Vec<String> {
+    svg.split("<text ")
+        .skip(1)
+        .filter(|t| t.contains("y=\"442.0\" text-anchor=\"middle\""))
+        .filter_map(|t| t.split_once('>').map(|(_, rest)| rest))
+        .filter_map(|rest| rest.split_once('<').map(|(label, _)| label.to_string()))
+        .collect()
+}
+
+#[test]
+fn section_axis_ticks_are_round_and_printed_as_they_are() {
+    // The rule (common practice (no source)): ticks 1, 2 or 5 × 10ᵏ apart from 0, each label the
+    // tick itself, never rounded to a neighbour (2.5 was printed "2", 7.5 "8").
+    for units in ["si", "us"] {
+        let out = tempfile::tempdir().unwrap();
+        let demo = manifest().join("layouts/deep_shaft.toml");
+        let o = Command::new(env!("CARGO_BIN_EXE_drydig"))
+            .args(["check", demo.to_str().unwrap(), "--units", units, "-o"])
+            .arg(out.path())
+            .output()
+            .unwrap();
+        assert!(matches!(o.status.code(), Some(0) | Some(3)));
+        let svg = std::fs::read_to_string(out.path().join("section.svg")).unwrap();
+        let labels = chainage_labels(&svg);
+        assert!(labels.len() >= 4, "{units}: {labels:?}");
+        let values: Vec<f64> = labels.iter().map(|l| l.parse().unwrap()).collect();
+        assert_eq!(values[0], 0.0, "{units}: {labels:?}");
+        let step = values[1] - values[0];
+        let mant = step / 10f64.powf(step.log10().floor());
+        assert!(
+            [1.0, 2.0, 5.0].iter().any(|m| (mant - m).abs() < 1e-9),
+            "{units}: step {step} in {labels:?}"
+        );
+        for (k, v) in values.iter().enumerate() {
+            assert!(
+                (v - k as f64 * step).abs() < step * 1e-9,
+                "{units}: {labels:?}"
+            );
+        }
+    }
+}

@@ -18,6 +18,7 @@ pub mod plot_kit;
 pub mod programme_charts;
 pub mod programme_map;
 pub mod programme_text;
+pub mod pumping_test_chart;
 pub mod pumping_test_text;
 pub mod section_svg;
 pub mod sweep_chart;

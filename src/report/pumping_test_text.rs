@@ -2,11 +2,12 @@
 //! best fit to paste into a design file, and `pumping_test.svg`.
 
 use super::format::Fmt;
+use super::pumping_test_chart::pumping_test_svg;
 use super::{wrap, CAUTION};
 use crate::input::units::UnitSystem;
 use crate::test_analysis::{
-    aquifer_lines_in, chart::pumping_test_svg, fit_cooper_jacob, fit_distance_drawdown,
-    fit_hantush, fit_theis, fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
+    aquifer_lines_in, fit_cooper_jacob, fit_distance_drawdown, fit_hantush, fit_theis,
+    fit_theis_recovery, fit_theis_unconfined, Fit, Method, PumpingTestData,
 };
 
 /// The fits that apply to `data`: recovery only when `recovery_after` (s of pumping) is given;

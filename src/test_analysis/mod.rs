@@ -16,7 +16,6 @@
 //! Standard errors from the Jacobian: cov = σ²·(JᵀJ)⁻¹, σ² = Σr²/(n − p), taken to T and S by
 //! the delta method. Units SI inside: s, m, m³/s, m²/s.
 
-pub mod chart;
 pub mod csv_input;
 pub mod leaky;
 pub mod lm;

@@ -233,7 +233,11 @@ fn chart_and_design_lines() {
     // practice (no source))
     let data = load(OUDE_KORENDIJK, 788.0 / 86_400.0, Some(7.0));
     let fit = fit_theis(&data).unwrap();
-    let svg = chart::pumping_test_svg(&data.wells, Some(&fit), crate::input::units::UnitSystem::Si);
+    let svg = crate::report::pumping_test_chart::pumping_test_svg(
+        &data.wells,
+        Some(&fit),
+        crate::input::units::UnitSystem::Si,
+    );
     assert!(svg.starts_with("<svg"));
     assert!(
         svg.matches("<path").count() >= 4,

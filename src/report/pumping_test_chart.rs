@@ -1,9 +1,11 @@
-//! SVG chart of a pumping test: observed drawdowns and the fitted curves, on log–log axes
-//! (left, the type-curve view) and semi-log axes (right, the Cooper–Jacob view).
+//! `pumping_test.svg`: observed drawdowns and the fitted curves, on log–log axes (left, the
+//! type-curve view) and semi-log axes (right, the Cooper–Jacob view); decades on the log axes,
+//! round 1-2-5 ticks on the drawdown axis of the semi-log view (the plot kit).
 
-use super::{Fit, ObservationWell};
 use crate::input::units::UnitSystem;
-use svg::node::element::{Circle, Group, Line, Path, Rectangle, Text};
+use crate::report::plot_kit::{r1, text, ticks};
+use crate::test_analysis::{Fit, ObservationWell};
+use svg::node::element::{Circle, Group, Line, Path, Rectangle};
 use svg::Document;
 
 const W: f64 = 980.0;
@@ -14,19 +16,6 @@ const TOP: f64 = 60.0;
 const COLOURS: [&str; 6] = [
     "#1f4e79", "#d1495b", "#2a9d8f", "#e9a03b", "#6a4c93", "#555555",
 ];
-
-fn r1(v: f64) -> String {
-    format!("{v:.1}")
-}
-
-fn text(x: f64, y: f64, size: f64, anchor: &str, s: impl Into<String>) -> Text {
-    Text::new(s.into())
-        .set("x", r1(x))
-        .set("y", r1(y))
-        .set("font-size", size)
-        .set("font-family", "sans-serif")
-        .set("text-anchor", anchor)
-}
 
 struct Axes {
     x0: f64,
@@ -88,8 +77,7 @@ fn frame(ax: &Axes, title: &str, lu: &str) -> Group {
                 .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("1e{d}")));
         }
     } else {
-        for i in 0..=5 {
-            let v = ax.ly.0 + (ax.ly.1 - ax.ly.0) * i as f64 / 5.0;
+        for (v, label) in ticks(ax.ly.0, ax.ly.1, 5).labelled() {
             let y = ax.py(v);
             g = g
                 .add(
@@ -100,7 +88,7 @@ fn frame(ax: &Axes, title: &str, lu: &str) -> Group {
                         .set("y2", r1(y))
                         .set("stroke", "#ddd"),
                 )
-                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("{v:.2}")));
+                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", label));
         }
     }
     g.add(text(
