@@ -2,7 +2,7 @@
 //! render every output from them. The binary writes the files, prints the text and exits with
 //! the verdict's code; nothing here prints.
 
-use crate::cli::Command;
+use crate::cli::{Chatter, Command};
 use crate::findings::check::CheckFindings;
 use crate::findings::commands::{
     by_day_verdict, programme_verdict, sweep_verdict, PumpingTestFindings,
@@ -15,16 +15,6 @@ use crate::input::units::UnitSystem;
 use crate::input::validate::file as model;
 use crate::report;
 use std::path::{Path, PathBuf};
-
-/// Reports progress of long runs (the binary draws it on a terminal).
-pub trait Progress: Sync {
-    /// `total` steps are about to be done.
-    fn start(&self, total: usize);
-    /// One step done.
-    fn tick(&self);
-    /// All done.
-    fn finish(&self);
-}
 
 /// Every output of a command, rendered, and its verdict.
 pub struct Outputs {
@@ -66,8 +56,9 @@ impl Outputs {
     }
 }
 
-/// Run `command`: parse the model, build the findings, render the outputs.
-pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs> {
+/// Run `command`: parse the model, build the findings, render the outputs. `chatter` decides
+/// the progress display on a terminal (`-q`, `-v`) and the work counts of `design -v`.
+pub fn run(command: Command, chatter: Chatter) -> anyhow::Result<Outputs> {
     match command {
         Command::Estimate { file, json, units } => {
             let model = model::load(&file)?;
@@ -100,14 +91,13 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
             units,
             prices,
             by_day,
-            verbose,
         } => {
             let mut model = model::load(&file)?;
+            model.units = units.map(Into::into).unwrap_or(model.units);
             if let Some(day) = by_day {
                 return by_day_outputs(&model, day, out);
             }
-            model.units = units.map(Into::into).unwrap_or(model.units);
-            design(&model, out, rates.into(), prices, verbose)
+            design(&model, out, rates.into(), prices, chatter)
         }
         Command::Sweep {
             file,
@@ -119,10 +109,28 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
         } => {
             let model = model::load(&file)?;
             let units = units.map(Into::into).unwrap_or(model.units);
-            sweep(&model, (from, to, step), out, units, progress)
+            let ring = model
+                .layout
+                .as_ref()
+                .is_some_and(|l| matches!(l.kind, crate::input::model::LayoutKind::Ring { .. }));
+            let [from, to, step] = crate::cli::sweep_bounds(
+                ring,
+                [("--from", Some(from)), ("--to", Some(to)), ("--step", step)],
+            )
+            .map_err(|(flag, e)| bad_arg(flag, e))?;
+            let bounds = (from.unwrap_or(0.0), to.unwrap_or(0.0), step);
+            sweep(&model, bounds, out, units, chatter)
         }
-        Command::Programme { file, out, wells } => {
-            programme(&model::load(&file)?, out, wells.as_deref())
+        Command::Programme {
+            file,
+            out,
+            wells,
+            units,
+        } => {
+            let mut model = model::load(&file)?;
+            // The text, the added CSV columns, the charts and the maps follow `--units`.
+            model.units = units.map(Into::into).unwrap_or(model.units);
+            programme(&model, out, wells.as_deref())
         }
         Command::PumpingTest {
             file,
@@ -131,13 +139,11 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
             thickness,
             recovery_after,
             method,
+            units,
             out,
         } => {
-            let prefer = method
-                .as_deref()
-                .map(report::pumping_test_text::method_named)
-                .transpose()
-                .map_err(|e| bad_arg("--method", e))?;
+            let prefer = method.map(Into::into);
+            let units = units.map_or(UnitSystem::Si, Into::into);
             let data = pumping_test_data(&file, &rate, &distance, thickness.as_deref())?;
             let recovery = recovery_after
                 .as_deref()
@@ -147,9 +153,10 @@ pub fn run(command: Command, progress: &dyn Progress) -> anyhow::Result<Outputs>
                 })
                 .transpose()?;
             let found = PumpingTestFindings::build(data, recovery, prefer);
-            let files = report::pumping_test_text::files(&found.data, found.best());
+            let files = report::pumping_test_text::files(&found.data, found.best(), units);
             let mut o = Outputs::written(out, files, Vec::new());
-            o.text = report::pumping_test_text::to_text(&found.data, &found.fits, found.best());
+            o.text =
+                report::pumping_test_text::to_text(&found.data, &found.fits, found.best(), units);
             o.verdict = found.verdict;
             Ok(o)
         }
@@ -191,18 +198,21 @@ fn design(
     out: PathBuf,
     rates: crate::optimise::rates::RateOption,
     prices: Option<PathBuf>,
-    verbose: bool,
+    chatter: Chatter,
 ) -> anyhow::Result<Outputs> {
     let price_list = prices
         .as_deref()
         .map(crate::input::prices::read)
         .transpose()?;
-    let found = DesignFindings::build(model, crate::optimise::search::design(model, rates)?);
+    let progress = crate::cli::progress_layouts(chatter, model.units);
+    let searched = crate::optimise::search::design(model, rates);
+    progress.finish();
+    let found = DesignFindings::build(model, searched?);
     let mut inputs = report::files::inputs_of(model, None);
     inputs.extend(prices);
     let files = report::design_text::files(model, &found, price_list.as_deref())?;
     let mut o = Outputs::written(out, files, inputs);
-    if verbose {
+    if chatter == Chatter::Verbose {
         o.messages.push(crate::work_counts::summary());
     }
     o.text = report::design_text::to_text(model, &found, model.units, price_list.as_deref());
@@ -216,12 +226,13 @@ fn sweep(
     (from, to, step): (f64, f64, Option<f64>),
     out: PathBuf,
     units: UnitSystem,
-    progress: &dyn Progress,
+    chatter: Chatter,
 ) -> anyhow::Result<Outputs> {
     let plan = crate::optimise::sweep::plan(model, from, to, step)?;
-    progress.start(plan.values.len());
-    let sweep = crate::optimise::sweep::run(model, &plan, &|| progress.tick())?;
-    progress.finish();
+    let bar = crate::cli::progress_counted(chatter, plan.values.len(), "layouts");
+    let sweep = crate::optimise::sweep::run(model, &plan, &|| bar.inc(1));
+    bar.finish_and_clear();
+    let sweep = sweep?;
     let files = vec![
         (
             "sweep.csv".to_string(),
@@ -263,16 +274,17 @@ fn programme(model: &Model, out: PathBuf, wells: Option<&Path>) -> anyhow::Resul
 /// `design --by-day`: the design for one day of the programme.
 fn by_day_outputs(model: &Model, day: f64, out: PathBuf) -> anyhow::Result<Outputs> {
     let d = crate::transient::by_date::design_by_day(model, day)?;
-    let files = vec![("by_day.csv".to_string(), report::by_day_text::to_csv(&d))];
+    let csv = report::by_day_text::to_csv(&d, model.units);
+    let files = vec![("by_day.csv".to_string(), csv)];
     let mut o = Outputs::written(out, files, report::files::inputs_of(model, None));
-    o.text = report::by_day_text::to_text(model, &d);
+    o.text = report::by_day_text::to_text(model, &d, model.units);
     o.verdict = by_day_verdict(&d);
     Ok(o)
 }
 
 fn bad_arg(field: &str, message: String) -> anyhow::Error {
     InputError {
-        file: PathBuf::new(),
+        file: PathBuf::from("command line"),
         field: field.into(),
         line: None,
         message,

@@ -115,8 +115,71 @@ pub struct ExcavationEstimate {
     pub rough_well_count: u32,
     /// Standby wells from the design file.
     pub standby_wells: u32,
-    /// Warnings an engineer should read.
-    pub notes: Vec<String>,
+    /// Warnings an engineer should read: SI numbers, worded in the user's units by
+    /// `report::estimate_text` (which also writes them into the JSON).
+    #[serde(skip)]
+    pub notes: Vec<EstimateNote>,
+}
+
+/// How the distance of influence L₀ was found.
+#[derive(Debug, Clone, PartialEq)]
+pub enum InfluenceBasis {
+    /// By a formula at the target drawdown `drawdown` (m): Sichardt or Kusakin, named.
+    AtDrawdown { method: String, drawdown: f64 },
+    /// From the pumping test's distance–drawdown line; `jacob` when the aquifer is unconfined
+    /// and Jacob's correction was applied first.
+    PumpingTest { jacob: bool },
+    /// Given, independent of the drawdown (method named).
+    Fixed { method: String },
+}
+
+/// A note on the quick estimate, numbers in SI (m, m³/s).
+#[derive(Debug, Clone, PartialEq)]
+pub enum EstimateNote {
+    /// Sized for the relief head against base uplift, not for formation − margin.
+    ReliefHead {
+        head: f64,
+        factor_of_safety: f64,
+        formation_less_margin: f64,
+    },
+    /// The distance of influence used and its basis.
+    Influence {
+        distance: f64,
+        basis: InfluenceBasis,
+    },
+    /// Straight boundaries taken by the image of the equivalent well: each boundary's name and
+    /// its distance from the centroid (m); the flow with and without them (m³/s).
+    Boundaries {
+        equivalent_radius: f64,
+        boundaries: Vec<(String, f64)>,
+        with: f64,
+        without: f64,
+        factor: f64,
+    },
+    /// A trench shorter than twice its distance of influence; the equivalent-well flow (m³/s).
+    ShortTrench {
+        length: f64,
+        distance: f64,
+        equivalent_well_flow: f64,
+    },
+    /// The radius of influence is under 1.5 × the equivalent radius.
+    SensitiveLogarithm { radius: f64, equivalent_radius: f64 },
+    /// A leaky aquifer: B replaces the radius of influence.
+    Leaky { leakage_factor: f64 },
+    /// The target is below the confining top.
+    BelowConfiningTop { target: f64, top: f64 },
+    /// The contingency (fraction) is below the usual 50–100 %.
+    LowContingency { contingency: f64 },
+    /// No screen below the target level.
+    NoScreenBelowTarget,
+    /// A wellpoint's lowest level (header − suction limit) against the target.
+    Suction {
+        floor: f64,
+        header: f64,
+        header_is_ground: bool,
+        suction_limit: f64,
+        target: f64,
+    },
 }
 
 /// The quick estimate for the whole design file.
@@ -200,11 +263,11 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     let leaky = aq.leakage_factor();
 
     if design_target.relief {
-        notes.push(format!(
-            "sized for the relief head {target:.2} m (base uplift, [uplift]: factor of safety {:.2}), not formation − margin ({:.2} m)",
-            model.uplift.as_ref().map_or(0.0, |u| u.factor_of_safety),
-            e.target_level()
-        ));
+        notes.push(EstimateNote::ReliefHead {
+            head: target,
+            factor_of_safety: model.uplift.as_ref().map_or(0.0, |u| u.factor_of_safety),
+            formation_less_margin: e.target_level(),
+        });
     }
     let (method, reason) = if design_target.level.is_none() {
         (
@@ -264,16 +327,24 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         }
     };
     if method != FlowMethod::NoneNeeded {
-        notes.push(match &model.influence {
-            crate::input::model::InfluenceMethod::Sichardt { .. } | crate::input::model::InfluenceMethod::Kusakin => format!(
-                "distance of influence L₀ = {l0:.1} m by {} at the target drawdown s = {s:.2} m",
-                model.influence.name()
-            ),
-            crate::input::model::InfluenceMethod::PumpingTest { .. } => format!(
-                "distance of influence L₀ = {l0:.1} m from the pumping test's distance–drawdown line (no design drawdown enters it{})",
-                if matches!(aq.kind, AquiferKind::Unconfined) { "; unconfined: Jacob's correction s′ = s − s²/(2H) applied first" } else { "" }
-            ),
-            other => format!("distance of influence L₀ = {l0:.1} m by {} (independent of drawdown)", other.name()),
+        let basis = match &model.influence {
+            crate::input::model::InfluenceMethod::Sichardt { .. }
+            | crate::input::model::InfluenceMethod::Kusakin => InfluenceBasis::AtDrawdown {
+                method: model.influence.name().to_string(),
+                drawdown: s,
+            },
+            crate::input::model::InfluenceMethod::PumpingTest { .. } => {
+                InfluenceBasis::PumpingTest {
+                    jacob: matches!(aq.kind, AquiferKind::Unconfined),
+                }
+            }
+            other => InfluenceBasis::Fixed {
+                method: other.name().to_string(),
+            },
+        };
+        notes.push(EstimateNote::Influence {
+            distance: l0,
+            basis,
         });
     }
     // Boundaries: first-order images of the equivalent well at the centroid.
@@ -295,23 +366,18 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
     };
     let q = q * factor;
     if !images.is_empty() && method != FlowMethod::NoneNeeded {
-        notes.push(format!(
-            "boundaries: {} taken by the image of the equivalent well (r_e = {r_e:.1} m at the centroid): flow {:.2} L/s with them, {:.2} L/s without (× {factor:.2}); wells on the boundary side stand nearer to it than the centroid, so a layout's flow can be a third or more above this{}",
-            model
+        notes.push(EstimateNote::Boundaries {
+            equivalent_radius: r_e,
+            boundaries: model
                 .boundaries
                 .iter()
                 .zip(&images)
-                .map(|(b, (d, _))| format!("\"{}\" {:.0} m away", b.name, d / 2.0))
-                .collect::<Vec<_>>()
-                .join(", "),
-            q * 1e3,
-            q_free * 1e3,
-            if images.len() > 1 {
-                " — SEVERAL BOUNDARIES: first-order images only (images of images left out), so this is rough; use `check`/`design` for the flow"
-            } else {
-                ""
-            }
-        ));
+                .map(|(b, (d, _))| (b.name.clone(), d / 2.0))
+                .collect(),
+            with: q,
+            without: q_free,
+            factor,
+        });
     }
     let equivalent_well = if method == FlowMethod::NoneNeeded {
         0.0
@@ -319,30 +385,32 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         radial_flow(aq, delta_phi, r_e, r_e + l0_radial)
     };
     if method == FlowMethod::LineSlot && length < 2.0 * leaky.unwrap_or(l0_line) {
-        notes.push(format!(
-            "the trench ({length:.0} m) is shorter than twice its distance of influence ({:.0} m): much of the inflow is radial, so the line-slot figure is rough; the equivalent-well figure for comparison is {:.0} m³/day",
-            leaky.unwrap_or(l0_line),
-            equivalent_well * 86_400.0
-        ));
+        notes.push(EstimateNote::ShortTrench {
+            length,
+            distance: leaky.unwrap_or(l0_line),
+            equivalent_well_flow: equivalent_well,
+        });
     }
     if method != FlowMethod::NoneNeeded && leaky.is_none() && big_r < 1.5 * r_e {
-        notes.push(format!("the radius of influence ({big_r:.0} m) is less than 1.5 × the equivalent radius ({r_e:.0} m): the logarithm is very sensitive here; check L₀ against a pumping test"));
+        notes.push(EstimateNote::SensitiveLogarithm {
+            radius: big_r,
+            equivalent_radius: r_e,
+        });
     }
     if let Some(b) = leaky {
-        notes.push(format!("leaky aquifer: the leakage factor B = {b:.0} m replaces the radius of influence in the flow"));
+        notes.push(EstimateNote::Leaky { leakage_factor: b });
     }
     if matches!(aq.kind, AquiferKind::Confined) {
         if let Some(top) = aq.top_level {
             if target < top {
-                notes.push(format!("the target ({target:.2} m) is below the confining top ({top:.2} m): the aquifer turns unconfined near the excavation (handled through the discharge potential)"));
+                notes.push(EstimateNote::BelowConfiningTop { target, top });
             }
         }
     }
     if model.contingency < 0.5 {
-        notes.push(format!(
-            "contingency {:.0} % is below the usual 50–100 % (common practice (no source))",
-            model.contingency * 100.0
-        ));
+        notes.push(EstimateNote::LowContingency {
+            contingency: model.contingency,
+        });
     }
 
     // One well's capacity: screen length below the target level is taken as wetted.
@@ -362,26 +430,19 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         (design / (fraction * cap)).ceil() as u32
     };
     if wetted <= 0.0 && design > 0.0 {
-        notes.push("no screen lies below the target level, so a well here has no capacity: lower screen_base".into());
+        notes.push(EstimateNote::NoScreenBelowTarget);
     }
     if w.kind == WellKind::Wellpoint {
         // One definition with `check` and `design`: the water in a wellpoint may go down to the
         // header level less the suction limit, and it must reach below the target.
         let floor = model.as_built.suction_floor(w.suction_limit);
-        let header = format!(
-            "header {:.2} m{}",
-            model.as_built.header_level,
-            if model.as_built.header_given {
-                ""
-            } else {
-                " (ground level, the default)"
-            }
-        );
-        if target < floor {
-            notes.push(format!("wellpoint suction: the lowest level a wellpoint holds is {floor:.2} m ({header} − suction limit {:.2} m), {:.2} m above the target {target:.2} m: one stage cannot do it — a second stage, ejectors or deep wells (common practice (no source))", w.suction_limit, floor - target));
-        } else {
-            notes.push(format!("wellpoint suction: lowest level in a wellpoint {floor:.2} m ({header} − suction limit {:.2} m), {:.2} m below the target {target:.2} m", w.suction_limit, target - floor));
-        }
+        notes.push(EstimateNote::Suction {
+            floor,
+            header: model.as_built.header_level,
+            header_is_ground: !model.as_built.header_given,
+            suction_limit: w.suction_limit,
+            target,
+        });
     }
 
     let day = 86_400.0;

@@ -5,18 +5,17 @@
 //! limit is not met (outputs still written).
 
 use clap::Parser;
-use drydig::app::{Outputs, Progress};
+use drydig::app::Outputs;
 use drydig::cli::Cli;
 use drydig::input::error::InputError;
 use drydig::report;
-use indicatif::{ProgressBar, ProgressDrawTarget};
-use std::io::{IsTerminal, Write};
+use std::io::Write;
 use std::process::ExitCode;
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
-    let bar = Bar(ProgressBar::hidden());
-    match drydig::app::run(cli.command, &bar).and_then(finish) {
+    let chatter = cli.chatter();
+    match drydig::app::run(cli.command, chatter).and_then(finish) {
         Ok(code) => code,
         Err(e) => {
             if let Some(input) = e.downcast_ref::<InputError>() {
@@ -51,23 +50,5 @@ fn print(text: &str) -> anyhow::Result<()> {
     match out.write_all(text.as_bytes()).and_then(|_| out.flush()) {
         Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
         other => Ok(other?),
-    }
-}
-
-/// A progress bar on stderr, drawn only on a terminal and for four steps or more.
-struct Bar(ProgressBar);
-
-impl Progress for Bar {
-    fn start(&self, total: usize) {
-        self.0.set_length(total as u64);
-        if std::io::stderr().is_terminal() && total >= 4 {
-            self.0.set_draw_target(ProgressDrawTarget::stderr());
-        }
-    }
-    fn tick(&self) {
-        self.0.inc(1);
-    }
-    fn finish(&self) {
-        self.0.finish_and_clear();
     }
 }

@@ -4,6 +4,7 @@
 //! exact totals, no ordering); they only report, nothing reads them to decide.
 
 use std::sync::atomic::{AtomicUsize, Ordering};
+use std::sync::RwLock;
 
 /// Linear programmes handed to a solver.
 pub static LP_SOLVES: AtomicUsize = AtomicUsize::new(0);
@@ -36,4 +37,26 @@ pub fn summary() -> String {
         g(&UNIT_MATRIX_BUILDS),
         g(&UNIT_MATRIX_REUSES)
     )
+}
+
+/// What a progress display is told as each layout is tried: its well count and spacing (m).
+pub type ProgressSink = Box<dyn Fn(usize, f64) + Send + Sync>;
+
+static PROGRESS: RwLock<Option<ProgressSink>> = RwLock::new(None);
+
+/// Set (or, with `None`, remove) the progress display told of each layout tried. Like the
+/// counters it only reports: nothing in the search reads it.
+pub fn set_progress(sink: Option<ProgressSink>) {
+    if let Ok(mut p) = PROGRESS.write() {
+        *p = sink;
+    }
+}
+
+/// A layout of `count` wells at `spacing` (m) is being tried.
+pub fn trying(count: usize, spacing: f64) {
+    if let Ok(p) = PROGRESS.read() {
+        if let Some(sink) = p.as_ref() {
+            sink(count, spacing);
+        }
+    }
 }

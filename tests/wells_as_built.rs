@@ -178,10 +178,10 @@ fn suction_is_measured_from_the_header() {
         .iter()
         .all(|w| (w.lowest_allowed_level_m - 6.3).abs() < 1e-12));
     let est = drydig::estimate::estimate(&m);
-    assert!(est.excavations[0]
-        .notes
-        .iter()
-        .any(|n| n.contains("6.30 m (header 11.80 m − suction limit 5.50 m)")));
+    assert!(est.excavations[0].notes.iter().any(|n| {
+        drydig::report::estimate_text::note_words(n, drydig::input::units::UnitSystem::Si)
+            .contains("6.30 m (header 11.80 m − suction limit 5.50 m)")
+    }));
 }
 
 // Recharge limits (checks.md §15, common practice (no source)): an injection well takes about a

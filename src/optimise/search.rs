@@ -482,6 +482,7 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     trials.extend(others.iter().map(|t| t.trial.clone()));
     trials.extend(trial_extra);
     trials.sort_by(|a, b| a.count.cmp(&b.count).then(a.variant.cmp(&b.variant)));
+    crate::optimise::trial::one_row_per_placement(&mut trials);
     let count_of = |n: Option<usize>| n.and_then(|n| cache.get(&n)).map(|t| t.trial.count);
 
     let pick = match asked {

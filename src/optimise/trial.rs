@@ -154,6 +154,7 @@ pub(super) fn try_placement(
 ) -> TrialRun {
     crate::work_counts::add(&crate::work_counts::TRIALS, 1);
     let count = placement.wells.len();
+    crate::work_counts::trying(count, spacing);
     let rates = LayoutRates::new(model, points, placement.wells.clone());
     let mut uniform = rates.uniform();
     if model.design.one_well_out && count > 0 {
@@ -312,4 +313,34 @@ pub fn line_length(model: &Model, spec: &LayoutSpec) -> f64 {
         .map(|w| (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]))
         .sum();
     open + 2.0 * layout::end_extension(exc, spec.offset, end_ext)
+}
+
+/// One row per placement in a list of trials sorted by count and placement: the count search
+/// tries the same placement once for individual rates (with its linear programme) and again
+/// for one rate (without), so the list would show it twice, once "not run". The row whose
+/// linear programme ran is kept.
+pub fn one_row_per_placement(trials: &mut Vec<Trial>) {
+    let same = |a: &Trial, b: &Trial| {
+        a.count == b.count
+            && a.per_side == b.per_side
+            && a.variant == b.variant
+            && a.spacing_m.to_bits() == b.spacing_m.to_bits()
+    };
+    let mut kept: Vec<Trial> = Vec::with_capacity(trials.len());
+    for t in trials.drain(..) {
+        match kept
+            .iter_mut()
+            .rev()
+            .take_while(|k| k.count == t.count)
+            .find(|k| same(k, &t))
+        {
+            Some(k) => {
+                if k.individual_status == "not run" && t.individual_status != "not run" {
+                    *k = t;
+                }
+            }
+            None => kept.push(t),
+        }
+    }
+    *trials = kept;
 }

@@ -1,7 +1,8 @@
 //! The quick estimate as a readable terminal table, and as JSON.
 
+use super::format::Fmt;
 use super::{thousands, wrap, CAUTION};
-use crate::estimate::{Estimate, ExcavationEstimate, FlowMethod};
+use crate::estimate::{Estimate, EstimateNote, ExcavationEstimate, FlowMethod, InfluenceBasis};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 
 fn flow(m3_per_day: f64, units: UnitSystem) -> String {
@@ -12,11 +13,7 @@ fn flow(m3_per_day: f64, units: UnitSystem) -> String {
             thousands(m3_per_day, 0),
             m3s * 1e3
         ),
-        UnitSystem::Us => format!(
-            "{} US gpm  ({} m³/day)",
-            thousands(m3s_to_gpm(m3s), 0),
-            thousands(m3_per_day, 0)
-        ),
+        UnitSystem::Us => format!("{} US gpm", thousands(m3s_to_gpm(m3s), 0)),
     }
 }
 
@@ -112,7 +109,15 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
         row(out, "flow through the long sides", flow(sides, units));
         row(out, "flow through the ends", flow(ends, units));
         if let Some(per100) = e.flow_per_100m_m3_per_day {
-            row(out, "flow per 100 m of trench", flow(per100, units));
+            match units {
+                UnitSystem::Si => row(out, "flow per 100 m of trench", flow(per100, units)),
+                // 100 ft = 30.48 m of trench.
+                UnitSystem::Us => row(
+                    out,
+                    "flow per 100 ft of trench",
+                    flow(per100 * 0.3048, units),
+                ),
+            }
         }
     }
     row(
@@ -147,7 +152,128 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
         ),
     );
     for n in &e.notes {
-        out.push_str(&wrap(&format!("note: {n}"), 96, "  "));
+        out.push_str(&wrap(&format!("note: {}", note_words(n, units)), 96, "  "));
+    }
+}
+
+/// A length with `d` decimals and its unit, m or ft.
+fn length_d(m: f64, d: usize, units: UnitSystem) -> String {
+    format!("{:.d$} {}", units.length(m), units.length_unit())
+}
+
+/// A rate (m³/s) as "59.84 L/s" or "948.5 gpm".
+fn rate_words(q: f64, units: UnitSystem) -> String {
+    match units {
+        UnitSystem::Si => format!("{:.2} L/s", q * 1e3),
+        UnitSystem::Us => format!("{:.1} gpm", m3s_to_gpm(q)),
+    }
+}
+
+fn influence_words(distance: f64, basis: &InfluenceBasis, units: UnitSystem) -> String {
+    let l0 = length_d(distance, 1, units);
+    match basis {
+        InfluenceBasis::AtDrawdown { method, drawdown } => format!(
+            "distance of influence L₀ = {l0} by {method} at the target drawdown s = {}",
+            length_d(*drawdown, 2, units)
+        ),
+        InfluenceBasis::PumpingTest { jacob } => format!(
+            "distance of influence L₀ = {l0} from the pumping test's distance–drawdown line (no design drawdown enters it{})",
+            if *jacob {
+                "; unconfined: Jacob's correction s′ = s − s²/(2H) applied first"
+            } else {
+                ""
+            }
+        ),
+        InfluenceBasis::Fixed { method } => {
+            format!("distance of influence L₀ = {l0} by {method} (independent of drawdown)")
+        }
+    }
+}
+
+fn suction_words(
+    floor: f64,
+    header: f64,
+    header_is_ground: bool,
+    limit: f64,
+    target: f64,
+    units: UnitSystem,
+) -> String {
+    let l = |v: f64| length_d(v, 2, units);
+    let header = format!(
+        "header {}{}",
+        l(header),
+        if header_is_ground {
+            " (ground level, the default)"
+        } else {
+            ""
+        }
+    );
+    if target < floor {
+        format!("wellpoint suction: the lowest level a wellpoint holds is {} ({header} − suction limit {}), {} above the target {}: one stage cannot do it — a second stage, ejectors or deep wells (common practice (no source))", l(floor), l(limit), l(floor - target), l(target))
+    } else {
+        format!("wellpoint suction: lowest level in a wellpoint {} ({header} − suction limit {}), {} below the target {}", l(floor), l(limit), l(target - floor), l(target))
+    }
+}
+
+/// A note of the estimate in words, in `units`.
+pub fn note_words(n: &EstimateNote, units: UnitSystem) -> String {
+    let l = |v: f64, d: usize| length_d(v, d, units);
+    match n {
+        EstimateNote::ReliefHead { head, factor_of_safety, formation_less_margin } => format!(
+            "sized for the relief head {} (base uplift, [uplift]: factor of safety {factor_of_safety:.2}), not formation − margin ({})",
+            l(*head, 2),
+            l(*formation_less_margin, 2)
+        ),
+        EstimateNote::Influence { distance, basis } => influence_words(*distance, basis, units),
+        EstimateNote::Boundaries { equivalent_radius, boundaries, with, without, factor } => format!(
+            "boundaries: {} taken by the image of the equivalent well (r_e = {} at the centroid): flow {} with them, {} without (× {factor:.2}); wells on the boundary side stand nearer to it than the centroid, so a layout's flow can be a third or more above this{}",
+            boundaries
+                .iter()
+                .map(|(name, d)| format!("\"{name}\" {} away", l(*d, 0)))
+                .collect::<Vec<_>>()
+                .join(", "),
+            l(*equivalent_radius, 1),
+            rate_words(*with, units),
+            rate_words(*without, units),
+            if boundaries.len() > 1 {
+                " — SEVERAL BOUNDARIES: first-order images only (images of images left out), so this is rough; use `check`/`design` for the flow"
+            } else {
+                ""
+            }
+        ),
+        EstimateNote::ShortTrench { length, distance, equivalent_well_flow } => format!(
+            "the trench ({}) is shorter than twice its distance of influence ({}): much of the inflow is radial, so the line-slot figure is rough; the equivalent-well figure for comparison is {}",
+            l(*length, 0),
+            l(*distance, 0),
+            match units {
+                UnitSystem::Si => format!("{:.0} m³/day", equivalent_well_flow * 86_400.0),
+                UnitSystem::Us => format!("{:.0} gpm", m3s_to_gpm(*equivalent_well_flow)),
+            }
+        ),
+        EstimateNote::SensitiveLogarithm { radius, equivalent_radius } => format!(
+            "the radius of influence ({}) is less than 1.5 × the equivalent radius ({}): the logarithm is very sensitive here; check L₀ against a pumping test",
+            l(*radius, 0),
+            l(*equivalent_radius, 0)
+        ),
+        EstimateNote::Leaky { leakage_factor } => format!(
+            "leaky aquifer: the leakage factor B = {} replaces the radius of influence in the flow",
+            l(*leakage_factor, 0)
+        ),
+        EstimateNote::BelowConfiningTop { target, top } => format!(
+            "the target ({}) is below the confining top ({}): the aquifer turns unconfined near the excavation (handled through the discharge potential)",
+            l(*target, 2),
+            l(*top, 2)
+        ),
+        EstimateNote::LowContingency { contingency } => format!(
+            "contingency {:.0} % is below the usual 50–100 % (common practice (no source))",
+            contingency * 100.0
+        ),
+        EstimateNote::NoScreenBelowTarget => {
+            "no screen lies below the target level, so a well here has no capacity: lower screen_base".into()
+        }
+        EstimateNote::Suction { floor, header, header_is_ground, suction_limit, target } => {
+            suction_words(*floor, *header, *header_is_ground, *suction_limit, *target, units)
+        }
     }
 }
 
@@ -155,11 +281,22 @@ fn excavation(out: &mut String, e: &ExcavationEstimate, units: UnitSystem) {
 pub fn to_text(est: &Estimate, units: UnitSystem) -> String {
     let mut out = String::new();
     out.push_str(&format!("drydig quick estimate — {}\n", est.project));
+    let (k, t) = match units {
+        UnitSystem::Si => (
+            format!("{:.2e} m/s", est.conductivity_m_per_s),
+            format!("{:.2e} m²/s", est.transmissivity_m2_per_s),
+        ),
+        UnitSystem::Us => {
+            let f = Fmt::new(units, 0.0);
+            (
+                f.conductivity(est.conductivity_m_per_s),
+                f.transmissivity(est.transmissivity_m2_per_s),
+            )
+        }
+    };
     out.push_str(&format!(
-        "aquifer: {}; K = {:.2e} m/s; T = {:.2e} m²/s; groundwater {}; base {}\n",
+        "aquifer: {}; K = {k}; T = {t}; groundwater {}; base {}\n",
         est.aquifer,
-        est.conductivity_m_per_s,
-        est.transmissivity_m2_per_s,
         len(est.groundwater_level_m, units),
         len(est.aquifer_base_level_m, units)
     ));
@@ -187,9 +324,18 @@ pub fn to_text(est: &Estimate, units: UnitSystem) -> String {
 }
 
 /// The estimate as one JSON object. Keys are SI with the unit in the name; with US units the
-/// main figures are repeated in feet and US gpm.
+/// main figures are repeated in feet and US gpm. The notes are in words, in `units`.
 pub fn to_json(est: &Estimate, units: UnitSystem) -> serde_json::Value {
     let mut v = serde_json::to_value(est).unwrap_or(serde_json::Value::Null);
+    if let Some(list) = v.get_mut("excavations").and_then(|l| l.as_array_mut()) {
+        for (e, src) in list.iter_mut().zip(&est.excavations) {
+            e["notes"] = src
+                .notes
+                .iter()
+                .map(|n| serde_json::Value::from(note_words(n, units)))
+                .collect();
+        }
+    }
     if units == UnitSystem::Us {
         if let Some(list) = v.get_mut("excavations").and_then(|l| l.as_array_mut()) {
             for (e, src) in list.iter_mut().zip(&est.excavations) {

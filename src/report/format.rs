@@ -127,6 +127,108 @@ impl Fmt {
     }
 }
 
+/// US gallons in one cubic metre (NIST SP 811 (2008) App. B: 1 gal = 3.785 411 784 L).
+const GAL_PER_M3: f64 = 1e3 / 3.785_411_784;
+/// Pounds-force per square foot in one pascal (NIST SP 811 (2008) App. B: 1 lbf/ft² =
+/// 47.880 26 Pa).
+const PSF_PER_PA: f64 = 1.0 / 47.880_26;
+/// Square feet per day in one m²/s (1 ft = 0.3048 m, 1 day = 86 400 s).
+const FT2D_PER_M2S: f64 = 86_400.0 / (0.3048 * 0.3048);
+
+impl Fmt {
+    /// A length to the finer precision margins need (3 decimals in m, 2 in ft): "0.012 m",
+    /// "0.04 ft"; never "-0.000".
+    pub fn length_fine(&self, m: f64) -> String {
+        format!("{} {}", self.length_fine_value(m), self.lu())
+    }
+    /// [`Fmt::length_fine`] without its unit.
+    pub fn length_fine_value(&self, m: f64) -> String {
+        match self.units {
+            UnitSystem::Si => num(m, 3),
+            UnitSystem::Us => num(self.units.length(m), 2),
+        }
+    }
+    /// A flow total without its unit (m³/day or gpm), for table columns.
+    pub fn flow_value(&self, q: f64) -> String {
+        match self.units {
+            UnitSystem::Si => super::thousands(m3s_to_m3d(q), 0),
+            UnitSystem::Us => super::thousands(m3s_to_gpm(q), 0),
+        }
+    }
+    /// Unit of a flow total ("m³/day", "gpm").
+    pub fn flow_unit(&self) -> &'static str {
+        match self.units {
+            UnitSystem::Si => "m³/day",
+            UnitSystem::Us => "gpm",
+        }
+    }
+    /// A volume pumped: "25 160 m³" or "6 646 000 gal" (US gallons).
+    pub fn volume(&self, m3: f64) -> String {
+        format!("{} {}", self.volume_value(m3), self.volume_unit())
+    }
+    /// A volume without its unit.
+    pub fn volume_value(&self, m3: f64) -> String {
+        match self.units {
+            UnitSystem::Si => super::thousands(m3, 0),
+            UnitSystem::Us => super::thousands(m3 * GAL_PER_M3, 0),
+        }
+    }
+    /// Unit of a volume ("m³", "gal").
+    pub fn volume_unit(&self) -> &'static str {
+        match self.units {
+            UnitSystem::Si => "m³",
+            UnitSystem::Us => "gal",
+        }
+    }
+    /// A pressure (uplift, water pressure): "12.3 kPa" or "257 psf" (pounds-force per square
+    /// foot, the unit of base-slab loads in US practice; common practice (no source)).
+    pub fn pressure(&self, pa: f64) -> String {
+        match self.units {
+            UnitSystem::Si => format!("{} kPa", num(pa / 1e3, 1)),
+            UnitSystem::Us => format!("{} psf", super::thousands(pa * PSF_PER_PA, 0)),
+        }
+    }
+    /// Transmissivity: "4.44e-3 m²/s" or "4 130 ft²/day".
+    pub fn transmissivity(&self, t: f64) -> String {
+        match self.units {
+            UnitSystem::Si => format!("{t:.2e} m²/s"),
+            UnitSystem::Us => format!("{} ft²/day", super::thousands(t * FT2D_PER_M2S, 0)),
+        }
+    }
+    /// Unit of transmissivity in tables ("m²/s", "ft²/day").
+    pub fn transmissivity_unit(&self) -> &'static str {
+        match self.units {
+            UnitSystem::Si => "m²/s",
+            UnitSystem::Us => "ft²/day",
+        }
+    }
+    /// Transmissivity in [`Fmt::transmissivity_unit`], as a number.
+    pub fn transmissivity_number(&self, t: f64) -> f64 {
+        match self.units {
+            UnitSystem::Si => t,
+            UnitSystem::Us => t * FT2D_PER_M2S,
+        }
+    }
+    /// A length in the output unit, as a number (for charts and CSV columns).
+    pub fn length_number(&self, m: f64) -> f64 {
+        self.units.length(m)
+    }
+    /// A rate per well in [`Fmt::rate_unit`], as a number.
+    pub fn rate_number(&self, q: f64) -> f64 {
+        match self.units {
+            UnitSystem::Si => m3s_to_ls(q),
+            UnitSystem::Us => m3s_to_gpm(q),
+        }
+    }
+    /// The output unit system's word for CSV column suffixes ("m", "ft").
+    pub fn length_suffix(&self) -> &'static str {
+        match self.units {
+            UnitSystem::Si => "m",
+            UnitSystem::Us => "ft",
+        }
+    }
+}
+
 /// Text made safe for HTML and SVG: `&`, `<`, `>`, `"` and `'` escaped.
 pub fn esc(text: &str) -> String {
     let mut out = String::with_capacity(text.len());
@@ -166,5 +268,12 @@ mod tests {
         // 1e-4 m/s = 8.64 m/day = 28.35 ft/day.
         assert_eq!(us.conductivity(1e-4), "28.3 ft/day");
         assert_eq!(si.length(f64::NAN), "— m");
+        // 1 m³ = 264.17 gal; 47.88026 Pa = 1 psf; 1e-3 m²/s = 86.4 m²/day = 930.0 ft²/day.
+        assert_eq!(us.volume(100.0), "26\u{2009}417 gal");
+        assert_eq!(us.pressure(47_880.26), "1\u{2009}000 psf");
+        assert_eq!(si.pressure(12_345.0), "12.3 kPa");
+        assert_eq!(us.transmissivity(1e-3), "930 ft²/day");
+        assert_eq!(si.length_fine(-0.0001), "0.000 m");
+        assert_eq!(us.length_fine(-0.0001), "0.00 ft");
     }
 }

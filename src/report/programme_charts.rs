@@ -1,14 +1,16 @@
 //! Charts of the programme: `hydrographs.svg` (water level against day at the named points and
 //! neighbour corners, with the formation level of each stage as a step line), `wells.svg` (levels
 //! in the wells) and `flow.svg` (total flow and cumulative volume against day). Stage starts and
-//! the switch-off are marked by vertical lines.
+//! the switch-off are marked by vertical lines. Levels, flows and volumes in the model's units.
 
+use super::format::Fmt;
 use super::{wrap, CAUTION};
 use crate::input::model::Model;
-use crate::report::chart_axes::{label, ticks};
+use crate::input::units::UnitSystem;
+use crate::report::plot_kit::{legend, line, r1, text, ticks, Frame, LegendRow};
 use crate::transient::answers::{ProgrammeAnswers, SeriesKind};
 use crate::transient::programme::DAY;
-use svg::node::element::{Group, Line, Path, Rectangle, Text};
+use svg::node::element::{Group, Path, Rectangle};
 use svg::Document;
 
 const WIDTH: f64 = 960.0;
@@ -22,26 +24,143 @@ const COLOURS: [&str; 10] = [
     "#b5838d", "#577590",
 ];
 
-fn r1(v: f64) -> String {
-    format!("{v:.1}")
-}
-
-fn text(x: f64, y: f64, size: f64, anchor: &str, content: impl Into<String>) -> Text {
-    Text::new(content.into())
-        .set("x", r1(x))
-        .set("y", r1(y))
-        .set("font-size", size)
-        .set("text-anchor", anchor)
-        .set("font-family", "sans-serif")
-}
-
-struct Series<'a> {
+struct Series {
     name: String,
-    values: &'a [f64],
+    values: Vec<f64>,
     dashed: bool,
 }
 
-/// A line chart of `series` against day with a legend on the right.
+/// Lowest and highest finite value of the series and the steps, padded by 5 %.
+fn value_range(series: &[Series], steps: &[(f64, f64, String)]) -> (f64, f64) {
+    let all = series
+        .iter()
+        .flat_map(|s| s.values.iter().copied())
+        .chain(steps.iter().map(|s| s.1))
+        .filter(|v| v.is_finite());
+    let (mut lo, mut hi) = all.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+        (a.min(v), b.max(v))
+    });
+    if !(lo.is_finite() && hi.is_finite()) {
+        (lo, hi) = (0.0, 1.0);
+    }
+    if hi - lo < 1e-6 {
+        hi = lo + 1.0;
+    }
+    let pad = 0.05 * (hi - lo);
+    (lo - pad, hi + pad)
+}
+
+/// Vertical dashed lines at the stage starts, switch-off and t*, each named at its top; a name
+/// too close to the one before drops a line so the two do not print over each other.
+fn mark_lines(fr: &Frame, marks: &[(f64, String)]) -> Group {
+    let mut g = Group::new();
+    let mut sorted: Vec<&(f64, String)> = marks.iter().collect();
+    sorted.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let (mut last_x, mut row) = (f64::NEG_INFINITY, 0.0);
+    for (d, name) in sorted {
+        let x = fr.px(*d);
+        row = if x - last_x < 130.0 { row + 12.0 } else { 0.0 };
+        last_x = x;
+        g = g
+            .add(
+                line(x, fr.top, x, fr.bottom())
+                    .set("stroke", "#888888")
+                    .set("stroke-dasharray", "4 3"),
+            )
+            .add(text(
+                x + 3.0,
+                fr.top + 12.0 + row,
+                10.0,
+                "start",
+                name.clone(),
+            ));
+    }
+    g
+}
+
+/// The formation level of each stage as a dashed step line.
+fn step_line(fr: &Frame, steps: &[(f64, f64, String)]) -> Option<Path> {
+    if steps.is_empty() {
+        return None;
+    }
+    let mut dpath = String::new();
+    for (k, (d0, v, _)) in steps.iter().enumerate() {
+        let d1 = steps.get(k + 1).map_or(fr.x.1, |s| s.0);
+        dpath.push_str(&format!(
+            "{}{} {} L{} {} ",
+            if k == 0 { "M" } else { "L" },
+            r1(fr.px(*d0)),
+            r1(fr.py(*v)),
+            r1(fr.px(d1)),
+            r1(fr.py(*v))
+        ));
+    }
+    Some(
+        Path::new()
+            .set("d", dpath)
+            .set("fill", "none")
+            .set("stroke", "#000000")
+            .set("stroke-width", 1.4)
+            .set("stroke-dasharray", "7 4"),
+    )
+}
+
+/// One series as a path, broken where a value is not finite.
+fn series_path(fr: &Frame, days: &[f64], s: &Series, colour: &str) -> Path {
+    let mut dpath = String::new();
+    let mut pen = false;
+    for (d, v) in days.iter().zip(&s.values) {
+        if v.is_finite() {
+            let cmd = if pen { "L" } else { "M" };
+            dpath.push_str(&format!("{cmd}{} {} ", r1(fr.px(*d)), r1(fr.py(*v))));
+            pen = true;
+        } else {
+            pen = false;
+        }
+    }
+    let mut p = Path::new()
+        .set("d", dpath)
+        .set("fill", "none")
+        .set("stroke", colour)
+        .set("stroke-width", 1.6);
+    if s.dashed {
+        p = p.set("stroke-dasharray", "3 2");
+    }
+    p
+}
+
+/// The legend on the right: up to 24 series, the rest counted, and the formation step line.
+fn legend_of(fr: &Frame, series: &[Series], with_steps: bool) -> Group {
+    let shown = series.len().min(24);
+    let mut rows: Vec<LegendRow> = series
+        .iter()
+        .take(shown)
+        .enumerate()
+        .map(|(i, s)| LegendRow {
+            colour: COLOURS[i % COLOURS.len()].into(),
+            dash: s.dashed.then(|| "3 2".into()),
+            label: s.name.clone(),
+        })
+        .collect();
+    if series.len() > shown {
+        rows.push(LegendRow {
+            colour: "none".into(),
+            dash: None,
+            label: format!("… and {} more (see programme.csv)", series.len() - shown),
+        });
+    }
+    if with_steps {
+        rows.push(LegendRow {
+            colour: "#000000".into(),
+            dash: Some("7 4".into()),
+            label: "formation level".into(),
+        });
+    }
+    legend(fr.right() + 16.0, fr.top + 6.0, 16.0, &rows)
+}
+
+/// A line chart of `series` against day with a legend on the right. `steps` (day, level, name)
+/// are drawn as a step line; `marks` (day, name) as vertical lines.
 fn chart(
     title: &str,
     y_label: &str,
@@ -50,32 +169,15 @@ fn chart(
     steps: &[(f64, f64, String)],
     marks: &[(f64, String)],
 ) -> String {
-    let plot_w = WIDTH - LEFT - RIGHT;
-    let finite = |v: &&f64| v.is_finite();
-    let mut lo = series
-        .iter()
-        .flat_map(|s| s.values.iter().filter(finite))
-        .fold(f64::INFINITY, |a, b| a.min(*b));
-    let mut hi = series
-        .iter()
-        .flat_map(|s| s.values.iter().filter(finite))
-        .fold(f64::NEG_INFINITY, |a, b| a.max(*b));
-    for (_, v, _) in steps {
-        lo = lo.min(*v);
-        hi = hi.max(*v);
-    }
-    if !(lo.is_finite() && hi.is_finite()) {
-        lo = 0.0;
-        hi = 1.0;
-    }
-    if hi - lo < 1e-6 {
-        hi = lo + 1.0;
-    }
-    let pad = 0.05 * (hi - lo);
-    let (lo, hi) = (lo - pad, hi + pad);
     let x_max = days.last().copied().unwrap_or(1.0).max(1e-6);
-    let xs = |d: f64| LEFT + d / x_max * plot_w;
-    let ys = |v: f64| TOP + PLOT_H - (v - lo) / (hi - lo) * PLOT_H;
+    let fr = Frame {
+        left: LEFT,
+        top: TOP,
+        width: WIDTH - LEFT - RIGHT,
+        height: PLOT_H,
+        x: (0.0, x_max),
+        y: value_range(series, steps),
+    };
     let mut doc = Document::new()
         .set("viewBox", (0, 0, WIDTH, HEIGHT))
         .set("width", WIDTH)
@@ -86,147 +188,18 @@ fn chart(
                 .set("height", HEIGHT)
                 .set("fill", "white"),
         )
-        .add(text(WIDTH / 2.0 - RIGHT / 2.0, 30.0, 16.0, "middle", title));
-    let mut grid = Group::new()
-        .set("stroke", "#dddddd")
-        .set("stroke-width", 0.6);
-    let mut labels = Group::new();
-    for v in ticks(lo, hi, 8) {
-        grid = grid.add(
-            Line::new()
-                .set("x1", r1(LEFT))
-                .set("x2", r1(LEFT + plot_w))
-                .set("y1", r1(ys(v)))
-                .set("y2", r1(ys(v))),
-        );
-        labels = labels.add(text(LEFT - 6.0, ys(v) + 4.0, 11.0, "end", label(v)));
-    }
-    for d in ticks(0.0, x_max, 10) {
-        grid = grid.add(
-            Line::new()
-                .set("x1", r1(xs(d)))
-                .set("x2", r1(xs(d)))
-                .set("y1", r1(TOP))
-                .set("y2", r1(TOP + PLOT_H)),
-        );
-        labels = labels.add(text(xs(d), TOP + PLOT_H + 16.0, 11.0, "middle", label(d)));
-    }
-    doc = doc.add(grid).add(labels);
-    doc = doc.add(text(
-        LEFT + plot_w / 2.0,
-        TOP + PLOT_H + 36.0,
-        12.0,
-        "middle",
-        "days from the start of pumping",
-    ));
-    doc = doc.add(text(18.0, TOP + PLOT_H / 2.0, 12.0, "middle", y_label).set(
-        "transform",
-        format!("rotate(-90 18 {})", r1(TOP + PLOT_H / 2.0)),
-    ));
-    for (d, name) in marks {
-        doc = doc
-            .add(
-                Line::new()
-                    .set("x1", r1(xs(*d)))
-                    .set("x2", r1(xs(*d)))
-                    .set("y1", r1(TOP))
-                    .set("y2", r1(TOP + PLOT_H))
-                    .set("stroke", "#888888")
-                    .set("stroke-dasharray", "4 3"),
-            )
-            .add(text(xs(*d) + 3.0, TOP + 12.0, 10.0, "start", name.clone()));
-    }
-    // Step line of the formation levels.
-    if !steps.is_empty() {
-        let mut dpath = String::new();
-        for (k, (d0, v, _)) in steps.iter().enumerate() {
-            let d1 = steps.get(k + 1).map_or(x_max, |s| s.0);
-            dpath.push_str(&format!(
-                "{}{} {} L{} {} ",
-                if k == 0 { "M" } else { "L" },
-                r1(xs(*d0)),
-                r1(ys(*v)),
-                r1(xs(d1)),
-                r1(ys(*v))
-            ));
-        }
-        doc = doc.add(
-            Path::new()
-                .set("d", dpath)
-                .set("fill", "none")
-                .set("stroke", "#000000")
-                .set("stroke-width", 1.4)
-                .set("stroke-dasharray", "7 4"),
-        );
-    }
-    for (i, s) in series.iter().enumerate() {
-        let colour = COLOURS[i % COLOURS.len()];
-        let mut dpath = String::new();
-        let mut pen = false;
-        for (d, v) in days.iter().zip(s.values) {
-            if v.is_finite() {
-                dpath.push_str(&format!(
-                    "{}{} {} ",
-                    if pen { "L" } else { "M" },
-                    r1(xs(*d)),
-                    r1(ys(*v))
-                ));
-                pen = true;
-            } else {
-                pen = false;
-            }
-        }
-        let mut p = Path::new()
-            .set("d", dpath)
-            .set("fill", "none")
-            .set("stroke", colour)
-            .set("stroke-width", 1.6);
-        if s.dashed {
-            p = p.set("stroke-dasharray", "3 2");
-        }
+        .add(text(WIDTH / 2.0 - RIGHT / 2.0, 30.0, 16.0, "middle", title))
+        .add(fr.grid(&ticks(0.0, x_max, 10), &ticks(fr.y.0, fr.y.1, 8)))
+        .add(fr.x_title("days from the start of pumping"))
+        .add(fr.y_title(y_label, 18.0))
+        .add(mark_lines(&fr, marks));
+    if let Some(p) = step_line(&fr, steps) {
         doc = doc.add(p);
     }
-    // Legend.
-    let lx = LEFT + plot_w + 16.0;
-    let mut ly = TOP + 6.0;
-    let shown = series.len().min(24);
-    for (i, s) in series.iter().take(shown).enumerate() {
-        doc = doc
-            .add(
-                Line::new()
-                    .set("x1", r1(lx))
-                    .set("x2", r1(lx + 22.0))
-                    .set("y1", r1(ly))
-                    .set("y2", r1(ly))
-                    .set("stroke", COLOURS[i % COLOURS.len()])
-                    .set("stroke-width", 2),
-            )
-            .add(text(lx + 28.0, ly + 4.0, 10.5, "start", s.name.clone()));
-        ly += 16.0;
+    for (i, s) in series.iter().enumerate() {
+        doc = doc.add(series_path(&fr, days, s, COLOURS[i % COLOURS.len()]));
     }
-    if series.len() > shown {
-        doc = doc.add(text(
-            lx,
-            ly + 4.0,
-            10.5,
-            "start",
-            format!("… and {} more (see programme.csv)", series.len() - shown),
-        ));
-        ly += 16.0;
-    }
-    if !steps.is_empty() {
-        doc = doc
-            .add(
-                Line::new()
-                    .set("x1", r1(lx))
-                    .set("x2", r1(lx + 22.0))
-                    .set("y1", r1(ly))
-                    .set("y2", r1(ly))
-                    .set("stroke", "#000000")
-                    .set("stroke-dasharray", "7 4"),
-            )
-            .add(text(lx + 28.0, ly + 4.0, 10.5, "start", "formation level"));
-    }
+    doc = doc.add(legend_of(&fr, series, !steps.is_empty()));
     let mut y = TOP + PLOT_H + 60.0;
     for line in wrap(&format!("CAUTION: {CAUTION}"), 150, "").lines() {
         doc = doc.add(text(LEFT, y, 10.0, "start", line.to_string()));
@@ -252,14 +225,61 @@ fn marks(model: &Model, a: &ProgrammeAnswers) -> Vec<(f64, String)> {
     m
 }
 
-/// The three charts: (file name, SVG text).
+/// The flow chart: total flow (rate unit) and the volume so far (thousands of the volume
+/// unit) against day.
+fn flow_chart(
+    model: &Model,
+    a: &ProgrammeAnswers,
+    f: &Fmt,
+    days: &[f64],
+    marks: &[(f64, String)],
+) -> String {
+    let (ru, vu) = (f.rate_unit(), f.volume_unit());
+    // thousands of m³ or of US gallons (1 m³ = 264.172 gal, NIST SP 811 App. B)
+    let per_m3 = match f.units {
+        UnitSystem::Si => 1.0,
+        UnitSystem::Us => 1e3 / 3.785_411_784,
+    };
+    chart(
+        &format!(
+            "{} — flow ({ru}) and volume pumped (thousand {vu})",
+            model.name
+        ),
+        &format!("{ru}   |   thousand {vu}"),
+        days,
+        &[
+            Series {
+                name: format!("total flow, {ru}"),
+                values: a.flows.iter().map(|q| f.rate_number(*q)).collect(),
+                dashed: false,
+            },
+            Series {
+                name: format!("volume so far, thousand {vu}"),
+                values: a.volumes.iter().map(|v| v * per_m3 / 1e3).collect(),
+                dashed: true,
+            },
+        ],
+        &[],
+        marks,
+    )
+}
+
+/// The three charts in the model's units: (file name, SVG text).
 pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
+    let f = Fmt::new(model.units, model.ground_level);
+    let lu = f.lu();
     let days: Vec<f64> = a.times.iter().map(|t| t / DAY).collect();
     let steps: Vec<(f64, f64, String)> = model
         .programme
         .iter()
         .flat_map(|p| &p.stages)
-        .map(|s| (s.start / DAY, s.formation_level, s.name.clone()))
+        .map(|s| {
+            (
+                s.start / DAY,
+                f.length_number(s.formation_level),
+                s.name.clone(),
+            )
+        })
         .collect();
     let mk = |kinds: &[SeriesKind]| -> Vec<Series> {
         a.hydrographs
@@ -267,7 +287,7 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
             .filter(|h| kinds.contains(&h.kind))
             .map(|h| Series {
                 name: h.name.clone(),
-                values: &h.levels,
+                values: h.levels.iter().map(|z| f.length_number(*z)).collect(),
                 dashed: h.kind == SeriesKind::Neighbour,
             })
             .collect()
@@ -275,7 +295,7 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
     let marks = marks(model, a);
     let hyd = chart(
         &format!("{} — water level against time", model.name),
-        "water level, m above datum",
+        &format!("water level, {lu} above datum"),
         &days,
         &mk(&[SeriesKind::Point, SeriesKind::Neighbour]),
         &steps,
@@ -284,12 +304,11 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
     let mut floors: Vec<f64> = a.well_floors.clone();
     floors.sort_by(f64::total_cmp);
     floors.dedup_by(|x, y| (*x - *y).abs() < 1e-6);
-    let floor_values: Vec<Vec<f64>> = floors.iter().map(|f| vec![*f; days.len()]).collect();
     let mut well_series = mk(&[SeriesKind::Well]);
-    for (f, v) in floors.iter().zip(&floor_values) {
+    for z in &floors {
         well_series.push(Series {
-            name: format!("lowest allowed {f:.2} m"),
-            values: v,
+            name: format!("lowest allowed {}", f.length(*z)),
+            values: vec![f.length_number(*z); days.len()],
             dashed: true,
         });
     }
@@ -307,36 +326,13 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
             "{} — water level in the wells (after well loss){warning}",
             model.name
         ),
-        "water level in well, m above datum",
+        &format!("water level in well, {lu} above datum"),
         &days,
         &well_series,
         &steps,
         &marks,
     );
-    let flow_ls: Vec<f64> = a.flows.iter().map(|q| q * 1e3).collect();
-    let vol_k: Vec<f64> = a.volumes.iter().map(|v| v / 1e3).collect();
-    let flow = chart(
-        &format!(
-            "{} — flow (L/s) and volume pumped (thousand m³)",
-            model.name
-        ),
-        "L/s   |   thousand m³",
-        &days,
-        &[
-            Series {
-                name: "total flow, L/s".into(),
-                values: &flow_ls,
-                dashed: false,
-            },
-            Series {
-                name: "volume so far, thousand m³".into(),
-                values: &vol_k,
-                dashed: true,
-            },
-        ],
-        &[],
-        &marks,
-    );
+    let flow = flow_chart(model, a, &f, &days, &marks);
     vec![
         ("hydrographs.svg".into(), hyd.into_bytes()),
         ("wells.svg".into(), wells.into_bytes()),

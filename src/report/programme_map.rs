@@ -1,6 +1,7 @@
 //! `map_day_N.svg`: the drawdown at one time of the programme as shaded cells, with the
 //! excavations, neighbours and wells drawn over it and a colour scale.
 
+use super::format::Fmt;
 use super::{wrap, CAUTION};
 use crate::input::model::Model;
 use crate::transient::answers::DrawdownMap;
@@ -35,6 +36,7 @@ fn text(x: f64, y: f64, size: f64, content: impl Into<String>) -> Text {
 
 /// The SVG of one map. `wells` are the well positions (m).
 pub fn map_svg(model: &Model, map: &DrawdownMap, wells: &[[f64; 2]]) -> String {
+    let units = Fmt::new(model.units, model.ground_level);
     let w = (map.nx - 1) as f64 * map.step;
     let h = (map.ny - 1) as f64 * map.step;
     let scale = SIZE / w.max(h).max(1e-9);
@@ -62,7 +64,12 @@ pub fn map_svg(model: &Model, map: &DrawdownMap, wells: &[[f64; 2]]) -> String {
             PAD,
             30.0,
             15.0,
-            format!("{} — drawdown on day {:.1} (m)", model.name, map.time / DAY),
+            format!(
+                "{} — drawdown on day {:.1} ({})",
+                model.name,
+                map.time / DAY,
+                units.lu()
+            ),
         ));
     let cell = map.step * scale;
     for j in 0..map.ny {
@@ -127,14 +134,14 @@ pub fn map_svg(model: &Model, map: &DrawdownMap, wells: &[[f64; 2]]) -> String {
                 lx + 28.0,
                 PAD + k as f64 * 30.0 + 19.0,
                 11.0,
-                format!("{:.2} m", f * max),
+                units.length(f * max),
             ));
     }
     doc = doc.add(text(
         lx,
         PAD + 350.0,
         10.5,
-        format!("grid {:.1} m", map.step),
+        format!("grid {}", units.length(map.step)),
     ));
     let mut y = PAD + SIZE + 24.0;
     for line in wrap(&format!("CAUTION: {CAUTION}"), 130, "").lines() {

@@ -1,8 +1,10 @@
 //! `drydig programme`: the terminal summary (days to dig each stage, volumes, time to flood,
 //! recovery) and `programme.csv` (times, flows, volumes, levels at every hydrograph place).
 
-use super::{thousands, wrap, CAUTION};
+use super::format::Fmt;
+use super::{wrap, CAUTION};
 use crate::input::model::Model;
+use crate::input::units::UnitSystem;
 use crate::transient::answers::{ProgrammeAnswers, SeriesKind};
 use crate::transient::programme::DAY;
 
@@ -41,8 +43,9 @@ fn date_of(model: &Model, t: f64) -> String {
     format!(" ({y:04}-{m:02}-{d:02})")
 }
 
-/// The terminal summary.
+/// The terminal summary, in the model's unit system.
 pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
+    let f = Fmt::new(model.units, model.ground_level);
     let mut s = format!(
         "PROGRAMME  {}\n  pumping {} days, then {} days of recovery followed; {} output times\n\n",
         model.name,
@@ -50,20 +53,25 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
         days(a.times.last().copied().unwrap_or(a.duration) - a.duration),
         a.times.len()
     );
-    s.push_str("  stage                        planned day   can dig from day   target m   flow L/s   volume m³   \n");
+    s.push_str(&format!(
+        "  stage                        planned day   can dig from day {:>10} {:>10} {:>11}   \n",
+        format!("target {}", f.lu()),
+        format!("flow {}", f.rate_unit()),
+        format!("volume {}", f.volume_unit())
+    ));
     for st in &a.stages {
         let earliest = match st.earliest {
             Some(t) => format!("{}{}", days(t), date_of(model, t)),
             None => "not within the programme".into(),
         };
         s.push_str(&format!(
-            "  {:<28} {:>11} {:>18} {:>10.2} {:>10.1} {:>11}   {}\n",
+            "  {:<28} {:>11} {:>18} {:>10} {:>10} {:>11}   {}\n",
             st.name,
             days(st.planned_start),
             earliest,
-            st.target_level,
-            st.flow * 1e3,
-            thousands(st.volume, 0),
+            f.length_value(st.target_level),
+            f.rate_value(st.flow),
+            f.volume_value(st.volume),
             if st.ready() {
                 "ready".to_string()
             } else if let Some(t) = st.earliest {
@@ -78,8 +86,8 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
         ));
     }
     s.push_str(&format!(
-        "\n  volume pumped in total: {} m³ over {} days\n",
-        thousands(a.total_volume, 0),
+        "\n  volume pumped in total: {} over {} days\n",
+        f.volume(a.total_volume),
         days(a.duration)
     ));
     let reached = a.point_times.iter().filter(|p| p.time.is_some()).count();
@@ -97,14 +105,14 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
     }
     s.push('\n');
     match &a.flood {
-        Some(f) if f.relief => {
+        Some(fl) if fl.relief => {
             s.push_str(&format!(
-                "\n  TIME TO UPLIFT FACTOR OF SAFETY 1.0 (worst moment: day {}, stage \"{}\", {} with {:.2} m below the head {:.2} m at which the base would lift)\n",
-                days(f.moment),
-                f.stage,
-                f.point,
-                f.margin,
-                f.formation_level
+                "\n  TIME TO UPLIFT FACTOR OF SAFETY 1.0 (worst moment: day {}, stage \"{}\", {} with {} below the head {} at which the base would lift)\n",
+                days(fl.moment),
+                fl.stage,
+                fl.point,
+                f.length(fl.margin),
+                f.length(fl.formation_level)
             ));
             let words = |t: Option<f64>, held: &str| {
                 t.map_or(held.to_string(), |t| {
@@ -116,37 +124,37 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             };
             s.push_str(&format!(
                 "    every pump off:      {}\n",
-                words(f.all_off, "factor of safety stays above 1.0 for a year")
+                words(fl.all_off, "factor of safety stays above 1.0 for a year")
             ));
             s.push_str(&format!(
                 "    well {} off alone: {}\n",
-                f.well,
+                fl.well,
                 words(
-                    f.well_off,
+                    fl.well_off,
                     "the other wells keep the factor of safety above 1.0"
                 )
             ));
         }
-        Some(f) => {
+        Some(fl) => {
             s.push_str(&format!(
-                "\n  TIME TO FLOOD (worst moment: day {}, stage \"{}\", {} with {:.2} m below formation {:.2} m)\n",
-                days(f.moment),
-                f.stage,
-                f.point,
-                f.margin,
-                f.formation_level
+                "\n  TIME TO FLOOD (worst moment: day {}, stage \"{}\", {} with {} below formation {})\n",
+                days(fl.moment),
+                fl.stage,
+                fl.point,
+                f.length(fl.margin),
+                f.length(fl.formation_level)
             ));
             s.push_str(&format!(
                 "    every pump off:      {}\n",
-                f.all_off
+                fl.all_off
                     .map_or("water stays below formation for a year".into(), |t| {
                         format!("water above formation after {}", duration_words(t))
                     })
             ));
             s.push_str(&format!(
                 "    well {} off alone: {}\n",
-                f.well,
-                f.well_off.map_or(
+                fl.well,
+                fl.well_off.map_or(
                     "the other wells keep the water below formation".into(),
                     |t| format!("water above formation after {}", duration_words(t))
                 )
@@ -158,22 +166,22 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
     }
     if let Some(r) = &a.recovery {
         s.push_str(&format!(
-            "\n  RECOVERY at {} after the pumps stop on day {}: drawdown {:.2} m at switch-off, {:.2} m left after {} days; 90 % recovered {}; water above the last formation {}\n",
+            "\n  RECOVERY at {} after the pumps stop on day {}: drawdown {} at switch-off, {} left after {} days; 90 % recovered {}; water above the last formation {}\n",
             r.point,
             days(a.duration),
-            r.drawdown_at_stop,
-            r.residual_at_end,
+            f.length(r.drawdown_at_stop),
+            f.length(r.residual_at_end),
             days(a.times.last().copied().unwrap_or(a.duration) - a.duration),
             r.to_90_percent.map_or("not within the recovery followed".into(), |t| format!("after {}", duration_words(t))),
             r.above_formation.map_or("not within a year".into(), |t| format!("after {}", duration_words(t)))
         ));
     }
-    s.push_str(&wells_text(a));
-    s.push_str(&steady_text(a));
+    s.push_str(&wells_text(a, &f));
+    s.push_str(&steady_text(a, &f));
     if !model.boundaries.is_empty() {
         s.push_str(&format!(
-            "\n  Images of the straight boundaries are kept out to {:.0} m from each well: every image beyond has u = r²S/(4T·t) > {:.0} at the last time followed, W(u) < 1.1e−19, so the omitted remainder is below 3e−15·Q/(4πT) (between two parallel boundaries the series is summed that far, not to a fixed count).\n",
-            a.image_reach, crate::transient::programme::IMAGE_U_MIN
+            "\n  Images of the straight boundaries are kept out to {:.0} {} from each well: every image beyond has u = r²S/(4T·t) > {:.0} at the last time followed, W(u) < 1.1e−19, so the omitted remainder is below 3e−15·Q/(4πT) (between two parallel boundaries the series is summed that far, not to a fixed count).\n",
+            f.length_number(a.image_reach), f.lu(), crate::transient::programme::IMAGE_U_MIN
         ));
         if a.images_capped > 0 {
             s.push_str(&format!(
@@ -190,7 +198,7 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
 }
 
 /// Wells that fall below their lowest allowed level while scheduled to pump.
-fn wells_text(a: &ProgrammeAnswers) -> String {
+fn wells_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
     if a.well_breaches.is_empty() {
         return "\n  wells: every pumped well stays above its lowest allowed level (level inside the well, after its loss) while it pumps\n".into();
     }
@@ -200,12 +208,12 @@ fn wells_text(a: &ProgrammeAnswers) -> String {
     );
     for b in &a.well_breaches {
         s.push_str(&format!(
-            "    {} from day {}: {:.2} L/s scheduled, level falls to {:.2} m against {:.2} m ({})\n",
+            "    {} from day {}: {} scheduled, level falls to {} against {} ({})\n",
             b.well,
             days(b.time),
-            b.rate * 1e3,
-            b.lowest_reached,
-            b.lowest,
+            f.rate(b.rate),
+            f.length(b.lowest_reached),
+            f.length(b.lowest),
             b.basis
         ));
     }
@@ -222,21 +230,30 @@ fn wells_text(a: &ProgrammeAnswers) -> String {
 }
 
 /// t* and how the programme compares with the steady check there.
-fn steady_text(a: &ProgrammeAnswers) -> String {
+fn steady_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
     let Some(l) = &a.steady else {
         return "\n  steady design: no t* (leaky aquifer: the levels settle at the steady Hantush values; or no well rates)\n".into();
     };
     format!(
-        "\n  STEADY DESIGN AND TIME: by Cooper–Jacob, Theis equals Thiem with R(t) = √(2.25·T·t/S). The steady check of these wells at their design rates uses R = {:.1} m ({}), reached at t* = {} days. With every well at its design rate from day 0 the programme at t* gives the steady levels within {:.3} m at the check points (largest at {}, {} compared) and {:.3} m in the wells, losses included (largest in {}); the rest is the Cooper–Jacob remainder of the wells and of their boundary images (an image near R has u not small at t*: a constant-head line within R makes the programme approach the steady levels only as t grows) and the wells beyond R that Thiem cuts off. After t* an unbounded aquifer keeps drawing down (about Q/(4πT)·ln(t/t*) per well; a constant-head boundary or leakage slows it), so levels later in a long programme are lower than the steady design's.\n",
-        l.radius,
-        l.radius_basis,
+        "\n  STEADY DESIGN AND TIME: by Cooper–Jacob, Theis equals Thiem with R(t) = √(2.25·T·t/S). The steady check of these wells at their design rates uses R = {}{}, reached at t* = {} days. With every well at its design rate from day 0 the programme at t* gives the steady levels within {} at the check points (largest at {}, {} compared) and {} in the wells, losses included (largest in {}); the rest is the Cooper–Jacob remainder of the wells and of their boundary images (an image near R has u not small at t*: a constant-head line within R makes the programme approach the steady levels only as t grows) and the wells beyond R that Thiem cuts off. After t* an unbounded aquifer keeps drawing down (about Q/(4πT)·ln(t/t*) per well; a constant-head boundary or leakage slows it), so levels later in a long programme are lower than the steady design's.\n",
+        f.length(l.radius),
+        radius_basis(&l.radius_basis, f),
         days(l.t_star),
-        l.point_difference,
+        f.length_fine(l.point_difference),
         l.point_name,
         l.points_compared,
-        l.well_difference,
+        f.length_fine(l.well_difference),
         l.well_name
     )
+}
+
+/// The steady check's radius basis, in brackets: the engine states it in SI, so in US units
+/// only the radius itself is given (the design's report explains its basis).
+fn radius_basis(basis: &str, f: &Fmt) -> String {
+    match f.units {
+        UnitSystem::Si => format!(" ({basis})"),
+        UnitSystem::Us => " (the steady check's radius of influence)".into(),
+    }
 }
 
 fn csv_field(name: &str) -> String {
@@ -248,9 +265,12 @@ fn csv_field(name: &str) -> String {
 }
 
 /// `programme.csv`: one row per output time: time s, day, stage, total flow L/s, volume m³ so
-/// far, and the water level (m above datum) at every hydrograph place.
+/// far, and the water level (m above datum) at every hydrograph place: the SI machine columns.
+/// In US units the flow in gpm, the volume in US gallons and every level in ft follow.
 pub fn to_csv(model: &Model, a: &ProgrammeAnswers) -> Vec<u8> {
     let prog = model.programme.as_ref();
+    let us = model.units == UnitSystem::Us;
+    let f = Fmt::new(model.units, model.ground_level);
     let mut s = String::from(
         "time_s,day,stage,total_flow_l_per_s,volume_m3,cooper_jacob_radius_m,wells_below_lowest_level",
     );
@@ -262,6 +282,17 @@ pub fn to_csv(model: &Model, a: &ProgrammeAnswers) -> Vec<u8> {
         };
         s.push(',');
         s.push_str(&csv_field(&format!("{prefix} {}", h.name)));
+    }
+    if us {
+        s.push_str(",total_flow_gpm,volume_gal");
+        for h in &a.hydrographs {
+            let prefix = match h.kind {
+                SeriesKind::Point | SeriesKind::Neighbour => "level_ft",
+                SeriesKind::Well => "level_in_well_ft",
+            };
+            s.push(',');
+            s.push_str(&csv_field(&format!("{prefix} {}", h.name)));
+        }
     }
     s.push('\n');
     for (j, t) in a.times.iter().enumerate() {
@@ -293,6 +324,16 @@ pub fn to_csv(model: &Model, a: &ProgrammeAnswers) -> Vec<u8> {
         ));
         for h in &a.hydrographs {
             s.push_str(&format!(",{:.4}", h.levels[j]));
+        }
+        if us {
+            s.push_str(&format!(
+                ",{:.2},{:.0}",
+                f.rate_number(a.flows[j]),
+                a.volumes[j] * 1e3 / 3.785_411_784
+            ));
+            for h in &a.hydrographs {
+                s.push_str(&format!(",{:.3}", f.length_number(h.levels[j])));
+            }
         }
         s.push('\n');
     }

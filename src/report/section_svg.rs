@@ -7,6 +7,7 @@
 use crate::check::section::Section;
 use crate::input::model::Model;
 use crate::report::format::{esc, Fmt};
+use crate::report::plot_kit::ticks;
 use std::fmt::Write;
 
 const W: f64 = 1000.0;
@@ -17,16 +18,6 @@ const TOP: f64 = 56.0;
 const BOTTOM: f64 = 96.0;
 /// Most wells drawn on one section.
 const MAX_WELLS: usize = 40;
-
-fn nice_step(range: f64, ticks: f64) -> f64 {
-    let raw = (range / ticks).max(1e-9);
-    let p = 10f64.powf(raw.log10().floor());
-    [1.0, 2.0, 2.5, 5.0, 10.0]
-        .iter()
-        .map(|m| m * p)
-        .find(|s| *s >= raw)
-        .unwrap_or(10.0 * p)
-}
 
 /// The section drawing as SVG text, titled `title`.
 pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
@@ -82,23 +73,28 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         x1 - x0,
         py(zlo) - py(aq.base_level)
     );
-    // Horizontal level grid and axes.
-    let step_disp = nice_step(f.units.length(zhi - zlo), 8.0);
-    let step = step_disp * (zhi - zlo) / f.units.length(zhi - zlo);
-    let mut z = (zlo / step).ceil() * step;
-    while z <= zhi + 1e-9 {
-        let y = py(z);
+    // Horizontal level grid and axes: round levels on the left, round depths on the right.
+    let k = f.units.length(1.0);
+    let levels = ticks(zlo * k, zhi * k, 8);
+    for (v, label) in levels.labelled() {
+        let y = py(v / k);
         let _ = write!(
             o,
-            r##"<line x1="{x0:.1}" x2="{x1:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#ddd" stroke-width="0.6"/><text x="{:.1}" y="{:.1}" text-anchor="end">{}</text><text x="{:.1}" y="{:.1}">{}</text>"##,
+            r##"<line x1="{x0:.1}" x2="{x1:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#ddd" stroke-width="0.6"/><text x="{:.1}" y="{:.1}" text-anchor="end">{label}</text>"##,
             x0 - 6.0,
             y + 4.0,
-            f.length_value(z),
+        );
+    }
+    let depths = ticks((ground - zhi) * k, (ground - zlo) * k, 8);
+    for (d, label) in depths.labelled() {
+        let y = py(ground - d / k);
+        let _ = write!(
+            o,
+            r##"<line x1="{x1:.1}" x2="{:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#333"/><text x="{:.1}" y="{:.1}">{label}</text>"##,
+            x1 + 4.0,
             x1 + 6.0,
             y + 4.0,
-            f.length_value(ground - z)
         );
-        z += step;
     }
     let _ = write!(
         o,
@@ -112,21 +108,15 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         (TOP + H - BOTTOM) / 2.0,
         f.lu()
     );
-    let ch_disp = nice_step(f.units.length(length), 10.0);
-    let ch_step = ch_disp * length / f.units.length(length);
-    let mut c = 0.0;
-    while c <= length + 1e-9 {
-        let x = px(c);
-        let dec = if ch_disp >= 1.0 { 0 } else { 1 };
+    for (v, label) in ticks(0.0, length * k, 10).labelled() {
+        let x = px(v / k);
         let _ = write!(
             o,
-            r##"<line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#333"/><text x="{x:.1}" y="{:.1}" text-anchor="middle">{:.dec$}</text>"##,
+            r##"<line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#333"/><text x="{x:.1}" y="{:.1}" text-anchor="middle">{label}</text>"##,
             H - BOTTOM,
             H - BOTTOM + 5.0,
             H - BOTTOM + 18.0,
-            f.units.length(c)
         );
-        c += ch_step;
     }
     let _ = write!(
         o,

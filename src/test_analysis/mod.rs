@@ -16,7 +16,6 @@
 //! Standard errors from the Jacobian: cov = σ²·(JᵀJ)⁻¹, σ² = Σr²/(n − p), taken to T and S by
 //! the delta method. Units SI inside: s, m, m³/s, m²/s.
 
-pub mod chart;
 pub mod csv_input;
 pub mod leaky;
 pub mod lm;
@@ -691,15 +690,35 @@ fn sig(v: f64) -> String {
 /// TOML lines for a design file's `[aquifer]` section from a fit (field names and unit strings
 /// as in `layouts/*.toml`): `kind`, `conductivity` (T divided by the thickness, when the test
 /// data gave one), `storativity` or `specific_yield`, and `aquitard_resistance` c = B²/T for a
-/// leaky fit. Values keep 4 significant figures; the standard errors are in comments.
+/// leaky fit. Values keep 4 significant figures; the standard errors are in comments. SI.
 pub fn aquifer_lines(fit: &Fit) -> String {
+    aquifer_lines_in(fit, crate::input::units::UnitSystem::Si)
+}
+
+/// [`aquifer_lines`] with lengths, transmissivity and conductivity written in `units` (US: ft,
+/// ft2/d and ft/day, units the design file accepts; 1 ft = 0.3048 m, 1 day = 86 400 s, NIST
+/// SP 811 (2008) App. B).
+pub fn aquifer_lines_in(fit: &Fit, units: crate::input::units::UnitSystem) -> String {
+    use crate::input::units::UnitSystem;
+    const FOOT: f64 = 0.3048;
+    let (lu, tu, ku, t_k, k_k) = match units {
+        UnitSystem::Si => ("m", "m2/s", "m/s", 1.0, 1.0),
+        UnitSystem::Us => (
+            "ft",
+            "ft2/d",
+            "ft/day",
+            86_400.0 / (FOOT * FOOT),
+            86_400.0 / FOOT,
+        ),
+    };
+    let len = |m: f64| sig(units.length(m));
     let tr = fit.transmissivity;
     let mut out = format!(
-        "# from a {} analysis of a constant-rate pumping test: T = {} m2/s ± {} (1 s.e.), rms {:.3} m\n",
+        "# from a {} analysis of a constant-rate pumping test: T = {} {tu} ± {} (1 s.e.), rms {:.3} {lu}\n",
         fit.method.name(),
-        sig(tr.value),
-        sig(tr.std_error),
-        fit.rms
+        sig(tr.value * t_k),
+        sig(tr.std_error * t_k),
+        units.length(fit.rms)
     );
     let kind = match fit.method {
         Method::Hantush => "leaky",
@@ -709,16 +728,18 @@ pub fn aquifer_lines(fit: &Fit) -> String {
     out.push_str(&format!("kind = \"{kind}\"\n"));
     match fit.thickness {
         Some(b) if (1e-9..=1.0).contains(&(tr.value / b)) => out.push_str(&format!(
-            "conductivity = \"{} m/s\"   # T / {b} m\n",
-            sig(tr.value / b)
+            "conductivity = \"{} {ku}\"   # T / {} {lu}\n",
+            sig(tr.value / b * k_k),
+            len(b)
         )),
         Some(b) => out.push_str(&format!(
-            "# conductivity: T / {b} m = {} m/s is outside 1e-9 … 1 m/s (no soil; the design file refuses it): check the thickness\n",
-            sig(tr.value / b)
+            "# conductivity: T / {} {lu} = {} {ku} is outside what a soil can have (1e-9 … 1 m/s; the design file refuses it): check the thickness\n",
+            len(b),
+            sig(tr.value / b * k_k)
         )),
         None => out.push_str(&format!(
-            "# conductivity = T / thickness: T = {} m2/s; no thickness was given with the test\n",
-            sig(tr.value)
+            "# conductivity = T / thickness: T = {} {tu}; no thickness was given with the test\n",
+            sig(tr.value * t_k)
         )),
     }
     if let Some(s) = fit.storativity {
@@ -738,10 +759,10 @@ pub fn aquifer_lines(fit: &Fit) -> String {
     if let Some(b) = fit.leakage_factor {
         let c_days = b.value * b.value / tr.value / 86_400.0;
         out.push_str(&format!(
-            "aquitard_resistance = \"{} days\"   # c = B²/T, B = {} m ± {}\n",
+            "aquitard_resistance = \"{} days\"   # c = B²/T, B = {} {lu} ± {}\n",
             sig(c_days),
-            sig(b.value),
-            sig(b.std_error)
+            len(b.value),
+            len(b.std_error)
         ));
     }
     for n in &fit.notes {

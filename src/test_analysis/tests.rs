@@ -233,7 +233,11 @@ fn chart_and_design_lines() {
     // practice (no source))
     let data = load(OUDE_KORENDIJK, 788.0 / 86_400.0, Some(7.0));
     let fit = fit_theis(&data).unwrap();
-    let svg = chart::pumping_test_svg(&data.wells, Some(&fit));
+    let svg = crate::report::pumping_test_chart::pumping_test_svg(
+        &data.wells,
+        Some(&fit),
+        crate::input::units::UnitSystem::Si,
+    );
     assert!(svg.starts_with("<svg"));
     assert!(
         svg.matches("<path").count() >= 4,
@@ -271,7 +275,12 @@ type NamedFits = Vec<(String, Result<Fit, String>)>;
 fn everything(data: &PumpingTestData) -> (NamedFits, String) {
     let fits = crate::findings::commands::fits(data, None);
     let best = crate::findings::commands::chosen(&fits, None).and_then(|i| fits[i].1.as_ref().ok());
-    let text = crate::report::pumping_test_text::to_text(data, &fits, best);
+    let text = crate::report::pumping_test_text::to_text(
+        data,
+        &fits,
+        best,
+        crate::input::units::UnitSystem::Si,
+    );
     assert!(
         crate::report::files::has_non_finite(text.as_bytes()).is_none(),
         "{text}"

@@ -365,23 +365,9 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
     // the wells must stay above their floors for the whole programme (at least to day N)
     let t_hold = model.programme.as_ref().map_or(t, |p| p.duration.max(t));
     let mut trials = Vec::new();
-    let d = &model.design;
-    let mut notes = vec![format!(
-        "allowances as in the steady design: targets by day {day} with an operating margin of {:.2} m; at most {:.0} % of each well's capacity (the lower of the pump's and Sichardt's on the screen wetted at the well's lowest level in that time); {}; every well's level (after its loss) above its lowest allowed level up to day {:.1}{}",
-        d.operating_margin,
-        d.capacity_fraction * 100.0,
-        if d.one_well_out {
-            "every target still met with any one well out"
-        } else {
-            "one well out not asked"
-        },
-        t_hold / DAY,
-        if model.programme.is_some() {
-            " (the end of the programme's pumping)"
-        } else {
-            " (no [programme]: day N)"
-        }
-    )];
+    // The allowances (margin, capacity fraction, one well out) are model data: the report
+    // states them in the user's units.
+    let mut notes = Vec::new();
     let try_wells = |wells: Vec<Well>, trials: &mut Vec<DatedTrial>| {
         let r = rates_within_capacity(model, &aq, &wells, t, t_hold);
         trials.push(DatedTrial {
@@ -444,7 +430,7 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
             let single = wells.len() == 1;
             notes.push("the layout's wells are kept; only their rates are found".into());
             let r = try_wells(wells, &mut trials);
-            if r.is_none() && single && d.one_well_out {
+            if r.is_none() && single && model.design.one_well_out {
                 notes.push("one well cannot meet any target with one well out (nothing pumps while it is out): add a well, or set allowances.one_well_out = false and keep a standby pump".into());
             } else if r.is_none() {
                 notes.push(format!(

@@ -1,8 +1,11 @@
-//! SVG chart of a pumping test: observed drawdowns and the fitted curves, on log–log axes
-//! (left, the type-curve view) and semi-log axes (right, the Cooper–Jacob view).
+//! `pumping_test.svg`: observed drawdowns and the fitted curves, on log–log axes (left, the
+//! type-curve view) and semi-log axes (right, the Cooper–Jacob view); decades on the log axes,
+//! round 1-2-5 ticks on the drawdown axis of the semi-log view (the plot kit).
 
-use super::{Fit, ObservationWell};
-use svg::node::element::{Circle, Group, Line, Path, Rectangle, Text};
+use crate::input::units::UnitSystem;
+use crate::report::plot_kit::{r1, text, ticks};
+use crate::test_analysis::{Fit, ObservationWell};
+use svg::node::element::{Circle, Group, Line, Path, Rectangle};
 use svg::Document;
 
 const W: f64 = 980.0;
@@ -13,19 +16,6 @@ const TOP: f64 = 60.0;
 const COLOURS: [&str; 6] = [
     "#1f4e79", "#d1495b", "#2a9d8f", "#e9a03b", "#6a4c93", "#555555",
 ];
-
-fn r1(v: f64) -> String {
-    format!("{v:.1}")
-}
-
-fn text(x: f64, y: f64, size: f64, anchor: &str, s: impl Into<String>) -> Text {
-    Text::new(s.into())
-        .set("x", r1(x))
-        .set("y", r1(y))
-        .set("font-size", size)
-        .set("font-family", "sans-serif")
-        .set("text-anchor", anchor)
-}
 
 struct Axes {
     x0: f64,
@@ -48,7 +38,7 @@ impl Axes {
     }
 }
 
-fn frame(ax: &Axes, title: &str) -> Group {
+fn frame(ax: &Axes, title: &str, lu: &str) -> Group {
     let mut g = Group::new().add(
         Rectangle::new()
             .set("x", r1(ax.x0))
@@ -87,8 +77,7 @@ fn frame(ax: &Axes, title: &str) -> Group {
                 .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("1e{d}")));
         }
     } else {
-        for i in 0..=5 {
-            let v = ax.ly.0 + (ax.ly.1 - ax.ly.0) * i as f64 / 5.0;
+        for (v, label) in ticks(ax.ly.0, ax.ly.1, 5).labelled() {
             let y = ax.py(v);
             g = g
                 .add(
@@ -99,7 +88,7 @@ fn frame(ax: &Axes, title: &str) -> Group {
                         .set("y2", r1(y))
                         .set("stroke", "#ddd"),
                 )
-                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("{v:.2}")));
+                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", label));
         }
     }
     g.add(text(
@@ -110,20 +99,30 @@ fn frame(ax: &Axes, title: &str) -> Group {
         "time since pumping started (s)",
     ))
     .add(
-        text(ax.x0 - 48.0, TOP + PH / 2.0, 12.0, "middle", "drawdown (m)").set(
+        text(
+            ax.x0 - 48.0,
+            TOP + PH / 2.0,
+            12.0,
+            "middle",
+            format!("drawdown ({lu})"),
+        )
+        .set(
             "transform",
             format!("rotate(-90 {} {})", r1(ax.x0 - 48.0), r1(TOP + PH / 2.0)),
         ),
     )
 }
 
-fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
+/// The observations and fitted curves, drawdowns multiplied by `scale` (1 for m, 1/0.3048 for
+/// ft).
+fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>, scale: f64) -> Group {
     let mut g = Group::new();
     for (k, w) in wells.iter().enumerate() {
         let c = COLOURS[k % COLOURS.len()];
         // One circle per pixel: a logger's 10⁶ readings draw as the curve they make.
         let mut drawn = std::collections::HashSet::new();
         for &(t, s) in &w.points {
+            let s = s * scale;
             if ax.inside(t, s) && drawn.insert((ax.px(t) as i32, ax.py(s) as i32)) {
                 g = g.add(
                     Circle::new()
@@ -139,7 +138,7 @@ fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
             let mut d = String::new();
             for i in 0..=120 {
                 let t = 10f64.powf(ax.lx.0 + (ax.lx.1 - ax.lx.0) * i as f64 / 120.0);
-                let s = f.model_drawdown(w.distance, t);
+                let s = f.model_drawdown(w.distance, t) * scale;
                 if ax.inside(t, s) {
                     let cmd = if d.is_empty() { 'M' } else { 'L' };
                     d.push_str(&format!("{cmd}{} {} ", r1(ax.px(t)), r1(ax.py(s))));
@@ -161,11 +160,14 @@ fn series(ax: &Axes, wells: &[ObservationWell], fit: Option<&Fit>) -> Group {
 
 /// SVG of the observations of `wells` (open circles) and the fitted model of `fit` (lines), on
 /// log–log and semi-log axes, with a legend and the fitted values. Points that cannot be shown
-/// (zero drawdown on a log axis) are left out; no non-finite number is written.
-pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String {
+/// (zero drawdown on a log axis) are left out; no non-finite number is written. Lengths are in
+/// `units` (the data stay SI; only the drawing converts).
+pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>, units: UnitSystem) -> String {
+    let f = crate::report::format::Fmt::new(units, 0.0);
+    let k = units.length(1.0);
     let pts: Vec<(f64, f64)> = wells
         .iter()
-        .flat_map(|w| w.points.iter().copied())
+        .flat_map(|w| w.points.iter().map(|&(t, s)| (t, s * k)))
         .collect();
     let tmin = pts
         .iter()
@@ -218,10 +220,10 @@ pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String 
                 .set("height", H)
                 .set("fill", "white"),
         )
-        .add(frame(&loglog, "log–log"))
-        .add(frame(&semilog, "semi-log"))
-        .add(series(&loglog, wells, fit))
-        .add(series(&semilog, wells, fit));
+        .add(frame(&loglog, "log–log", f.lu()))
+        .add(frame(&semilog, "semi-log", f.lu()))
+        .add(series(&loglog, wells, fit, k))
+        .add(series(&semilog, wells, fit, k));
     let mut legend = String::new();
     for (k, w) in wells.iter().enumerate() {
         doc = doc.add(
@@ -230,24 +232,24 @@ pub fn pumping_test_svg(wells: &[ObservationWell], fit: Option<&Fit>) -> String 
                 H - 14.0,
                 12.0,
                 "start",
-                format!("○ {} (r = {} m)", w.name, w.distance),
+                format!("○ {} (r = {})", w.name, f.length(w.distance)),
             )
             .set("fill", COLOURS[k % COLOURS.len()]),
         );
     }
-    if let Some(f) = fit {
-        legend.push_str(&format!(
-            "{}: T = {:.3e} m²/s",
-            f.method.name(),
-            f.transmissivity.value
-        ));
-        if let Some(s) = f.storativity {
+    if let Some(fit) = fit {
+        let t = match units {
+            UnitSystem::Si => format!("{:.3e} m²/s", fit.transmissivity.value),
+            UnitSystem::Us => f.transmissivity(fit.transmissivity.value),
+        };
+        legend.push_str(&format!("{}: T = {t}", fit.method.name()));
+        if let Some(s) = fit.storativity {
             legend.push_str(&format!(", S = {:.3e}", s.value));
         }
-        if let Some(b) = f.leakage_factor {
-            legend.push_str(&format!(", B = {:.1} m", b.value));
+        if let Some(b) = fit.leakage_factor {
+            legend.push_str(&format!(", B = {}", f.length(b.value)));
         }
-        legend.push_str(&format!(", rms {:.3} m", f.rms));
+        legend.push_str(&format!(", rms {}", f.length_fine(fit.rms)));
     } else {
         legend.push_str("observations");
     }
