@@ -108,16 +108,30 @@ impl LeakageSystem {
             .collect()
     }
 
-    /// The mode functions F_k(r) at distance r (m) for radius of influence `big_r` (m):
-    /// K₀(r/λ_k), or ln(R/r) for the zero mode; 0 beyond the cut-off.
+    /// The mode functions F_k(r) at distance r (m) for radius of influence `big_r` (m), each
+    /// vanishing at R, so that the drawdown is nil at R in every aquifer (the head held on a
+    /// circle of radius R, as the single-aquifer radius of influence does):
+    /// F_k = K₀(r/λ_k) − K₀(R/λ_k)·I₀(r/λ_k)/I₀(R/λ_k) (the correction is left out when
+    /// R > 25·λ_k, below e⁻⁵⁰), or ln(R/r) for the zero mode; 0 beyond R. Without the
+    /// correction a leaky mode reaching past R (λ > R: a stiff aquitard) would raise the head
+    /// in the aquifer not pumped.
     pub fn mode_functions(&self, r: f64, big_r: f64) -> Vec<f64> {
         self.leakage_factors
             .iter()
             .map(|lf| match lf {
-                Some(l) if r < MODE_CUTOFF * l => bessel_k0(r / l),
-                Some(_) => 0.0,
-                None if r < big_r => (big_r / r).ln(),
-                None => 0.0,
+                _ if r >= big_r => 0.0,
+                Some(l) if big_r > MODE_CUTOFF * l => {
+                    if r < MODE_CUTOFF * l {
+                        bessel_k0(r / l)
+                    } else {
+                        0.0
+                    }
+                }
+                Some(l) => {
+                    bessel_k0(r / l)
+                        - bessel_k0(big_r / l) * bessel_i0(r / l) / bessel_i0(big_r / l)
+                }
+                None => (big_r / r).ln(),
             })
             .collect()
     }
@@ -167,6 +181,21 @@ impl LeakageSystem {
     }
 }
 
+/// Modified Bessel function I₀(x) for 0 ≤ x ≤ 25 by its power series Σ (x/2)^{2k}/(k!)²
+/// (Abramowitz & Stegun 1964, eq. 9.6.10); all terms positive, so no cancellation.
+fn bessel_i0(x: f64) -> f64 {
+    let q = 0.25 * x * x;
+    let (mut term, mut sum) = (1.0, 1.0);
+    for k in 1..200 {
+        term *= q / (k * k) as f64;
+        sum += term;
+        if term < 1e-17 * sum {
+            break;
+        }
+    }
+    sum
+}
+
 /// Resistance between two adjacent aquifer sublayers without an aquitard between them, s:
 /// c = ½·d₁/K_v1 + ½·d₂/K_v2 (d thickness, m; K_v vertical conductivity, m/s).
 pub fn sublayer_resistance(d1: f64, kv1: f64, d2: f64, kv2: f64) -> f64 {
@@ -203,6 +232,34 @@ mod tests {
         // the one leaking mode has λ² = c/(1/T₁ + 1/T₂) (Hemker 1984, two aquifers)
         let expect = (86400.0_f64 * 200.0 / (1.0 / 2e-3 + 1.0 / 8e-3)).sqrt();
         assert!((lam - expect).abs() < 1e-9 * expect);
+    }
+
+    // I₀(1) = 1.2660658777520082 and I₀(10) = 2815.716628466254 (Abramowitz & Stegun 1964,
+    // table 9.8 — from memory)
+    #[test]
+    fn bessel_i0_values() {
+        assert!((bessel_i0(1.0) - 1.2660658777520082).abs() < 1e-14);
+        assert!((bessel_i0(10.0) / 2815.716628466254 - 1.0).abs() < 1e-13);
+    }
+
+    // A stiff aquitard (λ ≫ R): pumping the lower aquifer never raises the upper one (a
+    // maximum principle) nor draws it below the lower one, and the lower one is within 5 % of
+    // Thiem with its own transmissivity (common practice (no source):
+    // an aquitard that stiff separates the aquifers).
+    #[test]
+    fn stiff_aquitard_separates_the_aquifers() {
+        let sys = LeakageSystem::new(&[1.7e-3, 1.12e-2], &[4e9]).unwrap();
+        assert!(sys.leakage_factors()[0] > 2000.0);
+        for r in [0.2, 5.0, 40.0, 300.0, 1200.0] {
+            let upper = sys.unit_drawdown(1, 0, r, 1300.0);
+            let lower = sys.unit_drawdown(1, 1, r, 1300.0);
+            let thiem = (1300.0_f64 / r).ln() / (2.0 * PI * 1.12e-2);
+            assert!(upper >= 0.0 && upper < lower, "r {r}: {upper} {lower}");
+            assert!(
+                (lower - thiem).abs() < 0.05 * thiem,
+                "r {r}: {lower} vs {thiem}"
+            );
+        }
     }
 
     // The shares of a well screened in two aquifers with no resistance worth the name between
