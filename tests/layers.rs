@@ -98,3 +98,79 @@ fn split_aquifer_partial_penetration() {
     let worst = compare("split_aquifer", &sys, 0.010, &[0, 1]);
     eprintln!("split aquifer: largest difference {worst:.2e} m");
 }
+
+// The same two-aquifer case through a design file: `[[layer]]` entries, the field a layout
+// makes (check::field_build), and the head read in each aquifer (`levels_in_each_aquifer`, the
+// function settlement of a compressible layer reads).
+const TWO_AQUIFERS: &str = r#"
+[site]
+name = "Two aquifers"
+ground_level = "8.0 m"
+
+[aquifer]                  # sand, confined at 0 m by a top layer taken as impermeable
+kind = "confined"
+conductivity = "2e-4 m/s"
+top_level = "0.0 m"
+base_level = "-10.0 m"
+groundwater_level = "5.0 m"
+
+[[layer]]
+name = "clay"
+kind = "aquitard"
+base_level = "-14.0 m"
+resistance = "50 days"
+
+[[layer]]
+name = "gravel"
+kind = "aquifer"
+base_level = "-22.0 m"
+conductivity = "1e-3 m/s"
+
+[[excavation]]
+name = "Pit"
+outline = [[-5, -5], [5, -5], [5, 5], [-5, 5]]
+formation_level = "-2.0 m"
+target_margin = "0.5 m"
+
+[influence]
+method = "fixed"
+distance = "2000 m"
+
+[wells]
+radius = "0.15 m"
+screen_top = "-14.0 m"
+screen_base = "-22.0 m"
+pump_intake = "-21.0 m"
+"#;
+
+#[test]
+fn design_file_with_layers_matches_timml() {
+    use drydig::check::field_build::field_with_radius;
+    use drydig::field::wells::Well;
+    let model = drydig::input::validate::file::from_str(
+        std::path::Path::new("two_aquifers.toml"),
+        TWO_AQUIFERS,
+    )
+    .unwrap_or_else(|e| panic!("valid design file: {e}"));
+    let ground = model.layers.as_ref().expect("layered ground");
+    assert_eq!(ground.aquifers.len(), 2);
+    assert!((ground.resistances[0] - 50.0 * 86400.0).abs() < 1e-6);
+    let centre = drydig::check::field_build::site_origin(&model);
+    let well = Well::from_spec("W1".into(), centre, 0.020, &model.wells);
+    let field = field_with_radius(&model, std::slice::from_ref(&well), BIG_R);
+    let mut worst: f64 = 0.0;
+    for row in table().into_iter().filter(|r| r.case == "two_aquifers_lower") {
+        let p = [centre[0] + row.r, centre[1]];
+        let levels = field.levels_in_each_aquifer(p, &[0.020]);
+        let s = 5.0 - levels[row.aquifer].or_base(f64::NAN);
+        worst = worst.max((s - row.drawdown).abs());
+        assert!(
+            (s - row.drawdown).abs() <= TOL,
+            "aquifer {} at r = {}: {s} against timml {}",
+            row.aquifer,
+            row.r,
+            row.drawdown
+        );
+    }
+    eprintln!("design file, two aquifers: largest difference {worst:.2e} m");
+}
