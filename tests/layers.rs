@@ -159,7 +159,10 @@ fn design_file_with_layers_matches_timml() {
     let well = Well::from_spec("W1".into(), centre, 0.020, &model.wells);
     let field = field_with_radius(&model, std::slice::from_ref(&well), BIG_R);
     let mut worst: f64 = 0.0;
-    for row in table().into_iter().filter(|r| r.case == "two_aquifers_lower") {
+    for row in table()
+        .into_iter()
+        .filter(|r| r.case == "two_aquifers_lower")
+    {
         let p = [centre[0] + row.r, centre[1]];
         let levels = field.levels_in_each_aquifer(p, &[0.020]);
         let s = 5.0 - levels[row.aquifer].or_base(f64::NAN);
