@@ -67,4 +67,7 @@ for pair in "reference_flood.py programme_flood.csv" "reference_time.py programm
     rm -f "$tmp_t"
 done
 
+# layered ground (scripts/reference_layers.py, timml)
+tmp_ly="$(mktemp "${TMPDIR:-/tmp}/drydig-layers.XXXXXX.csv")"; python3 "$root/scripts/reference_layers.py" "$tmp_ly"; if diff -u "$root/tests/reference/layers_timml.csv" "$tmp_ly"; then echo "reference table up to date: $root/tests/reference/layers_timml.csv"; else echo "layers_timml.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_ly"
+
 exit "$status"

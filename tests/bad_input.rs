@@ -185,6 +185,9 @@ const CASES: &[Case] = &[
     case("programme_point_at_1e300.toml", Slot("programme.point[1].x"), "within ±1e7 m", None),
     case("programme_stage_named_nan.toml", Slot("programme.stage[1].name"), "choose another name", None),
     case("programme_point_name_with_escape.toml", Slot("programme.point[1].name"), "control character", None),
+    // Layered ground (issue 21).
+    case("layer_listed_bottom_up.toml", Slot("layer[0].base_level"), "list layers from the top down", None),
+    case("layer_aquitard_at_the_bottom.toml", Slot("layer"), "no aquifer", None),
 ];
 
 fn corpus_dir() -> PathBuf {

@@ -3,6 +3,7 @@
 
 use crate::field::checkpoints::{CheckPoint, PointKind};
 use crate::field::influence::Field;
+use crate::field::layered::LayeredKernel;
 use crate::field::near_field::PointTables;
 use crate::field::wells::Well;
 use crate::input::model::Model;
@@ -19,15 +20,26 @@ pub fn site_origin(model: &Model) -> [f64; 2] {
 }
 
 /// Build the field for `wells` in `model` with radius of influence `r` (m).
+/// In layered ground the multi-aquifer kernel ([`LayeredKernel`]) replaces the single-aquifer
+/// one and its partial-penetration term; without `[[layer]]` the field is exactly as before.
 pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
-    Field::new(
+    let field = Field::new(
         &model.aquifer,
         r,
         wells,
         &model.boundaries,
         site_origin(model),
-    )
-    .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+    );
+    if let Some(ground) = &model.layers {
+        let screens: Vec<(f64, f64, f64)> = wells
+            .iter()
+            .map(|w| (w.screen_top, w.screen_base, w.radius))
+            .collect();
+        if let Some(kernel) = LayeredKernel::new(ground, &screens, r) {
+            return field.with_layers(kernel, evaluation_level(model));
+        }
+    }
+    field.with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
 }
 
 /// The level the map, sections and points without a target are evaluated at for partial
@@ -58,6 +70,18 @@ pub fn point_elevation(model: &Model, p: &CheckPoint) -> f64 {
             .find(|(name, _, _)| *name == p.name)
             .and_then(|(_, _, t)| *t)
             .unwrap_or_else(|| evaluation_level(model)),
+    }
+}
+
+/// The aquifer whose head check point `p` reads: the model's aquifer, or in layered ground the
+/// aquifer holding the point's elevation ([`point_elevation`]).
+pub fn aquifer_of_point<'m>(
+    model: &'m Model,
+    p: &CheckPoint,
+) -> &'m crate::physics::potential::Aquifer {
+    match &model.layers {
+        Some(g) => &g.aquifers[g.aquifer_at(point_elevation(model, p))].aquifer,
+        None => &model.aquifer,
     }
 }
 

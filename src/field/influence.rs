@@ -14,6 +14,7 @@
 //! [`Field::with_partial_penetration`].
 
 use crate::field::fast_log::ln_fast;
+use crate::field::layered::LayeredKernel;
 use crate::field::near_field::{NearField, PointTables, WellScreen};
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
@@ -25,6 +26,7 @@ use rayon::prelude::*;
 use rstar::primitives::GeomWithData;
 use rstar::RTree;
 use std::f64::consts::PI;
+use std::sync::Arc;
 
 /// Beyond this many leakage factors a leaky well's K₀ term is below 1e-11 and is cut off.
 const LEAKY_CUTOFF_B: f64 = 25.0;
@@ -61,6 +63,10 @@ pub struct Field {
     real: Vec<bool>,
     /// Partial penetration near the wells, when some screen does not span the layer.
     near: Option<NearField>,
+    /// Layered ground: the multi-aquifer kernel, when the ground has `[[layer]]` entries.
+    layered: Option<Arc<LayeredKernel>>,
+    /// The aquifer points read by default (layered ground), and whose level `aquifer` is.
+    default_aquifer: usize,
 }
 
 impl Field {
@@ -129,7 +135,47 @@ impl Field {
             well_count: wells.len(),
             real,
             near: None,
+            layered: None,
+            default_aquifer: 0,
         }
+    }
+
+    /// The same field in layered ground: the kernel of every well from `kernel` (built for the
+    /// field's wells), points read by default the aquifer holding level `z_eval` (m). No
+    /// partial-penetration term is added (split an aquifer into sublayers instead).
+    pub fn with_layers(mut self, kernel: LayeredKernel, z_eval: f64) -> Field {
+        self.near = None;
+        self.default_aquifer = kernel.aquifer_at(z_eval);
+        self.aquifer = kernel.aquifer(self.default_aquifer).clone();
+        self.cutoff = kernel.reach();
+        self.layered = Some(Arc::new(kernel));
+        self
+    }
+
+    /// The multi-aquifer kernel, in layered ground.
+    pub fn layered(&self) -> Option<&LayeredKernel> {
+        self.layered.as_deref()
+    }
+
+    /// The aquifer points read by default (0 without layers).
+    pub fn default_aquifer(&self) -> usize {
+        self.default_aquifer
+    }
+
+    /// The level in each aquifer at `point` for `rates` (m³/s), top down: one value without
+    /// layers. For settlement of a compressible layer from the heads above and below it.
+    pub fn levels_in_each_aquifer(&self, point: [f64; 2], rates: &[f64]) -> Vec<Level> {
+        let Some(k) = &self.layered else {
+            return vec![self.level(point, rates)];
+        };
+        (0..k.aquifer_count())
+            .map(|at| {
+                let mut d = 0.0;
+                self.for_each_source(point, at, |w, v| d += rates[w] * v);
+                let a = k.aquifer(at);
+                a.level(a.initial_potential() + d)
+            })
+            .collect()
     }
 
     /// The same field with partial penetration of every well whose screen does not span the
@@ -223,8 +269,25 @@ impl Field {
     }
 
     /// As [`Field::for_each_in_range`], the Thiem / Hantush part only (no near-field term).
-    fn for_each_thiem(&self, point: [f64; 2], mut f: impl FnMut(usize, f64)) {
+    fn for_each_thiem(&self, point: [f64; 2], f: impl FnMut(usize, f64)) {
+        self.for_each_source(point, self.default_aquifer, f);
+    }
+
+    /// Add `f(well, ΔΦ per unit rate)` in aquifer `at` (layered ground; ignored otherwise)
+    /// for every source in range of `point`.
+    fn for_each_source(&self, point: [f64; 2], at: usize, mut f: impl FnMut(usize, f64)) {
         let p = self.local(point);
+        if let Some(k) = &self.layered {
+            for item in self
+                .tree
+                .locate_within_distance(p, self.cutoff * self.cutoff)
+            {
+                let s = &self.sources[item.data];
+                let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
+                f(s.well, s.sign * k.unit_potential(s.well, at, r, s.radius));
+            }
+            return;
+        }
         for item in self
             .tree
             .locate_within_distance(p, self.cutoff * self.cutoff)
@@ -245,14 +308,25 @@ impl Field {
     /// The partial-penetration tables at elevation `z` (m), for [`Field::unit_row_at`] and
     /// [`Field::levels_at`] (`None` without partial penetration).
     pub fn elevation(&self, z: f64) -> Option<PointTables> {
+        if let Some(k) = &self.layered {
+            return Some(PointTables::in_aquifer(k.aquifer_at(z)));
+        }
         self.near.as_ref().map(|n| n.tables_at(z))
+    }
+
+    /// The aquifer points with `tables` read, and its aquifer (for potential ↔ level).
+    fn reading(&self, tables: Option<&PointTables>) -> (usize, &Aquifer) {
+        match (&self.layered, tables.and_then(PointTables::aquifer)) {
+            (Some(k), Some(i)) => (i, k.aquifer(i)),
+            _ => (self.default_aquifer, &self.aquifer),
+        }
     }
 
     /// As [`Field::unit_row`], with partial penetration at the elevation of `tables`
     /// ([`Field::elevation`]; `None`: the field's default elevation).
     pub fn unit_row_at(&self, point: [f64; 2], tables: Option<&PointTables>) -> Vec<f64> {
         let mut row = vec![0.0; self.well_count];
-        self.for_each_thiem(point, |w, v| row[w] += v);
+        self.for_each_source(point, self.reading(tables).0, |w, v| row[w] += v);
         if let Some(n) = &self.near {
             n.for_each_at(self.local(point), tables, |w, v| row[w] += v);
         }
@@ -265,7 +339,11 @@ impl Field {
         let mut row = vec![0.0; self.well_count];
         for s in &self.sources {
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
-            row[s.well] += s.sign * self.unit_potential(r, s.radius);
+            row[s.well] += s.sign
+                * match &self.layered {
+                    Some(k) => k.unit_potential(s.well, self.default_aquifer, r, s.radius),
+                    None => self.unit_potential(r, s.radius),
+                };
         }
         if let Some(n) = &self.near {
             n.for_each(p, |w, v| row[w] += v);
@@ -305,16 +383,17 @@ impl Field {
         rates: &[f64],
         tables: Option<&PointTables>,
     ) -> Vec<Level> {
-        if self.aquifer.leakage_factor().is_some() {
+        if self.aquifer.leakage_factor().is_some() || self.layered.is_some() {
+            let (at, aquifer) = self.reading(tables);
             return points
                 .par_iter()
                 .map(|p| {
                     let mut d = 0.0;
-                    self.for_each_thiem(*p, |w, v| d += rates[w] * v);
+                    self.for_each_source(*p, at, |w, v| d += rates[w] * v);
                     if let Some(n) = &self.near {
                         n.for_each_at(self.local(*p), tables, |w, v| d += rates[w] * v);
                     }
-                    self.aquifer.level(self.aquifer.initial_potential() + d)
+                    aquifer.level(aquifer.initial_potential() + d)
                 })
                 .collect();
         }

@@ -11,6 +11,7 @@ pub mod checkpoints;
 pub mod fast_log;
 pub mod grid;
 pub mod influence;
+pub mod layered;
 pub mod layout;
 pub mod near_field;
 pub mod radius;

@@ -158,9 +158,22 @@ struct PartialSource {
 }
 
 /// Δ tables for check points at one elevation, one per screen class
-/// ([`NearField::tables_at`]).
+/// ([`NearField::tables_at`]); in layered ground, the aquifer the elevation reads instead
+/// ([`PointTables::in_aquifer`]).
 #[derive(Debug, Clone)]
-pub struct PointTables(Vec<Arc<Table>>);
+pub struct PointTables(Vec<Arc<Table>>, Option<usize>);
+
+impl PointTables {
+    /// No partial-penetration tables: points read the head of aquifer `i` of layered ground.
+    pub fn in_aquifer(i: usize) -> PointTables {
+        PointTables(Vec::new(), Some(i))
+    }
+
+    /// The aquifer of layered ground these points read, if any.
+    pub fn aquifer(&self) -> Option<usize> {
+        self.1
+    }
+}
 
 /// A screen class: the wells built alike, with their tables.
 #[derive(Debug)]
@@ -324,6 +337,7 @@ impl NearField {
                 .iter()
                 .map(|c| table(&c.screen, z_rel, c.r_lo))
                 .collect(),
+            None,
         )
     }
 

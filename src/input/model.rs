@@ -36,8 +36,10 @@ pub struct Model {
     pub ground_level: f64,
     /// Grid name (free text) or "local".
     pub grid: String,
-    /// The aquifer.
+    /// The aquifer (in layered ground: the one holding the first excavation's target).
     pub aquifer: Aquifer,
+    /// The ground below `aquifer`, when `[[layer]]` entries are given.
+    pub layers: Option<crate::input::model_layers::LayeredGround>,
     /// Excavations, at least one.
     pub excavations: Vec<Excavation>,
     /// Radius-of-influence method.

@@ -18,6 +18,9 @@ pub struct DesignFile {
     /// One or more excavation outlines.
     #[serde(default)]
     pub excavation: Vec<Excavation>,
+    /// The ground below `[aquifer]`, from the top down (layered ground).
+    #[serde(default)]
+    pub layer: Vec<Layer>,
     /// Radius-of-influence method.
     pub influence: Influence,
     /// Flow contingency and other design allowances.
@@ -144,6 +147,33 @@ pub struct Aquifer {
     /// Vertical anisotropy K_v/K_h (default 1), for partial penetration.
     #[serde(default)]
     pub anisotropy: Option<f64>,
+}
+
+/// `[[layer]]`: one layer below `[aquifer]` (or below the layer before), from the top down.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Layer {
+    /// Name for messages and reports.
+    pub name: String,
+    /// "aquifer" or "aquitard".
+    pub kind: String,
+    /// Level of the layer's base (its top is the base of the layer above).
+    pub base_level: Length,
+    /// Horizontal hydraulic conductivity K_h (aquifer).
+    #[serde(default)]
+    pub conductivity: Option<Conductivity>,
+    /// Vertical hydraulic conductivity K_v (aquitard; or aquifer, instead of anisotropy).
+    #[serde(default)]
+    pub vertical_conductivity: Option<Conductivity>,
+    /// K_v/K_h of an aquifer (default 1).
+    #[serde(default)]
+    pub anisotropy: Option<f64>,
+    /// Hydraulic resistance c = thickness/K_v of an aquitard, a time.
+    #[serde(default)]
+    pub resistance: Option<Duration>,
+    /// Storativity S of an aquifer (kept for time-dependent work), dimensionless.
+    #[serde(default)]
+    pub storativity: Option<f64>,
 }
 
 /// `[[excavation]]`

@@ -121,8 +121,14 @@ impl WellLimit {
             floor = well.screen_base;
             kind = FloorKind::ScreenBase;
         }
-        if aq.base_level + DRY_GUARD > floor {
-            floor = aq.base_level + DRY_GUARD;
+        // in layered ground, the base of the aquifer the screen reaches lowest into
+        let base = model.layers.as_ref().map_or(aq.base_level, |g| {
+            g.aquifers[g.aquifer_at(well.screen_base + DRY_GUARD)]
+                .aquifer
+                .base_level
+        });
+        if base + DRY_GUARD > floor {
+            floor = base + DRY_GUARD;
             kind = FloorKind::AquiferBase;
         }
         let mut limit = WellLimit {

@@ -24,15 +24,17 @@ pub(super) fn impossible_before_search(
     let spec = &model.wells;
     let targets: Vec<&CheckPoint> = points.iter().filter(|p| p.target_level.is_some()).collect();
     // 1. Target at or below the aquifer base (validation refuses it; kept as a guard).
-    if let Some(p) = targets.iter().find(|p| {
-        p.target_level
-            .is_some_and(|t| t <= aq.base_level + DRY_GUARD)
-    }) {
+    // (in layered ground, the base of the aquifer the point reads)
+    let base_of = |p: &CheckPoint| crate::check::field_build::aquifer_of_point(model, p).base_level;
+    if let Some(p) = targets
+        .iter()
+        .find(|p| p.target_level.is_some_and(|t| t <= base_of(p) + DRY_GUARD))
+    {
         return Some(format!(
             "the target at \"{}\" ({:.2} m) is at or below the aquifer base ({:.2} m): the aquifer would have to be pumped dry there",
             p.name,
             p.target_level.unwrap_or(f64::NAN),
-            aq.base_level
+            base_of(p)
         ));
     }
     // 2. Target below what the wells may be drawn to. Between pumping wells the water stands

@@ -5,6 +5,7 @@ pub mod equivalent;
 pub mod hantush;
 pub mod image_flow;
 pub mod images;
+pub mod multi_aquifer;
 pub mod partial_penetration;
 pub mod pipes;
 pub mod potential;

@@ -186,6 +186,13 @@ pub fn setup_from(model: &Model, wells_csv: Option<&Path>) -> Result<ProgrammeSe
             "the design file has no [programme]: add duration and [[programme.stage]] entries (see `drydig new FILE`)".into(),
         )
     })?;
+    if model.layers.is_some() {
+        return Err(err(
+            model,
+            "layer",
+            "the programme in time does not take layered ground yet ([[layer]] entries): `check` and `design` do; for the programme, describe the aquifer the wells pump as a single [aquifer] in a copy of the file".into(),
+        ));
+    }
     let wells = layout::from_model(model, wells_csv)?.wells;
     let field = if wells_csv.is_some() {
         "--wells"

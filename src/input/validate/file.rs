@@ -161,8 +161,18 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     let ground = raw.site.ground_level.si;
 
     let aquifer = crate::input::validate::aquifer::aquifer(rep, &raw, ground)?;
-    let base = aquifer.base_level;
+    let layers = crate::input::validate::layers::layers(rep, &raw, &aquifer)?;
+    // with layers, excavations and screens may reach down to the lowest aquifer's base
+    let base = layers
+        .as_ref()
+        .map_or(aquifer.base_level, |l| l.lowest_base());
     let excavations = shapes::excavations(rep, &raw, ground, base)?;
+    // in layered ground the design works in the aquifer holding the first excavation's target
+    // (the gravel under a shaft, the sand round a basement); the others are in `layers`
+    let aquifer = match (&layers, excavations.first()) {
+        (Some(g), Some(e)) => g.aquifers[g.aquifer_at(e.target_level())].aquifer.clone(),
+        _ => aquifer,
+    };
     let influence = crate::input::validate::aquifer::influence(rep, &raw, &aquifer)?;
     // Allowances.
     let allow = raw.allowances.as_ref();
@@ -189,7 +199,11 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     }
 
     // Wells.
-    let wells = wells::well_spec(rep, raw.wells.as_ref(), &aquifer, ground)?;
+    let screened_ground = crate::physics::potential::Aquifer {
+        base_level: base,
+        ..aquifer.clone()
+    };
+    let wells = wells::well_spec(rep, raw.wells.as_ref(), &screened_ground, ground)?;
     let as_built = crate::input::validate::as_built::as_built(
         rep,
         &raw.aquifer,
@@ -290,6 +304,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         ground_level: ground,
         grid: raw.site.grid.clone().unwrap_or_else(|| "local".into()),
         aquifer,
+        layers,
         excavations,
         influence,
         contingency: contingency_value,

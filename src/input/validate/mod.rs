@@ -19,6 +19,7 @@ pub mod as_built;
 pub mod derived;
 pub mod design_settings;
 pub mod file;
+pub mod layers;
 pub mod neighbours;
 pub mod output;
 pub mod programme;
