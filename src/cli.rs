@@ -331,20 +331,28 @@ pub struct LayoutProgress {
 /// Starts the display of a design's layouts (hidden when piped or `-q`).
 pub fn progress_layouts(chatter: Chatter, units: UnitSystem) -> LayoutProgress {
     let bar = indicatif::ProgressBar::with_draw_target(None, progress_target(chatter));
-    if let Ok(style) = indicatif::ProgressStyle::with_template(
-        "{spinner} layout {pos}: {msg}  ({elapsed}, {per_sec})",
-    ) {
+    if let Ok(style) =
+        indicatif::ProgressStyle::with_template("{spinner} layout {pos}: {msg}  ({elapsed} so far)")
+    {
         bar.set_style(style);
     }
     bar.enable_steady_tick(std::time::Duration::from_millis(200));
     let shown = bar.clone();
     let f = crate::report::format::Fmt::new(units, 0.0);
+    let start = std::time::Instant::now();
     crate::work_counts::set_progress(Some(Box::new(move |count, spacing| {
+        let each = match shown.position() {
+            0 => String::new(),
+            done => format!(
+                ", about {:.1} s a layout",
+                start.elapsed().as_secs_f64() / done as f64
+            ),
+        };
         shown.inc(1);
         shown.set_message(if spacing > 0.0 {
-            format!("trying {count} wells, {} apart", f.length(spacing))
+            format!("trying {count} wells, {} apart{each}", f.length(spacing))
         } else {
-            format!("trying {count} wells")
+            format!("trying {count} wells{each}")
         });
     })));
     LayoutProgress { bar }
