@@ -60,6 +60,10 @@ spacing = "4.0 m"
 sides = "both"
 rate = "0.1 L/s"
 
+# a valve on each wellpoint: the rates of issue 20 (grouped only to keep the programme small)
+[pumps]
+rates = "per-well"
+
 [checks]
 grid_spacing = "2 m"
 "#

@@ -653,3 +653,81 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
         },
     })
 }
+
+/// Whether `p` lies in a keep-out zone (the design file's keep-outs, the neighbours'
+/// footprints, the excavations).
+pub fn in_keep_out(model: &Model, p: [f64; 2]) -> bool {
+    let zones = keep_out_zones(model);
+    let polys: Vec<&Polygon<f64>> = zones.iter().map(|z| z.1).collect();
+    blocked(p, &polys)
+}
+
+/// Candidate positions every `step` m along the ring at `offset` outside the excavation,
+/// those in a keep-out zone left out, with the closed ring they stand on.
+pub fn ring_candidates(
+    model: &Model,
+    excavation: &Excavation,
+    offset: f64,
+    step: f64,
+) -> (Vec<[f64; 2]>, Vec<[f64; 2]>) {
+    let pts = offset_ring(&excavation.outline, offset);
+    let path = Path2::new(pts.clone(), true);
+    let n = ((path.length() / step.max(1e-3)).ceil() as usize).clamp(3, MAX_WELLS);
+    let each = path.length() / n as f64;
+    let cands = (0..n)
+        .map(|i| path.at(i as f64 * each))
+        .filter(|p| !in_keep_out(model, *p))
+        .collect();
+    let mut closed = pts.clone();
+    closed.push(pts[0]);
+    (cands, closed)
+}
+
+/// The free position on the closed `ring` nearest to `p`: the foot of `p` on the ring, moved
+/// along it (both ways, in steps of [`KEEP_OUT_STEP`]) until it is out of every keep-out zone
+/// and at least `min_spacing` m from every point of `taken`. `None` when the ring has no such
+/// place.
+pub fn free_on_ring(
+    model: &Model,
+    ring: &[[f64; 2]],
+    p: [f64; 2],
+    taken: &[[f64; 2]],
+    min_spacing: f64,
+) -> Option<[f64; 2]> {
+    let path = Path2::new(ring.to_vec(), true);
+    let total = path.length();
+    if total <= 0.0 {
+        return None;
+    }
+    // Arc length of the foot of p on the ring.
+    let mut best = (f64::INFINITY, 0.0);
+    for (i, w) in path.points.windows(2).enumerate() {
+        let (a, b) = (w[0], w[1]);
+        let (dx, dy) = (b[0] - a[0], b[1] - a[1]);
+        let len2 = dx * dx + dy * dy;
+        let t = if len2 > 0.0 {
+            (((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2).clamp(0.0, 1.0)
+        } else {
+            0.0
+        };
+        let f = [a[0] + t * dx, a[1] + t * dy];
+        let d = (f[0] - p[0]).hypot(f[1] - p[1]);
+        if d < best.0 {
+            best = (d, path.cumulative[i] + t * len2.sqrt());
+        }
+    }
+    let zones = keep_out_zones(model);
+    let polys: Vec<&Polygon<f64>> = zones.iter().map(|z| z.1).collect();
+    let free = |q: [f64; 2]| {
+        !blocked(q, &polys)
+            && taken
+                .iter()
+                .all(|t| (t[0] - q[0]).hypot(t[1] - q[1]) >= min_spacing - 1e-9)
+    };
+    let step = KEEP_OUT_STEP.max(total / MAX_MOVE_STEPS as f64);
+    let steps = ((0.5 * total / step).ceil() as usize).min(MAX_MOVE_STEPS);
+    (0..=steps)
+        .flat_map(|i| [1.0, -1.0].map(|sign| (best.1 + sign * i as f64 * step).rem_euclid(total)))
+        .map(|s| path.at(s))
+        .find(|q| free(*q))
+}

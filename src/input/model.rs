@@ -149,6 +149,9 @@ pub struct PumpSettings {
     pub one_rate_per_class: bool,
     /// Header length served by one wellpoint pump set, m.
     pub wellpoint_set_length: f64,
+    /// Wellpoints on one pump set share one rate (`pumps.rates = "per-set"`, the default): a
+    /// header runs its wellpoints at one vacuum. `false`: a valve on each wellpoint.
+    pub rates_per_set: bool,
 }
 
 /// What an excavation's groundwater control must achieve.
@@ -309,6 +312,22 @@ pub struct LayoutSpec {
     /// Ring (without corner wells): distance along the ring of the first well from the ring's
     /// first vertex; line: distance of the first and last wellpoint inside each end, m.
     pub start: f64,
+    /// Ring: where `drydig design` may put wells. `None` (`placement = "even"`): evenly spaced
+    /// rings only; else the fewest wells on candidate positions (the default).
+    pub free: Option<FreePlacementSpec>,
+}
+
+/// Candidate positions for the fewest-wells placement (`placement = "fewest"`).
+#[derive(Debug, Clone, PartialEq)]
+pub struct FreePlacementSpec {
+    /// Step between candidates along each ring, m (`layout.candidate_step`; `None`: the
+    /// minimum spacing between wells).
+    pub step: Option<f64>,
+    /// Offsets of further candidate rings outside the outline, m (`layout.candidate_offsets`;
+    /// the layout's own offset is always one).
+    pub offsets: Vec<f64>,
+    /// Positions the user offers, m (`layout.candidates`).
+    pub points: Vec<[f64; 2]>,
 }
 
 /// The layout kinds.

@@ -95,6 +95,10 @@ pub struct Pumps {
     /// Header length one wellpoint pump set serves.
     #[serde(default)]
     pub wellpoint_set_length: Option<Length>,
+    /// Wellpoints: "per-set" (default: the wellpoints of one pump set share its rate) or
+    /// "per-well" (a valve on each wellpoint).
+    #[serde(default)]
+    pub rates: Option<String>,
 }
 
 /// `[site]`
@@ -364,6 +368,19 @@ pub struct Layout {
     /// inside each end of the line.
     #[serde(default)]
     pub start: Option<Length>,
+    /// Ring, `drydig design`: "fewest" (default: the fewest wells on candidate positions) or
+    /// "even" (evenly spaced rings only).
+    #[serde(default)]
+    pub placement: Option<String>,
+    /// Ring, placement "fewest": step between candidate positions along the ring.
+    #[serde(default)]
+    pub candidate_step: Option<Length>,
+    /// Ring, placement "fewest": offsets of further candidate rings outside the outline.
+    #[serde(default)]
+    pub candidate_offsets: Option<Vec<Length>>,
+    /// Ring, placement "fewest": further candidate positions `[[x, y], …]`.
+    #[serde(default)]
+    pub candidates: Option<toml::Spanned<Vec<Vec<f64>>>>,
 }
 
 /// `[[well]]`

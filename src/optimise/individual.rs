@@ -121,6 +121,7 @@ impl LayoutRates<'_> {
                 self.groups.len() / 2,
             );
             coarser.solver = self.solver;
+            coarser.well_cost.clone_from(&self.well_cost);
             // the rows refer to this layout's rate groups: the coarser one starts afresh
             carried.0.clear();
             return coarser.individual_with(extra);
@@ -250,7 +251,14 @@ impl LayoutRates<'_> {
         let n = self.wells.len();
         let limits_on = goal != Goal::TargetsOnly;
         let aq_initial = self.model.aquifer.initial_level;
-        let mut costs: Vec<f64> = self.groups.iter().map(|m| m.len() as f64).collect();
+        let mut costs: Vec<f64> = self
+            .groups
+            .iter()
+            .map(|m| match &self.well_cost {
+                Some(c) => m.iter().map(|&k| c.get(k).copied().unwrap_or(1.0)).sum(),
+                None => m.len() as f64,
+            })
+            .collect();
         let mut bounds: Vec<(f64, f64)> = self
             .groups
             .iter()

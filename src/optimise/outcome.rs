@@ -68,6 +68,25 @@ pub struct Design {
     pub estimate: ExcavationEstimate,
     /// Idle wells dropped, one well out, standby wells placed (met designs).
     pub finish: Finish,
+    /// The fewest-wells placement on candidate positions, when it ran.
+    pub free: Option<FreeSummary>,
+}
+
+/// What the fewest-wells placement found, beside the evenly spaced rings.
+#[derive(Debug, Clone, serde::Serialize)]
+pub struct FreeSummary {
+    /// Working wells it found (`None`: it found no layout meeting every rule).
+    pub count: Option<usize>,
+    /// No placement on the candidates has fewer wells (⌈LP relaxation⌉).
+    pub lower_bound: Option<usize>,
+    /// The LP relaxation's value Σ qⱼ / Cⱼ.
+    pub relaxation: Option<f64>,
+    /// Working wells of the best evenly spaced ring (`None`: none met).
+    pub even_count: Option<usize>,
+    /// Candidate positions.
+    pub candidates: usize,
+    /// The design uses the free placement.
+    pub used: bool,
 }
 
 /// The layout evaluated for the outputs (chosen or best), as `check` evaluates it.

@@ -96,6 +96,9 @@ pub struct LayoutRates<'a> {
     /// The solver of the linear programmes (the simplex, then the interior point when the
     /// simplex fails numerically, unless set otherwise for a comparison).
     pub solver: crate::optimise::lp::Solver,
+    /// Cost per unit rate of each well in the least-cost programme (`None`: 1 for every well,
+    /// the least total flow). The fewest-wells placement weighs each rate by 1 / capacity.
+    pub well_cost: Option<Vec<f64>>,
 }
 
 /// Unit rows per well: ΔΦ per unit rate of each well.
@@ -130,24 +133,7 @@ fn rate_groups(wells: &[Well], free: &[usize], max: usize) -> Vec<Vec<usize>> {
     if n <= max {
         return free.iter().map(|&k| vec![k]).collect();
     }
-    let dist = |a: usize, b: usize| {
-        let (a, b) = (wells[a].position, wells[b].position);
-        (b[0] - a[0]).hypot(b[1] - a[1])
-    };
-    let step = |i: usize| dist(free[i], free[i + 1]);
-    let mut steps: Vec<f64> = (0..n - 1).map(step).collect();
-    steps.sort_by(f64::total_cmp);
-    let median = steps.get(steps.len() / 2).copied().unwrap_or(0.0);
-    let mut runs: Vec<Vec<usize>> = vec![vec![free[0]]];
-    for (i, &k) in free.iter().enumerate().skip(1) {
-        if step(i - 1) > 3.0 * median {
-            runs.push(Vec::new());
-        }
-        if let Some(r) = runs.last_mut() {
-            r.push(k);
-        }
-    }
-    let closed = runs.len() == 1 && dist(free[0], free[n - 1]) <= 3.0 * median;
+    let (runs, closed) = runs_of(wells, free);
     if closed {
         let size = n.div_ceil(max.max(1)).max(1);
         return runs
@@ -170,6 +156,62 @@ fn rate_groups(wells: &[Well], free: &[usize], max: usize) -> Vec<Vec<usize>> {
                 .collect::<Vec<_>>()
         })
         .collect()
+}
+
+/// Wellpoints by pump set: each run of consecutive wellpoints (as in [`rate_groups`]) cut
+/// into sets of `set_length` m of header, measured along the run; the wellpoints of a set
+/// share one rate (one header, one vacuum: common practice (no source)).
+fn set_groups(wells: &[Well], free: &[usize], set_length: f64) -> Vec<Vec<usize>> {
+    if free.len() < 2 {
+        return free.iter().map(|&k| vec![k]).collect();
+    }
+    let (runs, _) = runs_of(wells, free);
+    let mut groups = Vec::new();
+    for run in runs {
+        let mut along = 0.0;
+        let mut group: Vec<usize> = Vec::new();
+        for (i, &k) in run.iter().enumerate() {
+            if i > 0 {
+                let (a, b) = (wells[run[i - 1]].position, wells[k].position);
+                along += (b[0] - a[0]).hypot(b[1] - a[1]);
+            }
+            if along >= set_length && !group.is_empty() {
+                groups.push(std::mem::take(&mut group));
+                along = 0.0;
+            }
+            group.push(k);
+        }
+        if !group.is_empty() {
+            groups.push(group);
+        }
+    }
+    groups
+}
+
+/// Runs of consecutive wells (indices `free` into `wells`), cut at a step more than three times
+/// the median step; and whether the one run is closed (its last well as near its first as
+/// neighbours are).
+fn runs_of(wells: &[Well], free: &[usize]) -> (Vec<Vec<usize>>, bool) {
+    let n = free.len();
+    let dist = |a: usize, b: usize| {
+        let (a, b) = (wells[a].position, wells[b].position);
+        (b[0] - a[0]).hypot(b[1] - a[1])
+    };
+    let step = |i: usize| dist(free[i], free[i + 1]);
+    let mut steps: Vec<f64> = (0..n - 1).map(step).collect();
+    steps.sort_by(f64::total_cmp);
+    let median = steps.get(steps.len() / 2).copied().unwrap_or(0.0);
+    let mut runs: Vec<Vec<usize>> = vec![vec![free[0]]];
+    for (i, &k) in free.iter().enumerate().skip(1) {
+        if step(i - 1) > 3.0 * median {
+            runs.push(Vec::new());
+        }
+        if let Some(r) = runs.last_mut() {
+            r.push(k);
+        }
+    }
+    let closed = runs.len() == 1 && dist(free[0], free[n - 1]) <= 3.0 * median;
+    (runs, closed)
 }
 
 /// Cut `len` consecutive wells into at most `groups` ranges whose sizes grow geometrically from
@@ -246,7 +288,18 @@ impl<'a> LayoutRates<'a> {
             .collect();
         // A negative rate marks a recharge well: it keeps its rate; every other rate is found.
         let free: Vec<usize> = (0..wells.len()).filter(|&k| wells[k].rate >= 0.0).collect();
-        let groups = rate_groups(&wells, &free, max_groups);
+        let groups = if model.wells.kind == crate::input::model::WellKind::Wellpoint
+            && model.design.pumps.rates_per_set
+        {
+            let sets = set_groups(&wells, &free, model.design.pumps.wellpoint_set_length);
+            if sets.len() <= max_groups {
+                sets
+            } else {
+                rate_groups(&wells, &free, max_groups)
+            }
+        } else {
+            rate_groups(&wells, &free, max_groups)
+        };
         let mut group_of = vec![None; wells.len()];
         for (g, members) in groups.iter().enumerate() {
             for &k in members {
@@ -335,6 +388,7 @@ impl<'a> LayoutRates<'a> {
             base_t,
             base_w,
             solver: crate::optimise::lp::Solver::SimplexThenInteriorPoint,
+            well_cost: None,
         }
     }
 

@@ -10,17 +10,17 @@
 //! are data ([`crate::optimise::outcome`]): met, not met (best layout, worst point, shortfall) or
 //! impossible (and why).
 
-use crate::check::evaluate::Evaluation;
 use crate::estimate;
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::field::layout;
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
-use crate::optimise::outcome::{Design, Outcome};
+use crate::optimise::choice::{choose, Found};
+use crate::optimise::outcome::{Design, FreeSummary, Outcome};
+use crate::optimise::placement::{self, NoFree};
 use crate::optimise::precheck::impossible_before_search;
-use crate::optimise::rates::{LayoutRates, RateOption, MAX_LP_VARIABLES};
+use crate::optimise::rates::{LayoutRates, RateOption};
 use crate::optimise::search_range::{cap_note, seed_index};
-use crate::optimise::standby::{finish, is_standby};
 use crate::optimise::trial::{
     closed_length, line_length, solve_individual, try_layout, try_placement, Trial, TrialRun,
 };
@@ -343,32 +343,8 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
             message: "the layout's excavation does not exist".into(),
         })?;
     let fam = family(model, &spec);
-    let mut notes: Vec<String> = cap_note(model, &spec, MAX_WELLS).into_iter().collect();
-    let (search, probe) = match &fam {
-        Family::Ring { min, max } => (
-            format!(
-                "ring at {:.1} m outside \"{}\": {min} … {max} wells (spacing {:.1} … {:.1} m{})",
-                spec.offset,
-                model.excavations[spec.excavation].name,
-                model.as_built.min_spacing,
-                model.as_built.max_spacing,
-                spacing_basis(model)
-            ),
-            spec_for(&spec, &fam, *min),
-        ),
-        Family::Line { min, max, length } => (
-            format!(
-                "trench line {length:.0} m long, {} side{}: {min} … {max} wellpoints per side (spacing {:.2} … {:.2} m{})",
-                if matches!(spec.kind, LayoutKind::Line { both_sides: true, .. }) { "both" } else { "one" },
-                if matches!(spec.kind, LayoutKind::Line { both_sides: true, .. }) { "s" } else { "" },
-                length / (*min - 1) as f64,
-                length / (*max - 1).max(1) as f64,
-                spacing_basis(model)
-            ),
-            spec_for(&spec, &fam, *min),
-        ),
-        Family::Fixed => ("the given wells: rates only".to_string(), spec.clone()),
-    };
+    let notes: Vec<String> = cap_note(model, &spec, MAX_WELLS).into_iter().collect();
+    let (search, probe) = search_words(model, &spec, &fam);
     let probe_placement = layout::generate(model, &probe, 0.0)?;
     let named: Vec<(&str, [f64; 2], f64)> = probe_placement
         .wells
@@ -401,10 +377,11 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         smallest_uniform: None,
         smallest_individual: None,
         binding: Vec::new(),
-        search: search.clone(),
-        notes: notes.clone(),
-        estimate: est.clone(),
+        search,
+        notes,
+        estimate: est,
         finish: Default::default(),
+        free: None,
     };
     if let Some(reason) =
         impossible_before_search(model, &points, &probe_placement.paths, &fixed_points)
@@ -414,18 +391,84 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
             ..empty
         });
     }
+    let mut found = search_counts(model, &points, &spec, &fam, probe_placement, &empty)?;
+    let mut notes = empty.notes.clone();
+    let free = if asked == RateOption::Individual && matches!(fam, Family::Ring { .. }) {
+        spec.free
+            .as_ref()
+            .map(|f| free_placement(model, &points, &spec, f, &mut found, &mut notes))
+    } else {
+        None
+    };
+    notes.append(&mut found.notes);
+    let empty = Design {
+        notes,
+        free,
+        ..empty
+    };
+    choose(model, &points, asked, found, empty)
+}
 
+/// The search line of the design and the layout probed before it (the smallest index).
+fn search_words(model: &Model, spec: &LayoutSpec, fam: &Family) -> (String, LayoutSpec) {
+    match fam {
+        Family::Ring { min, max } => (
+            format!(
+                "ring at {:.1} m outside \"{}\": {min} … {max} wells (spacing {:.1} … {:.1} m{})",
+                spec.offset,
+                model.excavations[spec.excavation].name,
+                model.as_built.min_spacing,
+                model.as_built.max_spacing,
+                spacing_basis(model)
+            ),
+            spec_for(spec, fam, *min),
+        ),
+        Family::Line { min, max, length } => {
+            let both = matches!(
+                spec.kind,
+                LayoutKind::Line {
+                    both_sides: true,
+                    ..
+                }
+            );
+            (
+                format!(
+                    "trench line {length:.0} m long, {} side{}: {min} … {max} wellpoints per side (spacing {:.2} … {:.2} m{})",
+                    if both { "both" } else { "one" },
+                    if both { "s" } else { "" },
+                    length / (*min - 1) as f64,
+                    length / (*max - 1).max(1) as f64,
+                    spacing_basis(model)
+                ),
+                spec_for(spec, fam, *min),
+            )
+        }
+        Family::Fixed => ("the given wells: rates only".to_string(), spec.clone()),
+    }
+}
+
+/// The count search of the design file's family (rates only for a given layout), with other
+/// placements tried below the count found.
+fn search_counts(
+    model: &Model,
+    points: &[CheckPoint],
+    spec: &LayoutSpec,
+    fam: &Family,
+    probe_placement: layout::Placement,
+    empty: &Design,
+) -> Result<Found, InputError> {
     let mut search_state = Search {
         model,
-        points: &points,
-        spec: &spec,
-        fam: &fam,
+        points,
+        spec,
+        fam,
         cache: BTreeMap::new(),
     };
-    let (smallest_individual, smallest_uniform) = if matches!(fam, Family::Fixed) {
+    let mut notes = Vec::new();
+    if matches!(fam, Family::Fixed) {
         let t = try_placement(
             model,
-            &points,
+            points,
             spec.clone(),
             probe_placement,
             None,
@@ -434,41 +477,32 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
         );
         let (i, u) = (t.trial.individual_met, t.trial.uniform_met);
         search_state.cache.insert(0, t);
-        (i.then_some(0), u.then_some(0))
-    } else {
-        let seed = seed_index(&spec, est.rough_well_count);
-        let i = search_state.smallest(|t| t.individual_met, true, seed)?;
-        let u = search_state.smallest(|t| t.uniform_met, false, seed)?;
-        (i, u)
-    };
+        let trials = search_state
+            .cache
+            .values()
+            .map(|t| t.trial.clone())
+            .collect();
+        return Ok(Found {
+            cache: search_state.cache,
+            trials,
+            smallest_individual: i.then_some(0),
+            smallest_uniform: u.then_some(0),
+            run_i: None,
+            run_u: None,
+            notes,
+        });
+    }
+    let seed = seed_index(spec, empty.estimate.rough_well_count);
+    let i = search_state.smallest(|t| t.individual_met, true, seed)?;
+    let u = search_state.smallest(|t| t.uniform_met, false, seed)?;
     // The real fewest: below the count found with the design file's placement, other start
     // positions (and the other corner option) of the same count.
     let mut others: Vec<TrialRun> = Vec::new();
-    let mut tried_words = Vec::new();
-    let (smallest_individual, smallest_uniform, run_i, run_u) = if matches!(fam, Family::Fixed) {
-        (smallest_individual, smallest_uniform, None, None)
-    } else {
-        let (i, wi, ri) = search_state.fewer_by_variants(
-            smallest_individual,
-            |t| t.individual_met,
-            true,
-            &mut others,
-        )?;
-        let (u, wu, ru) = search_state.fewer_by_variants(
-            smallest_uniform,
-            |t| t.uniform_met,
-            false,
-            &mut others,
-        )?;
-        tried_words.extend(wi);
-        tried_words.extend(wu);
-        (i, u, ri, ru)
-    };
-    // The runs at the smallest indices: a placement found below, else the cached run.
-    let mut trial_extra: Vec<Trial> = Vec::new();
-    for r in [&run_i, &run_u].into_iter().flatten() {
-        trial_extra.push(r.trial.clone());
-    }
+    let (i, mut tried_words, run_i) =
+        search_state.fewer_by_variants(i, |t| t.individual_met, true, &mut others)?;
+    let (u, wu, run_u) =
+        search_state.fewer_by_variants(u, |t| t.uniform_met, false, &mut others)?;
+    tried_words.extend(wu);
     if !tried_words.is_empty() {
         let mut seen = std::collections::HashSet::new();
         tried_words.retain(|w| seen.insert(w.clone()));
@@ -480,274 +514,108 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
     let cache = search_state.cache;
     let mut trials: Vec<Trial> = cache.values().map(|t| t.trial.clone()).collect();
     trials.extend(others.iter().map(|t| t.trial.clone()));
-    trials.extend(trial_extra);
-    trials.sort_by(|a, b| a.count.cmp(&b.count).then(a.variant.cmp(&b.variant)));
-    crate::optimise::trial::one_row_per_placement(&mut trials);
-    let count_of = |n: Option<usize>| n.and_then(|n| cache.get(&n)).map(|t| t.trial.count);
-
-    let pick = match asked {
-        RateOption::Individual => smallest_individual
-            .map(|n| (n, RateOption::Individual))
-            .or(smallest_uniform.map(|n| (n, RateOption::Uniform))),
-        RateOption::Uniform => smallest_uniform
-            .map(|n| (n, RateOption::Uniform))
-            .or(smallest_individual.map(|n| (n, RateOption::Individual))),
-    };
-    if let Some((_, used)) = pick {
-        if used != asked {
-            notes.push(format!(
-                "no layout tried meets every target with {}; the design uses {} instead",
-                asked.describe(),
-                used.describe()
-            ));
-        }
-    }
-    if !model.boundaries.is_empty() {
-        notes.push(format!(
-            "the quick estimate takes the design file's {} straight boundar{} by the first-order image of one equivalent well at the centroid; the wells on the boundary side stand nearer to it than the centroid (a river feeds them more, a barrier less), so the two flows differ by more than usual",
-            model.boundaries.len(),
-            if model.boundaries.len() == 1 { "y" } else { "ies" }
-        ));
-    }
-    if smallest_uniform.is_none() && smallest_individual.is_some() {
-        if let Some(t) = cache
-            .values()
-            .filter(|t| t.trial.count > 0)
-            .max_by(|a, b| a.trial.lowest_margin_m.total_cmp(&b.trial.lowest_margin_m))
-        {
-            notes.push(format!(
-                "with one rate in every well no count tried meets every target: at best ({} wells, every well at the most its limits allow, {}) \"{}\" stays {:.2} m above its target; individual rates give more to the wells that serve it",
-                t.trial.count,
-                t.trial.binding_limit,
-                t.trial.lowest_margin_at,
-                -t.trial.lowest_margin_m
-            ));
-        }
-    }
-    if let (Some(i), Some(u)) = (count_of(smallest_individual), count_of(smallest_uniform)) {
-        if u > i {
-            notes.push(format!(
-                "with one rate in every well {u} wells are needed; with individual rates {i}"
-            ));
-        }
-    }
-    // The run of the chosen count: kept aside when it was found, else in the cache (looked up
-    // lazily: `unwrap_or(&cache[&n])` would index the cache even when the run was found).
-    let chosen = pick.and_then(|(n, used)| {
-        let found = match used {
-            RateOption::Individual => run_i.as_ref(),
-            RateOption::Uniform => run_u.as_ref(),
-        };
-        found.or_else(|| cache.get(&n)).map(|t| (n, used, t))
-    });
-    let design = if let Some((_, used, t)) = chosen {
-        let (rates, binding) = match used {
-            RateOption::Individual => {
-                let pumping = t.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
-                if let Some(i) = t.individual.as_ref().filter(|i| i.groups < pumping) {
-                    notes.push(format!(
-                        "the {pumping} wells share {} rates in the linear programme (neighbouring wells in groups, as above {MAX_LP_VARIABLES} wells): each well is still held to its own limits, and the total may be a little above the ungrouped least flow",
-                        i.groups
-                    ));
-                }
-                let ind = t.individual.clone().map(|i| (i.rates, i.binding));
-                ind.unwrap_or_default()
-            }
-            RateOption::Uniform => {
-                let q = t.trial.uniform_rate_m3_per_s.unwrap_or(0.0);
-                let b = vec![
-                    format!("target at {} (sets the rate)", t.trial.uniform_rate_set_by),
-                    format!(
-                        "largest uniform rate within the limits {:.2} L/s ({})",
-                        t.trial.uniform_limit_m3_per_s * 1e3,
-                        t.trial.binding_limit
-                    ),
-                ];
-                let rates = t
-                    .placement
-                    .wells
-                    .iter()
-                    .map(|w| if w.rate < 0.0 { w.rate } else { q })
-                    .collect();
-                (rates, b)
-            }
-        };
-        let mut placement = t.placement.clone();
-        for (w, q) in placement.wells.iter_mut().zip(&rates) {
-            w.rate = *q;
-        }
-        if model.design.pumps.one_rate_per_class && used == RateOption::Individual {
-            notes.push(crate::optimise::pumps::one_rate_per_class(
-                model,
-                &points,
-                &mut placement.wells,
-            ));
-        }
-        let fin = finish(model, &mut placement.wells);
-        if !fin.dropped.is_empty() {
-            notes.push(format!(
-                "{} well{} the least-flow rates leave idle dropped from the layout: {}",
-                fin.dropped.len(),
-                if fin.dropped.len() == 1 { "" } else { "s" },
-                fin.dropped.join(", ")
-            ));
-        }
-        Design {
-            used: Some(used),
-            finish: fin,
-            outcome: Outcome::Met {
-                count: placement.wells.iter().filter(|w| !is_standby(w)).count(),
-                total_flow_m3_per_s: rates.iter().filter(|q| **q > 0.0).sum(),
-            },
-            spec: Some(t.spec.clone()),
-            placement: Some(placement),
-            trials,
-            smallest_uniform: count_of(smallest_uniform),
-            smallest_individual: count_of(smallest_individual),
-            binding,
-            notes,
-            ..empty
-        }
-    } else {
-        not_met(model, &points, &cache, trials, notes, empty)?
-    };
-    Ok(design)
-}
-
-/// No layout met: the best one tried, its worst point and shortfall — or a capacity reason.
-fn not_met(
-    model: &Model,
-    points: &[CheckPoint],
-    cache: &BTreeMap<usize, TrialRun>,
-    trials: Vec<Trial>,
-    mut notes: Vec<String>,
-    empty: Design,
-) -> Result<Design, InputError> {
-    let Some(best) = cache
-        .values()
-        .filter(|t| t.trial.count > 0)
-        .max_by(|a, b| a.trial.lowest_margin_m.total_cmp(&b.trial.lowest_margin_m))
-    else {
-        return Ok(Design {
-            outcome: Outcome::Impossible {
-                reason: "no layout tried placed any wells (keep-out zones cover the well line)"
-                    .into(),
-            },
-            trials,
-            ..empty
-        });
-    };
-    let ctx = LayoutRates::new(model, points, best.placement.wells.clone());
-    let n = ctx.wells.len();
-    // Candidates: every well at the largest uniform rate, and the least-shortfall programme.
-    let mut candidates = vec![(
-        ctx.uniform_rates(best.trial.uniform_limit_m3_per_s),
-        RateOption::Uniform,
-    )];
-    if let Some(r) = ctx.least_shortfall() {
-        candidates.push((r, RateOption::Individual));
-    }
-    let mut chosen: Option<(Vec<f64>, RateOption, Evaluation)> = None;
-    for (rates, option) in candidates {
-        let e = ctx.evaluate(&rates);
-        let m = e
-            .worst_point
-            .and_then(|i| e.points[i].margin_m)
-            .unwrap_or(f64::NEG_INFINITY);
-        let better = chosen.as_ref().is_none_or(|(_, _, c)| {
-            m > c
-                .worst_point
-                .and_then(|i| c.points[i].margin_m)
-                .unwrap_or(f64::NEG_INFINITY)
-        });
-        if better {
-            chosen = Some((rates, option, e));
-        }
-    }
-    let Some((rates, option, e)) = chosen else {
-        return Ok(Design { trials, ..empty });
-    };
-    // Capacity: with no limits the targets need F; if all wells together cannot give F even
-    // at the closest spacing tried, no count of this kind can work.
-    let largest = cache.values().max_by_key(|t| t.trial.count);
-    if let Some(l) = largest {
-        let lctx = LayoutRates::new(model, points, l.placement.wells.clone());
-        let all_cap: f64 = (0..lctx.wells.len())
-            .filter(|&k| lctx.wells[k].rate >= 0.0)
-            .map(|k| lctx.limits[k].capacity_at(model.aquifer.initial_level))
-            .sum();
-        if let Some(f) = lctx.flow_without_limits() {
-            if all_cap < f {
-                return Ok(Design {
-                    outcome: Outcome::Impossible {
-                        reason: format!(
-                            "well capacity: even {} wells (the closest spacing tried, {:.2} m) can give at most {:.2} L/s together (each at its full capacity before any drawdown), less than the {:.2} L/s the targets need with no limits at all",
-                            l.trial.count,
-                            l.trial.spacing_m,
-                            all_cap * 1e3,
-                            f * 1e3
-                        ),
-                    },
-                    trials,
-                    notes,
-                    ..empty
-                });
-            }
-        }
-    }
-    let worst = e.worst_point.map(|i| &e.points[i]);
-    notes.push(allowance_note(model, &best.placement.wells));
-    notes.push(format!(
-        "the best layout tried has {} wells; shown with {}",
-        n,
-        match option {
-            RateOption::Uniform => "every well at the largest rate its limits allow",
-            RateOption::Individual =>
-                "rates that make the largest shortfall least within the limits",
-        }
-    ));
-    let mut placement = best.placement.clone();
-    for (w, q) in placement.wells.iter_mut().zip(&rates) {
-        w.rate = *q;
-    }
-    Ok(Design {
-        used: Some(option),
-        outcome: Outcome::NotMet {
-            count: n,
-            worst_point: worst.map(|p| p.point.name.clone()).unwrap_or_default(),
-            position: worst.map_or([0.0, 0.0], |p| p.point.position),
-            shortfall_m: worst
-                .and_then(|p| p.margin_m)
-                .map_or(0.0, |m| (-m).max(0.0)),
-        },
-        spec: Some(best.spec.clone()),
-        placement: Some(placement),
-        binding: vec![best.trial.binding_limit.clone()],
+    // The runs at the smallest indices: a placement found below, else the cached run.
+    trials.extend(
+        [&run_i, &run_u]
+            .into_iter()
+            .flatten()
+            .map(|r| r.trial.clone()),
+    );
+    Ok(Found {
+        cache,
         trials,
+        smallest_individual: i,
+        smallest_uniform: u,
+        run_i,
+        run_u,
         notes,
-        ..empty
     })
 }
 
-/// Why a layout that is not met may still be close: the design's allowances in words, and
-/// whether the same wells meet every target without them (then the layout has no reserve).
-fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String {
-    let d = &model.design;
-    let mut bare = model.clone();
-    bare.design.operating_margin = 0.0;
-    bare.design.capacity_fraction = 1.0;
-    bare.design.one_well_out = false;
-    let points = check_points(&bare);
-    let plain = LayoutRates::new(&bare, &points, wells.to_vec()).individual();
-    format!(
-        "the design keeps {:.2} m below every target with every well running, uses at most {:.0} % of each well's capacity{} (allowances.operating_margin, capacity_fraction, one_well_out); {}",
-        d.operating_margin,
-        d.capacity_fraction * 100.0,
-        if d.one_well_out { " and plans for any one well out" } else { "" },
-        if plain.met {
-            "without these allowances the same wells meet every target, with no reserve: add wells, or relax an allowance if the engineer accepts less reserve"
-        } else {
-            "the same wells do not meet every target even without them"
+/// Working wells (rate above zero) of a run's individual rates.
+fn working_wells(run: &TrialRun) -> usize {
+    run.individual.as_ref().map_or(run.trial.count, |i| {
+        i.rates.iter().filter(|q| **q > 1e-9).count()
+    })
+}
+
+/// The fewest wells on candidate positions: used in place of the evenly spaced ring when it
+/// needs fewer working wells; both counts and the lower bound go to the notes.
+fn free_placement(
+    model: &Model,
+    points: &[CheckPoint],
+    spec: &LayoutSpec,
+    free: &crate::input::model::FreePlacementSpec,
+    found: &mut Found,
+    notes: &mut Vec<String>,
+) -> FreeSummary {
+    let even_run = found
+        .run_i
+        .as_ref()
+        .or_else(|| found.smallest_individual.and_then(|n| found.cache.get(&n)));
+    let even_count = even_run.map(working_wells);
+    let mut summary = FreeSummary {
+        count: None,
+        lower_bound: None,
+        relaxation: None,
+        even_count,
+        candidates: 0,
+        used: false,
+    };
+    let even_wells = even_run.map(|r| {
+        let rates = r
+            .individual
+            .as_ref()
+            .map(|i| i.rates.clone())
+            .unwrap_or_default();
+        r.placement
+            .wells
+            .iter()
+            .zip(rates)
+            .filter(|(_, q)| *q > 1e-9)
+            .map(|(w, _)| w.position)
+            .collect()
+    });
+    match placement::fewest(model, points, spec, free, even_wells) {
+        Ok(f) => {
+            let n = working_wells(&f.run);
+            summary.count = Some(n);
+            summary.lower_bound = Some(f.lower_bound);
+            summary.relaxation = Some(f.relaxation);
+            summary.candidates = f.candidates;
+            summary.used = even_count.is_none_or(|e| n < e);
+            notes.push(format!(
+                "fewest wells on {} candidate positions: {n} (no placement on them can have fewer than {} wells: LP relaxation {:.2}; found by rounding the relaxation and removing wells greedily, {} layouts judged); evenly spaced rings: {}; {}",
+                f.candidates,
+                f.lower_bound,
+                f.relaxation,
+                f.layouts_judged,
+                even_count.map_or("none meets every rule".into(), |e| format!("{e} wells")),
+                if summary.used {
+                    "the design uses the fewest (placement = \"even\" keeps the evenly spaced ring)"
+                } else {
+                    "the evenly spaced ring is kept (no fewer wells)"
+                }
+            ));
+            found.trials.push(f.run.trial.clone());
+            if summary.used {
+                found.run_i = Some(f.run);
+                found.smallest_individual = found.smallest_individual.or(Some(0));
+            }
         }
-    )
+        Err(why) => {
+            let (c, _) = placement::candidates(model, spec, free);
+            summary.candidates = c.len();
+            notes.push(format!(
+                "fewest wells on candidate positions: none found ({}); the evenly spaced ring stands",
+                match why {
+                    NoFree::NoCandidates => "keep-out zones cover every candidate".to_string(),
+                    NoFree::Infeasible(n) =>
+                        format!("even all {n} candidates together cannot meet every rule"),
+                    NoFree::NotMet(why) => why,
+                }
+            ));
+        }
+    }
+    summary
 }

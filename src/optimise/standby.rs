@@ -6,10 +6,14 @@
 //! one of its two nearest neighbours that is nearer the point where that margin is: it is
 //! started when a well is lost, and there it replaces most of the lost drawdown (common
 //! practice (no source): standby wells are spread round the ring at the most critical places).
+//! On a ring the standby well stands on the ring itself, not on the chord between the two
+//! wells (a chord cuts the corner, towards the excavation): at the free place on the ring
+//! nearest that midpoint, out of keep-out zones and at least the minimum spacing from every
+//! well and standby well already placed.
 
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::field::wells::Well;
-use crate::input::model::{Model, WellKind};
+use crate::input::model::{LayoutKind, Model, WellKind};
 use crate::optimise::one_out::{one_out_report, OneOut};
 use crate::optimise::rates::LayoutRates;
 
@@ -95,10 +99,12 @@ pub fn finish(model: &Model, wells: &mut Vec<Well>) -> Finish {
         } else {
             n
         };
-        let p = [
+        let mid = [
             0.5 * (w.position[0] + side.position[0]),
             0.5 * (w.position[1] + side.position[1]),
         ];
+        let taken: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
+        let p = on_ring(model, mid, &taken).unwrap_or(mid);
         let sname = format!("S{:02}", j + 1);
         let mut s = Well::from_spec(sname.clone(), p, 0.0, &model.wells);
         s.note = Some(format!(
@@ -109,4 +115,16 @@ pub fn finish(model: &Model, wells: &mut Vec<Well>) -> Finish {
         out.standby.push(sname);
     }
     out
+}
+
+/// The free place on the layout's ring nearest `p` (`None` when the layout is not a ring or
+/// the ring has no free place).
+fn on_ring(model: &Model, p: [f64; 2], taken: &[[f64; 2]]) -> Option<[f64; 2]> {
+    let spec = model.layout.as_ref()?;
+    if !matches!(spec.kind, LayoutKind::Ring { .. }) {
+        return None;
+    }
+    let outline = &model.excavations.get(spec.excavation)?.outline;
+    let ring = crate::field::layout::offset_ring(outline, spec.offset);
+    crate::field::layout::free_on_ring(model, &ring, p, taken, model.as_built.min_spacing)
 }

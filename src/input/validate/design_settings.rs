@@ -166,6 +166,17 @@ pub fn design_settings(
             format!("{wellpoint_set_length} m is outside 5 … 2000 m of header per pump set"),
         ));
     }
+    let rates_per_set = match p.and_then(|p| p.rates.as_deref()).map(str::trim) {
+        None | Some("per-set") => true,
+        Some("per-well") => false,
+        Some(other) => {
+            return Err(rep.error(
+                "pumps.rates",
+                None,
+                format!("unknown value \"{other}\"; valid: \"per-set\" (the wellpoints of one pump set share its rate, the default), \"per-well\" (a valve on each wellpoint)"),
+            ))
+        }
+    };
     Ok(DesignSettings {
         operating_margin,
         capacity_fraction,
@@ -181,6 +192,7 @@ pub fn design_settings(
             class_tolerance,
             one_rate_per_class: p.and_then(|p| p.one_rate_per_class).unwrap_or(false),
             wellpoint_set_length,
+            rates_per_set,
         },
     })
 }

@@ -262,11 +262,72 @@ pub fn layout_spec(
         }
         None => 0.0,
     };
+    let free = if matches!(kind, LayoutKind::Ring { .. }) {
+        free_placement(rep, l)?
+    } else {
+        None
+    };
     Ok(LayoutSpec {
         kind,
         excavation,
         offset,
         rate: l.rate.as_ref().map(|q| q.si),
         start,
+        free,
     })
+}
+
+/// `layout.placement` and its candidates (rings only): `None` for "even".
+fn free_placement(
+    rep: &Reporter,
+    l: &schema::Layout,
+) -> Result<Option<FreePlacementSpec>, InputError> {
+    match l.placement.as_deref().map(str::trim) {
+        None | Some("fewest") => {}
+        Some("even") => return Ok(None),
+        Some(other) => {
+            return Err(rep.error(
+                "layout.placement",
+                None,
+                format!("unknown value \"{other}\"; valid: \"fewest\" (the fewest wells on candidate positions, the default), \"even\" (evenly spaced rings only)"),
+            ))
+        }
+    }
+    let step = match &l.candidate_step {
+        Some(q) if q.si.is_finite() && (0.1..=100.0).contains(&q.si) => Some(q.si),
+        Some(q) => {
+            return Err(rep.error(
+                "layout.candidate_step",
+                q.span.clone(),
+                format!(
+                    "{} m is outside 0.1 … 100 m (step between candidate positions along the ring)",
+                    q.si
+                ),
+            ))
+        }
+        None => None,
+    };
+    let mut offsets = Vec::new();
+    for q in l.candidate_offsets.iter().flatten() {
+        if !(q.si.is_finite() && (0.0..=100.0).contains(&q.si)) {
+            return Err(rep.error(
+                "layout.candidate_offsets",
+                q.span.clone(),
+                format!(
+                    "{} m is outside 0 … 100 m (offset of a candidate ring outside the outline)",
+                    q.si
+                ),
+            ));
+        }
+        offsets.push(q.si);
+    }
+    let points = match &l.candidates {
+        Some(c) => points(rep, "layout.candidates", c)?,
+        None => Vec::new(),
+    };
+    Ok(Some(FreePlacementSpec {
+        step,
+        offsets,
+        points,
+    }))
 }
