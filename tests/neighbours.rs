@@ -23,6 +23,8 @@ fn layer(name: &str, thickness: f64, c: Compressibility) -> SoilLayer {
         compressibility: c,
         unit_weight: None,
         moist_unit_weight: None,
+        drains_above_water_table: false,
+        consolidation: None,
     }
 }
 
@@ -94,6 +96,8 @@ fn cc_form_matches_checks_md_section_10() {
                 cc: 0.3,
                 e0: 0.9,
                 sigma0: 60.0,
+                sigma_p: 60.0,
+                cr: 0.0,
             },
         )],
         -3.0,
@@ -123,6 +127,8 @@ fn das_buoyancy_loss_case() {
         compressibility: Compressibility::Incompressible,
         unit_weight: Some(20.0),
         moist_unit_weight: Some(17.0),
+        drains_above_water_table: true,
+        consolidation: None,
     };
     let clay = SoilLayer {
         name: "clay".into(),
@@ -130,6 +136,8 @@ fn das_buoyancy_loss_case() {
         compressibility: Compressibility::Mv(1e-3),
         unit_weight: Some(19.0),
         moist_unit_weight: Some(19.0),
+        drains_above_water_table: false,
+        consolidation: None,
     };
     let profile = [sand, clay];
     for (form, expected) in [
