@@ -158,13 +158,15 @@ fn over_consolidation(
             "pre-consolidation pressure, e.g. \"120 kPa\"",
         )?),
         (None, Some(ocr)) if ocr.is_finite() && (1.0..=50.0).contains(&ocr) => Some(ocr * sigma0),
-        (None, Some(ocr)) => return Err(rep.error(
-            format!("{lf}.ocr"),
-            None,
-            format!(
+        (None, Some(ocr)) => {
+            return Err(rep.error(
+                format!("{lf}.ocr"),
+                None,
+                format!(
                 "{ocr} is not an over-consolidation ratio; give 1 … 50 (1: normally consolidated)"
             ),
-        )),
+            ))
+        }
         (Some(_), Some(_)) => return Err(rep.error(lf, None, "give sigma_p or ocr, not both")),
     };
     let Some(sigma_p) = sigma_p else {
@@ -206,13 +208,15 @@ fn layer(rep: &Reporter, lf: &str, l: &schema::SoilLayer) -> Result<SoilLayer, I
         None | Some("both") => DrainageFaces::Both,
         Some("top") => DrainageFaces::Top,
         Some("bottom") => DrainageFaces::Bottom,
-        Some(other) => return Err(rep.error(
-            format!("{lf}.drainage"),
-            None,
-            format!(
+        Some(other) => {
+            return Err(rep.error(
+                format!("{lf}.drainage"),
+                None,
+                format!(
                 "unknown drainage \"{other}\"; valid: \"both\" (default), \"top\" or \"bottom\""
             ),
-        )),
+            ))
+        }
     };
     let consolidation = match &l.c_v {
         Some(_) if incompressible => {

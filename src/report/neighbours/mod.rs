@@ -1,9 +1,11 @@
-//! Neighbours, base uplift and recharge in the outputs: the terminal section ([`text`]),
+//! Neighbours, base uplift and recharge in the outputs: the terminal section ([`text`], with the
+//! settlement in time, damage category and soil column of [`column_text`]),
 //! `neighbours.csv` and `neighbour_points.csv` ([`csv_tables`]), the rule-of-thumb limits in
 //! `summary.json` ([`summary`]), `settlement.svg` ([`settlement_svg`], drawn with the
 //! transform, grids, colour ramp and labels of [`settlement_plot`]), the status colours
 //! ([`status`]), and the list of files written ([`files`]).
 
+pub mod column_text;
 pub mod csv_tables;
 pub mod files;
 pub mod settlement_plot;

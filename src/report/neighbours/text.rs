@@ -28,7 +28,8 @@ fn small(x: f64, units: UnitSystem) -> (f64, &'static str) {
     }
 }
 
-fn mm(x: f64, units: UnitSystem) -> String {
+/// A settlement in mm (SI, one decimal) or inches (US, two decimals).
+pub(super) fn mm(x: f64, units: UnitSystem) -> String {
     let (v, u) = small(x, units);
     match units {
         UnitSystem::Si => format!("{v:.1} {u}"),
@@ -186,6 +187,7 @@ pub fn text(run: &CheckRun, recharge: Option<&RechargeSizing>, units: UnitSystem
                     ratio_text(s.distortion)
                 ));
             }
+            out.push_str(&super::column_text::settlement_lines(r, units));
             if !r.checks.is_empty() {
                 out.push_str(&wrap(&checks_line(r, units), 96, "    "));
             }
