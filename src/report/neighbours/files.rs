@@ -5,6 +5,7 @@ use crate::check::run::CheckRun;
 use crate::report::neighbours::csv_tables::{neighbour_points_csv, neighbours_csv};
 use crate::report::neighbours::settlement_svg::settlement_svg;
 use crate::safety::neighbours;
+use crate::safety::settlement_map::settlement_map;
 
 /// Every neighbour output file (none when the design has no neighbours).
 pub fn files(run: &CheckRun) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
@@ -20,7 +21,7 @@ pub fn files(run: &CheckRun) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
         ),
         (
             "settlement.svg".into(),
-            settlement_svg(run, &results).into_bytes(),
+            settlement_svg(run, &results, &settlement_map(run)).into_bytes(),
         ),
     ])
 }
