@@ -3,13 +3,16 @@
 //! `neighbours.csv` and `neighbour_points.csv` ([`csv_tables`]), the rule-of-thumb limits in
 //! `summary.json` ([`summary`]), `settlement.svg` ([`settlement_svg`], drawn with the
 //! transform, grids, colour ramp and labels of [`settlement_plot`]), the status colours
-//! ([`status`]), and the list of files written ([`files`]).
+//! ([`status`]), the list of files written ([`files`]), and the settlement part of report.html
+//! ([`html_section`], with the soil-column drawing of [`soil_column_svg`]).
 
 pub mod column_text;
 pub mod csv_tables;
 pub mod files;
+pub mod html_section;
 pub mod settlement_plot;
 pub mod settlement_svg;
+pub mod soil_column_svg;
 pub mod status;
 pub mod summary;
 pub mod text;

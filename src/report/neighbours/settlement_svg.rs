@@ -144,12 +144,12 @@ fn frame(pg: &Page) -> Document {
             .collect();
         defs = defs.add(
             ClipPath::new()
-                .set("id", format!("fp{i}"))
+                .set("id", format!("settle-fp{i}"))
                 .add(SvgPath::new().set("d", polyline_data(&pts, &view, true))),
         );
     }
     defs = defs.add(
-        ClipPath::new().set("id", "plot").add(
+        ClipPath::new().set("id", "settle-plot").add(
             Rectangle::new()
                 .set("x", MARGIN)
                 .set("y", TITLE_H)
@@ -170,7 +170,7 @@ fn drawdown_context(mut doc: Document, pg: &Page, dgrid: &Grid) -> Document {
     let dthr: Vec<f64> = (1..=((dmax / dstep).floor() as usize).min(40))
         .map(|k| k as f64 * dstep)
         .collect();
-    let mut context = Group::new().set("clip-path", "url(#plot)");
+    let mut context = Group::new().set("clip-path", "url(#settle-plot)");
     if let Ok(lines) = dgrid.builder().lines(&dgrid.values, &dthr) {
         for line in lines {
             let mut d = String::new();
@@ -265,7 +265,7 @@ fn settlement_bands(
     let view = &pg.view;
     // Settlement bands, clipped to each footprint.
     for (i, g) in grids {
-        let mut group = Group::new().set("clip-path", format!("url(#fp{i})"));
+        let mut group = Group::new().set("clip-path", format!("url(#settle-fp{i})"));
         if let Ok(bands) = g.builder().isobands(&g.values, thresholds) {
             for b in bands {
                 let mid = 0.5 * (b.min_v() + b.max_v());
