@@ -67,4 +67,7 @@ for pair in "reference_flood.py programme_flood.csv" "reference_time.py programm
     rm -f "$tmp_t"
 done
 
+# Terzaghi U(T_v) (scripts/reference_consolidation.py, mpmath)
+tmp_u="$(mktemp "${TMPDIR:-/tmp}/drydig-consolidation.XXXXXX.csv")"; python3 "$root/scripts/reference_consolidation.py" "$tmp_u"; if diff -u "$root/tests/reference/consolidation_u.csv" "$tmp_u"; then echo "reference table up to date: $root/tests/reference/consolidation_u.csv"; else echo "consolidation_u.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_u"
+
 exit "$status"

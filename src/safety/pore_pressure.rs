@@ -124,8 +124,9 @@ pub fn single_aquifer(
             clay_top = clay_top.max(zt);
         }
     }
+    // Above z_T the confining clay's linear profile (s_T at z_T itself); below it the aquifer's.
     let drop_at = |z: f64| {
-        if z <= z_t {
+        if z < z_t - 1e-9 {
             s
         } else if z < clay_top {
             s_t * (clay_top - z) / (clay_top - z_t)
@@ -135,9 +136,16 @@ pub fn single_aquifer(
     };
     let drops = bounds
         .iter()
-        .map(|&(zt, zb)| HeadDrop {
-            top: drop_at(zt),
-            base: drop_at(zb),
+        .map(|&(zt, zb)| {
+            if zt <= z_t + 1e-9 {
+                // Wholly in the aquifer.
+                HeadDrop { top: s, base: s }
+            } else {
+                HeadDrop {
+                    top: drop_at(zt),
+                    base: drop_at(zb),
+                }
+            }
         })
         .collect();
     ColumnWater {
