@@ -11,7 +11,6 @@ use drydig::safety::pore_pressure::single_aquifer;
 use drydig::safety::settlement::{self, column, column_with_water, StressForm};
 use proptest::prelude::*;
 
-const GAMMA_W: f64 = 9.81;
 const YEAR: f64 = 365.25 * 86_400.0;
 
 fn layer(thickness: f64, c: Compressibility) -> SoilLayer {
@@ -180,7 +179,13 @@ fn clay_over_a_confined_aquifer_takes_the_linear_profile() {
 fn clay_lens_above_the_lowered_water_follows_the_drawdown() {
     let lens = layer(2.0, Compressibility::Mv(1.5e-4));
     for (h1, mm) in [(-3.0, 20.012_4), (-4.7, 25.015_5)] {
-        let c = column(&[lens.clone()], -0.3, 3.8, h1, StressForm::Simple);
+        let c = column(
+            std::slice::from_ref(&lens),
+            -0.3,
+            3.8,
+            h1,
+            StressForm::Simple,
+        );
         assert!(
             (c.total * 1e3 - mm).abs() < 1e-3,
             "h₁ {h1}: {} mm",
@@ -192,7 +197,13 @@ fn clay_lens_above_the_lowered_water_follows_the_drawdown() {
         ..lens
     };
     for h1 in [-3.0, -4.7] {
-        let c = column(&[draining.clone()], -0.3, 3.8, h1, StressForm::Simple);
+        let c = column(
+            std::slice::from_ref(&draining),
+            -0.3,
+            3.8,
+            h1,
+            StressForm::Simple,
+        );
         assert!(
             (c.total * 1e3 - 15.0093).abs() < 1e-3,
             "{} mm",

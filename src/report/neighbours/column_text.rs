@@ -3,7 +3,7 @@
 //! mm / m / kPa, or in / ft / psf).
 
 use crate::input::units::UnitSystem;
-use crate::report::neighbours::text::{mm, ratio_text};
+use crate::report::neighbours::numbers::{mm, ratio_text, truncate};
 use crate::report::wrap;
 use crate::safety::neighbours::NeighbourResult;
 
@@ -68,7 +68,7 @@ pub fn settlement_lines(r: &NeighbourResult, units: UnitSystem) -> String {
     for c in &r.column {
         out.push_str(&format!(
             "      {:<34} {:>7.2} → {:>7.2} {lu}  Δh {:.2} → {:.2} {lu}  Δu {} / {} / {}  Δσ′ {}  ρ {}{}\n",
-            crate::report::neighbours::text::truncate(&c.name, 34),
+            truncate(&c.name, 34),
             l(c.top_m),
             l(c.base_m),
             l(c.head_drop.top),

@@ -6,8 +6,8 @@
 use crate::input::units::UnitSystem;
 use crate::report::format::{esc, Fmt};
 use crate::report::neighbours::column_text::stress;
+use crate::report::neighbours::numbers::ratio_text;
 use crate::report::neighbours::soil_column_svg::soil_column_svg;
-use crate::report::neighbours::text::ratio_text;
 use crate::safety::neighbours::NeighbourResult;
 
 fn table(head: &[&str], rows: &[Vec<String>]) -> String {

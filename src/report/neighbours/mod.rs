@@ -4,12 +4,14 @@
 //! `summary.json` ([`summary`]), `settlement.svg` ([`settlement_svg`], drawn with the
 //! transform, grids, colour ramp and labels of [`settlement_plot`]), the status colours
 //! ([`status`]), the list of files written ([`files`]), and the settlement part of report.html
-//! ([`html_section`], with the soil-column drawing of [`soil_column_svg`]).
+//! ([`html_section`], with the soil-column drawing of [`soil_column_svg`]); number formats in
+//! [`numbers`].
 
 pub mod column_text;
 pub mod csv_tables;
 pub mod files;
 pub mod html_section;
+pub mod numbers;
 pub mod settlement_plot;
 pub mod settlement_svg;
 pub mod soil_column_svg;

@@ -6,12 +6,12 @@
 use crate::check::run::CheckRun;
 use crate::input::model::Model;
 use crate::input::units::UnitSystem;
+use crate::report::neighbours::numbers::{ratio_text, truncate};
 use crate::report::neighbours::settlement_plot::{
     fmt_step, fmt_value, label, nice_step, path_data, polyline_data, ramp, Grid, View, FOOT_H,
     MARGIN, PANEL_W, PLOT_W, TITLE_H,
 };
 use crate::report::neighbours::status::status_colour;
-use crate::report::neighbours::text::{ratio_text, truncate};
 use crate::report::{wrap, CAUTION};
 use crate::safety::neighbours::{NeighbourResult, Status};
 use crate::safety::settlement_map::SettlementMap;
@@ -145,7 +145,7 @@ fn frame(pg: &Page) -> Document {
         defs = defs.add(
             ClipPath::new()
                 .set("id", format!("settle-fp{i}"))
-                .add(SvgPath::new().set("d", polyline_data(&pts, &view, true))),
+                .add(SvgPath::new().set("d", polyline_data(&pts, view, true))),
         );
     }
     defs = defs.add(
@@ -176,7 +176,7 @@ fn drawdown_context(mut doc: Document, pg: &Page, dgrid: &Grid) -> Document {
             let mut d = String::new();
             for ls in &line.geometry().0 {
                 let pts: Vec<[f64; 2]> = ls.0.iter().map(|c| [c.x, c.y]).collect();
-                d.push_str(&polyline_data(&pts, &view, false));
+                d.push_str(&polyline_data(&pts, view, false));
             }
             context = context.add(
                 SvgPath::new()
@@ -235,7 +235,7 @@ fn excavations(mut doc: Document, pg: &Page) -> Document {
         let pts: Vec<[f64; 2]> = e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect();
         doc = doc.add(
             SvgPath::new()
-                .set("d", polyline_data(&pts, &view, true))
+                .set("d", polyline_data(&pts, view, true))
                 .set("fill", "#d9d4c7")
                 .set("stroke", "#5b5548")
                 .set("stroke-width", 1.5),
@@ -271,7 +271,7 @@ fn settlement_bands(
                 let mid = 0.5 * (b.min_v() + b.max_v());
                 group = group.add(
                     SvgPath::new()
-                        .set("d", path_data(b.geometry(), &view))
+                        .set("d", path_data(b.geometry(), view))
                         .set("fill", ramp(mid / (n_bands as f64 * step)))
                         .set("fill-rule", "evenodd")
                         .set("stroke", "none"),
@@ -284,7 +284,7 @@ fn settlement_bands(
                 let mut d = String::new();
                 for ls in &line.geometry().0 {
                     let pts: Vec<[f64; 2]> = ls.0.iter().map(|c| [c.x, c.y]).collect();
-                    d.push_str(&polyline_data(&pts, &view, false));
+                    d.push_str(&polyline_data(&pts, view, false));
                 }
                 group = group.add(
                     SvgPath::new()
@@ -309,7 +309,7 @@ fn footprints(mut doc: Document, pg: &Page, results: &[NeighbourResult]) -> Docu
         let colour = status_colour(r.status);
         doc = doc.add(
             SvgPath::new()
-                .set("d", polyline_data(&r.footprint, &view, true))
+                .set("d", polyline_data(&r.footprint, view, true))
                 .set("fill", "none")
                 .set("stroke", colour)
                 .set("stroke-width", 2.5),
