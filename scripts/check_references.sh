@@ -70,4 +70,7 @@ done
 # layered ground (scripts/reference_layers.py, timml)
 tmp_ly="$(mktemp "${TMPDIR:-/tmp}/drydig-layers.XXXXXX.csv")"; python3 "$root/scripts/reference_layers.py" "$tmp_ly"; if diff -u "$root/tests/reference/layers_timml.csv" "$tmp_ly"; then echo "reference table up to date: $root/tests/reference/layers_timml.csv"; else echo "layers_timml.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_ly"
 
+# Terzaghi U(T_v) (scripts/reference_consolidation.py, mpmath)
+tmp_u="$(mktemp "${TMPDIR:-/tmp}/drydig-consolidation.XXXXXX.csv")"; python3 "$root/scripts/reference_consolidation.py" "$tmp_u"; if diff -u "$root/tests/reference/consolidation_u.csv" "$tmp_u"; then echo "reference table up to date: $root/tests/reference/consolidation_u.csv"; else echo "consolidation_u.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_u"
+
 exit "$status"

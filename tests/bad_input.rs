@@ -115,6 +115,8 @@ const CASES: &[Case] = &[
     case("duplicate_neighbour_names.toml", Slot("neighbour[2].name"), "needs its own name", Some("[[40, 0]")),
     case("negative_distortion.toml", Slot("neighbour[1].allowable_distortion"), "\"1/500\"", Some("allowable_distortion = ")),
     case("neighbour_layer_two_compressibilities.toml", Slot("neighbour[1].layer[1]"), "give exactly one of", None),
+    case("neighbour_ocr_without_cr.toml", Slot("neighbour[1].layer[1]"), "needs c_r", None),
+    case("neighbour_drainage_sideways.toml", Slot("neighbour[1].layer[1].drainage"), "valid: \"both\" (default), \"top\" or \"bottom\"", None),
     case("grid_spacing_in_mm.toml", Slot("checks.grid_spacing"), "usual 1 … 5 m", Some("grid_spacing = ")),
     case("uplift_layer_above_formation.toml", Slot("uplift.layer_top"), "below the formation level", Some("layer_top = ")),
     case("unknown_output_units.toml", Slot("units"), "`si` or `us`", Some("units = \"imperial\"")),

@@ -23,6 +23,8 @@ fn layer(name: &str, thickness: f64, c: Compressibility) -> SoilLayer {
         compressibility: c,
         unit_weight: None,
         moist_unit_weight: None,
+        drains_above_water_table: false,
+        consolidation: None,
     }
 }
 
@@ -94,6 +96,8 @@ fn cc_form_matches_checks_md_section_10() {
                 cc: 0.3,
                 e0: 0.9,
                 sigma0: 60.0,
+                sigma_p: 60.0,
+                cr: 0.0,
             },
         )],
         -3.0,
@@ -123,6 +127,8 @@ fn das_buoyancy_loss_case() {
         compressibility: Compressibility::Incompressible,
         unit_weight: Some(20.0),
         moist_unit_weight: Some(17.0),
+        drains_above_water_table: true,
+        consolidation: None,
     };
     let clay = SoilLayer {
         name: "clay".into(),
@@ -130,6 +136,8 @@ fn das_buoyancy_loss_case() {
         compressibility: Compressibility::Mv(1e-3),
         unit_weight: Some(19.0),
         moist_unit_weight: Some(19.0),
+        drains_above_water_table: false,
+        consolidation: None,
     };
     let profile = [sand, clay];
     for (form, expected) in [
@@ -604,4 +612,95 @@ fn statuses_are_reported_for_the_demo_neighbours() {
     let st = neighbours::neighbour_status(&run);
     assert_eq!(st.len(), 2);
     assert!(st.iter().all(|(_, s, _)| *s == Status::Fail));
+}
+
+// ------------------------------------------------------------------ clay over the confined aquifer, through the binary
+
+// Hand integral (checks.md §16: linear steady seepage through the clay, no source needed): the
+// house of `confined_design` on 11 m of clay (m_v = 3e-4 1/kPa) from its foundation at 11 m down
+// to the aquifer top at 0 m; the aquifer's head drop s at the worst point reaches the clay's base,
+// nothing its top; the water table before pumping is at 10 m, so the top metre has no pore
+// pressure to lose: ρ = m_v·γ_w·(s/11)·∫₀¹⁰ (11 − z) dz = m_v·γ_w·s·60/11. With c_v = 2 m²/year
+// draining both faces for 60 days, T_v = 2·(60/365.25)/5.5² and U = √(4T_v/π) (Terzaghi).
+#[test]
+fn confined_clay_settles_by_the_linear_profile_through_the_binary() {
+    let extra = r#"dewatering_duration = "60 days"
+[[neighbour.layer]]
+name = "clay"
+thickness = "11 m"
+m_v = "3e-4 1/kPa"
+c_v = "2 m2/year"
+"#;
+    let dir = tmp_dir("confined-clay");
+    let design = dir.join("design.toml");
+    std::fs::write(&design, confined_design("-1 L/s", extra)).expect("write design");
+    let out = dir.join("out");
+    let run = drydig(&[
+        "check",
+        design.to_str().expect("utf-8"),
+        "-o",
+        out.to_str().expect("utf-8"),
+    ]);
+    assert!(
+        matches!(run.status.code(), Some(0) | Some(3)),
+        "{}",
+        text(&run.stderr)
+    );
+    let s = summary(&out);
+    let house = &s["neighbours"][0];
+    let col = house["column"].as_array().expect("soil column");
+    let s_base = col[0]["head_drop"]["base"].as_f64().expect("drop");
+    assert_eq!(col[0]["head_drop"]["top"].as_f64(), Some(0.0), "{house}");
+    let hand = 3e-4 * 9.81 * s_base * 60.0 / 11.0;
+    let final_m = house["max_final_settlement_m"].as_f64().expect("final");
+    assert!(
+        (final_m - hand).abs() < 1e-4 * hand,
+        "final {final_m}, hand {hand}"
+    );
+    let tv: f64 = 2.0 * (60.0 / 365.25) / (5.5 * 5.5);
+    let u = (4.0 * tv / PI).sqrt();
+    let end = house["max_end_of_works_settlement_m"]
+        .as_f64()
+        .expect("end");
+    assert!(
+        (end - u * hand).abs() < 1e-4 * hand,
+        "end {end}, hand {}",
+        u * hand
+    );
+    let stdout = text(&run.stdout);
+    assert!(stdout.contains("soil column"), "{stdout}");
+    assert!(
+        stdout.contains("at the end of the works (60 days"),
+        "{stdout}"
+    );
+}
+
+// US output: the valve house of deep_shaft.toml in inches, feet and psf (units = "us").
+#[test]
+fn valve_house_in_us_units() {
+    let text_in =
+        include_str!("../layouts/deep_shaft.toml").replace("units = \"si\"", "units = \"us\"");
+    let dir = tmp_dir("valve-us");
+    let design = dir.join("design.toml");
+    std::fs::write(&design, text_in).expect("write design");
+    let out = dir.join("out");
+    let run = drydig(&[
+        "check",
+        design.to_str().expect("utf-8"),
+        "-o",
+        out.to_str().expect("utf-8"),
+    ]);
+    assert!(
+        matches!(run.status.code(), Some(0) | Some(3)),
+        "{}",
+        text(&run.stderr)
+    );
+    let stdout = text(&run.stdout);
+    assert!(stdout.contains(" in; at the end of the works"), "{stdout}");
+    assert!(stdout.contains(" psf"), "{stdout}");
+    let html = std::fs::read_to_string(out.join("report.html")).expect("report");
+    assert!(
+        html.contains("<h3>Settlement</h3>") && html.contains(" psf"),
+        "report"
+    );
 }

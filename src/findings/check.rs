@@ -6,7 +6,7 @@ use crate::check::section::Section;
 use crate::estimate::{estimate, Estimate};
 use crate::field::grid::LevelGrid;
 use crate::findings::section::section_of;
-use crate::findings::settlement_grid::{settlement_grids, SettlementGrid};
+use crate::safety::settlement_map::{settlement_map, SettlementMap};
 use crate::findings::verdict::{of_evaluation, Verdict};
 use crate::optimise::bid::{bid_of, Bid};
 use crate::optimise::recharge::RechargeSizing;
@@ -28,7 +28,7 @@ pub struct CheckFindings<'a> {
     /// The level grid behind the map, contours and drawing.
     pub grid: LevelGrid,
     /// Settlement on a grid under each neighbour with a soil profile.
-    pub settlement: Vec<SettlementGrid>,
+    pub settlement: SettlementMap,
     /// The quick hand estimate, for comparison.
     pub estimate: Estimate,
     /// The bid quantities of the layout.
@@ -44,7 +44,7 @@ impl<'a> CheckFindings<'a> {
         let uplift = uplift::assess_run(&run);
         let section = section_of(&run, &neighbours);
         let grid = LevelGrid::for_run(&run.grid_source());
-        let settlement = settlement_grids(&run);
+        let settlement = settlement_map(&run);
         let estimate = estimate(run.model);
         let bid = bid_of(run.model, &run);
         let verdict = of_evaluation(&run.evaluation, &neighbours);

@@ -8,7 +8,6 @@
 //! `scripts/module_graph.py`).
 //!
 //! `verdict` holds the verdict and its exit code; `section` the choice of the section line;
-//! `settlement_grid` the settlement under each neighbour for `settlement.svg`;
 //! `check` the findings of one evaluated layout (`check`, and the layout `design` chose);
 //! `design` the findings of `design`; `commands` the findings of the other commands.
 
@@ -16,5 +15,4 @@ pub mod check;
 pub mod commands;
 pub mod design;
 pub mod section;
-pub mod settlement_grid;
 pub mod verdict;

@@ -425,6 +425,10 @@ pub struct Neighbour {
     pub buoyancy_loss: bool,
     /// Marked to be held to its limits when recharge is sized.
     pub protect_with_recharge: bool,
+    /// Building height, m, when given.
+    pub height: Option<f64>,
+    /// How long the water stays lowered under it, s, when given.
+    pub dewatering_duration: Option<f64>,
 }
 
 /// Compressibility of a soil layer.
@@ -432,7 +436,7 @@ pub struct Neighbour {
 pub enum Compressibility {
     /// m_v, 1/kPa.
     Mv(f64),
-    /// Compression index form.
+    /// Compression index form: recompression (C_r) up to σ′_p, virgin (C_c) beyond.
     Cc {
         /// C_c.
         cc: f64,
@@ -440,6 +444,10 @@ pub enum Compressibility {
         e0: f64,
         /// σ′₀, kPa.
         sigma0: f64,
+        /// Pre-consolidation pressure σ′_p, kPa (σ′₀ for a normally consolidated clay).
+        sigma_p: f64,
+        /// Recompression index C_r (unused when σ′_p = σ′₀).
+        cr: f64,
     },
     /// Does not compress.
     Incompressible,
@@ -458,6 +466,31 @@ pub struct SoilLayer {
     pub unit_weight: Option<f64>,
     /// Unit weight once drained (moist), kN/m³, when given.
     pub moist_unit_weight: Option<f64>,
+    /// Once above the lowered water table, the layer drains (u → 0) instead of staying
+    /// saturated under suction.
+    pub drains_above_water_table: bool,
+    /// Rate of consolidation, when c_v is given.
+    pub consolidation: Option<ConsolidationRate>,
+}
+
+/// How fast a layer consolidates.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ConsolidationRate {
+    /// Coefficient of consolidation c_v, m²/s.
+    pub cv: f64,
+    /// Faces it drains through.
+    pub drainage: DrainageFaces,
+}
+
+/// The faces a layer drains through.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum DrainageFaces {
+    /// Top and base: drainage path H/2.
+    Both,
+    /// Top only: drainage path H.
+    Top,
+    /// Base only: drainage path H.
+    Bottom,
 }
 
 /// Check-point settings.

@@ -3,7 +3,8 @@
 //! on; nothing else reads these types.
 
 use crate::input::units::{
-    Compressibility, Conductivity, Duration, Flow, Length, Ratio, Stress, UnitSystem, UnitWeight,
+    Compressibility, Conductivity, Consolidation, Duration, Flow, Length, Ratio, Stress,
+    UnitSystem, UnitWeight,
 };
 use serde::Deserialize;
 
@@ -454,6 +455,13 @@ pub struct Neighbour {
     /// Hold this building to its limits when sizing recharge (`check --size-recharge`).
     #[serde(default)]
     pub protect_with_recharge: Option<bool>,
+    /// Height of the building (for the deflection ratio's tensile strain and damage category).
+    #[serde(default)]
+    pub height: Option<Length>,
+    /// How long the water stays lowered, for consolidation in time (default: the programme's
+    /// duration, when there is one).
+    #[serde(default)]
+    pub dewatering_duration: Option<Duration>,
 }
 
 /// `[[neighbour.layer]]`
@@ -485,6 +493,25 @@ pub struct SoilLayer {
     /// Unit weight once drained above the lowered water table (buoyancy-loss form).
     #[serde(default)]
     pub moist_unit_weight: Option<UnitWeight>,
+    /// Recompression index (with `c_c` and `sigma_p` or `ocr`).
+    #[serde(default)]
+    pub c_r: Option<f64>,
+    /// Pre-consolidation pressure σ′_p at mid-layer.
+    #[serde(default)]
+    pub sigma_p: Option<Stress>,
+    /// Over-consolidation ratio σ′_p/σ′₀.
+    #[serde(default)]
+    pub ocr: Option<f64>,
+    /// Coefficient of consolidation (consolidation in time).
+    #[serde(default)]
+    pub c_v: Option<Consolidation>,
+    /// Faces the layer drains through: "both" (default), "top" or "bottom".
+    #[serde(default)]
+    pub drainage: Option<String>,
+    /// Once the water table falls below it: "saturated" (held by suction, default for
+    /// compressible layers) or "drains" (default for incompressible ones).
+    #[serde(default)]
+    pub above_water_table: Option<String>,
 }
 
 /// `[checks]`

@@ -29,6 +29,8 @@ pub trait Kind {
 
 const DAY: f64 = 86_400.0;
 const FOOT: f64 = 0.3048;
+/// A year of 365.25 days, s (c_v is usually quoted per year).
+const YEAR: f64 = 365.25 * DAY;
 const US_GALLON: f64 = 3.785_411_784e-3;
 
 macro_rules! kind {
@@ -79,6 +81,13 @@ kind!(
     /// Coefficient of volume compressibility m_v (SI: 1/kPa, i.e. m²/kN).
     CompressibilityKind, "coefficient of volume compressibility", "2e-4 1/kPa", 1e-9, 0.1,
     [("1/kpa", 1.0), ("m2/kn", 1.0), ("1/mpa", 1e-3), ("m2/mn", 1e-3)]
+);
+kind!(
+    /// Coefficient of consolidation c_v (SI: m²/s); clays are usually quoted per year.
+    ConsolidationKind, "coefficient of consolidation", "2 m2/year", 1e-14, 1e-2,
+    [("m2/s", 1.0), ("m2/d", 1.0 / DAY), ("m2/day", 1.0 / DAY), ("m2/year", 1.0 / YEAR),
+     ("m2/yr", 1.0 / YEAR), ("cm2/s", 1e-4), ("ft2/d", FOOT * FOOT / DAY),
+     ("ft2/day", FOOT * FOOT / DAY), ("ft2/year", FOOT * FOOT / YEAR), ("ft2/yr", FOOT * FOOT / YEAR)]
 );
 kind!(
     /// Stress or pressure (SI here: kPa, the unit geotechnical engineers work in).
@@ -133,6 +142,8 @@ pub type Flow = Quantity<FlowKind>;
 pub type Duration = Quantity<TimeKind>;
 /// Coefficient of volume compressibility, 1/kPa.
 pub type Compressibility = Quantity<CompressibilityKind>;
+/// Coefficient of consolidation c_v, m²/s.
+pub type Consolidation = Quantity<ConsolidationKind>;
 /// Stress, kPa.
 pub type Stress = Quantity<StressKind>;
 /// Unit weight, kN/m³.
@@ -160,6 +171,7 @@ fn kind_of_unit(unit: &str) -> Option<&'static str> {
         .or_else(|| find::<TimeKind>(unit))
         .or_else(|| find::<TransmissivityKind>(unit))
         .or_else(|| find::<CompressibilityKind>(unit))
+        .or_else(|| find::<ConsolidationKind>(unit))
         .or_else(|| find::<StressKind>(unit))
         .or_else(|| find::<UnitWeightKind>(unit))
 }

@@ -1,6 +1,8 @@
 //! Analytical groundwater formulas, one physical idea per module. SI units throughout.
 
+pub mod building_damage;
 pub mod capacity;
+pub mod consolidation;
 pub mod equivalent;
 pub mod hantush;
 pub mod image_flow;

@@ -1,8 +1,14 @@
 //! Stage 6, safety: what the drawdown does around the excavation.
 //!
-//! `neighbours` (drawdown at buildings, distortion, pass/fail), `settlement` (one-dimensional
-//! consolidation of their soil layers), `uplift` (base-uplift factor of safety and relief head).
+//! `neighbours` (drawdown at buildings, pass/fail), `distortion` (differential settlement,
+//! angular distortion, deflection ratio and category of damage along each side), `pore_pressure` (the change of
+//! pore pressure through each layer from the heads at its top and base), `settlement`
+//! (one-dimensional consolidation of their soil layers, final and in time), `settlement_map`
+//! (the settlement and drawdown grids behind settlement.svg), `uplift` (base-uplift factor of safety and relief head).
 
+pub mod distortion;
 pub mod neighbours;
+pub mod pore_pressure;
 pub mod settlement;
+pub mod settlement_map;
 pub mod uplift;

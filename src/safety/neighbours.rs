@@ -1,12 +1,20 @@
-//! Neighbouring buildings: drawdown under each footprint, settlement by one-dimensional
-//! consolidation ([`crate::safety::settlement`]), differential settlement and angular distortion along
-//! each side, and pass/fail against the building's limits.
+//! Neighbouring buildings: drawdown under each footprint, the pore-pressure change through each
+//! soil column ([`crate::safety::pore_pressure`]), settlement by one-dimensional consolidation,
+//! final and at the end of the works ([`crate::safety::settlement`]), differential settlement,
+//! angular distortion and deflection ratio along each side ([`crate::safety::distortion`]), and
+//! pass/fail against the building's limits.
 //!
 //! Each footprint is sampled at its corners, along its sides and on a small interior grid; the
 //! level at every sample comes from the same superposition as the excavation ([`Field::level`]).
 //! Settlement at a sample is the settlement of the soil column listed under the building (top down
 //! from its foundation level, or from ground level when none is given) for the drawdown there.
 //! Angular distortion along a side is β = |ρ_a − ρ_b|/L between its two corners.
+//!
+//! **In time.** The water stays lowered for the neighbour's `dewatering_duration`, or else the
+//! programme's duration; clay layers with c_v reach U(T_v) of their final settlement by then
+//! (Terzaghi), layers without c_v their final value (an upper bound, said in the notes). The
+//! settlement checked, and the distortion, are those at the end of the works when a duration is
+//! known (consolidation all but stops once the water is back), else the final ones.
 //!
 //! Where the design file gives no settlement or distortion limit, labelled rules of thumb for
 //! buildings on shallow footings are used instead: 25 mm total settlement and β = 1/500 (common
@@ -16,7 +24,10 @@
 use crate::check::run::CheckRun;
 use crate::field::influence::Field;
 use crate::input::model::{Model, Neighbour};
+use crate::physics::building_damage::Category;
 use crate::physics::potential::Level;
+use crate::safety::distortion::{self, Side};
+use crate::safety::pore_pressure::{self, HeadDrop};
 use crate::safety::settlement::{self, StressForm};
 use geo::{BoundingRect, Contains, Point};
 use serde::Serialize;
@@ -62,25 +73,11 @@ pub struct Sample {
     pub level_m: Option<f64>,
     /// Drawdown, m (negative: the level rises, e.g. beside a recharge well).
     pub drawdown_m: f64,
-    /// Settlement, m (`None`: no soil profile given).
+    /// Settlement checked, m: at the end of the works when a duration is known, else final
+    /// (`None`: no soil profile given).
     pub settlement_m: Option<f64>,
-}
-
-/// Settlement along one side, between its corners.
-#[derive(Debug, Clone, Serialize)]
-pub struct Side {
-    /// "corner 1–2".
-    pub name: String,
-    /// Length, m.
-    pub length_m: f64,
-    /// Settlement at its first corner, m.
-    pub settlement_from_m: f64,
-    /// Settlement at its second corner, m.
-    pub settlement_to_m: f64,
-    /// |Δρ|, m.
-    pub differential_m: f64,
-    /// β = |Δρ|/L.
-    pub distortion: f64,
+    /// Final (fully consolidated) settlement, m.
+    pub settlement_final_m: Option<f64>,
 }
 
 /// One quantity against its limit.
@@ -157,6 +154,20 @@ pub struct NeighbourResult {
     pub status: Status,
     /// Largest utilisation over the checks.
     pub utilisation: Option<f64>,
+    /// The time the water stays lowered, s, and where it comes from, when known.
+    pub works_duration: Option<(f64, String)>,
+    /// Largest final settlement, m, when a profile is given.
+    pub max_final_settlement_m: Option<f64>,
+    /// Largest settlement at the end of the works, m, when a profile and a duration are given.
+    pub max_end_of_works_settlement_m: Option<f64>,
+    /// Some settling layer has no c_v, so the value at the end of the works is an upper bound.
+    pub end_of_works_upper_bound: bool,
+    /// The soil column under the worst-settling sample: pore pressure and settlement by layer.
+    pub column: Vec<ColumnLayer>,
+    /// Largest deflection ratio Δ/L along a side.
+    pub max_deflection_ratio: Option<f64>,
+    /// The worst category of damage over the sides (information), with its side and strain.
+    pub damage: Option<(Category, String, f64)>,
     /// What an engineer should know about the numbers.
     pub notes: Vec<String>,
     /// How many points were sampled.
@@ -164,6 +175,29 @@ pub struct NeighbourResult {
     /// Every sample (for maps and CSV).
     #[serde(skip)]
     pub samples: Vec<Sample>,
+}
+
+/// One layer of a neighbour's soil column at its worst-settling sample.
+#[derive(Debug, Clone, Serialize)]
+pub struct ColumnLayer {
+    /// Name.
+    pub name: String,
+    /// Level of its top and base, m.
+    pub top_m: f64,
+    /// Level of its base, m.
+    pub base_m: f64,
+    /// Does not compress.
+    pub incompressible: bool,
+    /// Head drop at its top and base, m.
+    pub head_drop: HeadDrop,
+    /// Pore-pressure change at its top, middle and base, kPa.
+    pub du_kpa: [f64; 3],
+    /// Effective-stress change at mid-layer, kPa.
+    pub dsigma_mid_kpa: f64,
+    /// Final settlement, m.
+    pub final_m: f64,
+    /// Degree of consolidation at the end of the works (`None`: no c_v or no duration).
+    pub degree_at_end: Option<f64>,
 }
 
 /// The points a footprint is sampled at: corners, points along each side, an interior grid.
@@ -234,13 +268,30 @@ pub fn profile_top(model: &Model, n: &Neighbour) -> (f64, String) {
     }
 }
 
-/// Settlement (m) of the neighbour's soil column for a water level falling from `h0` to `h1`.
-pub fn settlement_at(model: &Model, n: &Neighbour, h0: f64, h1: f64) -> Option<f64> {
+/// The neighbour's soil column where the aquifer's level falls to `h1` (m): pore pressure by
+/// layer from today's single aquifer, and the settlement.
+pub fn column_at(model: &Model, n: &Neighbour, h1: f64) -> settlement::ColumnSettlement {
+    let (top, _) = profile_top(model, n);
+    let water = pore_pressure::single_aquifer(&n.layers, top, &model.aquifer, h1);
+    settlement::column_with_water(&n.layers, top, &water, stress_form(n))
+}
+
+/// Final settlement (m) of the neighbour's soil column where the level falls from the initial
+/// level to `h1` (`h0` is the aquifer's initial level, kept for callers).
+pub fn settlement_at(model: &Model, n: &Neighbour, _h0: f64, h1: f64) -> Option<f64> {
     if n.layers.is_empty() {
         return None;
     }
-    let (top, _) = profile_top(model, n);
-    Some(settlement::column(&n.layers, top, h0, h1, stress_form(n)).total)
+    Some(column_at(model, n, h1).total)
+}
+
+/// How long the water stays lowered under `n`, s, and where that comes from.
+pub fn works_duration(model: &Model, n: &Neighbour) -> Option<(f64, String)> {
+    match (n.dewatering_duration, &model.programme) {
+        (Some(t), _) => Some((t, "dewatering_duration (design file)".into())),
+        (None, Some(p)) => Some((p.duration, "end of the programme's pumping".into())),
+        (None, None) => None,
+    }
 }
 
 /// The settlement limit in force (m) and its basis.
@@ -268,12 +319,10 @@ pub fn drawdown_limit_for_recharge(model: &Model, n: &Neighbour) -> Option<(f64,
         .allowable_drawdown
         .map(|s| (s, "allowable drawdown (design file)".to_string()));
     if !n.layers.is_empty() {
-        let (top, _) = profile_top(model, n);
         let (limit, basis) = settlement_limit(n);
         let max_s = (h0 - model.aquifer.base_level).max(0.0);
-        if let Some(s) =
-            settlement::drawdown_for_settlement(&n.layers, top, h0, limit, max_s, stress_form(n))
-        {
+        let rho = |s: f64| column_at(model, n, h0 - s).total;
+        if let Some(s) = settlement::drawdown_for_settlement(rho, limit, max_s) {
             if best.as_ref().is_none_or(|(b, _)| s < *b) {
                 best = Some((
                     s,
@@ -300,26 +349,52 @@ fn check(quantity: &str, value: f64, limit: f64, basis: String) -> LimitCheck {
     }
 }
 
-/// Assess one neighbour for the wells of `field` at `rates` (m³/s).
-pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) -> NeighbourResult {
+/// Samples under the footprint with their levels, drawdowns and settlements (final and at the
+/// end of the works), the column of the worst-settling one, and whether a compressible layer
+/// reaches into the dewatered zone.
+fn sample_all(
+    model: &Model,
+    field: &Field,
+    rates: &[f64],
+    n: &Neighbour,
+    duration: Option<f64>,
+) -> (
+    Vec<Sample>,
+    Option<(settlement::ColumnSettlement, f64)>,
+    bool,
+    bool,
+) {
     let aq = field.aquifer();
     let h0 = aq.initial_level;
-    let (top, top_basis) = profile_top(model, n);
     let pts = sample_points(&n.footprint);
     let positions: Vec<[f64; 2]> = pts.iter().map(|p| p.2).collect();
     let levels = field.levels(&positions, rates);
     let mut in_zone = false;
-    let samples: Vec<Sample> = pts
+    let mut upper_bound = false;
+    let mut worst: Option<(settlement::ColumnSettlement, f64)> = None;
+    let samples = pts
         .into_iter()
         .zip(levels)
         .map(|((name, kind, position), lv)| {
             let h1 = lv.or_base(aq.base_level);
-            let settlement_m = if n.layers.is_empty() {
-                None
+            let (settlement_m, settlement_final_m) = if n.layers.is_empty() {
+                (None, None)
             } else {
-                let c = settlement::column(&n.layers, top, h0, h1, stress_form(n));
+                let c = column_at(model, n, h1);
                 in_zone |= c.compressible_in_dewatered_zone;
-                Some(c.total)
+                let at_end = duration.map(|t| {
+                    let (v, ub) = settlement::at_time(&n.layers, &c.per_layer, t);
+                    upper_bound |= ub;
+                    v
+                });
+                let checked = at_end.unwrap_or(c.total);
+                if worst
+                    .as_ref()
+                    .is_none_or(|(w, _)| c.total > w.total + 1e-12)
+                {
+                    worst = Some((c.clone(), h0 - h1));
+                }
+                (Some(checked), Some(c.total))
             };
             Sample {
                 name,
@@ -331,9 +406,104 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
                 },
                 drawdown_m: h0 - h1,
                 settlement_m,
+                settlement_final_m,
             }
         })
         .collect();
+    (samples, worst, in_zone, upper_bound)
+}
+
+/// The soil column of the worst-settling sample, layer by layer.
+fn column_layers(
+    model: &Model,
+    n: &Neighbour,
+    c: &settlement::ColumnSettlement,
+    drawdown: f64,
+    duration: Option<f64>,
+) -> Vec<ColumnLayer> {
+    let (top, _) = profile_top(model, n);
+    let water = pore_pressure::single_aquifer(
+        &n.layers,
+        top,
+        &model.aquifer,
+        model.aquifer.initial_level - drawdown,
+    );
+    let mut z = top;
+    n.layers
+        .iter()
+        .zip(&c.layers)
+        .zip(&water.drops)
+        .map(|((l, ls), &drop)| {
+            let layer = ColumnLayer {
+                name: l.name.clone(),
+                top_m: z,
+                base_m: z - l.thickness,
+                incompressible: matches!(
+                    l.compressibility,
+                    crate::input::model::Compressibility::Incompressible
+                ),
+                head_drop: drop,
+                du_kpa: ls.du_kpa,
+                dsigma_mid_kpa: ls.dsigma_mid_kpa,
+                final_m: ls.final_m,
+                degree_at_end: match (l.consolidation, duration) {
+                    (Some(cr), Some(t)) => Some(crate::physics::consolidation::average_degree(
+                        crate::physics::consolidation::time_factor(
+                            cr.cv,
+                            t,
+                            crate::physics::consolidation::drainage_path(l.thickness, cr.drainage),
+                        ),
+                    )),
+                    _ => None,
+                },
+            };
+            z -= l.thickness;
+            layer
+        })
+        .collect()
+}
+
+/// Each side of the footprint from the samples along it (corners and side points, in order).
+fn footprint_sides(samples: &[Sample], corners: &[Sample], height: Option<f64>) -> Vec<Side> {
+    let value = |s: &Sample| s.settlement_m.unwrap_or(0.0);
+    (0..corners.len())
+        .map(|i| {
+            let a = &corners[i];
+            let b = &corners[(i + 1) % corners.len()];
+            let dist =
+                |s: &Sample| (s.position[0] - a.position[0]).hypot(s.position[1] - a.position[1]);
+            let prefix = format!("side {}.", i + 1);
+            let mut profile = vec![(0.0, value(a))];
+            profile.extend(
+                samples
+                    .iter()
+                    .filter(|s| s.kind == SampleKind::Edge && s.name.starts_with(&prefix))
+                    .map(|s| (dist(s), value(s))),
+            );
+            profile.push((dist(b), value(b)));
+            distortion::side(
+                format!("corner {}–{}", i + 1, (i + 1) % corners.len() + 1),
+                &profile,
+                height,
+            )
+        })
+        .collect()
+}
+
+fn max_of(values: impl Iterator<Item = f64>) -> Option<f64> {
+    values.fold(None, |acc: Option<f64>, b| {
+        Some(acc.map_or(b, |a| a.max(b)))
+    })
+}
+
+/// Assess one neighbour for the wells of `field` at `rates` (m³/s).
+pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) -> NeighbourResult {
+    let h0 = field.aquifer().initial_level;
+    let (top, top_basis) = profile_top(model, n);
+    let works = works_duration(model, n);
+    let duration = works.as_ref().map(|w| w.0);
+    let (samples, worst_column, in_zone, upper_bound) =
+        sample_all(model, field, rates, n, duration);
     let corners: Vec<Sample> = samples
         .iter()
         .filter(|s| s.kind == SampleKind::Corner)
@@ -350,6 +520,7 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
             level_m: Some(h0),
             drawdown_m: 0.0,
             settlement_m: None,
+            settlement_final_m: None,
         });
     let worst_settlement = samples
         .iter()
@@ -364,24 +535,11 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
             }
         })
         .cloned();
-    let mut sides = Vec::new();
-    if !n.layers.is_empty() {
-        for i in 0..corners.len() {
-            let a = &corners[i];
-            let b = &corners[(i + 1) % corners.len()];
-            let len = (b.position[0] - a.position[0]).hypot(b.position[1] - a.position[1]);
-            let (ra, rb) = (a.settlement_m.unwrap_or(0.0), b.settlement_m.unwrap_or(0.0));
-            let diff = (ra - rb).abs();
-            sides.push(Side {
-                name: format!("corner {}–{}", i + 1, (i + 1) % corners.len() + 1),
-                length_m: len,
-                settlement_from_m: ra,
-                settlement_to_m: rb,
-                differential_m: diff,
-                distortion: if len > 0.0 { diff / len } else { 0.0 },
-            });
-        }
-    }
+    let sides = if n.layers.is_empty() {
+        Vec::new()
+    } else {
+        footprint_sides(&samples, &corners, n.height)
+    };
     let max_differential_m = corners
         .iter()
         .filter_map(|c| c.settlement_m)
@@ -389,77 +547,34 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
             Some(acc.map_or((r, r), |(lo, hi)| (lo.min(r), hi.max(r))))
         })
         .map(|(lo, hi)| hi - lo);
-    let max_distortion = sides
+    let max_distortion = max_of(sides.iter().map(|s| s.distortion));
+    let max_deflection_ratio = max_of(sides.iter().map(|s| s.deflection_ratio));
+    let damage = sides
         .iter()
-        .map(|s| s.distortion)
-        .fold(None, |acc: Option<f64>, b| {
-            Some(acc.map_or(b, |a| a.max(b)))
-        });
-
-    let mut checks = Vec::new();
-    let mut notes = Vec::new();
-    let worst_rise = samples
-        .iter()
-        .map(|s| -s.drawdown_m)
-        .fold(0.0_f64, f64::max);
-    if worst_rise > 1e-6 || n.allowable_rise.is_some() {
-        let (limit, basis) = match n.allowable_rise {
-            Some(v) => (v, "design file".to_string()),
-            None => (
-                RULE_OF_THUMB_RISE,
-                "rise above the original level, common practice (no source)".to_string(),
-            ),
-        };
-        checks.push(check("rise above original level", worst_rise, limit, basis));
+        .filter_map(|s| Some((s.damage?, s.name.clone(), s.tensile_strain?)))
+        .max_by(|a, b| a.2.total_cmp(&b.2));
+    let max_final_settlement_m = max_of(samples.iter().filter_map(|s| s.settlement_final_m));
+    let max_end_of_works_settlement_m =
+        duration.and(max_of(samples.iter().filter_map(|s| s.settlement_m)));
+    let column = worst_column
+        .map(|(c, s)| column_layers(model, n, &c, s, duration))
+        .unwrap_or_default();
+    let (checks, notes) = checks_and_notes(
+        model,
+        n,
+        &samples,
+        &worst_drawdown,
+        worst_settlement.as_ref(),
+        max_distortion,
+        &top_basis,
+        in_zone,
+    );
+    let mut notes = notes;
+    time_notes(n, &works, upper_bound, &mut notes);
+    if !n.layers.is_empty() && n.height.is_none() {
+        notes.push("no height given: the deflection ratio is reported without a tensile strain or category of damage (give height = \"…\" for the Burland & Wroth / Boscardin & Cording information line)".into());
     }
-    match n.allowable_drawdown {
-        Some(limit) => checks.push(check(
-            "drawdown",
-            worst_drawdown.drawdown_m,
-            limit,
-            "design file".into(),
-        )),
-        None => notes.push(
-            "no allowable_drawdown given: drawdown is reported, not checked (there is no general rule of thumb for it)"
-                .into(),
-        ),
-    }
-    if let Some(ws) = &worst_settlement {
-        let (limit, basis) = settlement_limit(n);
-        checks.push(check(
-            "settlement",
-            ws.settlement_m.unwrap_or(0.0),
-            limit,
-            basis,
-        ));
-        if let Some(beta) = max_distortion {
-            let (limit, basis) = distortion_limit(n);
-            checks.push(check("angular distortion", beta, limit, basis));
-        }
-    } else {
-        notes.push(
-            "no soil profile ([[neighbour.layer]]) given: settlement and distortion not computed"
-                .into(),
-        );
-    }
-    if top_basis != "foundation level" {
-        notes.push("layers counted down from ground level: no foundation_level given".into());
-    }
-    if in_zone {
-        notes.push(match stress_form(n) {
-            StressForm::Simple => "a compressible layer reaches into the dewatered zone (between the old and the lowered water level): there Δσ′ is taken as the pore pressure lost, γ_w·(h₀ − z); the full γ_w·Δh is used only for the part that stays below the lowered level (simple form; a layer kept saturated by suction could take up to γ_w·Δh, one that drains and loses weight takes less — stress_change = \"buoyancy-loss\")".into(),
-            StressForm::BuoyancyLoss => "a compressible layer reaches into the dewatered zone: Δσ′ there is the pore pressure lost less the weight the drained soil loses (buoyancy-loss form)".into(),
-        });
-    }
-    if samples.iter().any(|s| s.drawdown_m < 0.0) {
-        notes.push("the water level rises above its initial level under part of the building (recharge): heave and wetting are not assessed; settlement there is taken as zero".into());
-    }
-    let utilisation = checks
-        .iter()
-        .map(|c| c.utilisation)
-        .fold(None, |acc: Option<f64>, u| {
-            Some(acc.map_or(u, |a| a.max(u)))
-        });
+    let utilisation = max_of(checks.iter().map(|c| c.utilisation));
     let status = if checks.is_empty() {
         Status::NotChecked
     } else if checks.iter().any(|c| !c.pass) {
@@ -493,9 +608,126 @@ pub fn assess_one(model: &Model, field: &Field, rates: &[f64], n: &Neighbour) ->
         checks,
         status,
         utilisation,
+        works_duration: works,
+        max_final_settlement_m,
+        max_end_of_works_settlement_m,
+        end_of_works_upper_bound: upper_bound,
+        column,
+        max_deflection_ratio,
+        damage,
         notes,
         sample_count: samples.len(),
         samples,
+    }
+}
+
+/// What the notes say about time: the duration used and whether the value is an upper bound.
+fn time_notes(
+    n: &Neighbour,
+    works: &Option<(f64, String)>,
+    upper_bound: bool,
+    notes: &mut Vec<String>,
+) {
+    if n.layers.is_empty() {
+        return;
+    }
+    let any_cv = n.layers.iter().any(|l| l.consolidation.is_some());
+    match works {
+        Some((t, basis)) => {
+            let days = t / 86_400.0;
+            notes.push(format!("settlement checked at the end of the works, {days:.0} days ({basis}); the final value is also given"));
+            if upper_bound {
+                notes.push("a settling layer has no c_v: it is taken as fully consolidated by the end of the works, so the value is an upper bound (give c_v for consolidation in time)".into());
+            }
+        }
+        None if any_cv => notes.push("c_v given but no duration (no [programme], no dewatering_duration): the final settlement is checked, an upper bound".into()),
+        None => notes.push("no c_v and no duration: the final (fully consolidated) settlement is checked, an upper bound".into()),
+    }
+}
+
+/// The checks against limits and the notes on the assumptions.
+#[allow(clippy::too_many_arguments)]
+fn checks_and_notes(
+    model: &Model,
+    n: &Neighbour,
+    samples: &[Sample],
+    worst_drawdown: &Sample,
+    worst_settlement: Option<&Sample>,
+    max_distortion: Option<f64>,
+    top_basis: &str,
+    in_zone: bool,
+) -> (Vec<LimitCheck>, Vec<String>) {
+    let mut checks = Vec::new();
+    let mut notes = Vec::new();
+    let worst_rise = samples
+        .iter()
+        .map(|s| -s.drawdown_m)
+        .fold(0.0_f64, f64::max);
+    if worst_rise > 1e-6 || n.allowable_rise.is_some() {
+        let (limit, basis) = match n.allowable_rise {
+            Some(v) => (v, "design file".to_string()),
+            None => (
+                RULE_OF_THUMB_RISE,
+                "rise above the original level, common practice (no source)".to_string(),
+            ),
+        };
+        checks.push(check("rise above original level", worst_rise, limit, basis));
+    }
+    match n.allowable_drawdown {
+        Some(limit) => checks.push(check(
+            "drawdown",
+            worst_drawdown.drawdown_m,
+            limit,
+            "design file".into(),
+        )),
+        None => notes.push(
+            "no allowable_drawdown given: drawdown is reported, not checked (there is no general rule of thumb for it)"
+                .into(),
+        ),
+    }
+    if let Some(ws) = worst_settlement {
+        let (limit, basis) = settlement_limit(n);
+        checks.push(check(
+            "settlement",
+            ws.settlement_m.unwrap_or(0.0),
+            limit,
+            basis,
+        ));
+        if let Some(beta) = max_distortion {
+            let (limit, basis) = distortion_limit(n);
+            checks.push(check("angular distortion", beta, limit, basis));
+        }
+    } else {
+        notes.push(
+            "no soil profile ([[neighbour.layer]]) given: settlement and distortion not computed"
+                .into(),
+        );
+    }
+    if top_basis != "foundation level" {
+        notes.push("layers counted down from ground level: no foundation_level given".into());
+    }
+    if in_zone {
+        notes.push(match stress_form(n) {
+            StressForm::Simple => "a compressible layer reaches into the dewatered zone (between the old and the lowered water level): a layer kept saturated by suction (the default for compressible layers) takes the whole γ_w·Δh there; one marked above_water_table = \"drains\" only the pore pressure it had, γ_w·(h₀ − z) (simple form; stress_change = \"buoyancy-loss\" also takes off the weight the drained soil loses)".into(),
+            StressForm::BuoyancyLoss => "a compressible layer reaches into the dewatered zone: Δσ′ there is the pore pressure lost less the weight the drained soil above loses (buoyancy-loss form)".into(),
+        });
+    }
+    if let Some(z_t) = confining_top(model) {
+        if !n.layers.is_empty() {
+            notes.push(format!("confined aquifer (top at {z_t:.2} m): the clay above it loses pore pressure linearly, from nothing at its top (the water table above is not pumped) to the aquifer's head drop at its base (steady seepage); layers above the clay are unchanged"));
+        }
+    }
+    if samples.iter().any(|s| s.drawdown_m < 0.0) {
+        notes.push("the water level rises above its initial level under part of the building (recharge): heave and wetting are not assessed; settlement there is taken as zero".into());
+    }
+    (checks, notes)
+}
+
+/// The top of a confined or leaky aquifer, m.
+fn confining_top(model: &Model) -> Option<f64> {
+    match model.aquifer.kind {
+        crate::physics::potential::AquiferKind::Unconfined => None,
+        _ => model.aquifer.top_level,
     }
 }
 

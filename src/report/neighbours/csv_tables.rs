@@ -1,5 +1,6 @@
 //! The neighbour tables: `neighbours.csv`, one row per building with its worst drawdown,
-//! settlement, distortion, limits and their basis, and `neighbour_points.csv`, the corners and
+//! settlement (checked, final, at the end of the works), distortion, deflection ratio, damage
+//! category, limits and their basis, and `neighbour_points.csv`, the corners and
 //! worst points of every building with level, drawdown and settlement.
 
 use crate::safety::neighbours::{NeighbourResult, Sample};
@@ -24,6 +25,12 @@ pub fn neighbours_csv(results: &[NeighbourResult]) -> anyhow::Result<Vec<u8>> {
         "utilisation",
         "profile_top_m",
         "stress_change",
+        "final_settlement_mm",
+        "end_of_works_settlement_mm",
+        "works_duration_days",
+        "end_of_works_upper_bound",
+        "max_deflection_ratio",
+        "damage_category",
     ])?;
     for r in results {
         let find = |q: &str| r.checks.iter().find(|c| c.quantity == q);
@@ -52,6 +59,22 @@ pub fn neighbours_csv(results: &[NeighbourResult]) -> anyhow::Result<Vec<u8>> {
             opt(r.utilisation, &|v| format!("{v:.3}")),
             format!("{:.3}", r.profile_top_m),
             r.stress_change.clone(),
+            opt(r.max_final_settlement_m, &|v| format!("{:.2}", v * 1e3)),
+            opt(r.max_end_of_works_settlement_m, &|v| {
+                format!("{:.2}", v * 1e3)
+            }),
+            opt(r.works_duration.as_ref().map(|w| w.0), &|v| {
+                format!("{:.1}", v / 86_400.0)
+            }),
+            if r.max_end_of_works_settlement_m.is_some() {
+                r.end_of_works_upper_bound.to_string()
+            } else {
+                String::new()
+            },
+            opt(r.max_deflection_ratio, &|v| format!("{v:.3e}")),
+            r.damage.as_ref().map_or(String::new(), |(c, _, _)| {
+                format!("{} {}", c.number, c.name)
+            }),
         ])?;
     }
     Ok(w.into_inner()?)

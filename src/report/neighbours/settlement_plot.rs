@@ -127,14 +127,16 @@ pub(super) struct Grid {
 }
 
 impl Grid {
-    pub(super) fn points(x0: f64, y0: f64, h: f64, nx: usize, ny: usize) -> Vec<[f64; 2]> {
-        let mut pts = Vec::with_capacity(nx * ny);
-        for j in 0..ny {
-            for i in 0..nx {
-                pts.push([x0 + i as f64 * h, y0 + j as f64 * h]);
-            }
+    /// The engine's grid with its values multiplied by `scale` (to display units).
+    pub(super) fn from_values(g: &crate::safety::settlement_map::GridValues, scale: f64) -> Grid {
+        Grid {
+            x0: g.x0,
+            y0: g.y0,
+            h: g.h,
+            nx: g.nx,
+            ny: g.ny,
+            values: g.values.iter().map(|v| v * scale).collect(),
         }
-        pts
     }
 
     /// The contour builder for this grid: the crate puts value k at cell centre k + ½, so the

@@ -4,107 +4,103 @@
 //! caution.
 
 use crate::check::run::CheckRun;
-use crate::findings::settlement_grid::SettlementGrid;
+use crate::input::model::Model;
+use crate::input::units::UnitSystem;
+use crate::report::neighbours::numbers::{ratio_text, truncate};
 use crate::report::neighbours::settlement_plot::{
     fmt_step, fmt_value, label, nice_step, path_data, polyline_data, ramp, Grid, View, FOOT_H,
     MARGIN, PANEL_W, PLOT_W, TITLE_H,
 };
 use crate::report::neighbours::status::status_colour;
-use crate::report::neighbours::text::{ratio_text, truncate};
 use crate::report::{wrap, CAUTION};
 use crate::safety::neighbours::{NeighbourResult, Status};
+use crate::safety::settlement_map::SettlementMap;
 use svg::node::element::{Circle, ClipPath, Definitions, Group, Line, Path as SvgPath, Rectangle};
 use svg::Document;
 
-/// `settlement.svg`: settlement bands under each neighbour (from its own soil profile and the
-/// drawdown there), drawdown isolines for context, the excavation and the wells, each building
-/// outlined in its status colour.
-pub fn settlement_svg(
-    run: &CheckRun,
-    results: &[NeighbourResult],
-    settlement: &[SettlementGrid],
-) -> String {
-    let model = run.model;
-    let u = model.units;
-    let us = u == crate::input::units::UnitSystem::Us;
-    let lu = u.length_unit();
-    // Settlement in mm (SI) or inches (US): 1 in = 0.0254 m (NIST SP 811, App. B).
-    let (sc, su) = if us {
-        (1.0 / 0.0254, "in")
-    } else {
-        (1e3, "mm")
-    };
-    let aq = run.field.aquifer();
-    let rates: Vec<f64> = run.placement.wells.iter().map(|w| w.rate).collect();
-    // Extent: neighbours and excavations, and wells.
-    let mut xs = Vec::new();
-    let mut ys = Vec::new();
-    for n in &model.neighbours {
-        for c in &n.footprint.exterior().0 {
-            xs.push(c.x);
-            ys.push(c.y);
-        }
-    }
-    for e in &model.excavations {
-        for c in &e.outline.exterior().0 {
-            xs.push(c.x);
-            ys.push(c.y);
-        }
-    }
-    for w in &run.placement.wells {
-        xs.push(w.position[0]);
-        ys.push(w.position[1]);
-    }
-    let fold = |v: &[f64], f: fn(f64, f64) -> f64, init: f64| v.iter().copied().fold(init, f);
-    let (mut xmin, mut xmax) = (
-        fold(&xs, f64::min, f64::INFINITY),
-        fold(&xs, f64::max, f64::NEG_INFINITY),
-    );
-    let (mut ymin, mut ymax) = (
-        fold(&ys, f64::min, f64::INFINITY),
-        fold(&ys, f64::max, f64::NEG_INFINITY),
-    );
-    if !(xmin.is_finite() && ymin.is_finite()) {
-        (xmin, xmax, ymin, ymax) = (0.0, 1.0, 0.0, 1.0);
-    }
-    let pad = 0.08 * (xmax - xmin).max(ymax - ymin).max(1.0);
-    xmin -= pad;
-    xmax += pad;
-    ymin -= pad;
-    ymax += pad;
-    let scale = PLOT_W / (xmax - xmin);
-    let plot_h = ((ymax - ymin) * scale).clamp(300.0, 900.0);
-    let scale = scale.min(plot_h / (ymax - ymin));
-    let view = View {
-        x0: xmin,
-        y1: ymax,
-        scale,
-    };
-    let width = MARGIN * 2.0 + PLOT_W + PANEL_W;
-    let height = TITLE_H + plot_h + FOOT_H;
+/// The page: units, picture transform and size, shared by every part of the drawing.
+struct Page<'a> {
+    model: &'a Model,
+    units: UnitSystem,
+    us: bool,
+    lu: &'static str,
+    /// Settlement: display units per metre and their name.
+    sc: f64,
+    su: &'static str,
+    view: View,
+    plot_h: f64,
+    width: f64,
+    height: f64,
+    extent: [f64; 4],
+}
 
-    // Settlement grids under each neighbour with a profile (computed in the findings).
-    let mut grids: Vec<(usize, Grid)> = Vec::new();
-    let mut max_rho: f64 = 0.0;
-    for g in settlement {
-        let values: Vec<f64> = g.settlement_m.iter().map(|s| s * sc).collect();
-        max_rho = values.iter().copied().fold(max_rho, f64::max);
-        grids.push((
-            g.neighbour,
-            Grid {
-                x0: g.x0,
-                y0: g.y0,
-                h: g.h,
-                nx: g.nx,
-                ny: g.ny,
-                values,
+impl<'a> Page<'a> {
+    fn new(run: &'a CheckRun, map: &SettlementMap) -> Page<'a> {
+        let model = run.model;
+        let u = model.units;
+        let us = u == UnitSystem::Us;
+        // Settlement in mm (SI) or inches (US): 1 in = 0.0254 m (NIST SP 811, App. B).
+        let (sc, su) = if us {
+            (1.0 / 0.0254, "in")
+        } else {
+            (1e3, "mm")
+        };
+        let [xmin, xmax, ymin, ymax] = map.extent;
+        let scale = PLOT_W / (xmax - xmin);
+        let plot_h = ((ymax - ymin) * scale).clamp(300.0, 900.0);
+        let scale = scale.min(plot_h / (ymax - ymin));
+        Page {
+            model,
+            units: u,
+            us,
+            lu: u.length_unit(),
+            sc,
+            su,
+            view: View {
+                x0: xmin,
+                y1: ymax,
+                scale,
             },
-        ));
+            plot_h,
+            width: MARGIN * 2.0 + PLOT_W + PANEL_W,
+            height: TITLE_H + plot_h + FOOT_H,
+            extent: map.extent,
+        }
     }
+}
+
+/// `settlement.svg`: settlement bands under each neighbour (from its own soil profile and the
+/// drawdown there; at the end of the works when a duration is known), drawdown isolines for
+/// context, the excavation and the wells, each building outlined in its status colour.
+pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult], map: &SettlementMap) -> String {
+    let pg = Page::new(run, map);
+    let grids: Vec<(usize, Grid)> = map
+        .under
+        .iter()
+        .map(|(i, g)| (*i, Grid::from_values(g, pg.sc)))
+        .collect();
+    let max_rho = grids
+        .iter()
+        .flat_map(|(_, g)| g.values.iter().copied())
+        .fold(0.0_f64, f64::max);
     let step = nice_step(max_rho, 8);
     let n_bands = ((max_rho / step).ceil() as usize).max(1);
     let thresholds: Vec<f64> = (0..=n_bands).map(|k| k as f64 * step).collect();
+    let mut doc = frame(&pg);
+    doc = drawdown_context(doc, &pg, &Grid::from_values(&map.drawdown, 1.0));
+    doc = excavations(doc, &pg);
+    doc = settlement_bands(doc, &pg, &grids, &thresholds, n_bands, step);
+    doc = footprints(doc, &pg, results);
+    doc = wells_scale_north(doc, &pg, run);
+    doc = legend(doc, &pg, results, n_bands, step);
+    doc = method_and_caution(doc, &pg);
+    doc.to_string()
+}
 
+/// Title, background, plot frame and the clip paths of the footprints and the plot.
+fn frame(pg: &Page) -> Document {
+    let (model, su, lu, plot_h, view) = (pg.model, pg.su, pg.lu, pg.plot_h, &pg.view);
+    let (width, height) = (pg.width, pg.height);
     let mut doc = Document::new()
         .set("xmlns", "http://www.w3.org/2000/svg")
         .set("width", format!("{width:.0}"))
@@ -125,7 +121,7 @@ pub fn settlement_svg(
         )
         .set("font-weight", "bold"),
     );
-    doc = doc.add(label(MARGIN, 45.0, 11.5, &format!("Bands: settlement ({su}) under each building from its own soil profile (1D consolidation). Grey dashed lines: drawdown ({lu}).")));
+    doc = doc.add(label(MARGIN, 45.0, 11.5, &format!("Bands: settlement ({su}) under each building from its own soil profile (1D consolidation; at the end of the works where a duration is known). Grey dashed lines: drawdown ({lu}).")));
     doc = doc.add(
         Rectangle::new()
             .set("x", MARGIN)
@@ -148,12 +144,12 @@ pub fn settlement_svg(
             .collect();
         defs = defs.add(
             ClipPath::new()
-                .set("id", format!("fp{i}"))
-                .add(SvgPath::new().set("d", polyline_data(&pts, &view, true))),
+                .set("id", format!("settle-fp{i}"))
+                .add(SvgPath::new().set("d", polyline_data(&pts, view, true))),
         );
     }
     defs = defs.add(
-        ClipPath::new().set("id", "plot").add(
+        ClipPath::new().set("id", "settle-plot").add(
             Rectangle::new()
                 .set("x", MARGIN)
                 .set("y", TITLE_H)
@@ -163,37 +159,24 @@ pub fn settlement_svg(
     );
     doc = doc.add(defs);
 
-    // Drawdown isolines over the whole plot, for context.
-    let nxd = 120usize;
-    let hd = (xmax - xmin) / (nxd - 1) as f64;
-    let nyd = ((ymax - ymin) / hd).ceil() as usize + 1;
-    let dpts = Grid::points(xmin, ymin, hd, nxd, nyd);
-    let dvals: Vec<f64> = run
-        .field
-        .levels(&dpts, &rates)
-        .iter()
-        .map(|lv| aq.initial_level - lv.or_base(aq.base_level))
-        .collect();
-    let dmax = dvals.iter().copied().fold(0.0f64, f64::max);
+    doc
+}
+
+/// Drawdown isolines over the whole plot, for context, labelled on their longest piece.
+fn drawdown_context(mut doc: Document, pg: &Page, dgrid: &Grid) -> Document {
+    let (us, u, lu, plot_h, view) = (pg.us, pg.units, pg.lu, pg.plot_h, &pg.view);
+    let dmax = dgrid.values.iter().copied().fold(0.0f64, f64::max);
     let dstep = nice_step(dmax, 10);
-    let dgrid = Grid {
-        x0: xmin,
-        y0: ymin,
-        h: hd,
-        nx: nxd,
-        ny: nyd,
-        values: dvals,
-    };
     let dthr: Vec<f64> = (1..=((dmax / dstep).floor() as usize).min(40))
         .map(|k| k as f64 * dstep)
         .collect();
-    let mut context = Group::new().set("clip-path", "url(#plot)");
+    let mut context = Group::new().set("clip-path", "url(#settle-plot)");
     if let Ok(lines) = dgrid.builder().lines(&dgrid.values, &dthr) {
         for line in lines {
             let mut d = String::new();
             for ls in &line.geometry().0 {
                 let pts: Vec<[f64; 2]> = ls.0.iter().map(|c| [c.x, c.y]).collect();
-                d.push_str(&polyline_data(&pts, &view, false));
+                d.push_str(&polyline_data(&pts, view, false));
             }
             context = context.add(
                 SvgPath::new()
@@ -241,12 +224,18 @@ pub fn settlement_svg(
     }
     doc = doc.add(context);
 
+    doc
+}
+
+/// The excavations, filled and named.
+fn excavations(mut doc: Document, pg: &Page) -> Document {
+    let (model, view) = (pg.model, &pg.view);
     // Excavations.
     for e in &model.excavations {
         let pts: Vec<[f64; 2]> = e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect();
         doc = doc.add(
             SvgPath::new()
-                .set("d", polyline_data(&pts, &view, true))
+                .set("d", polyline_data(&pts, view, true))
                 .set("fill", "#d9d4c7")
                 .set("stroke", "#5b5548")
                 .set("stroke-width", 1.5),
@@ -261,15 +250,28 @@ pub fn settlement_svg(
         }
     }
 
+    doc
+}
+
+/// Settlement bands and their edges, clipped to each footprint.
+fn settlement_bands(
+    mut doc: Document,
+    pg: &Page,
+    grids: &[(usize, Grid)],
+    thresholds: &[f64],
+    n_bands: usize,
+    step: f64,
+) -> Document {
+    let view = &pg.view;
     // Settlement bands, clipped to each footprint.
-    for (i, g) in &grids {
-        let mut group = Group::new().set("clip-path", format!("url(#fp{i})"));
-        if let Ok(bands) = g.builder().isobands(&g.values, &thresholds) {
+    for (i, g) in grids {
+        let mut group = Group::new().set("clip-path", format!("url(#settle-fp{i})"));
+        if let Ok(bands) = g.builder().isobands(&g.values, thresholds) {
             for b in bands {
                 let mid = 0.5 * (b.min_v() + b.max_v());
                 group = group.add(
                     SvgPath::new()
-                        .set("d", path_data(b.geometry(), &view))
+                        .set("d", path_data(b.geometry(), view))
                         .set("fill", ramp(mid / (n_bands as f64 * step)))
                         .set("fill-rule", "evenodd")
                         .set("stroke", "none"),
@@ -282,7 +284,7 @@ pub fn settlement_svg(
                 let mut d = String::new();
                 for ls in &line.geometry().0 {
                     let pts: Vec<[f64; 2]> = ls.0.iter().map(|c| [c.x, c.y]).collect();
-                    d.push_str(&polyline_data(&pts, &view, false));
+                    d.push_str(&polyline_data(&pts, view, false));
                 }
                 group = group.add(
                     SvgPath::new()
@@ -296,12 +298,18 @@ pub fn settlement_svg(
         doc = doc.add(group);
     }
 
+    doc
+}
+
+/// Footprints in their status colour, labelled, with the largest settlement marked.
+fn footprints(mut doc: Document, pg: &Page, results: &[NeighbourResult]) -> Document {
+    let (su, sc, view) = (pg.su, pg.sc, &pg.view);
     // Footprints in status colour, with labels.
     for (i, r) in results.iter().enumerate() {
         let colour = status_colour(r.status);
         doc = doc.add(
             SvgPath::new()
-                .set("d", polyline_data(&r.footprint, &view, true))
+                .set("d", polyline_data(&r.footprint, view, true))
                 .set("fill", "none")
                 .set("stroke", colour)
                 .set("stroke-width", 2.5),
@@ -346,6 +354,14 @@ pub fn settlement_svg(
         }
     }
 
+    doc
+}
+
+/// Wells (abstraction filled, recharge open), the scale bar and the north arrow.
+fn wells_scale_north(mut doc: Document, pg: &Page, run: &CheckRun) -> Document {
+    let (u, lu, view) = (pg.units, pg.lu, &pg.view);
+    let [xmin, xmax, _, _] = pg.extent;
+    let scale = view.scale;
     // Wells: abstraction filled, recharge open with a ring.
     for w in &run.placement.wells {
         let (x, y) = view.p(w.position[0], w.position[1]);
@@ -383,6 +399,18 @@ pub fn settlement_svg(
     );
     doc = doc.add(label(nx0 - 4.0, ny0 + 28.0, 10.0, "N"));
 
+    doc
+}
+
+/// The legend panel: bands, building status, wells, and each building's numbers.
+fn legend(
+    mut doc: Document,
+    pg: &Page,
+    results: &[NeighbourResult],
+    n_bands: usize,
+    step: f64,
+) -> Document {
+    let (u, su, sc, lu) = (pg.units, pg.su, pg.sc, pg.lu);
     // Legend panel.
     let lx = MARGIN * 1.5 + PLOT_W;
     let mut ly = TITLE_H + 6.0;
@@ -486,10 +514,16 @@ pub fn settlement_svg(
         ly += 14.0;
     }
 
+    doc
+}
+
+/// The method line and the caution under the plot.
+fn method_and_caution(mut doc: Document, pg: &Page) -> Document {
+    let model = pg.model;
     // Method and caution.
-    let mut fy = TITLE_H + plot_h + 18.0;
+    let mut fy = TITLE_H + pg.plot_h + 18.0;
     let method = format!(
-        "Method: drawdown by superposition (Strack discharge potential); Δσ′ = γ_w·Δh below the lowered water level ({}); ρ = Σ m_v·Δσ′·Δz or C_c·H/(1+e₀)·log₁₀((σ′₀+Δσ′)/σ′₀). Limits marked * in the tables are rules of thumb (common practice, no source).",
+        "Method: drawdown by superposition (Strack discharge potential); Δσ′ = Δu from the head drop at the top and base of each layer ({}); ρ = Σ m_v·Δσ′·Δz, or C_r to σ′_p and C_c beyond; U(T_v) of Terzaghi in time where c_v is given. Limits marked * in the tables are rules of thumb (common practice, no source).",
         if model.neighbours.iter().any(|n| n.buoyancy_loss) {
             "buoyancy-loss form where chosen"
         } else {
@@ -504,5 +538,5 @@ pub fn settlement_svg(
         doc = doc.add(label(MARGIN, fy, 10.0, line).set("fill", "#8a1c1c"));
         fy += 13.0;
     }
-    doc.to_string()
+    doc
 }

@@ -1,40 +1,15 @@
 //! The terminal section on neighbours, base uplift and recharge: the neighbours table with
 //! limits and status, each building's corners, worst point, sides and checks, the uplift
-//! check of each excavation, the recharge sizing, and the closing neighbours verdict; with the
-//! ratio, millimetre and truncation helpers it writes them with.
+//! check of each excavation, the recharge sizing, and the closing neighbours verdict; written with
+//! the helpers of [`crate::report::neighbours::numbers`].
 
 use crate::findings::check::CheckFindings;
 use crate::input::units::UnitSystem;
 use crate::optimise::recharge::RechargeSizing;
+use crate::report::neighbours::numbers::{mm, ratio_text, small, truncate};
 use crate::report::wrap;
 use crate::safety::neighbours::{NeighbourResult, Status, RULE_OF_THUMB_LABEL};
 use crate::safety::uplift::UpliftResult;
-
-pub(super) fn ratio_text(beta: f64) -> String {
-    if beta <= 0.0 {
-        "0".into()
-    } else if beta >= 1.0 {
-        format!("{beta:.2}")
-    } else {
-        format!("1/{:.0}", 1.0 / beta)
-    }
-}
-
-/// A settlement in mm (SI) or inches (US; 1 in = 0.0254 m, NIST SP 811 App. B): value, unit.
-fn small(x: f64, units: UnitSystem) -> (f64, &'static str) {
-    match units {
-        UnitSystem::Si => (x * 1e3, "mm"),
-        UnitSystem::Us => (x / 0.0254, "in"),
-    }
-}
-
-fn mm(x: f64, units: UnitSystem) -> String {
-    let (v, u) = small(x, units);
-    match units {
-        UnitSystem::Si => format!("{v:.1} {u}"),
-        UnitSystem::Us => format!("{v:.2} {u}"),
-    }
-}
 
 /// The checks of a neighbour in one line: "drawdown 1.62/1.50 m FAIL; …".
 fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
@@ -187,6 +162,7 @@ pub fn text(found: &CheckFindings, units: UnitSystem) -> String {
                     ratio_text(s.distortion)
                 ));
             }
+            out.push_str(&super::column_text::settlement_lines(r, units));
             if !r.checks.is_empty() {
                 out.push_str(&wrap(&checks_line(r, units), 96, "    "));
             }
@@ -222,16 +198,6 @@ pub fn text(found: &CheckFindings, units: UnitSystem) -> String {
         });
     }
     out
-}
-
-pub(super) fn truncate(s: &str, n: usize) -> String {
-    if s.chars().count() <= n {
-        s.to_string()
-    } else {
-        let mut t: String = s.chars().take(n - 1).collect();
-        t.push('…');
-        t
-    }
 }
 
 fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
