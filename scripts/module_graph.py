@@ -48,9 +48,8 @@ REPORT_ALLOWED = {
     ("check", "section", "well_band"),           # the drawn width of a well on the section
     ("optimise", "standby", "is_standby"),       # reads the well's standby flag
     ("input", "validate", "programme", "map_file_name"),
-    # Renderers that still live in test_analysis (to move into report/ with the plot kit).
-    ("test_analysis", "aquifer_lines"),                # the fit as design-file lines
-    ("test_analysis", "chart", "pumping_test_svg"),    # the pumping-test chart
+    # The fit written as design-file lines (text the design file reads back, kept beside the fit).
+    ("test_analysis", "aquifer_lines_in"),
 }
 # Engine calls report/ still makes, each named with why it is still there; the list may only
 # shrink. The map's detail panel computes its finer grid over a window chosen from the page

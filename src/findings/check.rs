@@ -6,11 +6,11 @@ use crate::check::section::Section;
 use crate::estimate::{estimate, Estimate};
 use crate::field::grid::LevelGrid;
 use crate::findings::section::section_of;
-use crate::safety::settlement_map::{settlement_map, SettlementMap};
 use crate::findings::verdict::{of_evaluation, Verdict};
 use crate::optimise::bid::{bid_of, Bid};
 use crate::optimise::recharge::RechargeSizing;
 use crate::safety::neighbours::{assess_run, NeighbourResult};
+use crate::safety::settlement_map::{settlement_map, SettlementMap};
 use crate::safety::uplift::{self, UpliftResult};
 
 /// Everything the outputs of an evaluated layout show.

@@ -61,7 +61,16 @@ pub fn neighbours(cx: &Context) -> Part {
         &["neighbour", "#worst drawdown", "#worst settlement", "checks against limits", "status"],
         &rows,
     ) + "<p class=\"note\">Every sample under each building is in neighbours.csv; settlement.svg draws them.</p>"
-        + &crate::report::neighbours::html_section::settlement_section(&results, &crate::report::neighbours::settlement_svg::settlement_svg(cx.run, &results, &crate::safety::settlement_map::settlement_map(cx.run)), f, cx.run.model.units);
+        + &crate::report::neighbours::html_section::settlement_section(
+            results,
+            &crate::report::neighbours::settlement_svg::settlement_svg(
+                cx.run,
+                results,
+                &cx.found.settlement,
+            ),
+            f,
+            cx.run.model.units,
+        );
     Part::new("neighbours", "Neighbours", body)
 }
 
