@@ -319,10 +319,12 @@ fn deep_shaft_map_structure_and_labels() {
     assert_eq!(k.get("excavation"), Some(&1));
     assert_eq!(k.get("well"), Some(&6));
     assert_eq!(k.get("well-line"), Some(&1));
+    // The valve house beside the shaft (layouts/deep_shaft.toml).
+    assert_eq!(k.get("neighbour"), Some(&1));
     // Besides those: the check points, each with its level and margin (issue 18.4).
     let points = k.get("check-point").copied().unwrap_or(0);
     assert!(points > 0);
-    assert_eq!(fc.features.len() - points, 8);
+    assert_eq!(fc.features.len() - points, 9);
     for f in fc
         .features
         .iter()

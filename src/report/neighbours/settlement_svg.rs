@@ -240,7 +240,18 @@ fn excavations(mut doc: Document, pg: &Page) -> Document {
                 .set("stroke", "#5b5548")
                 .set("stroke-width", 1.5),
         );
-        if let Some(c) = geo::InteriorPoint::interior_point(&e.outline) {
+        // Name at the centroid, or the middle of the bounding box, whichever is inside (geo's
+        // interior point sweeps every edge and trips its own assertion on dense outlines).
+        let inside = |p: geo::Point<f64>| geo::Contains::contains(&e.outline, &p);
+        let at = geo::Centroid::centroid(&e.outline)
+            .filter(|p| inside(*p))
+            .or_else(|| {
+                geo::BoundingRect::bounding_rect(&e.outline)
+                    .map(|b| geo::Point::from(b.center()))
+                    .filter(|p| inside(*p))
+            })
+            .or_else(|| geo::Centroid::centroid(&e.outline));
+        if let Some(c) = at {
             let (x, y) = view.p(c.x(), c.y());
             doc = doc.add(
                 label(x, y, 12.0, &e.name)
