@@ -15,7 +15,7 @@ use std::path::Path;
 /// Turn angle (degrees) above which a ring vertex counts as a corner for corner wells.
 const CORNER_ANGLE_DEG: f64 = 20.0;
 /// Step (m) in the search along the ring for a free place outside keep-out zones.
-const KEEP_OUT_STEP: f64 = 0.25;
+pub const KEEP_OUT_STEP: f64 = 0.25;
 /// Most trial positions tried when moving one well out of a keep-out zone; on a long path the
 /// step grows past [`KEEP_OUT_STEP`] so the search stays within this bound.
 const MAX_MOVE_STEPS: usize = 4_000;

@@ -48,7 +48,7 @@ use crate::optimise::trial::{solve_individual, try_placement, TrialRun};
 /// Rates at or below this are idle, m³/s.
 const IDLE: f64 = 1e-9;
 /// Most candidate positions per ring (the step grows on a long ring), to bound the work.
-const MAX_CANDIDATES: usize = 80;
+pub const MAX_CANDIDATES: usize = 80;
 /// Most removal passes over the working wells.
 const MAX_PASSES: usize = 3;
 /// Reweighted relaxations after the first (the ℓ1 reweighting of Candès, Wakin and Boyd,
