@@ -107,8 +107,10 @@ pub fn run(command: Command, chatter: Chatter) -> anyhow::Result<Outputs> {
             out,
             units,
         } => {
-            let model = model::load(&file)?;
-            let units = units.map(Into::into).unwrap_or(model.units);
+            let mut model = model::load(&file)?;
+            // The engine's notes (placement, binding limit) follow `--units` too.
+            model.units = units.map(Into::into).unwrap_or(model.units);
+            let units = model.units;
             let ring = model
                 .layout
                 .as_ref()

@@ -367,7 +367,6 @@ fn sweep_chart_in_us_units_carries_no_si() {
 }
 
 #[test]
-#[ignore = "until the findings stage lands"]
 fn sweep_table_in_us_units_carries_no_si() {
     // The table and sweep.csv are design_text's, the trial words (binding limit, placement)
     // the engine's.

@@ -65,7 +65,8 @@ pub fn evaluate_consistent(
         // proportion to s, so s ↦ drawdown(R(s)) has slope (produced / asked) and no stable
         // fixed point once a layout overdraws. R stays at the design drawdown, and says so.
         e.radius_of_influence_basis = format!(
-            "{basis0}; taken at the design drawdown (target + operating margin = {s_d:.2} m) and not iterated: for flow to a line the drawdown grows in proportion to R, so a radius taken from the drawdown produced has no stable value"
+            "{basis0}; taken at the design drawdown (target + operating margin = {}) and not iterated: for flow to a line the drawdown grows in proportion to R, so a radius taken from the drawdown produced has no stable value",
+            model.units.length_words(s_d, 2)
         );
         return (field, e);
     }
@@ -75,7 +76,9 @@ pub fn evaluate_consistent(
     };
     if p0 <= s_d {
         e.radius_of_influence_basis = format!(
-            "{basis0}; taken at the design drawdown (target + operating margin = {s_d:.2} m): the wells produce {p0:.2} m at the excavation, no more than that, and R is never taken below it"
+            "{basis0}; taken at the design drawdown (target + operating margin = {}): the wells produce {} at the excavation, no more than that, and R is never taken below it",
+            model.units.length_words(s_d, 2),
+            model.units.length_words(p0, 2)
         );
         return (field, e);
     }
@@ -115,12 +118,15 @@ pub fn evaluate_consistent(
         steps += 1;
     }
     let (r, basis) = radius_at(model, s_b);
+    let u = model.units;
     e.radius_of_influence_basis = format!(
-        "{basis}; taken at the drawdown the wells produce at the excavation ({s_b:.2} m, more than the design drawdown {s_d:.2} m = target + operating margin): {}",
+        "{basis}; taken at the drawdown the wells produce at the excavation ({}, more than the design drawdown {} = target + operating margin): {}",
+        u.length_words(s_b, 2),
+        u.length_words(s_d, 2),
         if converged {
-            format!("converged in {steps} evaluations (drawdown within {:.0e} m)", DRAWDOWN_TOLERANCE)
+            format!("converged in {steps} evaluations (drawdown within {:.0e} {})", u.length(DRAWDOWN_TOLERANCE), u.length_unit())
         } else {
-            format!("NOT converged after {steps} evaluations; R = {r:.1} m used")
+            format!("NOT converged after {steps} evaluations; R = {} used", u.length_words(r, 1))
         }
     );
     (field, e)

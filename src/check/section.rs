@@ -144,7 +144,10 @@ pub fn across_trench(run: &CheckRun) -> Option<([[f64; 2]; 2], String)> {
             [foot[0] - reach * across[0], foot[1] - reach * across[1]],
             [foot[0] + reach * across[0], foot[1] + reach * across[1]],
         ],
-        format!("across the trench {what}, {chainage:.1} m along its centre line"),
+        format!(
+            "across the trench {what}, {} along its centre line",
+            run.model.units.length_words(chainage, 1)
+        ),
     ))
 }
 

@@ -274,7 +274,8 @@ fn place(
                     let moved = (s2 - s).abs().min(path.length() - (s2 - s).abs());
                     well.position = at(s2);
                     let msg = format!(
-                        "{name} moved {moved:.1} m along its line out of keep-out zone \"{zone}\""
+                        "{name} moved {} along its line out of keep-out zone \"{zone}\"",
+                        model.units.length_words(moved, 1)
                     );
                     well.note = Some(msg.clone());
                     notes.push(msg);
@@ -491,15 +492,17 @@ pub fn line_from(
     let (lo, hi) = spacings
         .iter()
         .fold((f64::INFINITY, 0.0f64), |(a, b), s| (a.min(*s), b.max(*s)));
+    let units = model.units;
+    let lu = units.length_unit();
     notes.push(format!(
-        "{} wellpoints at {} m spacing along {:.0} m{}",
+        "{} wellpoints at {} {lu} spacing along {:.0} {lu}{}",
         wells.len(),
         if hi - lo < 0.005 {
-            format!("{lo:.2}")
+            format!("{:.2}", units.length(lo))
         } else {
-            format!("{lo:.2}–{hi:.2}")
+            format!("{:.2}–{:.2}", units.length(lo), units.length(hi))
         },
-        total,
+        units.length(total),
         if both_sides {
             " on both sides"
         } else {

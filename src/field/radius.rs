@@ -49,9 +49,11 @@ pub fn radius_at(model: &Model, s: f64) -> (f64, String) {
         &e.outline,
     ));
     let trench = crate::field::shape::is_trench(model, e);
+    let u = model.units;
     if let Some(b) = aq.leakage_factor() {
         let mut text = format!(
-            "leaky aquifer: K₀(r/B) with B = {b:.1} m (no radius of influence; cut off at 25 B)"
+            "leaky aquifer: K₀(r/B) with B = {} (no radius of influence; cut off at 25 B)",
+            u.length_words(b, 1)
         );
         if let crate::input::model::InfluenceMethod::PumpingTest { transmissivity, .. } =
             model.influence
@@ -78,16 +80,22 @@ pub fn radius_at(model: &Model, s: f64) -> (f64, String) {
         let l0 = model.influence.distance(aq, s, true);
         let r = std::f64::consts::FRAC_PI_2 * l0;
         return (r, format!(
-            "trench: R = π·L₀/2 = {r:.1} m, so a long line of wells matches the line-slot flow (L₀ = {l0:.1} m, {} to a line at s = {s:.2} m for \"{}\")",
+            "trench: R = π·L₀/2 = {}, so a long line of wells matches the line-slot flow (L₀ = {}, {} to a line at s = {} for \"{}\")",
+            u.length_words(r, 1),
+            u.length_words(l0, 1),
             model.influence.name(),
+            u.length_words(s, 2),
             e.name
         ));
     }
     let l0 = model.influence.distance(aq, s, false);
     let text = format!(
-        "R₀ = r_e + L₀ = {r_e:.1} + {l0:.1} = {:.1} m ({} at s = {s:.2} m for \"{}\")",
-        r_e + l0,
+        "R₀ = r_e + L₀ = {:.1} + {:.1} = {} ({} at s = {} for \"{}\")",
+        u.length(r_e),
+        u.length(l0),
+        u.length_words(r_e + l0, 1),
         model.influence.name(),
+        u.length_words(s, 2),
         e.name
     );
     (r_e + l0, text)

@@ -417,6 +417,19 @@ impl UnitSystem {
             UnitSystem::Us => "ft²",
         }
     }
+    /// A length (given in m) in words with `decimals` decimals and its unit: "3.50 m", "11.48 ft".
+    /// For the few engine notes worded where the model is at hand; `report::format::Fmt` words
+    /// everything else.
+    pub fn length_words(self, metres: f64, decimals: usize) -> String {
+        format!("{:.decimals$} {}", self.length(metres), self.length_unit())
+    }
+    /// A rate per well (given in m³/s) in words: "6.40 L/s", "101.4 gpm".
+    pub fn rate_words(self, q: f64) -> String {
+        match self {
+            UnitSystem::Si => format!("{:.2} L/s", m3s_to_ls(q)),
+            UnitSystem::Us => format!("{:.1} gpm", m3s_to_gpm(q)),
+        }
+    }
 }
 
 /// m³/s → m³/day.

@@ -97,11 +97,11 @@ pub fn choose(
             .max_by(|a, b| a.trial.lowest_margin_m.total_cmp(&b.trial.lowest_margin_m))
         {
             notes.push(format!(
-                "with one rate in every well no count tried meets every target: at best ({} wells, every well at the most its limits allow, {}) \"{}\" stays {:.2} m above its target; individual rates give more to the wells that serve it",
+                "with one rate in every well no count tried meets every target: at best ({} wells, every well at the most its limits allow, {}) \"{}\" stays {} above its target; individual rates give more to the wells that serve it",
                 t.trial.count,
                 t.trial.binding_limit,
                 t.trial.lowest_margin_at,
-                -t.trial.lowest_margin_m
+                model.units.length_words(-t.trial.lowest_margin_m, 2)
             ));
         }
     }
@@ -267,11 +267,11 @@ fn not_met(
                 return Ok(Design {
                     outcome: Outcome::Impossible {
                         reason: format!(
-                            "well capacity: even {} wells (the closest spacing tried, {:.2} m) can give at most {:.2} L/s together (each at its full capacity before any drawdown), less than the {:.2} L/s the targets need with no limits at all",
+                            "well capacity: even {} wells (the closest spacing tried, {}) can give at most {} together (each at its full capacity before any drawdown), less than the {} the targets need with no limits at all",
                             l.trial.count,
-                            l.trial.spacing_m,
-                            all_cap * 1e3,
-                            f * 1e3
+                            model.units.length_words(l.trial.spacing_m, 2),
+                            model.units.rate_words(all_cap),
+                            model.units.rate_words(f)
                         ),
                     },
                     trials,
@@ -326,8 +326,8 @@ fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String 
     let points = check_points(&bare);
     let plain = LayoutRates::new(&bare, &points, wells.to_vec()).individual();
     format!(
-        "the design keeps {:.2} m below every target with every well running, uses at most {:.0} % of each well's capacity{} (allowances.operating_margin, capacity_fraction, one_well_out); {}",
-        d.operating_margin,
+        "the design keeps {} below every target with every well running, uses at most {:.0} % of each well's capacity{} (allowances.operating_margin, capacity_fraction, one_well_out); {}",
+        model.units.length_words(d.operating_margin, 2),
         d.capacity_fraction * 100.0,
         if d.one_well_out { " and plans for any one well out" } else { "" },
         if plain.met {

@@ -411,14 +411,16 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
 
 /// The search line of the design and the layout probed before it (the smallest index).
 fn search_words(model: &Model, spec: &LayoutSpec, fam: &Family) -> (String, LayoutSpec) {
+    let u = model.units;
+    let lu = u.length_unit();
     match fam {
         Family::Ring { min, max } => (
             format!(
-                "ring at {:.1} m outside \"{}\": {min} … {max} wells (spacing {:.1} … {:.1} m{})",
-                spec.offset,
+                "ring at {} outside \"{}\": {min} … {max} wells (spacing {:.1} … {:.1} {lu}{})",
+                u.length_words(spec.offset, 1),
                 model.excavations[spec.excavation].name,
-                model.as_built.min_spacing,
-                model.as_built.max_spacing,
+                u.length(model.as_built.min_spacing),
+                u.length(model.as_built.max_spacing),
                 spacing_basis(model)
             ),
             spec_for(spec, fam, *min),
@@ -433,11 +435,12 @@ fn search_words(model: &Model, spec: &LayoutSpec, fam: &Family) -> (String, Layo
             );
             (
                 format!(
-                    "trench line {length:.0} m long, {} side{}: {min} … {max} wellpoints per side (spacing {:.2} … {:.2} m{})",
+                    "trench line {} long, {} side{}: {min} … {max} wellpoints per side (spacing {:.2} … {:.2} {lu}{})",
+                    u.length_words(*length, 0),
                     if both { "both" } else { "one" },
                     if both { "s" } else { "" },
-                    length / (*min - 1) as f64,
-                    length / (*max - 1).max(1) as f64,
+                    u.length(length / (*min - 1) as f64),
+                    u.length(length / (*max - 1).max(1) as f64),
                     spacing_basis(model)
                 ),
                 spec_for(spec, fam, *min),

@@ -161,7 +161,7 @@ pub(super) fn try_placement(
         one_out_uniform(&rates, &mut uniform, model.design.operating_margin);
     }
     let individual = (count > 0 && with_lp).then(|| solve_individual(model, &rates));
-    let variant = variant_words(&spec);
+    let variant = variant_words(model, &spec);
     let mut run = TrialRun {
         trial: trial_row(
             points,
@@ -184,13 +184,14 @@ pub(super) fn try_placement(
 }
 
 /// The start position and corner option of a layout, in words.
-pub fn variant_words(spec: &LayoutSpec) -> String {
+pub fn variant_words(model: &Model, spec: &LayoutSpec) -> String {
+    let start = |decimals| model.units.length_words(spec.start, decimals);
     match &spec.kind {
         LayoutKind::Ring {
             corner_wells: true, ..
         } => "corner wells".into(),
-        LayoutKind::Ring { .. } => format!("first well {:.1} m along the ring", spec.start),
-        LayoutKind::Line { .. } => format!("end points {:.2} m inside the line ends", spec.start),
+        LayoutKind::Ring { .. } => format!("first well {} along the ring", start(1)),
+        LayoutKind::Line { .. } => format!("end points {} inside the line ends", start(2)),
         _ => "as given".into(),
     }
 }

@@ -39,7 +39,10 @@ impl LayoutRates<'_> {
             let phi_k = self.base_w[k];
             if let Some(p) = lim.pump {
                 if p < best.0 {
-                    best = (p, format!("pump capacity {:.2} L/s", p * 1e3));
+                    best = (
+                        p,
+                        format!("pump capacity {}", self.model.units.rate_words(p)),
+                    );
                 }
             }
             let s = self.at_wells_sum[k];
@@ -68,8 +71,8 @@ impl LayoutRates<'_> {
                 (
                     q_level,
                     format!(
-                        "level in {name} at {:.2} m ({})",
-                        lim.floor_level,
+                        "level in {name} at {} ({})",
+                        self.model.units.length_words(lim.floor_level, 2),
                         lim.floor_kind.describe()
                     ),
                 )

@@ -18,9 +18,9 @@ fn flow(q: f64, units: UnitSystem) -> String {
     match units {
         UnitSystem::Si => format!("{} m³/day ({:.1} L/s)", thousands(q * DAY, 0), q * 1e3),
         UnitSystem::Us => format!(
-            "{} US gpm ({} m³/day)",
+            "{} US gpm ({} US gal/day)",
             thousands(m3s_to_gpm(q), 0),
-            thousands(q * DAY, 0)
+            thousands(m3s_to_gpm(q) * 1440.0, 0)
         ),
     }
 }
@@ -403,6 +403,24 @@ pub fn to_text(
     out
 }
 
+/// One line on what was swept, spacings in the chosen length unit.
+fn sweep_words(sweep: &crate::optimise::sweep::Sweep, units: UnitSystem) -> String {
+    use crate::optimise::sweep::Axis;
+    let (a, b) = (
+        sweep.values.first().copied().unwrap_or(0.0),
+        sweep.values.last().copied().unwrap_or(0.0),
+    );
+    match (sweep.axis, units) {
+        (Axis::Spacing, UnitSystem::Us) => format!(
+            "trench line at spacings {:.2} … {:.2} ft ({} layouts), both rate options",
+            units.length(a),
+            units.length(b),
+            sweep.values.len()
+        ),
+        _ => sweep.describe(),
+    }
+}
+
 /// The terminal table of a sweep.
 pub fn sweep_text(
     model: &Model,
@@ -410,7 +428,7 @@ pub fn sweep_text(
     units: UnitSystem,
 ) -> String {
     let mut out = format!("drydig sweep — {}\n", model.name);
-    out.push_str(&wrap(&sweep.describe(), 96, ""));
+    out.push_str(&wrap(&sweep_words(sweep, units), 96, ""));
     out.push_str("rate = smallest uniform rate meeting every target; LP = least total with individual rates;\nmargin = lowest margin below target with every well at the largest uniform rate its limits allow\n");
     out.push_str(&trials_table(&sweep.trials, units, Some(&sweep.values)));
     let met: Vec<&Trial> = sweep

@@ -40,10 +40,10 @@ fn level_state(level: Option<f64>) -> String {
     if level.is_some() { "wet" } else { "dry" }.to_string()
 }
 
-/// `wells.csv`: one row per well, SI units in the headers.
+/// `wells.csv`: one row per well, SI units in the headers; the status words (read by a person,
+/// read by no tool beyond "ok") in the user's units.
 pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
-    // The status words of a machine file: SI, whatever the user's units.
-    let si = Fmt::new(UnitSystem::Si, run.model.ground_level);
+    let words = Fmt::new(run.model.units, run.model.ground_level);
     let mut w = csv::Writer::from_writer(Vec::new());
     w.write_record([
         "name",
@@ -85,7 +85,7 @@ pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
             if r.problems.is_empty() {
                 "ok".into()
             } else {
-                well_problems(&r.problems, &si)
+                well_problems(&r.problems, &words)
             },
             well.note.clone().unwrap_or_default(),
             r.aquifer_level_m.map_or(String::new(), |z| fixed(z, 3)),
