@@ -241,35 +241,18 @@ fn radial_flow(aquifer: &Aquifer, delta_phi: f64, r: f64, big_r: f64) -> f64 {
     }
 }
 
-fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
+/// The flow method for an excavation and the reason, in words: none needed when there is no
+/// target or the water is already below it, else as set in the design file or by the aspect ratio.
+fn choose_method(
+    model: &Model,
+    e: &Excavation,
+    target_given: bool,
+    target: f64,
+    s: f64,
+    aspect: f64,
+) -> (FlowMethod, String) {
     let aq = &model.aquifer;
-    let area = e.outline.unsigned_area();
-    let perimeter = Euclidean.length(e.outline.exterior());
-    let (length, width, along_centre) = measure(e);
-    let r_e = equivalent::equivalent_radius_from_area(area);
-    let r_p = equivalent::equivalent_radius_from_perimeter(perimeter);
-    // The level the design works to: the relief head for `control = "relieve"` (or where it is
-    // the lower in `"both"`), else formation − margin; the same as the check points carry.
-    let design_target = crate::field::checkpoints::design_target(model, e);
-    let target = design_target.level.unwrap_or(aq.initial_level);
-    let s = aq.initial_level - target;
-    let delta_phi = aq.initial_potential() - aq.potential(target);
-    let aspect = if width > 0.0 {
-        length / width
-    } else {
-        f64::INFINITY
-    };
-    let mut notes = Vec::new();
-    let leaky = aq.leakage_factor();
-
-    if design_target.relief {
-        notes.push(EstimateNote::ReliefHead {
-            head: target,
-            factor_of_safety: model.uplift.as_ref().map_or(0.0, |u| u.factor_of_safety),
-            formation_less_margin: e.target_level(),
-        });
-    }
-    let (method, reason) = if design_target.level.is_none() {
+    if !target_given {
         (
             FlowMethod::NoneNeeded,
             "relief only, and the confined layer's head already gives the required factor of safety against uplift".to_string(),
@@ -295,10 +278,38 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
                 format!("compact: length/width = {aspect:.1} < {:.1}", model.trench_aspect_ratio),
             ),
         }
-    };
+    }
+}
 
-    let l0_radial = model.influence.distance(aq, s.max(0.0), false);
-    let l0_line = model.influence.distance(aq, s.max(0.0), true);
+/// The method's flow before boundaries, m³/s, with the distance and radius of influence it used.
+struct MethodFlow {
+    /// Distance of influence L₀ (or the leakage factor B for a leaky slot).
+    l0: f64,
+    /// Radius of influence counted from the centre.
+    big_r: f64,
+    /// Total flow.
+    q: f64,
+    /// Line slot only: flow through the two long sides.
+    sides: Option<f64>,
+    /// Line slot only: flow through the two ends together.
+    ends: Option<f64>,
+}
+
+/// Flow by the chosen method, m³/s. Pit: Thiem (or Hantush–Jacob) for the equivalent well.
+/// Trench: per metre from both sides, leaky q = 2·ΔΦ/B (one-dimensional leaky flow), else
+/// 2·ΔΦ/L₀, plus the two ends as one radial well of radius W/2.
+#[allow(clippy::too_many_arguments)]
+fn method_flow(
+    aq: &Aquifer,
+    method: FlowMethod,
+    delta_phi: f64,
+    r_e: f64,
+    length: f64,
+    width: f64,
+    l0_radial: f64,
+    l0_line: f64,
+) -> MethodFlow {
+    let leaky = aq.leakage_factor();
     let (l0, big_r, q, sides, ends) = match method {
         FlowMethod::NoneNeeded => (l0_radial, r_e + l0_radial, 0.0, None, None),
         FlowMethod::EquivalentWell => {
@@ -326,31 +337,41 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             )
         }
     };
-    if method != FlowMethod::NoneNeeded {
-        let basis = match &model.influence {
-            crate::input::model::InfluenceMethod::Sichardt { .. }
-            | crate::input::model::InfluenceMethod::Kusakin => InfluenceBasis::AtDrawdown {
-                method: model.influence.name().to_string(),
-                drawdown: s,
-            },
-            crate::input::model::InfluenceMethod::PumpingTest { .. } => {
-                InfluenceBasis::PumpingTest {
-                    jacob: matches!(aq.kind, AquiferKind::Unconfined),
-                }
-            }
-            other => InfluenceBasis::Fixed {
-                method: other.name().to_string(),
-            },
-        };
-        notes.push(EstimateNote::Influence {
-            distance: l0,
-            basis,
-        });
+    MethodFlow {
+        l0,
+        big_r,
+        q,
+        sides,
+        ends,
     }
-    // Boundaries: first-order images of the equivalent well at the centroid.
-    let q_free = q;
-    let centre = geo::Centroid::centroid(&e.outline).map_or([0.0, 0.0], |c| [c.x(), c.y()]);
-    let images: Vec<(f64, f64)> = model
+}
+
+/// The note saying where the distance of influence `l0` came from (at drawdown `s`).
+fn influence_note(model: &Model, s: f64, l0: f64) -> EstimateNote {
+    let aq = &model.aquifer;
+    let basis = match &model.influence {
+        crate::input::model::InfluenceMethod::Sichardt { .. }
+        | crate::input::model::InfluenceMethod::Kusakin => InfluenceBasis::AtDrawdown {
+            method: model.influence.name().to_string(),
+            drawdown: s,
+        },
+        crate::input::model::InfluenceMethod::PumpingTest { .. } => InfluenceBasis::PumpingTest {
+            jacob: matches!(aq.kind, AquiferKind::Unconfined),
+        },
+        other => InfluenceBasis::Fixed {
+            method: other.name().to_string(),
+        },
+    };
+    EstimateNote::Influence {
+        distance: l0,
+        basis,
+    }
+}
+
+/// First-order images of the equivalent well at `centre`, one per boundary: (distance from the
+/// well to its image = twice the distance to the boundary, sign of the image).
+fn boundary_images(model: &Model, centre: [f64; 2]) -> Vec<(f64, f64)> {
+    model
         .boundaries
         .iter()
         .map(|b| {
@@ -358,13 +379,42 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             let a = (f[0] - centre[0]).hypot(f[1] - centre[1]);
             (2.0 * a, crate::physics::images::image_sign(b.kind))
         })
-        .collect();
+        .collect()
+}
+
+/// One well's capacity with the screen below the target level taken as wetted:
+/// (wetted screen, Sichardt capacity, capacity used, what limits it).
+fn well_capacity(model: &Model, target: f64) -> (f64, f64, f64, String) {
+    let w = &model.wells;
+    let wetted = (w.screen_top.min(target) - w.screen_base).max(0.0);
+    let sichardt = capacity::sichardt_well_capacity(w.radius, wetted, model.aquifer.conductivity);
+    let (cap, limit) = match w.pump_capacity {
+        Some(p) if p < sichardt => (p, "pump capacity".to_string()),
+        _ => (sichardt, "Sichardt entrance gradient".to_string()),
+    };
+    (wetted, sichardt, cap, limit)
+}
+
+/// Boundaries: first-order images of the equivalent well (radius `r_e`) at the centroid. Returns
+/// the flow with boundaries and the factor on `q_free`, and adds the note listing them.
+fn apply_boundaries(
+    model: &Model,
+    e: &Excavation,
+    method: FlowMethod,
+    r_e: f64,
+    l0_radial: f64,
+    q_free: f64,
+    notes: &mut Vec<EstimateNote>,
+) -> (f64, f64) {
+    let leaky = model.aquifer.leakage_factor();
+    let centre = geo::Centroid::centroid(&e.outline).map_or([0.0, 0.0], |c| [c.x(), c.y()]);
+    let images = boundary_images(model, centre);
     let factor = if method == FlowMethod::NoneNeeded || images.is_empty() {
         1.0
     } else {
         crate::physics::image_flow::boundary_flow_factor(r_e, r_e + l0_radial, leaky, &images)
     };
-    let q = q * factor;
+    let q = q_free * factor;
     if !images.is_empty() && method != FlowMethod::NoneNeeded {
         notes.push(EstimateNote::Boundaries {
             equivalent_radius: r_e,
@@ -379,11 +429,24 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             factor,
         });
     }
-    let equivalent_well = if method == FlowMethod::NoneNeeded {
-        0.0
-    } else {
-        radial_flow(aq, delta_phi, r_e, r_e + l0_radial)
-    };
+    (q, factor)
+}
+
+/// The notes on the method's validity: a trench shorter than twice its distance of influence
+/// (compare the equivalent well's flow), and R close to r_e where ln(R/r_e) is sensitive.
+#[allow(clippy::too_many_arguments)]
+fn method_notes(
+    model: &Model,
+    method: FlowMethod,
+    flow: &MethodFlow,
+    r_e: f64,
+    length: f64,
+    l0_line: f64,
+    equivalent_well: f64,
+    notes: &mut Vec<EstimateNote>,
+) {
+    let leaky = model.aquifer.leakage_factor();
+    let big_r = flow.big_r;
     if method == FlowMethod::LineSlot && length < 2.0 * leaky.unwrap_or(l0_line) {
         notes.push(EstimateNote::ShortTrench {
             length,
@@ -397,7 +460,13 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             equivalent_radius: r_e,
         });
     }
-    if let Some(b) = leaky {
+}
+
+/// The notes on the setting that do not depend on the flow: leaky layer, target below the
+/// confining top, low contingency.
+fn setting_notes(model: &Model, target: f64, notes: &mut Vec<EstimateNote>) {
+    let aq = &model.aquifer;
+    if let Some(b) = aq.leakage_factor() {
         notes.push(EstimateNote::Leaky { leakage_factor: b });
     }
     if matches!(aq.kind, AquiferKind::Confined) {
@@ -412,15 +481,83 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
             contingency: model.contingency,
         });
     }
+}
+
+/// The suction note for wellpoints: one definition with `check` and `design`: the water in a
+/// wellpoint may go down to the header level less the suction limit, and it must reach below
+/// the target.
+fn suction_note(model: &Model, target: f64) -> EstimateNote {
+    let w = &model.wells;
+    let floor = model.as_built.suction_floor(w.suction_limit);
+    EstimateNote::Suction {
+        floor,
+        header: model.as_built.header_level,
+        header_is_ground: !model.as_built.header_given,
+        suction_limit: w.suction_limit,
+        target,
+    }
+}
+
+fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
+    let aq = &model.aquifer;
+    let area = e.outline.unsigned_area();
+    let perimeter = Euclidean.length(e.outline.exterior());
+    let (length, width, along_centre) = measure(e);
+    let r_e = equivalent::equivalent_radius_from_area(area);
+    let r_p = equivalent::equivalent_radius_from_perimeter(perimeter);
+    // The level the design works to: the relief head for `control = "relieve"` (or where it is
+    // the lower in `"both"`), else formation − margin; the same as the check points carry.
+    let design_target = crate::field::checkpoints::design_target(model, e);
+    let target = design_target.level.unwrap_or(aq.initial_level);
+    let s = aq.initial_level - target;
+    let delta_phi = aq.initial_potential() - aq.potential(target);
+    let aspect = if width > 0.0 {
+        length / width
+    } else {
+        f64::INFINITY
+    };
+    let mut notes = Vec::new();
+
+    if design_target.relief {
+        notes.push(EstimateNote::ReliefHead {
+            head: target,
+            factor_of_safety: model.uplift.as_ref().map_or(0.0, |u| u.factor_of_safety),
+            formation_less_margin: e.target_level(),
+        });
+    }
+    let (method, reason) =
+        choose_method(model, e, design_target.level.is_some(), target, s, aspect);
+
+    let l0_radial = model.influence.distance(aq, s.max(0.0), false);
+    let l0_line = model.influence.distance(aq, s.max(0.0), true);
+    let flow = method_flow(
+        aq, method, delta_phi, r_e, length, width, l0_radial, l0_line,
+    );
+    if method != FlowMethod::NoneNeeded {
+        notes.push(influence_note(model, s, flow.l0));
+    }
+    let q_free = flow.q;
+    let (q, factor) = apply_boundaries(model, e, method, r_e, l0_radial, q_free, &mut notes);
+    let equivalent_well = if method == FlowMethod::NoneNeeded {
+        0.0
+    } else {
+        radial_flow(aq, delta_phi, r_e, r_e + l0_radial)
+    };
+    method_notes(
+        model,
+        method,
+        &flow,
+        r_e,
+        length,
+        l0_line,
+        equivalent_well,
+        &mut notes,
+    );
+    setting_notes(model, target, &mut notes);
 
     // One well's capacity: screen length below the target level is taken as wetted.
     let w = &model.wells;
-    let wetted = (w.screen_top.min(target) - w.screen_base).max(0.0);
-    let sichardt = capacity::sichardt_well_capacity(w.radius, wetted, aq.conductivity);
-    let (cap, limit) = match w.pump_capacity {
-        Some(p) if p < sichardt => (p, "pump capacity".to_string()),
-        _ => (sichardt, "Sichardt entrance gradient".to_string()),
-    };
+    let (wetted, sichardt, cap, limit) = well_capacity(model, target);
     let design = q * (1.0 + model.contingency);
     // The same share of each well's capacity as `design` uses (allowances.capacity_fraction).
     let fraction = model.design.capacity_fraction;
@@ -433,16 +570,7 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         notes.push(EstimateNote::NoScreenBelowTarget);
     }
     if w.kind == WellKind::Wellpoint {
-        // One definition with `check` and `design`: the water in a wellpoint may go down to the
-        // header level less the suction limit, and it must reach below the target.
-        let floor = model.as_built.suction_floor(w.suction_limit);
-        notes.push(EstimateNote::Suction {
-            floor,
-            header: model.as_built.header_level,
-            header_is_ground: !model.as_built.header_given,
-            suction_limit: w.suction_limit,
-            target,
-        });
+        notes.push(suction_note(model, target));
     }
 
     let day = 86_400.0;
@@ -467,13 +595,13 @@ fn estimate_excavation(model: &Model, e: &Excavation) -> ExcavationEstimate {
         flow_method: method,
         flow_method_reason: reason,
         influence_method: model.influence.name().to_string(),
-        distance_of_influence_m: l0,
-        radius_of_influence_m: big_r,
+        distance_of_influence_m: flow.l0,
+        radius_of_influence_m: flow.big_r,
         total_flow_m3_per_day: q * day,
         total_flow_l_per_s: q * 1e3,
-        slot_sides_flow_m3_per_day: sides.map(|v| v * day),
-        slot_ends_flow_m3_per_day: ends.map(|v| v * day),
-        flow_per_100m_m3_per_day: sides.map(|v| v * day * 100.0 / length.max(1e-9)),
+        slot_sides_flow_m3_per_day: flow.sides.map(|v| v * day),
+        slot_ends_flow_m3_per_day: flow.ends.map(|v| v * day),
+        flow_per_100m_m3_per_day: flow.sides.map(|v| v * day * 100.0 / length.max(1e-9)),
         flow_without_boundaries_l_per_s: q_free * 1e3,
         boundary_factor: factor,
         equivalent_well_flow_m3_per_day: equivalent_well * day,

@@ -133,6 +133,167 @@ fn path_length(paths: &[Vec<[f64; 2]>]) -> f64 {
     l + 0.0
 }
 
+/// How each bid figure is found, in words: depth, design flow, header or main length, pump
+/// duty, total head and power.
+fn bid_basis(model: &Model, depth: f64, from_paths: bool, built_count: usize) -> Vec<String> {
+    let spec = &model.wells;
+    let ps = &model.design.pumps;
+    let f = model.contingency;
+    let hours = ps.hours_per_day;
+    let wellpoints = spec.kind == WellKind::Wellpoint;
+    vec![
+        format!(
+            "depth per {} = ground {:.2} m − screen base {:.2} m + {SUMP_ALLOWANCE:.1} m sump allowance = {depth:.2} m (common practice (no source))",
+            if wellpoints { "wellpoint" } else { "well" },
+            model.ground_level, spec.screen_base
+        ),
+        format!("design flow = total × (1 + {f:.2}) (contingency from the design file)"),
+        if from_paths {
+            "header length = the layout's wellpoint line(s)".to_string()
+        } else {
+            format!(
+                "{} length = the shortest pipe run joining the {} built {} (minimum spanning tree of their positions: the same however the wells were given)",
+                if wellpoints { "header" } else { "collecting main" },
+                built_count,
+                if wellpoints { "wellpoints" } else { "wells" }
+            )
+        },
+        format!(
+            "pump duty = the smallest of the standard duties [{}] L/s at least the running rate × (1 + {f:.2}){}; wells within {:.0} % of a class's largest rate share its class",
+            ps.duties.iter().map(|d| format!("{}", d * 1e3)).collect::<Vec<_>>().join(", "),
+            if spec.pump_capacity.is_some() { ", at most the design file's pump capacity" } else { "" },
+            ps.class_tolerance * 100.0
+        ),
+        format!(
+            "total head = discharge level {:.2} m − lowest level in the well + riser friction ({:.0} mm) + header friction ({:.0} mm, half the {} length at the whole design flow), Hazen–Williams C = {:.0} (checks.md §15)",
+            ps.discharge_level, ps.riser_diameter * 1e3, ps.header_diameter * 1e3,
+            if wellpoints { "pump set's header" } else { "well line's" },
+            ps.hazen_williams_c
+        ),
+        format!(
+            "shaft power = ρ·g·Q·H/η with η = {:.2}; installed at each pump's duty and class head (standby included), running at each well's rate; energy per day at the running power for {hours:.0} h",
+            ps.efficiency
+        ),
+    ]
+}
+
+/// Deep wells: one pump per working well, grouped in classes by duty; each class's head is the
+/// largest of its wells' at the duty (header friction over `header_length` at the design flow).
+/// Returns the classes and the running power, W (each well at its rate and running head).
+fn deep_well_pumps(
+    model: &Model,
+    wells: &[Well],
+    lowest: &impl Fn(usize) -> f64,
+    header_length: f64,
+    total: f64,
+    design_flow: f64,
+) -> (Vec<PumpClass>, f64) {
+    let mut pumps = Vec::new();
+    let mut running_w = 0.0;
+    let rates: Vec<f64> = wells.iter().map(|w| w.rate.max(0.0)).collect();
+    for (duty, members) in classes(model, &rates) {
+        let mut worst: Option<Head> = None;
+        let mut rng = [f64::INFINITY, 0.0f64];
+        for &i in &members {
+            let q = wells[i].rate;
+            let h_duty = head(
+                model,
+                lowest(i),
+                wells[i].pump_intake,
+                duty,
+                header_length,
+                design_flow,
+            );
+            if worst.is_none_or(|w| h_duty.total() > w.total()) {
+                worst = Some(h_duty);
+            }
+            let h_run = head(
+                model,
+                lowest(i),
+                wells[i].pump_intake,
+                q,
+                header_length,
+                total,
+            );
+            running_w += shaft_power(model, q, h_run.total());
+            rng = [rng[0].min(q * 1e3), rng[1].max(q * 1e3)];
+        }
+        let h = worst.unwrap_or(Head {
+            lift_m: 0.0,
+            riser_m: 0.0,
+            header_m: 0.0,
+        });
+        pumps.push(PumpClass {
+            duty_l_per_s: duty * 1e3,
+            head_m: h.total(),
+            head_parts: h,
+            count: members.len(),
+            wells: members.iter().map(|&i| wells[i].name.clone()).collect(),
+            running_l_per_s: rng,
+            shaft_power_kw: shaft_power(model, duty, h.total()) / 1e3,
+            above_list: members.iter().any(|&i| duty_for(model, wells[i].rate).1),
+        });
+    }
+    (pumps, running_w)
+}
+
+/// Wellpoints: header pump sets by length, each serving `wellpoint_set_length` m of header and
+/// lifting from the lowest level in the working wellpoints `idx`. Returns the class of sets,
+/// their number and the running power, W; `None` when nothing is pumped.
+fn wellpoint_sets(
+    model: &Model,
+    idx: &[usize],
+    lowest: &impl Fn(usize) -> f64,
+    line_length: f64,
+    total: f64,
+) -> Option<(PumpClass, usize, f64)> {
+    let spec = &model.wells;
+    let ps = &model.design.pumps;
+    let f = model.contingency;
+    // Header pump sets by length: each serves `wellpoint_set_length` m of header.
+    let n = ((line_length / ps.wellpoint_set_length).ceil() as usize).max(usize::from(total > 0.0));
+    if n == 0 {
+        return None;
+    }
+    let per_set = total / n as f64;
+    let low = idx.iter().map(|&i| lowest(i)).fold(f64::INFINITY, f64::min);
+    let low = if low.is_finite() {
+        low
+    } else {
+        model.ground_level - spec.suction_limit
+    };
+    let (duty, above) = duty_for(model, per_set);
+    let set_len = line_length / n as f64;
+    let h_duty = head(
+        model,
+        low,
+        model.ground_level,
+        duty,
+        0.5 * set_len,
+        per_set * (1.0 + f),
+    );
+    let h_run = head(
+        model,
+        low,
+        model.ground_level,
+        per_set,
+        0.5 * set_len,
+        per_set,
+    );
+    let running_w = n as f64 * shaft_power(model, per_set, h_run.total());
+    let class = PumpClass {
+        duty_l_per_s: duty * 1e3,
+        head_m: h_duty.total(),
+        head_parts: h_duty,
+        count: n,
+        wells: (1..=n).map(|k| format!("set {k}")).collect(),
+        running_l_per_s: [per_set * 1e3, per_set * 1e3],
+        shaft_power_kw: shaft_power(model, duty, h_duty.total()) / 1e3,
+        above_list: above,
+    };
+    Some((class, n, running_w))
+}
+
 /// The bid quantities of a designed layout; `levels` are the water levels in the wells at
 /// their rates (m; `None` where a well was not evaluated or is dry: its lowest allowed level
 /// is used).
@@ -169,132 +330,26 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         levels.get(i).copied().flatten().unwrap_or(floor)
     };
     let hours = ps.hours_per_day;
-    let mut basis = vec![
-        format!(
-            "depth per {} = ground {:.2} m − screen base {:.2} m + {SUMP_ALLOWANCE:.1} m sump allowance = {depth:.2} m (common practice (no source))",
-            if wellpoints { "wellpoint" } else { "well" },
-            model.ground_level, spec.screen_base
-        ),
-        format!("design flow = total × (1 + {f:.2}) (contingency from the design file)"),
-        if wellpoints && !paths.is_empty() {
-            "header length = the layout's wellpoint line(s)".to_string()
-        } else {
-            format!(
-                "{} length = the shortest pipe run joining the {} built {} (minimum spanning tree of their positions: the same however the wells were given)",
-                if wellpoints { "header" } else { "collecting main" },
-                built_positions.len(),
-                if wellpoints { "wellpoints" } else { "wells" }
-            )
-        },
-        format!(
-            "pump duty = the smallest of the standard duties [{}] L/s at least the running rate × (1 + {f:.2}){}; wells within {:.0} % of a class's largest rate share its class",
-            ps.duties.iter().map(|d| format!("{}", d * 1e3)).collect::<Vec<_>>().join(", "),
-            if spec.pump_capacity.is_some() { ", at most the design file's pump capacity" } else { "" },
-            ps.class_tolerance * 100.0
-        ),
-        format!(
-            "total head = discharge level {:.2} m − lowest level in the well + riser friction ({:.0} mm) + header friction ({:.0} mm, half the {} length at the whole design flow), Hazen–Williams C = {:.0} (checks.md §15)",
-            ps.discharge_level, ps.riser_diameter * 1e3, ps.header_diameter * 1e3,
-            if wellpoints { "pump set's header" } else { "well line's" },
-            ps.hazen_williams_c
-        ),
-        format!(
-            "shaft power = ρ·g·Q·H/η with η = {:.2}; installed at each pump's duty and class head (standby included), running at each well's rate; energy per day at the running power for {hours:.0} h",
-            ps.efficiency
-        ),
-    ];
+    let mut basis = bid_basis(
+        model,
+        depth,
+        wellpoints && !paths.is_empty(),
+        built_positions.len(),
+    );
     let mut pumps = Vec::new();
     let mut running_w = 0.0;
     let (mut sets, mut per100) = (None, None);
     let standby_pumps;
     if !wellpoints {
         let header_length = 0.5 * line_length;
-        let rates: Vec<f64> = wells.iter().map(|w| w.rate.max(0.0)).collect();
-        for (duty, members) in classes(model, &rates) {
-            let mut worst: Option<Head> = None;
-            let mut rng = [f64::INFINITY, 0.0f64];
-            for &i in &members {
-                let q = wells[i].rate;
-                let h_duty = head(
-                    model,
-                    lowest(i),
-                    wells[i].pump_intake,
-                    duty,
-                    header_length,
-                    design_flow,
-                );
-                if worst.is_none_or(|w| h_duty.total() > w.total()) {
-                    worst = Some(h_duty);
-                }
-                let h_run = head(
-                    model,
-                    lowest(i),
-                    wells[i].pump_intake,
-                    q,
-                    header_length,
-                    total,
-                );
-                running_w += shaft_power(model, q, h_run.total());
-                rng = [rng[0].min(q * 1e3), rng[1].max(q * 1e3)];
-            }
-            let h = worst.unwrap_or(Head {
-                lift_m: 0.0,
-                riser_m: 0.0,
-                header_m: 0.0,
-            });
-            pumps.push(PumpClass {
-                duty_l_per_s: duty * 1e3,
-                head_m: h.total(),
-                head_parts: h,
-                count: members.len(),
-                wells: members.iter().map(|&i| wells[i].name.clone()).collect(),
-                running_l_per_s: rng,
-                shaft_power_kw: shaft_power(model, duty, h.total()) / 1e3,
-                above_list: members.iter().any(|&i| duty_for(model, wells[i].rate).1),
-            });
-        }
+        (pumps, running_w) =
+            deep_well_pumps(model, wells, &lowest, header_length, total, design_flow);
         standby_pumps = standby_placed.len().max(spec.standby as usize) as u32;
     } else {
-        // Header pump sets by length: each serves `wellpoint_set_length` m of header.
-        let n =
-            ((line_length / ps.wellpoint_set_length).ceil() as usize).max(usize::from(total > 0.0));
-        if n > 0 {
-            let per_set = total / n as f64;
-            let low = idx.iter().map(|&i| lowest(i)).fold(f64::INFINITY, f64::min);
-            let low = if low.is_finite() {
-                low
-            } else {
-                model.ground_level - spec.suction_limit
-            };
-            let (duty, above) = duty_for(model, per_set);
-            let set_len = line_length / n as f64;
-            let h_duty = head(
-                model,
-                low,
-                model.ground_level,
-                duty,
-                0.5 * set_len,
-                per_set * (1.0 + f),
-            );
-            let h_run = head(
-                model,
-                low,
-                model.ground_level,
-                per_set,
-                0.5 * set_len,
-                per_set,
-            );
-            running_w = n as f64 * shaft_power(model, per_set, h_run.total());
-            pumps.push(PumpClass {
-                duty_l_per_s: duty * 1e3,
-                head_m: h_duty.total(),
-                head_parts: h_duty,
-                count: n,
-                wells: (1..=n).map(|k| format!("set {k}")).collect(),
-                running_l_per_s: [per_set * 1e3, per_set * 1e3],
-                shaft_power_kw: shaft_power(model, duty, h_duty.total()) / 1e3,
-                above_list: above,
-            });
+        if let Some((class, n, running)) = wellpoint_sets(model, &idx, &lowest, line_length, total)
+        {
+            running_w = running;
+            pumps.push(class);
             sets = Some(n);
             per100 = (line_length > 0.0).then(|| design_flow / line_length * 100.0);
             basis.push(format!(

@@ -12,7 +12,7 @@
 use crate::optimise::limits::CAPACITY_SAFETY;
 use crate::optimise::lp;
 use crate::optimise::lp_problem::{Constraint, LpSolution, LpStatus, RateProblem, Sense};
-use crate::optimise::rates::LayoutRates;
+use crate::optimise::rates::{LayoutRates, Matrices};
 
 /// Most rounds of adding violated constraints before the full programme is used.
 const MAX_ROUNDS: usize = 40;
@@ -73,6 +73,20 @@ enum Goal {
     /// Total flow with no well limits at all (a lower bound on the flow a layout needs).
     TargetsOnly,
 }
+
+/// Which rows the programme already holds: target points, and per well its level and capacity
+/// pieces.
+struct HaveRows {
+    /// Per target point.
+    target: Vec<bool>,
+    /// Per well, per piece of the level floor.
+    level: Vec<Vec<bool>>,
+    /// Per well, per piece of the capacity.
+    cap: Vec<Vec<bool>>,
+}
+
+/// Violated rows with their relative violation, most violated first: (target points, well rows).
+type Violations = (Vec<(f64, usize)>, Vec<(f64, RowRef)>);
 
 fn dot(row: &[f64], x: &[f64]) -> f64 {
     row.iter().zip(x).map(|(a, b)| a * b).sum()
@@ -239,16 +253,10 @@ impl LayoutRates<'_> {
         }
     }
 
-    /// Solve by adding violated rows until none is left. Returns the solution (values per
-    /// group, then the shortfall when asked for), the rows it was solved with and the rounds.
-    fn solve(
-        &self,
-        goal: Goal,
-        extra: &[WellRow],
-        start: &[RowRef],
-    ) -> (LpSolution, Vec<RowRef>, usize) {
-        let g = self.groups.len();
-        let n = self.wells.len();
+    /// The cost of each rate group (the wells' costs, or their number) and its rate bounds
+    /// (capped by the wells' capacity unless only targets count); with a shortfall variable
+    /// appended when the goal is the least shortfall.
+    fn costs_and_bounds(&self, goal: Goal) -> (Vec<f64>, Vec<(f64, f64)>) {
         let limits_on = goal != Goal::TargetsOnly;
         let aq_initial = self.model.aquifer.initial_level;
         let mut costs: Vec<f64> = self
@@ -279,7 +287,11 @@ impl LayoutRates<'_> {
             costs.push(1.0);
             bounds.push((0.0, f64::INFINITY));
         }
-        // Start with the points that ask most of a uniform rate.
+        (costs, bounds)
+    }
+
+    /// The target points, neediest first: by the uniform rate each asks for.
+    fn neediest_first(&self) -> Vec<(f64, usize)> {
         let mut order: Vec<(f64, usize)> = self
             .a_sum
             .iter()
@@ -297,10 +309,20 @@ impl LayoutRates<'_> {
             })
             .collect();
         order.sort_by(|a, b| b.0.total_cmp(&a.0));
-        let mats = self.matrices();
-        // The ten neediest points, and for each rate group the neediest point it serves most
-        // (largest |ΔΦ per unit rate|): the first programme then sees the whole layout.
-        let mut best_of_group: Vec<Option<usize>> = vec![None; g];
+        order
+    }
+
+    /// The first rows: the ten neediest points, and for each rate group the neediest point it
+    /// serves most (largest |ΔΦ per unit rate|), so that the first programme sees the whole
+    /// layout; then the rows carried from an earlier solve of this layout (`start`).
+    fn seed_rows(
+        &self,
+        mats: &Matrices,
+        start: &[RowRef],
+        limits_on: bool,
+    ) -> (Vec<RowRef>, HaveRows) {
+        let order = self.neediest_first();
+        let mut best_of_group: Vec<Option<usize>> = vec![None; self.groups.len()];
         for (_, t) in &order {
             let row = &mats.a[*t];
             if let Some((h, _)) = row
@@ -327,53 +349,128 @@ impl LayoutRates<'_> {
                 rows.push(RowRef::Target(t));
             }
         }
-        let mut have_target = vec![false; mats.a.len()];
+        let mut have = HaveRows {
+            target: vec![false; mats.a.len()],
+            level: self
+                .limits
+                .iter()
+                .map(|l| vec![false; l.level_pieces.len()])
+                .collect(),
+            cap: self
+                .limits
+                .iter()
+                .map(|l| vec![false; l.pieces.len()])
+                .collect(),
+        };
         for r in &rows {
             if let RowRef::Target(t) = r {
-                have_target[*t] = true;
+                have.target[*t] = true;
             }
         }
-        let mut have_level: Vec<Vec<bool>> = self
-            .limits
-            .iter()
-            .map(|l| vec![false; l.level_pieces.len()])
-            .collect();
-        let mut have_cap: Vec<Vec<bool>> = self
-            .limits
-            .iter()
-            .map(|l| vec![false; l.pieces.len()])
-            .collect();
         // The rows carried from an earlier solve of this layout, after the seeds.
         for &r in start {
-            let have = match r {
-                RowRef::Target(t) => have_target.get_mut(t),
-                RowRef::Level(k, i) => have_level.get_mut(k).and_then(|v| v.get_mut(i)),
-                RowRef::Capacity(k, s) => have_cap.get_mut(k).and_then(|v| v.get_mut(s)),
+            let slot = match r {
+                RowRef::Target(t) => have.target.get_mut(t),
+                RowRef::Level(k, i) => have.level.get_mut(k).and_then(|v| v.get_mut(i)),
+                RowRef::Capacity(k, s) => have.cap.get_mut(k).and_then(|v| v.get_mut(s)),
             };
-            if let Some(h) = have {
+            if let Some(h) = slot {
                 if !*h && (limits_on || matches!(r, RowRef::Target(_))) {
                     *h = true;
                     rows.push(r);
                 }
             }
         }
+        (rows, have)
+    }
+
+    /// Every row: all target points, and with limits on every level and capacity piece of
+    /// each pumped well (the last round, when adding rows has not converged).
+    fn all_rows(&self, n_targets: usize, limits_on: bool) -> Vec<RowRef> {
+        let mut rows: Vec<RowRef> = (0..n_targets).map(RowRef::Target).collect();
+        if limits_on {
+            for k in (0..self.wells.len()).filter(|&k| self.group_of[k].is_some()) {
+                for i in 0..self.limits[k].level_pieces.len() {
+                    rows.push(RowRef::Level(k, i));
+                }
+                for s in 0..self.limits[k].pieces.len() {
+                    rows.push(RowRef::Capacity(k, s));
+                }
+            }
+        }
+        rows
+    }
+
+    /// The rows not yet held that the group rates `x` (with `shortfall`) violate by more than
+    /// `tol`, each kind most violated first (relative to Φ₀ for levels and targets, to the
+    /// capacity for rates): (target rows, well rows).
+    fn violated_rows(
+        &self,
+        mats: &Matrices,
+        x: &[f64],
+        shortfall: f64,
+        tol: f64,
+        have: &HaveRows,
+        limits_on: bool,
+    ) -> Violations {
+        let mut target_viol: Vec<(f64, usize)> = mats
+            .a
+            .iter()
+            .enumerate()
+            .filter(|(t, _)| !have.target[*t])
+            .filter_map(|(t, row)| {
+                let v = self.base_t[t] + dot(row, x) - shortfall - self.target_phi[t];
+                (v > tol).then_some((v / self.phi0.abs().max(1e-30), t))
+            })
+            .collect();
+        let mut well_viol: Vec<(f64, RowRef)> = Vec::new();
+        if limits_on {
+            for k in 0..self.wells.len() {
+                let Some(gk) = self.group_of[k] else {
+                    continue;
+                };
+                let phi = self.base_w[k] + dot(&mats.at_wells[k], x);
+                let lim = &self.limits[k];
+                let (floor_phi, i) = lim.chord_floor(x[gk]);
+                if !have.level[k][i] && phi < floor_phi - tol {
+                    let v = (floor_phi - phi) / self.phi0.abs().max(1e-30);
+                    well_viol.push((v, RowRef::Level(k, i)));
+                }
+                let (cap, s) = lim.chord_capacity(phi);
+                if !lim.pieces.is_empty()
+                    && !have.cap[k][s]
+                    && x[gk] > CAPACITY_SAFETY * cap + 1e-12
+                {
+                    let v = (x[gk] - cap) / cap.abs().max(1e-12);
+                    well_viol.push((v, RowRef::Capacity(k, s)));
+                }
+            }
+        }
+        target_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+        well_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+        (target_viol, well_viol)
+    }
+
+    /// Solve by adding violated rows until none is left. Returns the solution (values per
+    /// group, then the shortfall when asked for), the rows it was solved with and the rounds.
+    fn solve(
+        &self,
+        goal: Goal,
+        extra: &[WellRow],
+        start: &[RowRef],
+    ) -> (LpSolution, Vec<RowRef>, usize) {
+        let g = self.groups.len();
+        let limits_on = goal != Goal::TargetsOnly;
+        let (costs, bounds) = self.costs_and_bounds(goal);
+        let mats = self.matrices();
+        let (mut rows, mut have) = self.seed_rows(mats, start, limits_on);
         let tol = ROW_TOLERANCE * self.phi0.abs().max(1e-30);
         let mut rounds = 0;
         loop {
             rounds += 1;
             let full = rounds > MAX_ROUNDS;
             if full {
-                rows = (0..mats.a.len()).map(RowRef::Target).collect();
-                if limits_on {
-                    for k in (0..n).filter(|&k| self.group_of[k].is_some()) {
-                        for i in 0..self.limits[k].level_pieces.len() {
-                            rows.push(RowRef::Level(k, i));
-                        }
-                        for s in 0..self.limits[k].pieces.len() {
-                            rows.push(RowRef::Capacity(k, s));
-                        }
-                    }
-                }
+                rows = self.all_rows(mats.a.len(), limits_on);
             }
             let mut constraints: Vec<Constraint> =
                 rows.iter().map(|r| self.row(*r, goal)).collect();
@@ -395,54 +492,20 @@ impl LayoutRates<'_> {
             } else {
                 0.0
             };
-            // Violated rows, most violated first (relative to Φ₀ for levels and targets, to
-            // the capacity for rates); at most `per_round` of each kind are added per round so
-            // that each programme stays small and far from degenerate.
+            // At most `per_round` violated rows of each kind are added per round so that each
+            // programme stays small and far from degenerate.
             let per_round = g.max(20);
-            let mut target_viol: Vec<(f64, usize)> = mats
-                .a
-                .iter()
-                .enumerate()
-                .filter(|(t, _)| !have_target[*t])
-                .filter_map(|(t, row)| {
-                    let v = self.base_t[t] + dot(row, x) - shortfall - self.target_phi[t];
-                    (v > tol).then_some((v / self.phi0.abs().max(1e-30), t))
-                })
-                .collect();
-            let mut well_viol: Vec<(f64, RowRef)> = Vec::new();
-            if limits_on {
-                for k in 0..n {
-                    let Some(gk) = self.group_of[k] else {
-                        continue;
-                    };
-                    let phi = self.base_w[k] + dot(&mats.at_wells[k], x);
-                    let lim = &self.limits[k];
-                    let (floor_phi, i) = lim.chord_floor(x[gk]);
-                    if !have_level[k][i] && phi < floor_phi - tol {
-                        let v = (floor_phi - phi) / self.phi0.abs().max(1e-30);
-                        well_viol.push((v, RowRef::Level(k, i)));
-                    }
-                    let (cap, s) = lim.chord_capacity(phi);
-                    if !lim.pieces.is_empty()
-                        && !have_cap[k][s]
-                        && x[gk] > CAPACITY_SAFETY * cap + 1e-12
-                    {
-                        let v = (x[gk] - cap) / cap.abs().max(1e-12);
-                        well_viol.push((v, RowRef::Capacity(k, s)));
-                    }
-                }
-            }
-            target_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
-            well_viol.sort_by(|a, b| b.0.total_cmp(&a.0));
+            let (target_viol, well_viol) =
+                self.violated_rows(mats, x, shortfall, tol, &have, limits_on);
             let added = !target_viol.is_empty() || !well_viol.is_empty();
             for (_, t) in target_viol.into_iter().take(per_round) {
-                have_target[t] = true;
+                have.target[t] = true;
                 rows.push(RowRef::Target(t));
             }
             for (_, r) in well_viol.into_iter().take(per_round) {
                 match r {
-                    RowRef::Level(k, i) => have_level[k][i] = true,
-                    RowRef::Capacity(k, s) => have_cap[k][s] = true,
+                    RowRef::Level(k, i) => have.level[k][i] = true,
+                    RowRef::Capacity(k, s) => have.cap[k][s] = true,
                     RowRef::Target(_) => {}
                 }
                 rows.push(r);

@@ -24,8 +24,8 @@
 //! relief head, and "flood" is the base lifting: the time until the head rises to the level at
 //! which the factor of safety against uplift falls to 1.0 (formation level replaced by that head).
 
-use crate::field::checkpoints::{check_points, PointKind};
-use crate::input::model::{Control, Model};
+use crate::field::checkpoints::{check_points, CheckPoint, PointKind};
+use crate::input::model::{Control, Model, Programme};
 use crate::physics::uplift::{overburden, required_head};
 use crate::transient::programme::{diffusion_parameters, switched_off, ProgrammeSetup};
 use crate::transient::steady_link::{steady_link, SteadyLink};
@@ -250,36 +250,32 @@ fn first_crossing(times: &[f64], values: &[bool], ok: impl Fn(f64) -> bool) -> O
     Some(first_true(times[k - 1], times[k], ok))
 }
 
-/// Answer the programme on its setup. See the module notes for the method.
-pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
-    let prog = model
-        .programme
-        .as_ref()
-        .expect("answer is called on a model with a programme");
-    let tm = &setup.model;
-    let h0 = model.aquifer.initial_level;
-    let starts: Vec<f64> = prog.stages.iter().map(|s| s.start).collect();
-    let times = output_times(&starts, prog.duration, prog.recovery, prog.output_step);
-    let stage_of = |t: f64| -> Option<usize> {
-        (t < prog.duration)
-            .then(|| starts.iter().rposition(|s| *s <= t))
-            .flatten()
-    };
-    let stage_at: Vec<Option<usize>> = times.iter().map(|t| stage_of(*t)).collect();
-    let flows: Vec<f64> = times.iter().map(|t| setup.flow_at(*t)).collect();
-    let volumes: Vec<f64> = times
-        .iter()
-        .map(|t| setup.volume_between(0.0, *t))
-        .collect();
+/// The check points of excavation `e` that decide when it can be dug: grid, corners, edges.
+fn points_in_excavation(points: &[CheckPoint], e: usize) -> Vec<usize> {
+    (0..points.len())
+        .filter(|&i| {
+            points[i].excavation == Some(e)
+                && matches!(
+                    points[i].kind,
+                    PointKind::Grid | PointKind::Corner | PointKind::Edge
+                )
+        })
+        .collect()
+}
 
-    // Check points and their drawdowns at every output time.
-    let points = check_points(model);
+/// When each check point with a target first meets it; `d` are the drawdowns at `times`.
+fn point_times(
+    model: &Model,
+    tm: &TransientModel,
+    points: &[CheckPoint],
+    times: &[f64],
+    d: &[Vec<f64>],
+) -> Vec<PointTime> {
+    let h0 = model.aquifer.initial_level;
     let with_target: Vec<usize> = (0..points.len())
         .filter(|&i| points[i].target_level.is_some())
         .collect();
-    let positions: Vec<[f64; 2]> = points.iter().map(|p| p.position).collect();
-    let d = tm.drawdowns(&positions, &times);
-    let point_times: Vec<PointTime> = with_target
+    with_target
         .par_iter()
         .map(|&i| {
             let p = &points[i];
@@ -289,25 +285,27 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
             PointTime {
                 name: p.name.clone(),
                 target_level: target,
-                time: first_crossing(&times, &met, |t| tm.drawdown_at(p.position, t) >= need),
+                time: first_crossing(times, &met, |t| tm.drawdown_at(p.position, t) >= need),
             }
         })
-        .collect();
+        .collect()
+}
 
-    // Stages.
-    let in_exc = |e: usize| -> Vec<usize> {
-        (0..points.len())
-            .filter(|&i| {
-                points[i].excavation == Some(e)
-                    && matches!(
-                        points[i].kind,
-                        PointKind::Grid | PointKind::Corner | PointKind::Edge
-                    )
-            })
-            .collect()
-    };
-    let stages: Vec<StageAnswer> = prog
-        .stages
+/// Each stage: the earliest moment all its excavation's points meet its target, the critical
+/// point (the last to meet it, or the furthest from it), its flow and volume.
+fn stage_answers(
+    model: &Model,
+    prog: &Programme,
+    setup: &ProgrammeSetup,
+    points: &[CheckPoint],
+    times: &[f64],
+    d: &[Vec<f64>],
+    in_exc: &dyn Fn(usize) -> Vec<usize>,
+) -> Vec<StageAnswer> {
+    let tm = &setup.model;
+    let h0 = model.aquifer.initial_level;
+    let starts: Vec<f64> = prog.stages.iter().map(|s| s.start).collect();
+    prog.stages
         .iter()
         .enumerate()
         .map(|(k, st)| {
@@ -324,7 +322,7 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
             let earliest = if need <= 0.0 {
                 Some(0.0)
             } else {
-                first_crossing(&times, &met, all_met)
+                first_crossing(times, &met, all_met)
             };
             // The critical point: the last to meet the target, or the furthest from it.
             let at = earliest.unwrap_or(prog.duration * (1.0 - 1e-9));
@@ -348,10 +346,19 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
                 volume: setup.volume_between(st.start, end),
             }
         })
-        .collect();
-    let total_volume = setup.volume_between(0.0, prog.duration);
+        .collect()
+}
 
-    // Hydrographs: named points, neighbour corners, wells.
+/// Hydrographs at the named points, the neighbours' corners and the wells (in the wells the
+/// level inside, after the well loss at the rate of that time), with the wells' breaches.
+fn hydrographs(
+    model: &Model,
+    prog: &Programme,
+    setup: &ProgrammeSetup,
+    times: &[f64],
+) -> (Vec<Hydrograph>, Vec<WellBreach>) {
+    let tm = &setup.model;
+    let h0 = model.aquifer.initial_level;
     let mut places: Vec<(String, SeriesKind, [f64; 2])> = Vec::new();
     for (name, p, _) in &model.checks.points {
         places.push((name.clone(), SeriesKind::Point, *p));
@@ -376,7 +383,7 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
     let n_other = places.len() - n_wells;
     let place_pos: Vec<[f64; 2]> = places[..n_other].iter().map(|p| p.2).collect();
     let mut levels: Vec<Vec<f64>> = tm
-        .drawdowns(&place_pos, &times)
+        .drawdowns(&place_pos, times)
         .into_iter()
         .map(|s| s.iter().map(|s| h0 - s).collect())
         .collect();
@@ -390,9 +397,9 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
                 .collect()
         })
         .collect();
-    let well_breaches = breaches(model, tm, &setup.wells, &times, &well_levels, prog.duration);
+    let well_breaches = breaches(model, tm, &setup.wells, times, &well_levels, prog.duration);
     levels.extend(well_levels);
-    let hydrographs: Vec<Hydrograph> = places
+    let hydrographs = places
         .into_iter()
         .zip(levels)
         .map(|((name, kind, position), levels)| Hydrograph {
@@ -402,6 +409,40 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
             levels,
         })
         .collect();
+    (hydrographs, well_breaches)
+}
+
+/// Answer the programme on its setup. See the module notes for the method.
+pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
+    let prog = model
+        .programme
+        .as_ref()
+        .expect("answer is called on a model with a programme");
+    let tm = &setup.model;
+    let starts: Vec<f64> = prog.stages.iter().map(|s| s.start).collect();
+    let times = output_times(&starts, prog.duration, prog.recovery, prog.output_step);
+    let stage_of = |t: f64| -> Option<usize> {
+        (t < prog.duration)
+            .then(|| starts.iter().rposition(|s| *s <= t))
+            .flatten()
+    };
+    let stage_at: Vec<Option<usize>> = times.iter().map(|t| stage_of(*t)).collect();
+    let flows: Vec<f64> = times.iter().map(|t| setup.flow_at(*t)).collect();
+    let volumes: Vec<f64> = times
+        .iter()
+        .map(|t| setup.volume_between(0.0, *t))
+        .collect();
+
+    // Check points and their drawdowns at every output time.
+    let points = check_points(model);
+    let positions: Vec<[f64; 2]> = points.iter().map(|p| p.position).collect();
+    let d = tm.drawdowns(&positions, &times);
+    let point_times = point_times(model, tm, &points, &times, &d);
+
+    let in_exc = |e: usize| points_in_excavation(&points, e);
+    let stages = stage_answers(model, prog, setup, &points, &times, &d, &in_exc);
+    let total_volume = setup.volume_between(0.0, prog.duration);
+    let (hydrographs, well_breaches) = hydrographs(model, prog, setup, &times);
 
     let flood = flood(model, setup, &times, &stages, &in_exc);
     let recovery = recovery(model, setup, &times, &d, &in_exc);

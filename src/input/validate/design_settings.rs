@@ -7,7 +7,7 @@ use crate::input::model::{
     Control, DesignSettings, PumpSettings, WellKind, DEFAULT_CAPACITY_FRACTION,
     DEFAULT_OPERATING_MARGIN,
 };
-use crate::input::schema::DesignFile;
+use crate::input::schema::{DesignFile, Pumps};
 
 /// Default standard pump duties, L/s: a short list of round sizes to pick the next one up
 /// from (common practice (no source); not a maker's catalogue — give your supplier's list).
@@ -64,7 +64,18 @@ pub fn design_settings(
     let one_well_out = allow
         .and_then(|a| a.one_well_out)
         .unwrap_or(kind == WellKind::DeepWell);
-    let p = raw.pumps.as_ref();
+    let pumps = pump_settings(rep, raw.pumps.as_ref(), ground)?;
+    Ok(DesignSettings {
+        operating_margin,
+        capacity_fraction,
+        one_well_out,
+        pumps,
+    })
+}
+
+/// The pumps' standard duties, m³/s, ascending without repeats: as listed (each above 0 and at
+/// most 1000 L/s), else the defaults.
+fn pump_duties(rep: &Reporter, p: Option<&Pumps>) -> Result<Vec<f64>, InputError> {
     let mut duties: Vec<f64> = match p.and_then(|p| p.duties.as_ref()) {
         Some(list) => {
             if list.is_empty() {
@@ -92,6 +103,17 @@ pub fn design_settings(
     };
     duties.sort_by(f64::total_cmp);
     duties.dedup();
+    Ok(duties)
+}
+
+/// The pump settings (`[pumps]`): duties, efficiency, discharge level, pipe diameters,
+/// Hazen–Williams C, running hours, class tolerance, wellpoint set length and rate sharing.
+fn pump_settings(
+    rep: &Reporter,
+    p: Option<&Pumps>,
+    ground: f64,
+) -> Result<PumpSettings, InputError> {
+    let duties = pump_duties(rep, p)?;
     let efficiency = p
         .and_then(|p| p.efficiency.as_ref())
         .map_or(DEFAULT_EFFICIENCY, |r| r.value);
@@ -177,23 +199,18 @@ pub fn design_settings(
             ))
         }
     };
-    Ok(DesignSettings {
-        operating_margin,
-        capacity_fraction,
-        one_well_out,
-        pumps: PumpSettings {
-            duties,
-            efficiency,
-            discharge_level,
-            riser_diameter,
-            header_diameter,
-            hazen_williams_c,
-            hours_per_day,
-            class_tolerance,
-            one_rate_per_class: p.and_then(|p| p.one_rate_per_class).unwrap_or(false),
-            wellpoint_set_length,
-            rates_per_set,
-        },
+    Ok(PumpSettings {
+        duties,
+        efficiency,
+        discharge_level,
+        riser_diameter,
+        header_diameter,
+        hazen_williams_c,
+        hours_per_day,
+        class_tolerance,
+        one_rate_per_class: p.and_then(|p| p.one_rate_per_class).unwrap_or(false),
+        wellpoint_set_length,
+        rates_per_set,
     })
 }
 

@@ -152,29 +152,9 @@ fn parse_error(rep: &Reporter, source: &str, e: &toml::de::Error) -> InputError 
     rep.error(field, span, message)
 }
 
-fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, InputError> {
-    crate::input::validate::ranges::check(rep, &raw)?;
-    // Site.
-    if raw.site.name.trim().is_empty() {
-        return Err(rep.error("site.name", None, "must not be empty"));
-    }
-    let ground = raw.site.ground_level.si;
-
-    let aquifer = crate::input::validate::aquifer::aquifer(rep, &raw, ground)?;
-    let layers = crate::input::validate::layers::layers(rep, &raw, &aquifer)?;
-    // with layers, excavations and screens may reach down to the lowest aquifer's base
-    let base = layers
-        .as_ref()
-        .map_or(aquifer.base_level, |l| l.lowest_base());
-    let excavations = shapes::excavations(rep, &raw, ground, base)?;
-    // in layered ground the design works in the aquifer holding the first excavation's target
-    // (the gravel under a shaft, the sand round a basement); the others are in `layers`
-    let aquifer = match (&layers, excavations.first()) {
-        (Some(g), Some(e)) => g.aquifers[g.aquifer_at(e.target_level())].aquifer.clone(),
-        _ => aquifer,
-    };
-    let influence = crate::input::validate::aquifer::influence(rep, &raw, &aquifer)?;
-    // Allowances.
+/// The allowances: contingency (0 … 3) and the length/width ratio from which an excavation is a
+/// trench (at least 1). Returns (contingency, trench aspect ratio).
+fn allowances(rep: &Reporter, raw: &DesignFile) -> Result<(f64, f64), InputError> {
     let allow = raw.allowances.as_ref();
     let contingency = allow.and_then(|a| a.contingency.as_ref());
     let contingency_value = contingency.map_or(DEFAULT_CONTINGENCY, |c| c.value);
@@ -197,22 +177,16 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
             format!("{aspect} must be at least 1"),
         ));
     }
+    Ok((contingency_value, aspect))
+}
 
-    // Wells.
-    let screened_ground = crate::physics::potential::Aquifer {
-        base_level: base,
-        ..aquifer.clone()
-    };
-    let wells = wells::well_spec(rep, raw.wells.as_ref(), &screened_ground, ground)?;
-    let as_built = crate::input::validate::as_built::as_built(
-        rep,
-        &raw.aquifer,
-        raw.wells.as_ref(),
-        &wells,
-        ground,
-    )?;
-
-    // Listed wells.
+/// The listed wells (`[[well]]`): unique names, finite positions, a positive radius (default the
+/// wells' radius).
+fn listed_wells(
+    rep: &Reporter,
+    raw: &DesignFile,
+    wells: &WellSpec,
+) -> Result<Vec<ListedWell>, InputError> {
     let mut well_names = HashSet::new();
     let mut listed_wells = Vec::new();
     for (i, w) in raw.well.iter().enumerate() {
@@ -242,6 +216,82 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
             radius,
         });
     }
+    Ok(listed_wells)
+}
+
+/// The neighbouring structures (`[[neighbour]]`), with unique names.
+fn neighbours(rep: &Reporter, raw: &DesignFile) -> Result<Vec<Neighbour>, InputError> {
+    let mut neighbours = Vec::new();
+    let mut neighbour_names = HashSet::new();
+    for (i, n) in raw.neighbour.iter().enumerate() {
+        neighbours.push(crate::input::validate::neighbours::neighbour(
+            rep,
+            i,
+            n,
+            &mut neighbour_names,
+        )?);
+    }
+    Ok(neighbours)
+}
+
+/// The quantity the maps show: drawdown (the default) or water level.
+fn map_quantity(
+    rep: &Reporter,
+    output: Option<&schema::Output>,
+) -> Result<MapQuantity, InputError> {
+    let quantity = match output.and_then(|o| o.map.as_deref()) {
+        None | Some("drawdown") => MapQuantity::Drawdown,
+        Some("water-level") => MapQuantity::WaterLevel,
+        Some(other) => {
+            return Err(rep.error(
+                "output.map",
+                None,
+                format!("unknown map quantity \"{other}\"; valid: \"drawdown\", \"water-level\""),
+            ))
+        }
+    };
+    Ok(quantity)
+}
+
+fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, InputError> {
+    crate::input::validate::ranges::check(rep, &raw)?;
+    // Site.
+    if raw.site.name.trim().is_empty() {
+        return Err(rep.error("site.name", None, "must not be empty"));
+    }
+    let ground = raw.site.ground_level.si;
+
+    let aquifer = crate::input::validate::aquifer::aquifer(rep, &raw, ground)?;
+    let layers = crate::input::validate::layers::layers(rep, &raw, &aquifer)?;
+    // with layers, excavations and screens may reach down to the lowest aquifer's base
+    let base = layers
+        .as_ref()
+        .map_or(aquifer.base_level, |l| l.lowest_base());
+    let excavations = shapes::excavations(rep, &raw, ground, base)?;
+    // in layered ground the design works in the aquifer holding the first excavation's target
+    // (the gravel under a shaft, the sand round a basement); the others are in `layers`
+    let aquifer = match (&layers, excavations.first()) {
+        (Some(g), Some(e)) => g.aquifers[g.aquifer_at(e.target_level())].aquifer.clone(),
+        _ => aquifer,
+    };
+    let influence = crate::input::validate::aquifer::influence(rep, &raw, &aquifer)?;
+    let (contingency_value, aspect) = allowances(rep, &raw)?;
+
+    // Wells.
+    let screened_ground = crate::physics::potential::Aquifer {
+        base_level: base,
+        ..aquifer.clone()
+    };
+    let wells = wells::well_spec(rep, raw.wells.as_ref(), &screened_ground, ground)?;
+    let as_built = crate::input::validate::as_built::as_built(
+        rep,
+        &raw.aquifer,
+        raw.wells.as_ref(),
+        &wells,
+        ground,
+    )?;
+
+    let listed_wells = listed_wells(rep, &raw, &wells)?;
 
     let layout = match &raw.layout {
         Some(l) => Some(wells::layout_spec(
@@ -255,31 +305,12 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     };
 
     let (boundaries, keep_outs) = shapes::boundaries_and_keep_outs(rep, &raw, &excavations)?;
-    let mut neighbours = Vec::new();
-    let mut neighbour_names = HashSet::new();
-    for (i, n) in raw.neighbour.iter().enumerate() {
-        neighbours.push(crate::input::validate::neighbours::neighbour(
-            rep,
-            i,
-            n,
-            &mut neighbour_names,
-        )?);
-    }
+    let neighbours = neighbours(rep, &raw)?;
 
     let checks = check_settings(rep, raw.checks.as_ref())?;
     let uplift = crate::input::validate::neighbours::uplift(rep, &raw, &excavations)?;
     let output = raw.output.as_ref();
-    let map_quantity = match output.and_then(|o| o.map.as_deref()) {
-        None | Some("drawdown") => MapQuantity::Drawdown,
-        Some("water-level") => MapQuantity::WaterLevel,
-        Some(other) => {
-            return Err(rep.error(
-                "output.map",
-                None,
-                format!("unknown map quantity \"{other}\"; valid: \"drawdown\", \"water-level\""),
-            ))
-        }
-    };
+    let map_quantity = map_quantity(rep, output)?;
 
     let programme = crate::input::validate::programme::programme(
         rep,

@@ -119,13 +119,12 @@ pub fn well_spec(
     })
 }
 
-pub fn layout_spec(
+/// The excavation the layout is placed round: by name, else the first.
+fn layout_excavation(
     rep: &Reporter,
-    path: &Path,
     l: &schema::Layout,
     excavations: &[Excavation],
-    no_listed_wells: bool,
-) -> Result<LayoutSpec, InputError> {
+) -> Result<usize, InputError> {
     let excavation = match &l.excavation {
         None => 0,
         Some(name) => excavations
@@ -146,6 +145,106 @@ pub fn layout_spec(
                 )
             })?,
     };
+    Ok(excavation)
+}
+
+/// A ring of wells round the excavation: a count (at least 3) or a largest gap, not both.
+fn ring_layout(rep: &Reporter, l: &schema::Layout) -> Result<LayoutKind, InputError> {
+    let count =
+        match (l.count, &l.max_spacing) {
+            (Some(n), None) if n >= 3 => RingCount::Count(n),
+            (Some(n), None) => {
+                return Err(rep.error(
+                    "layout.count",
+                    None,
+                    format!("a ring needs at least 3 wells; got {n}"),
+                ))
+            }
+            (None, Some(s)) => RingCount::MaxSpacing(check_positive(
+                rep,
+                "layout.max_spacing",
+                s,
+                "largest gap between wells",
+            )?),
+            (Some(_), Some(_)) => {
+                return Err(rep.error("layout.count", None, "give count or max_spacing, not both"))
+            }
+            (None, None) => return Err(rep.error(
+                "layout",
+                None,
+                "a ring needs count (number of wells) or max_spacing (largest gap, e.g. \"10 m\")",
+            )),
+        };
+    Ok(LayoutKind::Ring {
+        count,
+        corner_wells: l.corner_wells.unwrap_or(false),
+    })
+}
+
+/// A wellpoint line: spacing, one or both sides, end extension and an optional centre line.
+fn line_layout(rep: &Reporter, l: &schema::Layout) -> Result<LayoutKind, InputError> {
+    let Some(s) = &l.spacing else {
+        return Err(rep.error(
+            "layout.spacing",
+            None,
+            "a wellpoint line needs spacing, e.g. \"1.5 m\"",
+        ));
+    };
+    let spacing = check_positive(rep, "layout.spacing", s, "spacing along the line")?;
+    let both_sides = match l.sides.as_deref().map(str::trim) {
+        None | Some("both") => true,
+        Some("one") => false,
+        Some(other) => {
+            return Err(rep.error(
+                "layout.sides",
+                None,
+                format!("unknown value \"{other}\"; valid: \"one\", \"both\""),
+            ))
+        }
+    };
+    let end_extension = match &l.end_extension {
+        Some(q) if (0.0..=500.0).contains(&q.si) => Some(q.si),
+        Some(q) => {
+            return Err(rep.error(
+                "layout.end_extension",
+                q.span.clone(),
+                format!("{} m is outside 0 … 500 m", q.si),
+            ))
+        }
+        None => None,
+    };
+    let centre_line = match &l.centre_line {
+        Some(c) => {
+            let pts = points(rep, "layout.centre_line", c)?;
+            if pts.len() < 2 {
+                return Err(rep.error(
+                    "layout.centre_line",
+                    Some(c.span()),
+                    "a centre line needs at least 2 points",
+                ));
+            }
+            Some(pts)
+        }
+        None => None,
+    };
+    Ok(LayoutKind::Line {
+        spacing,
+        both_sides,
+        centre_line,
+        end_extension,
+    })
+}
+
+/// The generated layout (`[layout]`): its excavation, offset, kind (ring, line, listed or CSV
+/// wells), start and free placement.
+pub fn layout_spec(
+    rep: &Reporter,
+    path: &Path,
+    l: &schema::Layout,
+    excavations: &[Excavation],
+    no_listed_wells: bool,
+) -> Result<LayoutSpec, InputError> {
+    let excavation = layout_excavation(rep, l, excavations)?;
     let offset = l.offset.as_ref().map_or(2.0, |q| q.si);
     if !(0.0..=100.0).contains(&offset) {
         return Err(rep.error(
@@ -155,71 +254,8 @@ pub fn layout_spec(
         ));
     }
     let kind = match l.kind.trim() {
-        "ring" => {
-            let count = match (l.count, &l.max_spacing) {
-                (Some(n), None) if n >= 3 => RingCount::Count(n),
-                (Some(n), None) => return Err(rep.error("layout.count", None, format!("a ring needs at least 3 wells; got {n}"))),
-                (None, Some(s)) => RingCount::MaxSpacing(check_positive(rep, "layout.max_spacing", s, "largest gap between wells")?),
-                (Some(_), Some(_)) => return Err(rep.error("layout.count", None, "give count or max_spacing, not both")),
-                (None, None) => return Err(rep.error("layout", None, "a ring needs count (number of wells) or max_spacing (largest gap, e.g. \"10 m\")")),
-            };
-            LayoutKind::Ring {
-                count,
-                corner_wells: l.corner_wells.unwrap_or(false),
-            }
-        }
-        "line" => {
-            let Some(s) = &l.spacing else {
-                return Err(rep.error(
-                    "layout.spacing",
-                    None,
-                    "a wellpoint line needs spacing, e.g. \"1.5 m\"",
-                ));
-            };
-            let spacing = check_positive(rep, "layout.spacing", s, "spacing along the line")?;
-            let both_sides = match l.sides.as_deref().map(str::trim) {
-                None | Some("both") => true,
-                Some("one") => false,
-                Some(other) => {
-                    return Err(rep.error(
-                        "layout.sides",
-                        None,
-                        format!("unknown value \"{other}\"; valid: \"one\", \"both\""),
-                    ))
-                }
-            };
-            let end_extension = match &l.end_extension {
-                Some(q) if (0.0..=500.0).contains(&q.si) => Some(q.si),
-                Some(q) => {
-                    return Err(rep.error(
-                        "layout.end_extension",
-                        q.span.clone(),
-                        format!("{} m is outside 0 … 500 m", q.si),
-                    ))
-                }
-                None => None,
-            };
-            let centre_line = match &l.centre_line {
-                Some(c) => {
-                    let pts = points(rep, "layout.centre_line", c)?;
-                    if pts.len() < 2 {
-                        return Err(rep.error(
-                            "layout.centre_line",
-                            Some(c.span()),
-                            "a centre line needs at least 2 points",
-                        ));
-                    }
-                    Some(pts)
-                }
-                None => None,
-            };
-            LayoutKind::Line {
-                spacing,
-                both_sides,
-                centre_line,
-                end_extension,
-            }
-        }
+        "ring" => ring_layout(rep, l)?,
+        "line" => line_layout(rep, l)?,
         "listed" => {
             if no_listed_wells {
                 return Err(rep.error(
