@@ -82,8 +82,17 @@ fn line(item: impl Into<String>, quantity: f64, unit: &str, basis: impl Into<Str
 /// estimate's total flow, m³/s (shown beside the design's).
 pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
     let u = BidUnits(units);
-    let lu = u.len_unit();
     let mut out = Vec::new();
+    well_lines(&mut out, bid, u);
+    pump_lines(&mut out, bid, u);
+    power_lines(&mut out, bid, u);
+    flow_lines(&mut out, bid, u, estimate_flow);
+    out
+}
+
+/// Wells (working, standby, recharge), drilling or jetting, and screen.
+fn well_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
     let what = if bid.wellpoints {
         "wellpoints"
     } else {
@@ -142,6 +151,11 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
         lu,
         "screen top − screen base, working + standby",
     ));
+}
+
+/// One line per pump class: duty, count, head and its parts, shaft power, running rates.
+fn pump_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
     for p in &bid.pumps {
         let duty = p.duty_l_per_s / 1e3;
         let (d, du) = u.rate(duty);
@@ -165,6 +179,11 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
         l.duty_m3_per_s = Some(duty);
         out.push(l);
     }
+}
+
+/// Standby pumps, header or collecting main, power installed and running, energy per day.
+fn power_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
     if bid.standby_pumps > 0 {
         out.push(line(
             "standby pumps",
@@ -207,6 +226,12 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
         "kWh",
         format!("running power × {:.0} h", bid.hours_per_day),
     ));
+}
+
+/// Total and design flow, flow per 100 length units of header, and the quick estimate's total
+/// flow `estimate_flow` (m³/s).
+fn flow_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits, estimate_flow: f64) {
+    let lu = u.len_unit();
     let (total, fu) = u.total_flow(bid.total_flow_m3_per_s);
     let (total_rate, ru) = u.rate(bid.total_flow_m3_per_s);
     out.push(line(
@@ -243,7 +268,6 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
         fu,
         "drydig estimate (equivalent well or line slot)",
     ));
-    out
 }
 
 /// Cost lines (item, quantity, unit price per the line's unit, cost), their total, and the

@@ -53,6 +53,25 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
         days(a.times.last().copied().unwrap_or(a.duration) - a.duration),
         a.times.len()
     );
+    s.push_str(&stages_table(model, a, &f));
+    s.push_str(&totals_text(a, &f));
+    s.push_str(&flood_text(a, &f));
+    s.push_str(&recovery_text(a, &f));
+    s.push_str(&wells_text(a, &f));
+    s.push_str(&steady_text(a, &f));
+    if !model.boundaries.is_empty() {
+        s.push_str(&images_text(a, &f));
+    }
+    s.push_str("\n  Assumptions: wells at constant rate within each stage (the flow is the scheduled one, not reduced when a well runs low); partial penetration as in the steady check, taken as quasi-steady (it settles within hours); well losses at each well's rate of the time; unconfined flow linearised with T = K·H and Jacob's correction.\n");
+    s.push('\n');
+    s.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, "  "));
+    s
+}
+
+/// The stages: planned day, the day each can be dug from (with its date), target, flow,
+/// volume, and whether it is ready or waits.
+fn stages_table(model: &Model, a: &ProgrammeAnswers, f: &Fmt) -> String {
+    let mut s = String::new();
     s.push_str(&format!(
         "  stage                        planned day   can dig from day {:>10} {:>10} {:>11}   \n",
         format!("target {}", f.lu()),
@@ -85,6 +104,12 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             }
         ));
     }
+    s
+}
+
+/// Volume pumped in total, and how many check points meet their final target (the last when).
+fn totals_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
+    let mut s = String::new();
     s.push_str(&format!(
         "\n  volume pumped in total: {} over {} days\n",
         f.volume(a.total_volume),
@@ -104,6 +129,13 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
         s.push_str(&format!("; the last is {n} on day {}", days(t)));
     }
     s.push('\n');
+    s
+}
+
+/// Time to flood (or, under relief, to uplift factor of safety 1.0) with every pump off and
+/// with the worst well off alone.
+fn flood_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
+    let mut s = String::new();
     match &a.flood {
         Some(fl) if fl.relief => {
             s.push_str(&format!(
@@ -164,6 +196,12 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             "\n  time to flood: no moment in the programme with a stage dry below its formation\n",
         ),
     }
+    s
+}
+
+/// Recovery after the pumps stop, when the programme followed it.
+fn recovery_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
+    let mut s = String::new();
     if let Some(r) = &a.recovery {
         s.push_str(&format!(
             "\n  RECOVERY at {} after the pumps stop on day {}: drawdown {} at switch-off, {} left after {} days; 90 % recovered {}; water above the last formation {}\n",
@@ -176,24 +214,23 @@ pub fn to_text(model: &Model, a: &ProgrammeAnswers) -> String {
             r.above_formation.map_or("not within a year".into(), |t| format!("after {}", duration_words(t)))
         ));
     }
-    s.push_str(&wells_text(a, &f));
-    s.push_str(&steady_text(a, &f));
-    if !model.boundaries.is_empty() {
+    s
+}
+
+/// How far the images of straight boundaries are kept, and a warning where the series was cut.
+fn images_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
+    let mut s = String::new();
+    s.push_str(&format!(
+        "\n  Images of the straight boundaries are kept out to {:.0} {} from each well: every image beyond has u = r²S/(4T·t) > {:.0} at the last time followed, W(u) < 1.1e−19, so the omitted remainder is below 3e−15·Q/(4πT) (between two parallel boundaries the series is summed that far, not to a fixed count).\n",
+        f.length_number(a.image_reach), f.lu(), crate::transient::programme::IMAGE_U_MIN
+    ));
+    if a.images_capped > 0 {
         s.push_str(&format!(
-            "\n  Images of the straight boundaries are kept out to {:.0} {} from each well: every image beyond has u = r²S/(4T·t) > {:.0} at the last time followed, W(u) < 1.1e−19, so the omitted remainder is below 3e−15·Q/(4πT) (between two parallel boundaries the series is summed that far, not to a fixed count).\n",
-            f.length_number(a.image_reach), f.lu(), crate::transient::programme::IMAGE_U_MIN
+            "  WARNING: for {} well(s) the image series was cut at {} images before that distance: levels late in the programme may be off.\n",
+            a.images_capped,
+            crate::transient::programme::MAX_IMAGES_IN_TIME
         ));
-        if a.images_capped > 0 {
-            s.push_str(&format!(
-                "  WARNING: for {} well(s) the image series was cut at {} images before that distance: levels late in the programme may be off.\n",
-                a.images_capped,
-                crate::transient::programme::MAX_IMAGES_IN_TIME
-            ));
-        }
     }
-    s.push_str("\n  Assumptions: wells at constant rate within each stage (the flow is the scheduled one, not reduced when a well runs low); partial penetration as in the steady check, taken as quasi-steady (it settles within hours); well losses at each well's rate of the time; unconfined flow linearised with T = K·H and Jacob's correction.\n");
-    s.push('\n');
-    s.push_str(&wrap(&format!("CAUTION: {CAUTION}"), 96, "  "));
     s
 }
 

@@ -6,6 +6,7 @@
 
 use crate::check::section::Section;
 use crate::input::model::Model;
+use crate::input::units::UnitSystem;
 use crate::report::format::{esc, Fmt};
 use crate::report::plot_kit::ticks;
 use std::fmt::Write;
@@ -19,22 +20,87 @@ const BOTTOM: f64 = 96.0;
 /// Most wells drawn on one section.
 const MAX_WELLS: usize = 40;
 
+/// The drawing's scales: chainage along the line to x, level to y (both m to SVG units).
+struct Frame {
+    /// Length of the line, m (at least 1).
+    length: f64,
+    /// Lowest level drawn, m.
+    zlo: f64,
+    /// Highest level drawn, m.
+    zhi: f64,
+    /// Ground level, m.
+    ground: f64,
+}
+
+impl Frame {
+    /// Levels from the lowest of aquifer base, screens and intakes to the highest of ground and
+    /// original water level, padded 6 % each way.
+    fn new(model: &Model, s: &Section) -> Frame {
+        let aq = &model.aquifer;
+        let ground = model.ground_level;
+        let length = s.samples.last().map_or(1.0, |x| x.chainage).max(1.0);
+        let mut zmin = aq.base_level;
+        let mut zmax = ground;
+        for w in &s.wells {
+            zmin = zmin.min(w.screen_base).min(w.pump_intake);
+        }
+        zmax = zmax.max(aq.initial_level);
+        let pad = 0.06 * (zmax - zmin).max(1.0);
+        Frame {
+            length,
+            zlo: zmin - pad,
+            zhi: zmax + pad,
+            ground,
+        }
+    }
+    /// x of chainage `ch` (m).
+    fn px(&self, ch: f64) -> f64 {
+        LEFT + (W - LEFT - RIGHT) * ch / self.length
+    }
+    /// y of level `z` (m).
+    fn py(&self, z: f64) -> f64 {
+        TOP + (H - TOP - BOTTOM) * (self.zhi - z) / (self.zhi - self.zlo)
+    }
+    /// x of both ends of the line.
+    fn ends(&self) -> (f64, f64) {
+        (self.px(0.0), self.px(self.length))
+    }
+}
+
 /// The section drawing as SVG text, titled `title`.
 pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
-    let aq = &model.aquifer;
-    let ground = model.ground_level;
-    let length = s.samples.last().map_or(1.0, |x| x.chainage).max(1.0);
-    let mut zmin = aq.base_level;
-    let mut zmax = ground;
-    for w in &s.wells {
-        zmin = zmin.min(w.screen_base).min(w.pump_intake);
-    }
-    zmax = zmax.max(aq.initial_level);
-    let pad = 0.06 * (zmax - zmin).max(1.0);
-    let (zlo, zhi) = (zmin - pad, zmax + pad);
-    let px = |ch: f64| LEFT + (W - LEFT - RIGHT) * ch / length;
-    let py = |z: f64| TOP + (H - TOP - BOTTOM) * (zhi - z) / (zhi - zlo);
+    let fr = Frame::new(model, s);
     let mut o = String::new();
+    header(&mut o, s, f, title);
+    strata(&mut o, &fr, model);
+    axes(&mut o, &fr, f);
+    neighbours(&mut o, &fr, s, f);
+    excavations(&mut o, &fr, s, f);
+    level_lines(&mut o, &fr, model);
+    lowered_level(&mut o, &fr, s, model.aquifer.base_level);
+    let step = wells(&mut o, &fr, s);
+    legend(&mut o, s);
+    footnote(&mut o, model, s, f, fr.length, step);
+    o.push('\n');
+    o
+}
+
+/// How the line was chosen, in words. The engine writes a trench chainage in metres ("…, 12.3 m
+/// along its centre line"); in US units it is re-worded in feet. SI text is kept as written.
+fn basis_in_units(basis: &str, f: &Fmt) -> String {
+    const TAIL: &str = " m along its centre line";
+    if f.units == UnitSystem::Us {
+        if let Some((before, number)) = basis.strip_suffix(TAIL).and_then(|h| h.rsplit_once(' ')) {
+            if let Ok(m) = number.parse::<f64>() {
+                return format!("{before} {} along its centre line", f.length(m));
+            }
+        }
+    }
+    basis.to_string()
+}
+
+/// SVG opening, white page, title and the line's ends with how it was chosen.
+fn header(o: &mut String, s: &Section, f: &Fmt, title: &str) {
     let _ = write!(
         o,
         r##"<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 {W} {H}" width="100%" font-family="Helvetica, Arial, sans-serif" font-size="12" role="img" aria-label="cross-section">"##
@@ -53,31 +119,41 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             f.coordinate(s.line[0][1]),
             f.coordinate(s.line[1][0]),
             f.coordinate(s.line[1][1]),
-            s.basis
+            basis_in_units(&s.basis, f)
         ))
     );
-    // Aquifer: below base in grey, saturated zone tinted.
-    let (x0, x1) = (px(0.0), px(length));
-    let top = aq.top_level.unwrap_or(ground).min(ground);
+}
+
+/// Aquifer: below base in grey, saturated zone tinted.
+fn strata(o: &mut String, fr: &Frame, model: &Model) {
+    let aq = &model.aquifer;
+    let (x0, x1) = fr.ends();
+    let top = aq.top_level.unwrap_or(fr.ground).min(fr.ground);
     let _ = write!(
         o,
         r##"<rect x="{x0:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#f3ead8"/>"##,
-        py(top),
+        fr.py(top),
         x1 - x0,
-        py(aq.base_level) - py(top)
+        fr.py(aq.base_level) - fr.py(top)
     );
     let _ = write!(
         o,
         r##"<rect x="{x0:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#cfc6b8"/>"##,
-        py(aq.base_level),
+        fr.py(aq.base_level),
         x1 - x0,
-        py(zlo) - py(aq.base_level)
+        fr.py(fr.zlo) - fr.py(aq.base_level)
     );
-    // Horizontal level grid and axes: round levels on the left, round depths on the right.
+}
+
+/// Horizontal level grid and axes: round levels on the left, round depths on the right,
+/// round distances along the bottom.
+fn axes(o: &mut String, fr: &Frame, f: &Fmt) {
+    let (x0, x1) = fr.ends();
+    let ground = fr.ground;
     let k = f.units.length(1.0);
-    let levels = ticks(zlo * k, zhi * k, 8);
+    let levels = ticks(fr.zlo * k, fr.zhi * k, 8);
     for (v, label) in levels.labelled() {
-        let y = py(v / k);
+        let y = fr.py(v / k);
         let _ = write!(
             o,
             r##"<line x1="{x0:.1}" x2="{x1:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#ddd" stroke-width="0.6"/><text x="{:.1}" y="{:.1}" text-anchor="end">{label}</text>"##,
@@ -85,9 +161,9 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             y + 4.0,
         );
     }
-    let depths = ticks((ground - zhi) * k, (ground - zlo) * k, 8);
+    let depths = ticks((ground - fr.zhi) * k, (ground - fr.zlo) * k, 8);
     for (d, label) in depths.labelled() {
-        let y = py(ground - d / k);
+        let y = fr.py(ground - d / k);
         let _ = write!(
             o,
             r##"<line x1="{x1:.1}" x2="{:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#333"/><text x="{:.1}" y="{:.1}">{label}</text>"##,
@@ -108,8 +184,8 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         (TOP + H - BOTTOM) / 2.0,
         f.lu()
     );
-    for (v, label) in ticks(0.0, length * k, 10).labelled() {
-        let x = px(v / k);
+    for (v, label) in ticks(0.0, fr.length * k, 10).labelled() {
+        let x = fr.px(v / k);
         let _ = write!(
             o,
             r##"<line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#333"/><text x="{x:.1}" y="{:.1}" text-anchor="middle">{label}</text>"##,
@@ -125,23 +201,28 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         H - BOTTOM + 34.0,
         f.lu()
     );
-    // Neighbours' foundations: a block from ground to the foundation level.
+}
+
+/// Neighbours' foundations: a block from ground to the foundation level.
+fn neighbours(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
+    let ground = fr.ground;
     for n in &s.neighbours {
         let zf = n.level.unwrap_or(ground - 1.0);
+        let (from, to) = (fr.px(n.from), fr.px(n.to));
         // The label runs away from the nearer end of the drawing so it stays on the page.
-        let (lx, anchor) = if (px(n.from) + px(n.to)) / 2.0 > W / 2.0 {
-            (px(n.to).min(W - RIGHT), "end")
+        let (lx, anchor) = if (from + to) / 2.0 > W / 2.0 {
+            (to.min(W - RIGHT), "end")
         } else {
-            (px(n.from).max(LEFT), "start")
+            (from.max(LEFT), "start")
         };
         let _ = write!(
             o,
             r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{lx:.1}" y="{:.1}" text-anchor="{anchor}" font-size="11">{}</text>"##,
-            px(n.from),
-            py(ground) - 24.0,
-            (px(n.to) - px(n.from)).max(1.0),
-            py(zf) - py(ground) + 24.0,
-            py(zf) + 13.0,
+            from,
+            fr.py(ground) - 24.0,
+            (to - from).max(1.0),
+            fr.py(zf) - fr.py(ground) + 24.0,
+            fr.py(zf) + 13.0,
             esc(&format!(
                 "{} — foundation {}",
                 n.name,
@@ -149,89 +230,108 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
             ))
         );
     }
-    // Excavations: cut from ground to formation, target dashed.
+}
+
+/// Excavations: cut from ground to formation, target dashed.
+fn excavations(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
+    let ground = fr.ground;
     for e in &s.excavations {
-        let (a, b) = (px(e.from), px(e.to));
+        let (a, b) = (fr.px(e.from), fr.px(e.to));
         let zf = e.level.unwrap_or(ground);
         let _ = write!(
             o,
             r##"<rect x="{a:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#fff" stroke="#000" stroke-width="1.2"/>"##,
-            py(ground),
+            fr.py(ground),
             (b - a).max(1.0),
-            py(zf) - py(ground)
+            fr.py(zf) - fr.py(ground)
         );
         if let Some(t) = e.target {
             let _ = write!(
                 o,
                 r##"<line x1="{a:.1}" x2="{b:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#c00" stroke-width="1.2" stroke-dasharray="6 3"/><text x="{:.1}" y="{:.1}" fill="#c00" font-size="11">{}</text>"##,
                 a + 4.0,
-                py(t) + 13.0,
+                fr.py(t) + 13.0,
                 esc(&format!(
                     "{} {}",
                     if e.relief { "relief head" } else { "target" },
                     f.level(t)
                 )),
-                y = py(t)
+                y = fr.py(t)
             );
         }
         let _ = write!(
             o,
             r##"<text x="{:.1}" y="{:.1}" font-size="11">{}</text>"##,
             a + 4.0,
-            py(zf) - 5.0,
+            fr.py(zf) - 5.0,
             esc(&format!("{}: formation {}", e.name, f.level(zf)))
         );
     }
-    // Ground, aquifer top and base, original water level.
-    let hline = |o: &mut String, z: f64, colour: &str, dash: &str, width: f64| {
+}
+
+/// Ground, aquifer top and base, original water level.
+fn level_lines(o: &mut String, fr: &Frame, model: &Model) {
+    let aq = &model.aquifer;
+    let (x0, x1) = fr.ends();
+    let mut hline = |z: f64, colour: &str, dash: &str, width: f64| {
         let _ = write!(
             o,
             r##"<line x1="{x0:.1}" x2="{x1:.1}" y1="{y:.1}" y2="{y:.1}" stroke="{colour}" stroke-width="{width}" stroke-dasharray="{dash}"/>"##,
-            y = py(z)
+            y = fr.py(z)
         );
     };
-    hline(&mut o, ground, "#5a3d1e", "none", 2.0);
-    hline(&mut o, aq.base_level, "#5a3d1e", "none", 1.2);
+    hline(fr.ground, "#5a3d1e", "none", 2.0);
+    hline(aq.base_level, "#5a3d1e", "none", 1.2);
     if let Some(t) = aq.top_level {
-        hline(&mut o, t, "#5a3d1e", "4 2", 1.2);
+        hline(t, "#5a3d1e", "4 2", 1.2);
     }
-    hline(&mut o, aq.initial_level, "#1f5fbf", "8 4", 1.4);
-    // Lowered water level.
+    hline(aq.initial_level, "#1f5fbf", "8 4", 1.4);
+}
+
+/// The lowered water level along the line (a dry sample drawn at the aquifer base `base`).
+fn lowered_level(o: &mut String, fr: &Frame, s: &Section, base: f64) {
     let mut path = String::new();
     for (i, smp) in s.samples.iter().enumerate() {
-        let z = smp.level.unwrap_or(aq.base_level);
+        let z = smp.level.unwrap_or(base);
         let _ = write!(
             path,
             "{}{:.1},{:.1}",
             if i == 0 { "M" } else { " L" },
-            px(smp.chainage),
-            py(z)
+            fr.px(smp.chainage),
+            fr.py(z)
         );
     }
     let _ = write!(
         o,
         r##"<path d="{path}" fill="none" stroke="#1f5fbf" stroke-width="2.2"/>"##
     );
-    // Wells: casing from ground, screen thick, intake triangle; at most MAX_WELLS drawn (every
-    // k-th along the line), names only when few.
+}
+
+/// Wells: casing from ground, screen thick, intake triangle; at most MAX_WELLS drawn (every
+/// k-th along the line), names only when few. Returns k.
+fn wells(o: &mut String, fr: &Frame, s: &Section) -> usize {
     let k = s.wells.len().div_ceil(MAX_WELLS).max(1);
     let named = s.wells.len() <= 24;
     for w in s.wells.iter().step_by(k) {
-        let x = px(w.chainage);
+        let x = fr.px(w.chainage);
         let _ = write!(
             o,
             r##"<line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#222" stroke-width="1.2"/><line x1="{x:.1}" x2="{x:.1}" y1="{:.1}" y2="{:.1}" stroke="#222" stroke-width="4" stroke-dasharray="2 1.5"/><path d="M{:.1},{:.1} l5,8 l-10,0 z" fill="#e07b00"/><text x="{x:.1}" y="{:.1}" text-anchor="middle" font-size="10">{}</text>"##,
-            py(ground),
-            py(w.screen_base),
-            py(w.screen_top),
-            py(w.screen_base),
+            fr.py(fr.ground),
+            fr.py(w.screen_base),
+            fr.py(w.screen_top),
+            fr.py(w.screen_base),
             x,
-            py(w.pump_intake) - 4.0,
-            py(ground) - 4.0,
+            fr.py(w.pump_intake) - 4.0,
+            fr.py(fr.ground) - 4.0,
             if named { esc(&w.name) } else { String::new() }
         );
     }
-    // Legend.
+    k
+}
+
+/// The legend row under the axis.
+fn legend(o: &mut String, s: &Section) {
     let ly = H - 30.0;
     let target_label = if s.excavations.iter().any(|e| e.relief) {
         "target level / relief head"
@@ -258,6 +358,10 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         );
         lx += 30.0 + 6.2 * label.len() as f64;
     }
+}
+
+/// The note on datum, which wells are shown (every `step`-th) and the scale; closes the SVG.
+fn footnote(o: &mut String, model: &Model, s: &Section, f: &Fmt, length: f64, step: usize) {
     let _ = write!(
         o,
         r##"<text x="{LEFT}" y="{:.1}" font-size="10" fill="#555">{}</text></svg>"##,
@@ -265,14 +369,12 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
         esc(&format!(
             "levels above {}; {} within {} of the line shown at their foot on it; vertical scale exaggerated",
             model.datum,
-            if k > 1 {
-                format!("every {k}th of {} wells", s.wells.len())
+            if step > 1 {
+                format!("every {step}th of {} wells", s.wells.len())
             } else {
                 "wells".to_string()
             },
             f.length(crate::check::section::well_band(length))
         ))
     );
-    o.push('\n');
-    o
 }

@@ -43,161 +43,190 @@ fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
 
 /// Terminal section: neighbours table, uplift, recharge sizing, and the neighbours verdict.
 pub fn text(found: &CheckFindings, units: UnitSystem) -> String {
-    let recharge = found.recharge.as_ref();
     let mut out = String::new();
-    let lu = units.length_unit();
-    let l = |x: f64| units.length(x);
     let results = &found.neighbours;
     if !results.is_empty() {
-        out.push_str("\nneighbours (drawdown from superposition; settlement by 1D consolidation on the listed layers)\n");
-        out.push_str(&format!(
-            "{:<26} {:>10} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
-            "name",
-            &format!("drawdown {lu}"),
-            "limit",
-            "settlement",
-            "limit",
-            "distortion",
-            "limit",
-            "status"
-        ));
+        out.push_str(&table(results, units));
         for r in results {
-            let find = |q: &str| r.checks.iter().find(|c| c.quantity == q);
-            let lim_dd = find("drawdown").map_or("—".into(), |c| format!("{:.2}", l(c.limit)));
-            let (rho, lim_rho) = match (&r.worst_settlement, find("settlement")) {
-                (Some(s), Some(c)) => (
-                    mm(s.settlement_m.unwrap_or(0.0), units),
-                    format!(
-                        "{:.*}{}",
-                        if units == UnitSystem::Us { 2 } else { 1 },
-                        small(c.limit, units).0,
-                        if c.basis == "design file" { "" } else { "*" }
-                    ),
-                ),
-                _ => ("—".into(), "—".into()),
-            };
-            let (beta, lim_beta) = match (r.max_distortion, find("angular distortion")) {
-                (Some(b), Some(c)) => (
-                    ratio_text(b),
-                    format!(
-                        "{}{}",
-                        ratio_text(c.limit),
-                        if c.basis == "design file" { "" } else { "*" }
-                    ),
-                ),
-                _ => ("—".into(), "—".into()),
-            };
-            let failing: Vec<&str> = r
-                .checks
-                .iter()
-                .filter(|c| !c.pass)
-                .map(|c| c.quantity.as_str())
-                .collect();
-            let status = if failing.is_empty() {
-                r.status.word().to_string()
-            } else {
-                format!("FAIL ({})", failing.join(", "))
-            };
-            out.push_str(&format!(
-                "{:<26} {:>10.2} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
-                truncate(&r.name, 26),
-                l(r.worst_drawdown.drawdown_m),
-                lim_dd,
-                rho,
-                lim_rho,
-                beta,
-                lim_beta,
-                status
-            ));
-        }
-        if results
-            .iter()
-            .flat_map(|r| &r.checks)
-            .any(|c| c.basis != "design file")
-        {
-            out.push_str(&wrap(
-                &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", RULE_OF_THUMB_LABEL),
-                96,
-                "  ",
-            ));
-        }
-        for r in results {
-            out.push_str(&format!(
-                "  {} — layers from the {} at {:.2} {lu}; Δσ′ form: {}\n",
-                r.name,
-                r.profile_top_basis,
-                l(r.profile_top_m),
-                r.stress_change
-            ));
-            for c in &r.corners {
-                out.push_str(&format!(
-                    "    {:<10} ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}\n",
-                    c.name,
-                    c.position[0],
-                    c.position[1],
-                    l(c.drawdown_m),
-                    c.settlement_m.map_or(String::new(), |s| format!(
-                        "  settlement {:>9}",
-                        mm(s, units)
-                    ))
-                ));
-            }
-            let w = &r.worst_drawdown;
-            out.push_str(&format!(
-                "    worst      ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}  [{}, of {} points sampled]\n",
-                w.position[0],
-                w.position[1],
-                l(w.drawdown_m),
-                w.settlement_m
-                    .map_or(String::new(), |s| format!("  settlement {:>9}", mm(s, units))),
-                w.name,
-                r.sample_count
-            ));
-            for s in &r.sides {
-                out.push_str(&format!(
-                    "    side {:<11} L {:>6.1} {lu}  Δρ {:>8}  β {}\n",
-                    s.name,
-                    l(s.length_m),
-                    mm(s.differential_m, units),
-                    ratio_text(s.distortion)
-                ));
-            }
-            out.push_str(&super::column_text::settlement_lines(r, units));
-            if !r.checks.is_empty() {
-                out.push_str(&wrap(&checks_line(r, units), 96, "    "));
-            }
-            for n in &r.notes {
-                out.push_str(&wrap(&format!("note: {n}"), 96, "    "));
-            }
+            out.push_str(&building_detail(r, units));
         }
     }
     for u in &found.uplift {
         out.push_str(&uplift_text(u, units));
     }
-    if let Some(rs) = recharge {
+    if let Some(rs) = found.recharge.as_ref() {
         out.push_str(&recharge_text(rs, units));
     }
     if !results.is_empty() {
-        let failing: Vec<&str> = results
-            .iter()
-            .filter(|r| r.status == Status::Fail)
-            .map(|r| r.name.as_str())
-            .collect();
-        out.push_str(&if failing.is_empty() {
-            format!(
-                "\nRESULT (neighbours): all {} within their limits\n",
-                results.len()
-            )
-        } else {
-            format!(
-                "\nRESULT (neighbours): {} of {} over a limit: {}\n",
-                failing.len(),
-                results.len(),
-                failing.join(", ")
-            )
-        });
+        out.push_str(&verdict(results));
     }
     out
+}
+
+/// The neighbours table: heading, one row per building, and the note on limits not given.
+fn table(results: &[NeighbourResult], units: UnitSystem) -> String {
+    let mut out = String::new();
+    let lu = units.length_unit();
+    out.push_str("\nneighbours (drawdown from superposition; settlement by 1D consolidation on the listed layers)\n");
+    out.push_str(&format!(
+        "{:<26} {:>10} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
+        "name",
+        &format!("drawdown {lu}"),
+        "limit",
+        "settlement",
+        "limit",
+        "distortion",
+        "limit",
+        "status"
+    ));
+    for r in results {
+        out.push_str(&table_row(r, units));
+    }
+    if results
+        .iter()
+        .flat_map(|r| &r.checks)
+        .any(|c| c.basis != "design file")
+    {
+        out.push_str(&wrap(
+            &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", RULE_OF_THUMB_LABEL),
+            96,
+            "  ",
+        ));
+    }
+    out
+}
+
+/// One row of the neighbours table: worst drawdown, settlement and distortion with their
+/// limits (* where the limit is the rule of thumb), and the status.
+fn table_row(r: &NeighbourResult, units: UnitSystem) -> String {
+    let l = |x: f64| units.length(x);
+    let find = |q: &str| r.checks.iter().find(|c| c.quantity == q);
+    let lim_dd = find("drawdown").map_or("—".into(), |c| format!("{:.2}", l(c.limit)));
+    let (rho, lim_rho) = match (&r.worst_settlement, find("settlement")) {
+        (Some(s), Some(c)) => (
+            mm(s.settlement_m.unwrap_or(0.0), units),
+            format!(
+                "{:.*}{}",
+                if units == UnitSystem::Us { 2 } else { 1 },
+                small(c.limit, units).0,
+                if c.basis == "design file" { "" } else { "*" }
+            ),
+        ),
+        _ => ("—".into(), "—".into()),
+    };
+    let (beta, lim_beta) = match (r.max_distortion, find("angular distortion")) {
+        (Some(b), Some(c)) => (
+            ratio_text(b),
+            format!(
+                "{}{}",
+                ratio_text(c.limit),
+                if c.basis == "design file" { "" } else { "*" }
+            ),
+        ),
+        _ => ("—".into(), "—".into()),
+    };
+    let failing: Vec<&str> = r
+        .checks
+        .iter()
+        .filter(|c| !c.pass)
+        .map(|c| c.quantity.as_str())
+        .collect();
+    let status = if failing.is_empty() {
+        r.status.word().to_string()
+    } else {
+        format!("FAIL ({})", failing.join(", "))
+    };
+    format!(
+        "{:<26} {:>10.2} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
+        truncate(&r.name, 26),
+        l(r.worst_drawdown.drawdown_m),
+        lim_dd,
+        rho,
+        lim_rho,
+        beta,
+        lim_beta,
+        status
+    )
+}
+
+/// One building in detail: settlement profile basis, corners, worst point, sides, settlement
+/// by layer, checks and notes.
+fn building_detail(r: &NeighbourResult, units: UnitSystem) -> String {
+    let mut out = String::new();
+    let lu = units.length_unit();
+    let l = |x: f64| units.length(x);
+    out.push_str(&format!(
+        "  {} — layers from the {} at {:.2} {lu}; Δσ′ form: {}\n",
+        r.name,
+        r.profile_top_basis,
+        l(r.profile_top_m),
+        r.stress_change
+    ));
+    for c in &r.corners {
+        out.push_str(&format!(
+            "    {:<10} ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}\n",
+            c.name,
+            c.position[0],
+            c.position[1],
+            l(c.drawdown_m),
+            c.settlement_m.map_or(String::new(), |s| format!(
+                "  settlement {:>9}",
+                mm(s, units)
+            ))
+        ));
+    }
+    let w = &r.worst_drawdown;
+    out.push_str(&format!(
+        "    worst      ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}  [{}, of {} points sampled]\n",
+        w.position[0],
+        w.position[1],
+        l(w.drawdown_m),
+        w.settlement_m.map_or(String::new(), |s| format!(
+            "  settlement {:>9}",
+            mm(s, units)
+        )),
+        w.name,
+        r.sample_count
+    ));
+    for s in &r.sides {
+        out.push_str(&format!(
+            "    side {:<11} L {:>6.1} {lu}  Δρ {:>8}  β {}\n",
+            s.name,
+            l(s.length_m),
+            mm(s.differential_m, units),
+            ratio_text(s.distortion)
+        ));
+    }
+    out.push_str(&super::column_text::settlement_lines(r, units));
+    if !r.checks.is_empty() {
+        out.push_str(&wrap(&checks_line(r, units), 96, "    "));
+    }
+    for n in &r.notes {
+        out.push_str(&wrap(&format!("note: {n}"), 96, "    "));
+    }
+    out
+}
+
+/// The closing neighbours verdict: all within their limits, or which are over.
+fn verdict(results: &[NeighbourResult]) -> String {
+    let failing: Vec<&str> = results
+        .iter()
+        .filter(|r| r.status == Status::Fail)
+        .map(|r| r.name.as_str())
+        .collect();
+    if failing.is_empty() {
+        format!(
+            "\nRESULT (neighbours): all {} within their limits\n",
+            results.len()
+        )
+    } else {
+        format!(
+            "\nRESULT (neighbours): {} of {} over a limit: {}\n",
+            failing.len(),
+            results.len(),
+            failing.join(", ")
+        )
+    }
 }
 
 fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
