@@ -177,3 +177,41 @@ fn design_file_with_layers_matches_timml() {
     }
     eprintln!("design file, two aquifers: largest difference {worst:.2e} m");
 }
+
+/// `programme` works in one aquifer only (Theis/Hantush superposition): on layered ground it must
+/// refuse with a clear message naming `layer` rather than give single-aquifer answers silently,
+/// for the programme and for `design --by-day` alike (common practice (no source): a method
+/// outside its assumptions is refused, not run).
+#[test]
+fn time_runs_refuse_layered_ground_and_name_the_field() {
+    let root = std::path::PathBuf::from(env!("CARGO_MANIFEST_DIR"));
+    let text = std::fs::read_to_string(root.join("layouts/layered_shaft.toml")).unwrap()
+        + r#"
+[programme]
+duration = "20 days"
+
+[[programme.stage]]
+name = "Sink"
+start = "0 days"
+formation_level = "4.5 m"
+"#;
+    let dir = tempfile::tempdir().unwrap();
+    let file = dir.path().join("layered_programme.toml");
+    std::fs::write(&file, text).unwrap();
+    for args in [
+        vec!["programme", file.to_str().unwrap()],
+        vec!["design", file.to_str().unwrap(), "--by-day", "10"],
+    ] {
+        let out_dir = dir.path().join(format!("out_{}", args.len()));
+        let mut all = args.clone();
+        all.extend(["-o", out_dir.to_str().unwrap()]);
+        let run = std::process::Command::new(env!("CARGO_BIN_EXE_drydig"))
+            .args(&all)
+            .output()
+            .unwrap();
+        let err = String::from_utf8_lossy(&run.stderr);
+        assert_eq!(run.status.code(), Some(2), "{args:?}: {err}");
+        assert!(err.contains("layer"), "{args:?}: {err}");
+        assert!(!out_dir.exists(), "{args:?} wrote outputs");
+    }
+}

@@ -6,7 +6,6 @@
 
 use crate::check::section::Section;
 use crate::input::model::Model;
-use crate::input::units::UnitSystem;
 use crate::report::format::{esc, Fmt};
 use crate::report::plot_kit::ticks;
 use std::fmt::Write;
@@ -85,20 +84,6 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     o
 }
 
-/// How the line was chosen, in words. The engine writes a trench chainage in metres ("…, 12.3 m
-/// along its centre line"); in US units it is re-worded in feet. SI text is kept as written.
-fn basis_in_units(basis: &str, f: &Fmt) -> String {
-    const TAIL: &str = " m along its centre line";
-    if f.units == UnitSystem::Us {
-        if let Some((before, number)) = basis.strip_suffix(TAIL).and_then(|h| h.rsplit_once(' ')) {
-            if let Ok(m) = number.parse::<f64>() {
-                return format!("{before} {} along its centre line", f.length(m));
-            }
-        }
-    }
-    basis.to_string()
-}
-
 /// SVG opening, white page, title and the line's ends with how it was chosen.
 fn header(o: &mut String, s: &Section, f: &Fmt, title: &str) {
     let _ = write!(
@@ -119,7 +104,7 @@ fn header(o: &mut String, s: &Section, f: &Fmt, title: &str) {
             f.coordinate(s.line[0][1]),
             f.coordinate(s.line[1][0]),
             f.coordinate(s.line[1][1]),
-            basis_in_units(&s.basis, f)
+            &s.basis
         ))
     );
 }
