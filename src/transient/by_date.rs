@@ -354,6 +354,14 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
             format!("{day}: the day must be more than 0 and at most 7300 (20 years)"),
         ));
     }
+    if model.layers.is_some() {
+        // Theis superposition in one aquifer: layered ground would be answered silently as if
+        // it were the design aquifer alone.
+        return Err(err(
+            "layer",
+            "a design by day works in time, which does not take layered ground yet ([[layer]] entries): `check` and `design` (steady) do; for a design by day, describe the aquifer the wells pump as a single [aquifer] in a copy of the file".into(),
+        ));
+    }
     let aq = crate::transient::programme::transient_aquifer(model)?;
     let Some(spec) = model.layout.clone() else {
         return Err(err(
