@@ -75,6 +75,26 @@ fn map_and_section_show_the_relief_head() {
         !section.contains("target 3.50 m"),
         "no dewatering target on the section"
     );
+    // The machine files carry the same level: the excavation's target in layout.geojson and
+    // summary.json is the relief head, flagged as such.
+    let layout: serde_json::Value = serde_json::from_str(&read("layout.geojson")).expect("json");
+    let exc = layout["features"]
+        .as_array()
+        .expect("features")
+        .iter()
+        .find(|f| f["properties"]["kind"] == "excavation")
+        .expect("the shaft");
+    let t = exc["properties"]["target_level_m"]
+        .as_f64()
+        .expect("target");
+    assert!((t - RELIEF_HEAD).abs() < 1e-4, "layout.geojson target {t}");
+    assert_eq!(exc["properties"]["target_is_relief_head"], true);
+    let summary: serde_json::Value = serde_json::from_str(&read("summary.json")).expect("json");
+    let t = summary["excavations"][0]["target_level_m"]
+        .as_f64()
+        .or_else(|| summary["inputs"]["excavations"][0]["target_level_m"].as_f64())
+        .expect("summary target");
+    assert!((t - RELIEF_HEAD).abs() < 1e-9, "summary.json target {t}");
 }
 
 /// Theis well function W(u) = E₁(u): for u < 1 its series −γ − ln u − Σ (−u)ᵏ/(k·k!) (Abramowitz

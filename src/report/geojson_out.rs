@@ -118,13 +118,17 @@ pub fn layout_geojson(run: &CheckRun, assessed: &[NeighbourResult]) -> String {
     let si = crate::report::format::Fmt::new(UnitSystem::Si, model.ground_level);
     let mut features = Vec::new();
     for e in &model.excavations {
+        // The level the excavation is held to, as its check points carry it: the relief head
+        // for a relief excavation (null when none is needed), else formation − margin.
+        let design = crate::field::checkpoints::design_target(model, e);
         features.push(feature(
             polygon(&e.outline),
             json!({
                 "kind": "excavation",
                 "name": e.name,
                 "formation_level_m": e.formation_level,
-                "target_level_m": round(e.target_level(), 4),
+                "target_level_m": design.level.map(|t| round(t, 4)),
+                "target_is_relief_head": design.relief,
             }),
         ));
     }

@@ -158,7 +158,8 @@ pub fn model_record(model: &Model) -> Value {
             "outline_m": e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect::<Vec<_>>(),
             "formation_level_m": e.formation_level,
             "target_margin_m": e.target_margin,
-            "target_level_m": e.target_level(),
+            "target_level_m": crate::field::checkpoints::design_target(model, e).level,
+            "target_is_relief_head": crate::field::checkpoints::design_target(model, e).relief,
         })).collect::<Vec<_>>(),
         "boundaries": model.boundaries.iter().map(|b| json!({
             "name": b.name,
