@@ -3,9 +3,9 @@
 //! round 1-2-5 ticks on the drawdown axis of the semi-log view (the plot kit).
 
 use crate::input::units::UnitSystem;
-use crate::report::plot_kit::{r1, text, ticks};
+use crate::report::plot_kit::{line, r1, text, ticks};
 use crate::test_analysis::{Fit, ObservationWell};
-use svg::node::element::{Circle, Group, Line, Path, Rectangle};
+use svg::node::element::{Circle, Group, Path, Rectangle};
 use svg::Document;
 
 const W: f64 = 980.0;
@@ -52,44 +52,22 @@ fn frame(ax: &Axes, title: &str, lu: &str) -> Group {
     for d in (ax.lx.0.ceil() as i32)..=(ax.lx.1.floor() as i32) {
         let x = ax.px(10f64.powi(d));
         g = g
-            .add(
-                Line::new()
-                    .set("x1", r1(x))
-                    .set("x2", r1(x))
-                    .set("y1", r1(TOP))
-                    .set("y2", r1(TOP + PH))
-                    .set("stroke", "#ddd"),
-            )
+            .add(line(x, TOP, x, TOP + PH).set("stroke", "#ddd"))
             .add(text(x, TOP + PH + 16.0, 11.0, "middle", format!("1e{d}")));
     }
-    if ax.log_y {
-        for d in (ax.ly.0.ceil() as i32)..=(ax.ly.1.floor() as i32) {
-            let y = ax.py(10f64.powi(d));
-            g = g
-                .add(
-                    Line::new()
-                        .set("x1", r1(ax.x0))
-                        .set("x2", r1(ax.x0 + PW))
-                        .set("y1", r1(y))
-                        .set("y2", r1(y))
-                        .set("stroke", "#ddd"),
-                )
-                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", format!("1e{d}")));
-        }
+    // Drawdown ticks: decades on a log axis, round 1-2-5 values on a linear one.
+    let y_ticks: Vec<(f64, String)> = if ax.log_y {
+        ((ax.ly.0.ceil() as i32)..=(ax.ly.1.floor() as i32))
+            .map(|d| (10f64.powi(d), format!("1e{d}")))
+            .collect()
     } else {
-        for (v, label) in ticks(ax.ly.0, ax.ly.1, 5).labelled() {
-            let y = ax.py(v);
-            g = g
-                .add(
-                    Line::new()
-                        .set("x1", r1(ax.x0))
-                        .set("x2", r1(ax.x0 + PW))
-                        .set("y1", r1(y))
-                        .set("y2", r1(y))
-                        .set("stroke", "#ddd"),
-                )
-                .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", label));
-        }
+        ticks(ax.ly.0, ax.ly.1, 5).labelled().collect()
+    };
+    for (v, label) in y_ticks {
+        let y = ax.py(v);
+        g = g
+            .add(line(ax.x0, y, ax.x0 + PW, y).set("stroke", "#ddd"))
+            .add(text(ax.x0 - 6.0, y + 4.0, 11.0, "end", label));
     }
     g.add(text(
         ax.x0 + PW / 2.0,
