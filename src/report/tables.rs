@@ -153,14 +153,17 @@ pub fn model_record(model: &Model) -> Value {
             "specific_yield": aq.specific_yield,
             "potential_formula": "Strack (1989): confined Φ = K·b·h − ½K·b² (h ≥ b), unconfined Φ = ½K·h²; h above base",
         },
-        "excavations": model.excavations.iter().map(|e| json!({
-            "name": e.name,
-            "outline_m": e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect::<Vec<_>>(),
-            "formation_level_m": e.formation_level,
-            "target_margin_m": e.target_margin,
-            "target_level_m": crate::field::checkpoints::design_target(model, e).level,
-            "target_is_relief_head": crate::field::checkpoints::design_target(model, e).relief,
-        })).collect::<Vec<_>>(),
+        "excavations": model.excavations.iter().map(|e| {
+            let design = crate::field::checkpoints::design_target(model, e);
+            json!({
+                "name": e.name,
+                "outline_m": e.outline.exterior().0.iter().map(|c| [c.x, c.y]).collect::<Vec<_>>(),
+                "formation_level_m": e.formation_level,
+                "target_margin_m": e.target_margin,
+                "target_level_m": design.level,
+                "target_is_relief_head": design.relief,
+            })
+        }).collect::<Vec<_>>(),
         "boundaries": model.boundaries.iter().map(|b| json!({
             "name": b.name,
             "kind": match b.kind { BoundaryKind::ConstantHead => "constant-head", BoundaryKind::Barrier => "barrier" },
