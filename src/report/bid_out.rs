@@ -84,6 +84,7 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
     let u = BidUnits(units);
     let mut out = Vec::new();
     well_lines(&mut out, bid, u);
+    rolling_lines(&mut out, bid, u);
     pump_lines(&mut out, bid, u);
     power_lines(&mut out, bid, u);
     flow_lines(&mut out, bid, u, estimate_flow);
@@ -150,6 +151,55 @@ fn well_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         u.len(bid.screen_m),
         lu,
         "screen top − screen base, working + standby",
+    ));
+    if let Some(f) = bid.filter_m {
+        out.push(line(
+            "filter column",
+            u.len(f),
+            lu,
+            "filter (sand) column top − base round each screen, working + standby",
+        ));
+    }
+}
+
+/// A rolling run: wellpoints jetted and jetting along the whole route, days of digging (the
+/// other lines are the set installed at one time).
+fn rolling_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let Some(r) = &bid.rolling else {
+        return;
+    };
+    let lu = u.len_unit();
+    let (what, work) = if bid.wellpoints {
+        ("wellpoints", "jetted")
+    } else {
+        ("wells", "drilled")
+    };
+    out.push(line(
+        format!("{what} {work} along the route"),
+        r.installations as f64,
+        "no.",
+        format!(
+            "rolling run: the set of {:.0} {lu} (run-out + open length + run-in) pulled and {work} in again ahead along {:.0} {lu} (run-out + {:.0} {lu} trench + run-in)",
+            u.len(r.installed_length_m),
+            u.len(r.route_m),
+            u.len(r.trench_length_m)
+        ),
+    ));
+    out.push(line(
+        if bid.wellpoints {
+            "jetting along the route"
+        } else {
+            "drilling along the route"
+        },
+        u.len(r.jetting_route_m),
+        lu,
+        format!("{what} {work} along the route × depth each"),
+    ));
+    out.push(line(
+        "days of digging",
+        r.digging_days,
+        "days",
+        "trench length ÷ advance a day, rounded up",
     ));
 }
 
