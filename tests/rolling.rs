@@ -147,7 +147,8 @@ fn edited(edit: impl Fn(String) -> String) -> Result<(), drydig::input::error::I
 
 #[test]
 fn what_a_rolling_run_cannot_do_is_refused_naming_the_field() {
-    let cases: Vec<(Box<dyn Fn(String) -> String>, &str)> = vec![
+    type Edit = Box<dyn Fn(String) -> String>;
+    let cases: Vec<(Edit, &str)> = vec![
         // longer than the trench: dig it in one open run
         (
             Box::new(|t| t.replace("open_length = \"30 m\"", "open_length = \"580 m\"")),
