@@ -158,8 +158,8 @@ fn what_a_rolling_run_cannot_do_is_refused_naming_the_field() {
         (
             Box::new(|t| {
                 t.replace(
-                    "spacing = \"1.5 m\"",
-                    "spacing = \"1.5 m\"\nend_extension = \"5 m\"",
+                    "kind = \"line\"",
+                    "kind = \"line\"\nend_extension = \"5 m\"",
                 )
             }),
             "layout.end_extension",
