@@ -6,9 +6,14 @@
 use crate::findings::check::CheckFindings;
 use crate::input::units::UnitSystem;
 use crate::optimise::recharge::RechargeSizing;
-use crate::report::neighbours::numbers::{mm, ratio_text, small, truncate};
+use crate::report::neighbours::numbers::{
+    mm, pressure_kpa, ratio_text, rule_settlement, small, truncate, unit_weight,
+};
 use crate::report::wrap;
-use crate::safety::neighbours::{NeighbourResult, Status, RULE_OF_THUMB_LABEL};
+use crate::safety::neighbours::{
+    NeighbourResult, Status, RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL,
+    RULE_OF_THUMB_SETTLEMENT,
+};
 use crate::safety::uplift::UpliftResult;
 
 /// The checks of a neighbour in one line: "drawdown 1.62/1.50 m FAIL; …".
@@ -88,7 +93,12 @@ fn table(results: &[NeighbourResult], units: UnitSystem) -> String {
         .any(|c| c.basis != "design file")
     {
         out.push_str(&wrap(
-            &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", RULE_OF_THUMB_LABEL),
+            &format!(
+                "* limit not in the design file: {} — {} total settlement, angular distortion {}; give the building's own limits",
+                RULE_OF_THUMB_LABEL,
+                rule_settlement(RULE_OF_THUMB_SETTLEMENT, units),
+                ratio_text(RULE_OF_THUMB_DISTORTION)
+            ),
             96,
             "  ",
         ));
@@ -233,18 +243,18 @@ fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
     let mut out = format!(
-        "\nbase uplift — {}: {:.2} {lu} of soil at {:.1} kN/m³ between formation {:.2} {lu} and the confined layer top {:.2} {lu}: σ_v = {:.1} kPa\n",
+        "\nbase uplift — {}: {:.2} {lu} of soil at {} between formation {:.2} {lu} and the confined layer top {:.2} {lu}: σ_v = {}\n",
         u.excavation,
         l(u.cover_thickness_m),
-        u.soil_unit_weight_kn_per_m3,
+        unit_weight(u.soil_unit_weight_kn_per_m3, units),
         l(u.formation_level_m),
         l(u.layer_top_m),
-        u.overburden_kpa
+        pressure_kpa(u.overburden_kpa, units)
     );
     out.push_str(&format!(
-        "  before pumping: piezometric level {:.2} {lu}, water pressure {:.1} kPa, FoS {}\n",
+        "  before pumping: piezometric level {:.2} {lu}, water pressure {}, FoS {}\n",
         l(u.piezometric_level_m),
-        u.water_pressure_kpa,
+        pressure_kpa(u.water_pressure_kpa, units),
         u.factor_of_safety_before
             .map_or("— (no uplift pressure)".into(), |f| format!("{f:.2}"))
     ));
