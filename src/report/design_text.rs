@@ -264,12 +264,13 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
     out
 }
 
-/// The terminal summary of a design.
+/// The terminal summary of a design (the wells table `rows` long).
 pub fn to_text(
     model: &Model,
     found: &DesignFindings,
     units: UnitSystem,
     prices: Option<&[Price]>,
+    rows: crate::report::table::Rows,
 ) -> String {
     let design = &found.design;
     let run = found.chosen.as_ref().map(|c| &c.run);
@@ -342,7 +343,7 @@ pub fn to_text(
     }
     if let Some(r) = run {
         let e = &r.evaluation;
-        out.push_str(&super::check_text::well_table(r, units));
+        out.push_str(&super::check_text::well_table(r, units, rows));
         out.push_str(&format!(
             "\ncheck points          {} ({} not met)\n",
             e.points.len(),
