@@ -7,7 +7,26 @@
 use crate::check::evaluate::WellProblem;
 use crate::report::format::{esc, Fmt};
 use crate::report::problems::well_problems;
-use crate::report::tables::{fine, fixed};
+
+/// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
+pub fn fixed(v: f64, decimals: usize) -> String {
+    let t = format!("{v:.decimals$}");
+    match t.strip_prefix('-') {
+        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
+        _ => t,
+    }
+}
+
+/// `v` to nine decimal places with trailing zeros (and a bare point) dropped: enough to read
+/// back to the same run, free of binary noise such as -2.9999999999999964 (read as -3).
+pub fn fine(v: f64) -> String {
+    let t = fixed(v, 9);
+    if t.contains('.') {
+        t.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        t
+    }
+}
 
 /// One cell: a value in SI, or words.
 #[derive(Debug, Clone, PartialEq)]

@@ -13,28 +13,8 @@ use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
 use crate::report::format::Fmt;
 use crate::report::problems::well_problem;
-use crate::report::table::{Cell, Column, Csv, Quantity, Table};
+use crate::report::table::{fixed, Cell, Column, Csv, Quantity, Table};
 use serde_json::{json, Value};
-
-/// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
-pub fn fixed(v: f64, decimals: usize) -> String {
-    let t = format!("{v:.decimals$}");
-    match t.strip_prefix('-') {
-        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
-        _ => t,
-    }
-}
-
-/// `v` to nine decimal places with trailing zeros (and a bare point) dropped: enough to read
-/// back to the same run, free of binary noise such as -2.9999999999999964 (read as -3).
-pub fn fine(v: f64) -> String {
-    let t = fixed(v, 9);
-    if t.contains('.') {
-        t.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        t
-    }
-}
 
 /// "wet" or "dry", the state of a level whose column is left empty when dry.
 fn level_state(level: Option<f64>) -> String {
@@ -313,6 +293,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::report::table::fine;
 
     // -2.9999999999999964 is 3 − 16 ulp, the kind of value a sum of offsets leaves; to nine
     // decimals it is −3 (IEEE 754 round to nearest). common practice (no source).
