@@ -86,8 +86,8 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
             l(margin.abs()),
             if margin >= 0.0 { "below" } else { "ABOVE" },
             p.point.name,
-            p.point.position[0],
-            p.point.position[1]
+            l(p.point.position[0]),
+            l(p.point.position[1])
         ));
     }
     let unmet: Vec<_> = e.points.iter().filter(|p| p.met == Some(false)).collect();
@@ -97,8 +97,8 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
             out.push_str(&format!(
                 "  {:<28} ({:>9.1}, {:>9.1})  level {:>7.2}  target {:>7.2}  short {:.2} {lu}\n",
                 p.point.name,
-                p.point.position[0],
-                p.point.position[1],
+                l(p.point.position[0]),
+                l(p.point.position[1]),
                 l(p.level_m.unwrap_or(f64::NAN)),
                 l(p.point.target_level.unwrap_or(f64::NAN)),
                 l(-p.margin_m.unwrap_or(0.0))

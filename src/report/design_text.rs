@@ -340,8 +340,8 @@ pub fn to_text(
         } => {
             out.push_str(&format!(
                 "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
-                position[0],
-                position[1],
+                l(position[0]),
+                l(position[1]),
                 l(*shortfall_m)
             ));
         }

@@ -176,8 +176,8 @@ fn building_detail(r: &NeighbourResult, units: UnitSystem) -> String {
         out.push_str(&format!(
             "    {:<10} ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}\n",
             c.name,
-            c.position[0],
-            c.position[1],
+            l(c.position[0]),
+            l(c.position[1]),
             l(c.drawdown_m),
             c.settlement_m.map_or(String::new(), |s| format!(
                 "  settlement {:>9}",
@@ -188,8 +188,8 @@ fn building_detail(r: &NeighbourResult, units: UnitSystem) -> String {
     let w = &r.worst_drawdown;
     out.push_str(&format!(
         "    worst      ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}  [{}, of {} points sampled]\n",
-        w.position[0],
-        w.position[1],
+        l(w.position[0]),
+        l(w.position[1]),
         l(w.drawdown_m),
         w.settlement_m.map_or(String::new(), |s| format!(
             "  settlement {:>9}",
@@ -296,6 +296,8 @@ fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
 
 fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
     let lu = units.length_unit();
+    let f = crate::report::format::Fmt::new(units, 0.0);
+    let ru = f.rate_unit();
     let mut out = format!("\nrecharge sizing: {}\n", r.status);
     for p in &r.protected {
         out.push_str(&format!(
@@ -308,12 +310,12 @@ fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
     }
     for w in &r.wells {
         out.push_str(&format!(
-            "  {:<10} ({:>8.1}, {:>8.1})  injects {:>6.2} L/s of at most {:.2} L/s\n",
+            "  {:<10} ({:>8.1}, {:>8.1})  injects {:>6} {ru} of at most {} {ru}\n",
             w.name,
-            w.position[0],
-            w.position[1],
-            (w.rate_m3_per_s * 1e3).max(0.0) + 0.0,
-            w.capacity_m3_per_s * 1e3
+            units.length(w.position[0]),
+            units.length(w.position[1]),
+            f.rate_value(w.rate_m3_per_s.max(0.0)),
+            f.rate_value(w.capacity_m3_per_s)
         ));
     }
     out.push_str(&format!(
