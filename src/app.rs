@@ -82,7 +82,7 @@ pub fn run(command: Command, chatter: Chatter) -> anyhow::Result<Outputs> {
             let mut model = model::load(&file)?;
             // The files (report, maps) follow `--units` too.
             model.units = units.map(Into::into).unwrap_or(model.units);
-            check(&model, out, wells.as_deref(), size_recharge)
+            check(&model, out, wells.as_deref(), size_recharge, chatter)
         }
         Command::Design {
             file,
@@ -174,12 +174,22 @@ pub fn run(command: Command, chatter: Chatter) -> anyhow::Result<Outputs> {
     }
 }
 
+/// How much of a long table the terminal lists: all of it with `-v`.
+fn table_rows(chatter: Chatter) -> report::table::Rows {
+    if chatter == Chatter::Verbose {
+        report::table::Rows::All
+    } else {
+        report::table::Rows::Short
+    }
+}
+
 /// `check`: one layout evaluated (with recharge wells sized when asked).
 fn check(
     model: &Model,
     out: PathBuf,
     wells: Option<&Path>,
     size_recharge: bool,
+    chatter: Chatter,
 ) -> anyhow::Result<Outputs> {
     let found = if size_recharge {
         let (run, sizing) = crate::optimise::recharge::run_sized(model, wells)?;
@@ -189,7 +199,7 @@ fn check(
     };
     let inputs = report::files::inputs_of(model, wells);
     let mut o = Outputs::written(out, report::check_files(&found)?, inputs);
-    o.text = report::check_text::to_text(&found, model.units);
+    o.text = report::check_text::to_text(&found, model.units, table_rows(chatter));
     o.verdict = found.verdict;
     Ok(o)
 }
@@ -217,7 +227,13 @@ fn design(
     if chatter == Chatter::Verbose {
         o.messages.push(crate::work_counts::summary());
     }
-    o.text = report::design_text::to_text(model, &found, model.units, price_list.as_deref());
+    o.text = report::design_text::to_text(
+        model,
+        &found,
+        model.units,
+        price_list.as_deref(),
+        table_rows(chatter),
+    );
     o.verdict = found.verdict;
     Ok(o)
 }

@@ -322,8 +322,9 @@ pub fn progress_counted(chatter: Chatter, total: usize, what: &str) -> indicatif
 
 /// The progress of a design's count search, told by `work_counts::trying` as each layout is
 /// tried: its well count and spacing, how many were tried and the time each takes. The search
-/// bisects, so its length is not known beforehand: the display gives the time per layout
-/// instead of an ETA.
+/// bisects, so its length is not known beforehand: the display gives the time per layout until
+/// the count is bracketed, then an ETA from the bisection steps left
+/// ([`crate::work_counts::BISECTION_LEFT`]).
 pub struct LayoutProgress {
     bar: indicatif::ProgressBar,
 }
@@ -341,12 +342,24 @@ pub fn progress_layouts(chatter: Chatter, units: UnitSystem) -> LayoutProgress {
     let f = crate::report::format::Fmt::new(units, 0.0);
     let start = std::time::Instant::now();
     crate::work_counts::set_progress(Some(Box::new(move |count, spacing| {
+        // Once the count is bracketed the bisection's steps left are known: ETA = steps ×
+        // the mean time of the layouts tried so far.
+        let left = crate::work_counts::BISECTION_LEFT.load(std::sync::atomic::Ordering::Relaxed);
         let each = match shown.position() {
             0 => String::new(),
-            done => format!(
-                ", about {:.1} s a layout",
-                start.elapsed().as_secs_f64() / done as f64
-            ),
+            done => {
+                let per = start.elapsed().as_secs_f64() / done as f64;
+                if left > 0 {
+                    let eta = per * left as f64;
+                    if eta < 1.0 {
+                        format!(", under 1 s left ({left} more)")
+                    } else {
+                        format!(", about {eta:.0} s left ({left} more)")
+                    }
+                } else {
+                    format!(", about {per:.1} s a layout")
+                }
+            }
         };
         shown.inc(1);
         shown.set_message(if spacing > 0.0 {

@@ -19,6 +19,25 @@ pub static UNIT_MATRIX_BUILDS: AtomicUsize = AtomicUsize::new(0);
 /// Uses of a unit matrix already built (rate options, one-well-out rows and report).
 pub static UNIT_MATRIX_REUSES: AtomicUsize = AtomicUsize::new(0);
 
+/// Layouts the count search still has to try once it has bracketed the count between a
+/// failure `lo` and a success `hi`: ⌈log₂(hi − lo)⌉ bisection steps, the one being tried
+/// included; 0 before there is a bracket and after. Read by the progress display for its ETA.
+pub static BISECTION_LEFT: AtomicUsize = AtomicUsize::new(0);
+
+/// The count search has bracketed its count between `lo` (failed) and `hi` (met).
+pub fn bisecting(lo: usize, hi: usize) {
+    BISECTION_LEFT.store(bisection_steps(hi.saturating_sub(lo)), Ordering::Relaxed);
+}
+
+/// Steps a bisection takes to close a gap of `gap` counts down to 1: ⌈log₂ gap⌉.
+fn bisection_steps(gap: usize) -> usize {
+    if gap <= 1 {
+        0
+    } else {
+        (usize::BITS - (gap - 1).leading_zeros()) as usize
+    }
+}
+
 /// Add `n` to `counter`.
 #[inline]
 pub fn add(counter: &AtomicUsize, n: usize) {
@@ -57,6 +76,28 @@ pub fn trying(count: usize, spacing: f64) {
     if let Ok(p) = PROGRESS.read() {
         if let Some(sink) = p.as_ref() {
             sink(count, spacing);
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn bisection_steps_bound_the_worst_case() {
+        // The worst case of halving [lo, hi] (m = lo + (hi − lo)/2, either half kept) counted
+        // step by step: the bound is exact (⌈log₂ n⌉, Knuth, TAOCP vol. 3, 6.2.1).
+        fn worst(gap: usize) -> usize {
+            if gap <= 1 {
+                0
+            } else {
+                let m = gap / 2;
+                1 + worst(m).max(worst(gap - m))
+            }
+        }
+        for gap in 0..2000 {
+            assert_eq!(bisection_steps(gap), worst(gap), "gap {gap}");
         }
     }
 }

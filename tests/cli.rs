@@ -251,3 +251,41 @@ distance = "201.1 m"
     // Same flow in m³/day (1 day = 86 400 s).
     assert!((number(e, "total_flow_m3_per_day") - q * 86.4).abs() <= 1e-9 * q * 86.4);
 }
+
+#[test]
+fn a_long_wells_table_is_cut_at_twenty_rows_unless_verbose() {
+    // Issue 17 point 4: the terminal lists at most ~20 wells and says how many more are in
+    // wells.csv; -v lists every well. The trench demo has about a thousand wellpoints.
+    let trench = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("layouts/pipeline_trench.toml");
+    let out = tempfile::tempdir().unwrap();
+    let run = |extra: &[&str]| {
+        let mut args = vec!["check".to_string(), trench.display().to_string()];
+        args.extend(["-o".to_string(), out.path().display().to_string()]);
+        args.extend(extra.iter().map(|s| s.to_string()));
+        let o = drydig(&args);
+        assert!(matches!(o.status.code(), Some(0) | Some(3)), "{o:?}");
+        text(&o.stdout)
+    };
+    let short = run(&[]);
+    let csv = std::fs::read_to_string(out.path().join("wells.csv")).unwrap();
+    let names: Vec<&str> = csv
+        .lines()
+        .skip(1)
+        .map(|l| l.split(',').next().unwrap())
+        .collect();
+    assert!(names.len() > 100, "{} wells", names.len());
+    let listed = |t: &str| {
+        names
+            .iter()
+            .filter(|n| t.lines().any(|l| l.starts_with(&format!("{n} "))))
+            .count()
+    };
+    assert_eq!(listed(&short), 20, "{short}");
+    assert!(
+        short.contains(&format!("… {} more in wells.csv", names.len() - 20)),
+        "{short}"
+    );
+    let all = run(&["-v"]);
+    assert_eq!(listed(&all), names.len());
+    assert!(!all.contains("more in wells.csv"));
+}

@@ -213,8 +213,7 @@ distance = "200 m"
         (c.x - 1000.0).abs() < 1e-4 && (c.y - 2000.0).abs() < 1e-4,
         "{c:?}"
     );
-    assert!(m
-        .import_notes
-        .iter()
-        .any(|n| n.contains("projected onto the site grid")));
+    assert!(m.import_notes.iter().any(|n| n
+        .words(drydig::input::units::UnitSystem::Si)
+        .contains("projected onto the site grid")));
 }

@@ -34,7 +34,9 @@ fn import_demo_dxf_excavation_area_by_hand() {
     let a = area(&d.polygons[0].geometry);
     assert!((a - 900.0).abs() < 1e-6, "{a}");
     assert!(
-        d.notes.iter().any(|n| n.contains("mm converted to metres")),
+        d.notes
+            .iter()
+            .any(|n| n.to_string().contains("mm converted to metres")),
         "{:?}",
         d.notes
     );
@@ -63,7 +65,7 @@ fn import_demo_dxf_neighbours_with_arc_corner() {
     let bound = 1.1 * 2.0 / 3.0 * (PI * 5.0 / 2.0) * 0.01;
     assert!(north < exact && exact - north < bound, "{north} vs {exact}");
     assert!(
-        d.notes.iter().any(|n| n.contains("flattened")),
+        d.notes.iter().any(|n| n.to_string().contains("flattened")),
         "{:?}",
         d.notes
     );

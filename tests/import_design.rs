@@ -60,12 +60,16 @@ fn demo_reads_the_site_from_the_dxf_drawing() {
     );
     // The north building's rounded corner was flattened, and the report says so.
     assert!(
-        m.import_notes.iter().any(|n| n.contains("flattened")),
+        m.import_notes.iter().any(|n| n
+            .words(drydig::input::units::UnitSystem::Si)
+            .contains("flattened")),
         "{:?}",
         m.import_notes
     );
     assert!(
-        m.import_notes.iter().any(|n| n.contains("mm converted")),
+        m.import_notes.iter().any(|n| n
+            .words(drydig::input::units::UnitSystem::Si)
+            .contains("mm converted")),
         "{:?}",
         m.import_notes
     );

@@ -132,7 +132,7 @@ fn mirrored_circle_is_on_the_mirrored_side() {
     assert_eq!(d.points[0].at, geo::Point::new(-150.0, 195.0));
     assert!((d.points[0].radius.unwrap() - 0.15).abs() < 1e-12);
     assert!(
-        d.notes.iter().any(|n| n.contains("mirrored")),
+        d.notes.iter().any(|n| n.to_string().contains("mirrored")),
         "{:?}",
         d.notes
     );

@@ -62,7 +62,9 @@ pub fn radius_at(model: &Model, s: f64) -> (f64, String) {
             // T only where r ≪ B. Report how it compares with the aquifer inputs.
             let t_in = aq.transmissivity();
             text.push_str(&format!(
-                "; the pumping test's Thiem line gives T = {transmissivity:.3e} m²/s against K·D = {t_in:.3e} m²/s from the aquifer inputs ({:+.0} %), and K·D is used{}",
+                "; the pumping test's Thiem line gives T = {} against K·D = {} from the aquifer inputs ({:+.0} %), and K·D is used{}",
+                u.transmissivity_words(transmissivity),
+                u.transmissivity_words(t_in),
                 (transmissivity / t_in - 1.0) * 100.0,
                 if (transmissivity / t_in - 1.0).abs() > 0.2 {
                     " — THEY DISAGREE by more than 20 %: check K, the thickness or the test (`drydig test` fits T, S and B from a time series)"

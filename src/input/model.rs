@@ -85,7 +85,7 @@ pub struct Model {
     /// national grid), printed with every output.
     pub crs_warnings: Vec<String>,
     /// What was done to geometry read from drawings (arcs flattened, units converted).
-    pub import_notes: Vec<String>,
+    pub import_notes: Vec<crate::input::import::notes::ImportNote>,
     /// The unit of the DXF drawing the design file reads (`design.dxf` is written in it);
     /// `None` without one (metres).
     pub drawing_unit: Option<crate::input::import::dxf_in::DrawingUnit>,

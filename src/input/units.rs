@@ -423,6 +423,14 @@ impl UnitSystem {
     pub fn length_words(self, metres: f64, decimals: usize) -> String {
         format!("{:.decimals$} {}", self.length(metres), self.length_unit())
     }
+    /// A transmissivity (given in m²/s) in words: "3.341e-3 m²/s", "3 107 ft²/day" (1 ft =
+    /// 0.3048 m, 1 day = 86 400 s; NIST SP 811 (2008) App. B).
+    pub fn transmissivity_words(self, t: f64) -> String {
+        match self {
+            UnitSystem::Si => format!("{t:.3e} m²/s"),
+            UnitSystem::Us => format!("{:.0} ft²/day", t * DAY / (FOOT * FOOT)),
+        }
+    }
     /// A rate per well (given in m³/s) in words: "6.40 L/s", "101.4 gpm".
     pub fn rate_words(self, q: f64) -> String {
         match self {

@@ -216,9 +216,9 @@ impl LayoutRates<'_> {
                     sense: Sense::AtLeast,
                     rhs: phi - self.base_w[k],
                     label: format!(
-                        "level in {} at {:.2} m ({}{})",
+                        "level in {} at {} ({}{})",
                         self.wells[k].name,
-                        lim.lowest_level,
+                        self.model.units.length_words(lim.lowest_level, 2),
                         lim.floor_kind.describe(),
                         if lim.loss_c > 0.0 {
                             ", with the well loss C·Q²"

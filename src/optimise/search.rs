@@ -294,6 +294,7 @@ impl Search<'_, '_> {
             };
         }
         while let Some(l) = lo {
+            crate::work_counts::bisecting(l, hi);
             if hi - l <= 1 {
                 break;
             }
@@ -304,6 +305,7 @@ impl Search<'_, '_> {
                 lo = Some(m);
             }
         }
+        crate::work_counts::bisecting(0, 0);
         Ok(Some(hi))
     }
 }

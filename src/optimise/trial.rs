@@ -32,8 +32,10 @@ pub struct Trial {
     pub uniform_limit_m3_per_s: f64,
     /// Least total flow with individual rates, m³/s (when the programme is feasible).
     pub individual_total_m3_per_s: Option<f64>,
-    /// How the programme for individual rates ended ("optimal", "infeasible", "not run" …).
-    pub individual_status: String,
+    /// How the programme for individual rates ended; `None` when it was not run (worded by
+    /// `report::design_text`).
+    #[serde(skip)]
+    pub individual_status: Option<LpStatus>,
     /// Lowest margin below target with every well at the largest uniform rate its limits allow,
     /// m: positive is reserve, negative a shortfall no uniform rate within the limits removes.
     pub lowest_margin_m: f64,
@@ -134,15 +136,6 @@ fn one_out_uniform(rates: &LayoutRates, uniform: &mut Uniform, relax: f64) {
     }
 }
 
-fn status_words(status: &LpStatus) -> String {
-    match status {
-        LpStatus::Optimal => "optimal".into(),
-        LpStatus::Infeasible => "infeasible".into(),
-        LpStatus::Unbounded => "unbounded".into(),
-        LpStatus::Failed(why) => format!("solver failed: {why}"),
-    }
-}
-
 pub(super) fn try_placement(
     model: &Model,
     points: &[CheckPoint],
@@ -201,7 +194,7 @@ impl TrialRun {
     pub(super) fn set_individual(&mut self, ind: Individual) {
         let t = &mut self.trial;
         t.individual_met = ind.met;
-        t.individual_status = status_words(&ind.status);
+        t.individual_status = Some(ind.status.clone());
         t.individual_total_m3_per_s = (ind.status == LpStatus::Optimal).then_some(ind.total);
         t.outcome = outcome_words(t);
         self.individual = Some(ind);
@@ -212,7 +205,7 @@ fn outcome_words(t: &Trial) -> String {
     match (t.uniform_met, t.individual_met) {
         (true, true) => "met (both rate options)".to_string(),
         (false, true) => "met with individual rates only".to_string(),
-        (true, false) if t.individual_status == "not run" => {
+        (true, false) if t.individual_status.is_none() => {
             "met with the same rate in every well".to_string()
         }
         (true, false) => "met with the same rate in every well only".to_string(),
@@ -252,7 +245,7 @@ fn trial_row(
         individual_total_m3_per_s: individual
             .filter(|i| i.status == LpStatus::Optimal)
             .map(|i| i.total),
-        individual_status: individual.map_or("not run".into(), |i| status_words(&i.status)),
+        individual_status: individual.map(|i| i.status.clone()),
         lowest_margin_m: uniform.margin_at_limit_m,
         lowest_margin_at: uniform
             .worst_at_limit
@@ -336,7 +329,7 @@ pub fn one_row_per_placement(trials: &mut Vec<Trial>) {
             .find(|k| same(k, &t))
         {
             Some(k) => {
-                if k.individual_status == "not run" && t.individual_status != "not run" {
+                if k.individual_status.is_none() && t.individual_status.is_some() {
                     *k = t;
                 }
             }

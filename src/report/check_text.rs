@@ -4,6 +4,7 @@ use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
 use crate::findings::check::CheckFindings;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
+use crate::report::table::{Rows, TERMINAL_ROWS};
 
 fn flow(q: f64, units: UnitSystem) -> String {
     match units {
@@ -12,8 +13,9 @@ fn flow(q: f64, units: UnitSystem) -> String {
     }
 }
 
-/// The summary table.
-pub fn to_text(found: &CheckFindings, units: UnitSystem) -> String {
+/// The terminal text of `check`: the wells table ([`well_table`], `rows` long), flows, check
+/// points, neighbours and the verdict.
+pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
     let run = &found.run;
     let e = &run.evaluation;
     let m = run.model;
@@ -40,7 +42,7 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem) -> String {
         96,
         "",
     ));
-    out.push_str(&well_table(run, units));
+    out.push_str(&well_table(run, units, rows));
     for n in &run.placement.notes {
         out.push_str(&wrap(&format!("note: {n}"), 96, ""));
     }
@@ -84,8 +86,8 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem) -> String {
             l(margin.abs()),
             if margin >= 0.0 { "below" } else { "ABOVE" },
             p.point.name,
-            p.point.position[0],
-            p.point.position[1]
+            l(p.point.position[0]),
+            l(p.point.position[1])
         ));
     }
     let unmet: Vec<_> = e.points.iter().filter(|p| p.met == Some(false)).collect();
@@ -95,8 +97,8 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem) -> String {
             out.push_str(&format!(
                 "  {:<28} ({:>9.1}, {:>9.1})  level {:>7.2}  target {:>7.2}  short {:.2} {lu}\n",
                 p.point.name,
-                p.point.position[0],
-                p.point.position[1],
+                l(p.point.position[0]),
+                l(p.point.position[1]),
                 l(p.level_m.unwrap_or(f64::NAN)),
                 l(p.point.target_level.unwrap_or(f64::NAN)),
                 l(-p.margin_m.unwrap_or(0.0))
@@ -119,43 +121,26 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem) -> String {
     out
 }
 
-/// The wells table: position, rate, level in the well, the lowest level allowed, capacity and
-/// status, one row per well (shared by `check` and `design`).
-pub fn well_table(run: &CheckRun, units: UnitSystem) -> String {
-    let e = &run.evaluation;
-    let lu = units.length_unit();
-    let l = |x: f64| units.length(x);
+/// The wells table: position, rate, level in the well with its depth, the lowest level
+/// allowed, capacity and status (shared by `check` and `design`). A long table lists the
+/// [`TERMINAL_ROWS`] wells with the least headroom and points to wells.csv, unless `rows` asks
+/// for all.
+pub fn well_table(run: &CheckRun, units: UnitSystem, rows: Rows) -> String {
     let f = super::format::Fmt::new(units, run.model.ground_level);
-    let ru = f.rate_unit();
-    let mut out = String::new();
-    out.push_str(&format!(
-        "\n{:<10} {:>11} {:>11} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
-        "well",
-        "x",
-        "y",
-        format!("rate {ru}"),
-        &format!("level {lu}"),
-        &format!("depth {lu}"),
-        &format!("lowest {lu}"),
-        format!("cap {ru}"),
-        "status"
-    ));
-    for (w, r) in run.placement.wells.iter().zip(&e.wells) {
+    let n = run.evaluation.wells.len();
+    let short = rows == Rows::Short && n > TERMINAL_ROWS;
+    let only = short.then(|| super::tables::tightest_wells(run, TERMINAL_ROWS));
+    let mut out = String::from("\n");
+    if short {
         out.push_str(&format!(
-            "{:<10} {:>11.1} {:>11.1} {:>9} {:>11} {:>9} {:>11.2} {:>9}  {}\n",
-            w.name,
-            w.position[0],
-            w.position[1],
-            f.rate_value(w.rate),
-            r.level_m.map_or("dry".into(), |z| format!("{:.2}", l(z))),
-            r.level_m.map_or("—".into(), |z| f.depth_value(z)),
-            l(r.lowest_allowed_level_m),
-            f.rate_value(r.capacity_m3_per_s),
-            if r.problems.is_empty() {
-                "ok".to_string()
-            } else {
-                super::problems::well_problems(&r.problems, &f)
-            }
+            "the {TERMINAL_ROWS} of {n} wells with the least headroom above their lowest allowed level, problems first:\n"
+        ));
+    }
+    out.push_str(&super::tables::wells_table(run, only.as_deref()).to_text(&f));
+    if short {
+        out.push_str(&format!(
+            "… {} more in wells.csv (-v lists every well here)\n",
+            n - TERMINAL_ROWS
         ));
     }
     out

@@ -8,6 +8,7 @@ use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::prices::Price;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
+use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::trial::Trial;
 use serde_json::{json, Value};
@@ -22,6 +23,18 @@ fn flow(q: f64, units: UnitSystem) -> String {
             thousands(m3s_to_gpm(q), 0),
             thousands(m3s_to_gpm(q) * 1440.0, 0)
         ),
+    }
+}
+
+/// How the programme for individual rates of a layout ended, in words ("not run" when it was
+/// not: the search for one rate needs none).
+fn individual_status_words(status: &Option<LpStatus>) -> String {
+    match status {
+        None => "not run".into(),
+        Some(LpStatus::Optimal) => "optimal".into(),
+        Some(LpStatus::Infeasible) => "infeasible".into(),
+        Some(LpStatus::Unbounded) => "unbounded".into(),
+        Some(LpStatus::Failed(why)) => format!("solver failed: {why}"),
     }
 }
 
@@ -50,7 +63,7 @@ fn trial_json(t: &Trial) -> Value {
         "binding_limit": t.binding_limit,
         "uniform_met": t.uniform_met,
         "individual_met": t.individual_met,
-        "individual_status": t.individual_status,
+        "individual_status": individual_status_words(&t.individual_status),
         "outcome": t.outcome,
         "placement": t.variant,
     })
@@ -163,7 +176,7 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
             t.binding_limit.clone(),
             t.uniform_met.to_string(),
             t.individual_met.to_string(),
-            t.individual_status.clone(),
+            individual_status_words(&t.individual_status),
             t.outcome.clone(),
             t.variant.clone(),
         ];
@@ -246,11 +259,11 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
             },
             opt(t.uniform_rate_m3_per_s, rate_scale, 2),
             opt(t.uniform_total_m3_per_s, total_scale, 0),
-            match (t.individual_total_m3_per_s, t.individual_status.as_str()) {
+            match (t.individual_total_m3_per_s, &t.individual_status) {
                 (Some(q), _) => format!("{:.0}", q * total_scale),
-                (None, "not run") => "not run".to_string(),
-                (None, "infeasible") => "infeasible".to_string(),
-                (None, _) => "failed".to_string(),
+                (None, None) => "not run".to_string(),
+                (None, Some(LpStatus::Infeasible)) => "infeasible".to_string(),
+                (None, Some(_)) => "failed".to_string(),
             },
             units.length(t.lowest_margin_m),
             limit,
@@ -264,12 +277,13 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
     out
 }
 
-/// The terminal summary of a design.
+/// The terminal summary of a design (the wells table `rows` long).
 pub fn to_text(
     model: &Model,
     found: &DesignFindings,
     units: UnitSystem,
     prices: Option<&[Price]>,
+    rows: crate::report::table::Rows,
 ) -> String {
     let design = &found.design;
     let run = found.chosen.as_ref().map(|c| &c.run);
@@ -326,8 +340,8 @@ pub fn to_text(
         } => {
             out.push_str(&format!(
                 "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
-                position[0],
-                position[1],
+                l(position[0]),
+                l(position[1]),
                 l(*shortfall_m)
             ));
         }
@@ -342,7 +356,7 @@ pub fn to_text(
     }
     if let Some(r) = run {
         let e = &r.evaluation;
-        out.push_str(&super::check_text::well_table(r, units));
+        out.push_str(&super::check_text::well_table(r, units, rows));
         out.push_str(&format!(
             "\ncheck points          {} ({} not met)\n",
             e.points.len(),

@@ -23,6 +23,7 @@ pub mod pumping_test_chart;
 pub mod pumping_test_text;
 pub mod section_svg;
 pub mod sweep_chart;
+pub mod table;
 pub mod tables;
 pub mod verdict;
 

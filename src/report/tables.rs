@@ -12,88 +12,145 @@ use crate::input::model::{Model, WellLossSpec};
 use crate::input::units::UnitSystem;
 use crate::physics::images::BoundaryKind;
 use crate::report::format::Fmt;
-use crate::report::problems::{well_problem, well_problems};
+use crate::report::problems::well_problem;
+use crate::report::table::{fixed, Cell, Column, Csv, Quantity, Table};
 use serde_json::{json, Value};
-
-/// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
-pub fn fixed(v: f64, decimals: usize) -> String {
-    let t = format!("{v:.decimals$}");
-    match t.strip_prefix('-') {
-        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
-        _ => t,
-    }
-}
-
-/// `v` to nine decimal places with trailing zeros (and a bare point) dropped: enough to read
-/// back to the same run, free of binary noise such as -2.9999999999999964 (read as -3).
-pub fn fine(v: f64) -> String {
-    let t = fixed(v, 9);
-    if t.contains('.') {
-        t.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        t
-    }
-}
 
 /// "wet" or "dry", the state of a level whose column is left empty when dry.
 fn level_state(level: Option<f64>) -> String {
     if level.is_some() { "wet" } else { "dry" }.to_string()
 }
 
+/// The wells table of a run, every output's columns: position, rate, level in the well with its
+/// depth, drawdown, the lowest level allowed, capacity and status for people; for `wells.csv`
+/// also the radius, screen and intake, the aquifer level beside the well, the well loss and a
+/// wet/dry state, every number in SI at a stated precision (position, rate and radius to 1e-9
+/// m and L/s so that `check --wells wells.csv` reproduces the run). `only` picks the wells
+/// listed (by index), in that order; `None` lists all.
+pub fn wells_table(run: &CheckRun, only: Option<&[usize]>) -> Table {
+    use Quantity::{Length, Rate, Words};
+    let col = |title, quantity, terminal, html, csv| Column {
+        title,
+        quantity,
+        terminal,
+        html,
+        csv,
+    };
+    let columns = vec![
+        col("well", Words, true, true, Csv::Name("name")),
+        col("x", Length, true, true, Csv::Fine("x_m", 1.0)),
+        col("y", Length, true, true, Csv::Fine("y_m", 1.0)),
+        col("rate", Rate, true, true, Csv::Fine("rate_l_per_s", 1e3)),
+        col(
+            "",
+            Words,
+            false,
+            false,
+            Csv::Fixed("rate_m3_per_day", 86_400.0, 2),
+        ),
+        col("", Words, false, false, Csv::Fine("radius_m", 1.0)),
+        col("", Words, false, false, Csv::Fixed("screen_top_m", 1.0, 2)),
+        col("", Words, false, false, Csv::Fixed("screen_base_m", 1.0, 2)),
+        col("", Words, false, false, Csv::Fixed("pump_intake_m", 1.0, 2)),
+        col(
+            "level in well",
+            Length,
+            true,
+            true,
+            Csv::Fixed("water_level_m", 1.0, 3),
+        ),
+        col("depth bgl", Length, true, true, Csv::No),
+        col(
+            "drawdown",
+            Length,
+            false,
+            true,
+            Csv::Fixed("drawdown_m", 1.0, 3),
+        ),
+        col(
+            "lowest allowed",
+            Length,
+            true,
+            true,
+            Csv::Fixed("lowest_allowed_level_m", 1.0, 2),
+        ),
+        col("its depth bgl", Length, false, true, Csv::No),
+        col(
+            "capacity",
+            Rate,
+            true,
+            true,
+            Csv::Fixed("capacity_l_per_s", 1e3, 3),
+        ),
+        col("status", Words, true, true, Csv::Words("status")),
+        col("", Words, false, false, Csv::Words("note")),
+        col(
+            "",
+            Words,
+            false,
+            false,
+            Csv::Fixed("aquifer_level_m", 1.0, 3),
+        ),
+        col("", Words, false, false, Csv::Fixed("well_loss_m", 1.0, 3)),
+        col("", Words, false, false, Csv::Words("level_status")),
+    ];
+    let all: Vec<usize> = (0..run.evaluation.wells.len()).collect();
+    let rows = only
+        .unwrap_or(&all)
+        .iter()
+        .map(|&k| {
+            let (well, r) = (&run.placement.wells[k], &run.evaluation.wells[k]);
+            vec![
+                Cell::Text(well.name.clone()),
+                Cell::Length(well.position[0]),
+                Cell::Length(well.position[1]),
+                Cell::Rate(well.rate),
+                Cell::Rate(well.rate),
+                Cell::Length(well.radius),
+                Cell::Length(well.screen_top),
+                Cell::Length(well.screen_base),
+                Cell::Length(well.pump_intake),
+                Cell::Level(r.level_m),
+                Cell::Depth(r.level_m),
+                Cell::Length(r.drawdown_m),
+                Cell::Length(r.lowest_allowed_level_m),
+                Cell::Depth(Some(r.lowest_allowed_level_m)),
+                Cell::Rate(r.capacity_m3_per_s),
+                Cell::Status(r.problems.clone()),
+                Cell::Text(well.note.clone().unwrap_or_default()),
+                Cell::Level(r.aquifer_level_m),
+                Cell::Length(r.well_loss_m),
+                Cell::Text(level_state(r.level_m)),
+            ]
+        })
+        .collect();
+    Table { columns, rows }
+}
+
 /// `wells.csv`: one row per well, SI units in the headers; the status words (read by a person,
 /// read by no tool beyond "ok") in the user's units.
 pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {
     let words = Fmt::new(run.model.units, run.model.ground_level);
-    let mut w = csv::Writer::from_writer(Vec::new());
-    w.write_record([
-        "name",
-        "x_m",
-        "y_m",
-        "rate_l_per_s",
-        "rate_m3_per_day",
-        "radius_m",
-        "screen_top_m",
-        "screen_base_m",
-        "pump_intake_m",
-        "water_level_m",
-        "drawdown_m",
-        "lowest_allowed_level_m",
-        "capacity_l_per_s",
-        "status",
-        "note",
-        "aquifer_level_m",
-        "well_loss_m",
-        "level_status",
-    ])?;
-    for (well, r) in run.placement.wells.iter().zip(&run.evaluation.wells) {
-        w.write_record([
-            // Position, rate and radius to 1e-9 (m, L/s), so that `check --wells wells.csv`
-            // reproduces the run.
-            crate::field::wells_csv::csv_text(&well.name),
-            fine(well.position[0]),
-            fine(well.position[1]),
-            fine(well.rate * 1e3),
-            fixed(well.rate * 86_400.0, 2),
-            fine(well.radius),
-            fixed(well.screen_top, 2),
-            fixed(well.screen_base, 2),
-            fixed(well.pump_intake, 2),
-            r.level_m.map_or(String::new(), |z| fixed(z, 3)),
-            fixed(r.drawdown_m, 3),
-            fixed(r.lowest_allowed_level_m, 2),
-            fixed(r.capacity_m3_per_s * 1e3, 3),
-            if r.problems.is_empty() {
-                "ok".into()
-            } else {
-                well_problems(&r.problems, &words)
-            },
-            well.note.clone().unwrap_or_default(),
-            r.aquifer_level_m.map_or(String::new(), |z| fixed(z, 3)),
-            fixed(r.well_loss_m, 3),
-            level_state(r.level_m),
-        ])?;
-    }
-    Ok(w.into_inner()?)
+    wells_table(run, None).to_csv(&words)
+}
+
+/// The wells with the least headroom (water level above the lowest level allowed), wells with
+/// a problem first, at most `n` of them: the rows a long table lists (every well stays in
+/// wells.csv).
+pub fn tightest_wells(run: &CheckRun, n: usize) -> Vec<usize> {
+    let all = &run.evaluation.wells;
+    let headroom =
+        |k: usize| all[k].level_m.unwrap_or(f64::NEG_INFINITY) - all[k].lowest_allowed_level_m;
+    let mut order: Vec<usize> = (0..all.len()).collect();
+    order.sort_by(|&a, &b| {
+        all[a]
+            .problems
+            .is_empty()
+            .cmp(&all[b].problems.is_empty())
+            .then(headroom(a).total_cmp(&headroom(b)))
+    });
+    order.truncate(n);
+    order
 }
 
 /// `checkpoints.csv`: one row per check point.
@@ -236,6 +293,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::report::table::fine;
 
     // -2.9999999999999964 is 3 − 16 ulp, the kind of value a sum of offsets leaves; to nine
     // decimals it is −3 (IEEE 754 round to nearest). common practice (no source).

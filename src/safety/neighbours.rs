@@ -714,7 +714,7 @@ fn checks_and_notes(
     }
     if let Some(z_t) = confining_top(model) {
         if !n.layers.is_empty() {
-            notes.push(format!("confined aquifer (top at {z_t:.2} m): the clay above it loses pore pressure linearly, from nothing at its top (the water table above is not pumped) to the aquifer's head drop at its base (steady seepage); layers above the clay are unchanged"));
+            notes.push(format!("confined aquifer (top at {}): the clay above it loses pore pressure linearly, from nothing at its top (the water table above is not pumped) to the aquifer's head drop at its base (steady seepage); layers above the clay are unchanged", model.units.length_words(z_t, 2)));
         }
     }
     if samples.iter().any(|s| s.drawdown_m < 0.0) {

@@ -26,6 +26,7 @@ use geo::{Coord, LineString, Point, Polygon};
 
 use super::dxf_wells::{self as wells, Found};
 use super::dxf_world::{self, PlacedKind};
+use super::notes::ReadNote;
 use super::{ring_problem, Drawing, Marker, Shape};
 use crate::input::error::InputError;
 use crate::input::read::{read_capped, MAX_DXF_BYTES};
@@ -84,6 +85,17 @@ impl DrawingUnit {
             DrawingUnit::Metre => "m",
             DrawingUnit::Foot => "ft",
             DrawingUnit::Inch => "in",
+        }
+    }
+
+    /// The unit's name in words (`millimetres`, `feet`).
+    pub fn words(self) -> &'static str {
+        match self {
+            DrawingUnit::Millimetre => "millimetres",
+            DrawingUnit::Centimetre => "centimetres",
+            DrawingUnit::Metre => "metres",
+            DrawingUnit::Foot => "feet",
+            DrawingUnit::Inch => "inches",
         }
     }
 
@@ -352,42 +364,43 @@ fn notes(
 ) {
     let layer = &options.layer;
     if unit != DrawingUnit::Metre {
-        out.notes.push(format!(
-            "drawing units {} converted to metres (× {})",
-            unit.name(),
-            unit.metres()
-        ));
+        out.notes.push(ReadNote::UnitsConverted {
+            symbol: unit.name(),
+            words: unit.words(),
+            metres: unit.metres(),
+        });
     }
     if world.arcs > 0 {
-        out.notes.push(format!(
-            "{} arc(s) on layer {layer} flattened into {} straight segments, each within {} m of \
-             the true arc",
-            world.arcs, world.arc_segments, options.chord_tolerance
-        ));
+        out.notes.push(ReadNote::ArcsFlattened {
+            arcs: world.arcs,
+            segments: world.arc_segments,
+            layer: layer.clone(),
+            tolerance_m: options.chord_tolerance,
+        });
     }
     if world.inserts > 0 {
-        out.notes.push(format!(
+        out.notes.push(ReadNote::Said(format!(
             "{} block reference(s) on layer {layer} expanded with their position, scale and \
              rotation",
             world.inserts
-        ));
+        )));
     }
     if world.mirrored > 0 {
-        out.notes.push(format!(
+        out.notes.push(ReadNote::Said(format!(
             "{} mirrored entit(ies) or block reference(s) converted to world coordinates \
              (DXF arbitrary axis algorithm)",
             world.mirrored
-        ));
+        )));
     }
     if world.distorted_circles > 0 {
-        out.notes.push(format!(
+        out.notes.push(ReadNote::Said(format!(
             "{} circle(s) in blocks scaled unequally in x and y: their centres are taken, their \
              radii are not",
             world.distorted_circles
-        ));
+        )));
     }
     if !naming.is_empty() {
-        out.notes.push(naming.to_string());
+        out.notes.push(ReadNote::Said(naming.to_string()));
     }
 }
 
@@ -463,7 +476,10 @@ mod tests {
         let d = read(&path, &DxfOptions::layer("pit")).unwrap();
         let c = &d.polygons[0].geometry.exterior().0;
         assert_eq!(c[2], Coord { x: 40.0, y: 15.0 });
-        assert!(d.notes.iter().any(|n| n.contains("mm converted to metres")));
+        assert!(d
+            .notes
+            .iter()
+            .any(|n| n.to_string().contains("mm converted to metres")));
         // Stated unit contradicting $INSUNITS, and a unitless drawing without a stated unit.
         let mut o = DxfOptions::layer("PIT");
         o.unit = Some(DrawingUnit::Metre);

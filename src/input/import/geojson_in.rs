@@ -324,9 +324,11 @@ fn project_lon_lat(path: &Path, drawing: &mut Drawing, crs: &str) -> Result<(), 
             ),
         ));
     }
-    drawing.notes.push(format!(
-        "WGS84 longitude/latitude projected onto the site grid {crs}"
-    ));
+    drawing
+        .notes
+        .push(crate::input::import::notes::ReadNote::Said(format!(
+            "WGS84 longitude/latitude projected onto the site grid {crs}"
+        )));
     Ok(())
 }
 
@@ -580,7 +582,7 @@ mod tests {
         assert!(d
             .notes
             .iter()
-            .any(|n| n.contains("projected onto the site grid")));
+            .any(|n| n.to_string().contains("projected onto the site grid")));
         // The context ends with the closure.
         assert!(parse(p, &text, &filter).is_err());
     }

@@ -14,6 +14,7 @@ pub mod dxf_in;
 pub mod dxf_wells;
 pub mod dxf_world;
 pub mod geojson_in;
+pub mod notes;
 pub mod resolve;
 
 use geo::{LineString, Point, Polygon};
@@ -52,7 +53,7 @@ pub struct Drawing {
     /// Points: wells.
     pub points: Vec<Marker>,
     /// What the reader did to the geometry, in words (arcs flattened, units converted).
-    pub notes: Vec<String>,
+    pub notes: Vec<notes::ReadNote>,
     /// The unit of a DXF drawing (`None` for GeoJSON, which is in metres).
     pub unit: Option<dxf_in::DrawingUnit>,
 }

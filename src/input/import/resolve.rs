@@ -13,6 +13,7 @@ use super::dxf_in::{self, DrawingUnit, DxfOptions};
 use super::geojson_in::{self, PropertyFilter};
 use super::Drawing;
 use crate::input::error::InputError;
+use crate::input::import::notes::ImportNote;
 use std::path::{Path, PathBuf};
 use toml::{Table, Value};
 
@@ -22,7 +23,7 @@ pub struct Resolved {
     /// The rewritten design text (TOML).
     pub text: String,
     /// What was read from where, and what was done to it.
-    pub notes: Vec<String>,
+    pub notes: Vec<ImportNote>,
     /// The unit of the first DXF drawing read (`design.dxf` is written in it).
     pub drawing_unit: Option<DrawingUnit>,
     /// Fields of the rewritten text that came from a drawing (`well[3]`,
@@ -245,7 +246,7 @@ fn ring(p: &geo::Polygon<f64>) -> Value {
 /// came from where.
 #[derive(Default)]
 struct Log {
-    notes: Vec<String>,
+    notes: Vec<ImportNote>,
     unit: Option<DrawingUnit>,
     sources: Vec<(String, String)>,
     files: Vec<PathBuf>,
@@ -266,16 +267,14 @@ fn note(log: &mut Log, field: &str, r: &Reference, got: &Drawing, item: &str) {
     if !log.files.contains(&r.file) {
         log.files.push(r.file.clone());
     }
-    let notes = &mut log.notes;
-    let mut s = format!("{field}: {item} read from {}", r.shown);
+    let mut read = format!("{field}: {item} read from {}", r.shown);
     if let Some(l) = &r.layer {
-        s.push_str(&format!(", layer {l}"));
+        read.push_str(&format!(", layer {l}"));
     }
-    for n in &got.notes {
-        s.push_str("; ");
-        s.push_str(n);
-    }
-    notes.push(s);
+    log.notes.push(ImportNote {
+        read,
+        did: got.notes.clone(),
+    });
 }
 
 /// Replace `key` (a drawing reference) in `t` by `target` geometry.

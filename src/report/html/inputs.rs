@@ -205,7 +205,11 @@ pub fn inputs(cx: &Context) -> Part {
         );
     }
     for n in &m.import_notes {
-        add("drawing import", n.clone(), "outline read from a drawing");
+        add(
+            "drawing import",
+            n.words(m.units),
+            "outline read from a drawing",
+        );
     }
     let mut body = table(&["item", "value", "source"], &rows);
     body.push_str(&format!(

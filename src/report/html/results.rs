@@ -96,68 +96,18 @@ pub fn wells(cx: &Context) -> Part {
     let all = &cx.run.evaluation.wells;
     // A long line of wellpoints: the wells with the least headroom (water level above the
     // lowest level allowed), problems first; every well stays in wells.csv.
-    let mut shown: Vec<&crate::check::evaluate::WellResult> = all.iter().collect();
     let cut = all.len() > MAX_WELL_ROWS;
-    if cut {
-        shown.sort_by(|a, b| {
-            a.problems.is_empty().cmp(&b.problems.is_empty()).then(
-                (a.level_m.unwrap_or(f64::NEG_INFINITY) - a.lowest_allowed_level_m).total_cmp(
-                    &(b.level_m.unwrap_or(f64::NEG_INFINITY) - b.lowest_allowed_level_m),
-                ),
-            )
-        });
-        shown.truncate(MAX_WELL_ROWS / 2);
-    }
-    let rows: Vec<Vec<String>> = shown
-        .iter()
-        .map(|w| {
-            vec![
-                esc(&w.name),
-                esc(&f.length_value(w.position[0])),
-                esc(&f.length_value(w.position[1])),
-                esc(&f.rate_value(w.rate_m3_per_s)),
-                esc(&w.level_m.map_or("dry".into(), |z| f.length_value(z))),
-                esc(&w.level_m.map_or("—".into(), |z| f.depth_value(z))),
-                esc(&f.length_value(w.drawdown_m)),
-                esc(&f.length_value(w.lowest_allowed_level_m)),
-                esc(&f.depth_value(w.lowest_allowed_level_m)),
-                esc(&f.rate_value(w.capacity_m3_per_s)),
-                if w.problems.is_empty() {
-                    "ok".into()
-                } else {
-                    format!(
-                        "<span class=\"bad\">{}</span>",
-                        esc(&crate::report::problems::well_problems(&w.problems, f))
-                    )
-                },
-            ]
-        })
-        .collect();
-    let lu = f.lu();
-    let ru = f.rate_unit();
-    let head = [
-        "well".to_string(),
-        format!("#x ({lu})"),
-        format!("#y ({lu})"),
-        format!("#rate ({ru})"),
-        format!("#level in well ({lu})"),
-        format!("#depth bgl ({lu})"),
-        format!("#drawdown ({lu})"),
-        format!("#lowest allowed ({lu})"),
-        format!("#its depth bgl ({lu})"),
-        format!("#capacity ({ru})"),
-        "status".to_string(),
-    ];
-    let head: Vec<&str> = head.iter().map(String::as_str).collect();
+    let shown = cut.then(|| crate::report::tables::tightest_wells(cx.run, MAX_WELL_ROWS / 2));
+    let table = crate::report::tables::wells_table(cx.run, shown.as_deref());
     let mut body = String::new();
     if cut {
         body.push_str(&format!(
             "<p>{} wells; the {} with the least headroom above their lowest allowed level are listed.</p>",
             all.len(),
-            shown.len()
+            table.rows.len()
         ));
     }
-    body.push_str(&table(&head, &rows));
+    body.push_str(&table.to_html(f));
     for n in &cx.run.placement.notes {
         body.push_str(&format!("<p class=\"note\">{}</p>", esc(n)));
     }

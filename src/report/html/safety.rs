@@ -181,7 +181,13 @@ pub fn cautions(cx: &Context) -> Part {
     if let Some(d) = cx.design {
         notes.extend(d.notes.iter().cloned());
     }
-    notes.extend(cx.run.model.import_notes.iter().cloned());
+    notes.extend(
+        cx.run
+            .model
+            .import_notes
+            .iter()
+            .map(|n| n.words(cx.run.model.units)),
+    );
     notes.extend(cx.run.model.crs_warnings.iter().cloned());
     if !notes.is_empty() {
         body.push_str("<ul>\n");

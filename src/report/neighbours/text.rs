@@ -6,9 +6,14 @@
 use crate::findings::check::CheckFindings;
 use crate::input::units::UnitSystem;
 use crate::optimise::recharge::RechargeSizing;
-use crate::report::neighbours::numbers::{mm, ratio_text, small, truncate};
+use crate::report::neighbours::numbers::{
+    mm, pressure_kpa, ratio_text, rule_settlement, small, truncate, unit_weight,
+};
 use crate::report::wrap;
-use crate::safety::neighbours::{NeighbourResult, Status, RULE_OF_THUMB_LABEL};
+use crate::safety::neighbours::{
+    NeighbourResult, Status, RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL,
+    RULE_OF_THUMB_SETTLEMENT,
+};
 use crate::safety::uplift::UpliftResult;
 
 /// The checks of a neighbour in one line: "drawdown 1.62/1.50 m FAIL; …".
@@ -88,7 +93,12 @@ fn table(results: &[NeighbourResult], units: UnitSystem) -> String {
         .any(|c| c.basis != "design file")
     {
         out.push_str(&wrap(
-            &format!("* limit not in the design file: {} — 25 mm total settlement, angular distortion 1/500; give the building's own limits", RULE_OF_THUMB_LABEL),
+            &format!(
+                "* limit not in the design file: {} — {} total settlement, angular distortion {}; give the building's own limits",
+                RULE_OF_THUMB_LABEL,
+                rule_settlement(RULE_OF_THUMB_SETTLEMENT, units),
+                ratio_text(RULE_OF_THUMB_DISTORTION)
+            ),
             96,
             "  ",
         ));
@@ -166,8 +176,8 @@ fn building_detail(r: &NeighbourResult, units: UnitSystem) -> String {
         out.push_str(&format!(
             "    {:<10} ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}\n",
             c.name,
-            c.position[0],
-            c.position[1],
+            l(c.position[0]),
+            l(c.position[1]),
             l(c.drawdown_m),
             c.settlement_m.map_or(String::new(), |s| format!(
                 "  settlement {:>9}",
@@ -178,8 +188,8 @@ fn building_detail(r: &NeighbourResult, units: UnitSystem) -> String {
     let w = &r.worst_drawdown;
     out.push_str(&format!(
         "    worst      ({:>8.1}, {:>8.1})  drawdown {:>6.2} {lu}{}  [{}, of {} points sampled]\n",
-        w.position[0],
-        w.position[1],
+        l(w.position[0]),
+        l(w.position[1]),
         l(w.drawdown_m),
         w.settlement_m.map_or(String::new(), |s| format!(
             "  settlement {:>9}",
@@ -233,18 +243,18 @@ fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
     let lu = units.length_unit();
     let l = |x: f64| units.length(x);
     let mut out = format!(
-        "\nbase uplift — {}: {:.2} {lu} of soil at {:.1} kN/m³ between formation {:.2} {lu} and the confined layer top {:.2} {lu}: σ_v = {:.1} kPa\n",
+        "\nbase uplift — {}: {:.2} {lu} of soil at {} between formation {:.2} {lu} and the confined layer top {:.2} {lu}: σ_v = {}\n",
         u.excavation,
         l(u.cover_thickness_m),
-        u.soil_unit_weight_kn_per_m3,
+        unit_weight(u.soil_unit_weight_kn_per_m3, units),
         l(u.formation_level_m),
         l(u.layer_top_m),
-        u.overburden_kpa
+        pressure_kpa(u.overburden_kpa, units)
     );
     out.push_str(&format!(
-        "  before pumping: piezometric level {:.2} {lu}, water pressure {:.1} kPa, FoS {}\n",
+        "  before pumping: piezometric level {:.2} {lu}, water pressure {}, FoS {}\n",
         l(u.piezometric_level_m),
-        u.water_pressure_kpa,
+        pressure_kpa(u.water_pressure_kpa, units),
         u.factor_of_safety_before
             .map_or("— (no uplift pressure)".into(), |f| format!("{f:.2}"))
     ));
@@ -286,6 +296,8 @@ fn uplift_text(u: &UpliftResult, units: UnitSystem) -> String {
 
 fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
     let lu = units.length_unit();
+    let f = crate::report::format::Fmt::new(units, 0.0);
+    let ru = f.rate_unit();
     let mut out = format!("\nrecharge sizing: {}\n", r.status);
     for p in &r.protected {
         out.push_str(&format!(
@@ -298,12 +310,12 @@ fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
     }
     for w in &r.wells {
         out.push_str(&format!(
-            "  {:<10} ({:>8.1}, {:>8.1})  injects {:>6.2} L/s of at most {:.2} L/s\n",
+            "  {:<10} ({:>8.1}, {:>8.1})  injects {:>6} {ru} of at most {} {ru}\n",
             w.name,
-            w.position[0],
-            w.position[1],
-            (w.rate_m3_per_s * 1e3).max(0.0) + 0.0,
-            w.capacity_m3_per_s * 1e3
+            units.length(w.position[0]),
+            units.length(w.position[1]),
+            f.rate_value(w.rate_m3_per_s.max(0.0)),
+            f.rate_value(w.capacity_m3_per_s)
         ));
     }
     out.push_str(&format!(
