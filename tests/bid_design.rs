@@ -17,7 +17,7 @@ use drydig::field::wells::Well;
 use drydig::input::model::{Control, LayoutKind, Model, RingCount};
 use drydig::input::prices::Price;
 use drydig::input::validate::file::{from_str, load};
-use drydig::optimise::bid::{bid, bid_of};
+use drydig::bid::quantities::{bid, bid_of};
 use drydig::optimise::outcome::{final_run, Design, Outcome};
 use drydig::optimise::pumps::{head, shaft_power};
 use drydig::optimise::rates::{LayoutRates, RateOption};

@@ -7,7 +7,7 @@ use drydig::input::model::Model;
 use drydig::input::prices::{read, Price};
 use drydig::input::units::UnitSystem;
 use drydig::input::validate::file::load;
-use drydig::optimise::bid::bid;
+use drydig::bid::quantities::bid;
 use drydig::report::bid_out::{bid_csv, costs, lines, BidLine};
 use std::path::Path;
 use std::process::Command;

@@ -75,6 +75,8 @@ pub struct Model {
     pub design: DesignSettings,
     /// The pumping programme in time, when given.
     pub programme: Option<Programme>,
+    /// The bid's durations and rules of thumb (`[bid]`).
+    pub bid: crate::input::model_bid::BidSettings,
     /// Map extent, contour interval and the section line of `[output]`.
     pub output: OutputSettings,
     /// The site's coordinate system (`[site] crs`: an EPSG code or a proj string), when given.

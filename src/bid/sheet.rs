@@ -1,0 +1,402 @@
+//! The bid sheet: one list of lines (item, quantity, unit, category, basis) in the user's unit
+//! system (`units = "us"`: feet, gpm, US gallons; pumps named by their duty in gpm), the one
+//! list `bid.csv`, `bid.json`, the terminal sheet and report.html show and the prices multiply.
+//!
+//! Each line has a category ([`Category`]): capital (bought), hire per week (its quantity ×
+//! the hire weeks), running (its quantity already over the pumping: days, kWh, volume),
+//! one-off (labour or a service), or information (not priced). The categories are this
+//! program's reading of how a dewatering bid is priced, common practice (no source).
+//! Extra quantity lines (a cut-off wall, say) join in [`lines`] with their category.
+
+use crate::bid::quantities::{Bid, SUMP_ALLOWANCE};
+use crate::input::units::{m3s_to_gpm, UnitSystem};
+use serde::Serialize;
+
+pub const DAY: f64 = 86_400.0;
+
+/// Length, flow and flow-per-length display for the bid, in one unit system.
+#[derive(Clone, Copy)]
+pub struct BidUnits(pub UnitSystem);
+
+impl BidUnits {
+    pub fn len(self, m: f64) -> f64 {
+        self.0.length(m)
+    }
+    pub fn len_unit(self) -> &'static str {
+        self.0.length_unit()
+    }
+    /// A flow in m³/s as (total-flow quantity, its unit).
+    pub fn total_flow(self, q: f64) -> (f64, &'static str) {
+        match self.0 {
+            UnitSystem::Si => (q * DAY, "m³/day"),
+            UnitSystem::Us => (m3s_to_gpm(q), "gpm"),
+        }
+    }
+    /// A volume in m³ as (number, unit): m³ or US gallons.
+    pub fn volume(self, v: f64) -> (f64, &'static str) {
+        match self.0 {
+            UnitSystem::Si => (v, "m³"),
+            UnitSystem::Us => (v / 3.785_411_784e-3, "gal"),
+        }
+    }
+    /// A rate in m³/s as (number, unit) for pumps and well rates.
+    pub fn rate(self, q: f64) -> (f64, &'static str) {
+        match self.0 {
+            UnitSystem::Si => (q * 1e3, "L/s"),
+            UnitSystem::Us => (m3s_to_gpm(q), "gpm"),
+        }
+    }
+}
+
+/// A duty as named in an item: the figure rounded to 0.1 (whole when within 0.05).
+pub fn duty_figure(v: f64) -> String {
+    if (v - v.round()).abs() < 0.05 {
+        format!("{}", v.round())
+    } else {
+        format!("{v:.1}")
+    }
+}
+
+/// How a bid line is priced.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Category {
+    /// Bought (screen left in the ground): quantity × price.
+    Capital,
+    /// Hired: quantity × hire weeks × price per week.
+    HirePerWeek,
+    /// Running over the pumping (attendance days, energy, discharged volume): quantity × price.
+    Running,
+    /// Labour or a service done once (drilling, install, removal): quantity × price.
+    OneOff,
+    /// Shown, not priced (power, flows, the quick estimate).
+    Information,
+}
+
+impl Category {
+    /// Every priced category, in the order the subtotals are shown.
+    pub const PRICED: [Category; 4] = [
+        Category::Capital,
+        Category::HirePerWeek,
+        Category::Running,
+        Category::OneOff,
+    ];
+
+    /// The category in words, as `bid.csv` writes it.
+    pub fn name(self) -> &'static str {
+        match self {
+            Category::Capital => "capital",
+            Category::HirePerWeek => "hire per week",
+            Category::Running => "running",
+            Category::OneOff => "one-off",
+            Category::Information => "information",
+        }
+    }
+}
+
+/// One line of the bid sheet.
+#[derive(Debug, Clone, Serialize)]
+pub struct BidLine {
+    /// What is priced ("drilling", "pumps 8 L/s").
+    pub item: String,
+    /// How much.
+    pub quantity: f64,
+    /// Of what.
+    pub unit: String,
+    /// How it is priced.
+    pub category: Category,
+    /// Hire weeks (hire lines): the price per week is multiplied by quantity × weeks.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub weeks: Option<f64>,
+    /// How it was found.
+    pub basis: String,
+    /// For a pumps line, the duty, m³/s (prices name pumps by their duty in any flow unit).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub duty_m3_per_s: Option<f64>,
+}
+
+/// A line shown for information; [`BidLine::as_`] and [`BidLine::hired`] give it a priced
+/// category.
+pub fn line(
+    item: impl Into<String>,
+    quantity: f64,
+    unit: &str,
+    basis: impl Into<String>,
+) -> BidLine {
+    BidLine {
+        item: item.into(),
+        quantity: if quantity.is_finite() { quantity } else { 0.0 },
+        unit: unit.into(),
+        category: Category::Information,
+        weeks: None,
+        basis: basis.into(),
+        duty_m3_per_s: None,
+    }
+}
+
+impl BidLine {
+    /// The line in `category` (not hire).
+    pub fn as_(mut self, category: Category) -> BidLine {
+        self.category = category;
+        self
+    }
+
+    /// The line hired for `weeks`.
+    pub fn hired(mut self, weeks: f64) -> BidLine {
+        self.category = Category::HirePerWeek;
+        self.weeks = Some(weeks);
+        self
+    }
+}
+
+/// The lines of the bid sheet, quantities in `units`; `estimate_flow` is the quick
+/// estimate's total flow, m³/s (shown beside the design's).
+pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
+    let u = BidUnits(units);
+    let mut out = Vec::new();
+    well_lines(&mut out, bid, u);
+    pump_lines(&mut out, bid, u);
+    power_lines(&mut out, bid, u);
+    crate::bid::time_lines::time_lines(&mut out, bid, u);
+    flow_lines(&mut out, bid, u, estimate_flow);
+    out
+}
+
+/// Wells (working, standby, recharge), drilling or jetting, and screen.
+fn well_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
+    let what = if bid.wellpoints {
+        "wellpoints"
+    } else {
+        "wells"
+    };
+    let weeks = bid.time.hire_weeks;
+    let working = line(
+        format!("working {what}"),
+        bid.working_wells as f64,
+        "no.",
+        if bid.wellpoints {
+            "rate above zero; wellpoint, riser and swing joint hired"
+        } else {
+            "rate above zero; idle wells are dropped from the layout; each completed (development, headworks)"
+        },
+    );
+    out.push(if bid.wellpoints {
+        working.hired(weeks)
+    } else {
+        working.as_(Category::OneOff)
+    });
+    if !bid.wellpoints {
+        out.push(line(
+            "standby wells",
+            bid.standby_placed.len() as f64,
+            "no.",
+            if bid.standby_placed.is_empty() {
+                "none asked (wells.standby)".to_string()
+            } else {
+                format!(
+                    "placed where one well's loss hurts most: {}",
+                    bid.standby_placed.join(", ")
+                )
+            },
+        )
+        .as_(Category::OneOff));
+    }
+    if bid.recharge_wells > 0 {
+        out.push(line("recharge wells", bid.recharge_wells as f64, "no.", {
+            let (q, qu) = u.total_flow(bid.recharge_flow_m3_per_s);
+            format!("at their given rates, {q:.1} {qu} in all (not in the drilling)")
+        })
+        .as_(Category::OneOff));
+    }
+    let depth = if bid.wellpoints {
+        format!(
+            "{:.2} {lu} each (ground to screen base; jetted, no sump)",
+            u.len(bid.depth_per_well_m)
+        )
+    } else {
+        format!(
+            "{:.2} {lu} each (ground to screen base + {:.1} {lu} sump)",
+            u.len(bid.depth_per_well_m),
+            u.len(SUMP_ALLOWANCE)
+        )
+    };
+    if bid.wellpoints {
+        out.push(line(
+            "jetting",
+            u.len(bid.jetting_m),
+            lu,
+            format!("wellpoints: {depth}"),
+        )
+        .as_(Category::OneOff));
+    } else {
+        out.push(line(
+            "drilling",
+            u.len(bid.drilling_m),
+            lu,
+            format!("working + standby wells: {depth}"),
+        )
+        .as_(Category::OneOff));
+    }
+    out.push(line(
+        "screen",
+        u.len(bid.screen_m),
+        lu,
+        "screen top − screen base, working + standby; bought, left in the ground",
+    )
+    .as_(Category::Capital));
+}
+
+/// One line per pump class (deep wells) or the header pump sets (wellpoints): duty, count,
+/// head and its parts, power, running rates; hired for the hire weeks.
+fn pump_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
+    let weeks = bid.time.hire_weeks;
+    for p in &bid.pumps {
+        let duty = p.duty_l_per_s / 1e3;
+        let (d, du) = u.rate(duty);
+        let (r0, ru) = u.rate(p.running_l_per_s[0] / 1e3);
+        let (r1, _) = u.rate(p.running_l_per_s[1] / 1e3);
+        let head = format!(
+            "{:.1} {lu} total head (lift {:.1} + riser {:.2} + header {:.2} {lu})",
+            u.len(p.head_m),
+            u.len(p.head_parts.lift_m),
+            u.len(p.head_parts.riser_m),
+            u.len(p.head_parts.header_m),
+        );
+        if let (true, Some(set)) = (bid.wellpoints, bid.set_size) {
+            let (points, air) = bid.set_air.unwrap_or((0, 0.0));
+            let (w, wu) = u.rate(set.water_m3_per_s);
+            out.push(
+                line(
+                    format!("wellpoint sets {}", set.name.trim_end_matches(" set")),
+                    p.count as f64,
+                    "no.",
+                    format!(
+                        "vacuum + water pump set (up to {w:.0} {wu} of water, {:.0} m³/h of air; {} + {} kW) at {head}; water {r0:.2} {ru} running, {d:.1} {du} duty; air {points} wellpoints × {} m³/h = {air:.0} m³/h{}",
+                        set.air_m3_per_h, set.vacuum_kw, set.water_kw,
+                        crate::bid::vacuum_sets::AIR_PER_WELLPOINT_M3_PER_H,
+                        if bid.set_above_table { "; the set asks for more than the largest set in the table: split the header" } else { "" }
+                    ),
+                )
+                .hired(weeks),
+            );
+            continue;
+        }
+        let mut l = line(
+            format!("pumps {} {du}", duty_figure(d)),
+            p.count as f64,
+            "no.",
+            format!(
+                "working at {head}, {:.2} kW shaft each; running {r0:.2}–{r1:.2} {ru}{}",
+                p.shaft_power_kw,
+                if p.above_list { "; the rate asks for more than the largest duty in the list" } else { "" }
+            ),
+        )
+        .hired(weeks);
+        l.duty_m3_per_s = Some(duty);
+        out.push(l);
+    }
+}
+
+/// Standby pumps, header or collecting main, power installed and running, energy per day.
+fn power_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
+    if bid.standby_pumps > 0 {
+        out.push(
+            line(
+                if bid.wellpoints {
+                    "standby sets"
+                } else {
+                    "standby pumps"
+                },
+                bid.standby_pumps as f64,
+                "no.",
+                "of the largest class",
+            )
+            .hired(bid.time.hire_weeks),
+        );
+    }
+    if bid.header_length_m > 0.0 {
+        out.push(line(
+            if bid.wellpoints {
+                "wellpoint header"
+            } else {
+                "collecting main"
+            },
+            u.len(bid.header_length_m),
+            lu,
+            if bid.wellpoints {
+                "along the wellpoint line(s); pipework hired"
+            } else {
+                "the shortest run joining the built wells; pipework hired"
+            },
+        )
+        .hired(bid.time.hire_weeks));
+    }
+    out.push(line(
+        "power installed",
+        bid.power_installed_kw,
+        "kW",
+        if bid.wellpoints {
+            "every set (standby too) at its vacuum and water pump drives"
+        } else {
+            "every pump (standby too) at its duty and class head"
+        },
+    ));
+    out.push(line(
+        "power running",
+        bid.power_running_kw,
+        "kW",
+        "working pumps at their running rates",
+    ));
+    out.push(line(
+        "energy per day",
+        bid.energy_per_day_kwh,
+        "kWh",
+        format!("running power × {:.0} h", bid.hours_per_day),
+    ));
+}
+
+/// Total and design flow, flow per 100 length units of header, and the quick estimate's total
+/// flow `estimate_flow` (m³/s).
+fn flow_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits, estimate_flow: f64) {
+    let lu = u.len_unit();
+    let (total, fu) = u.total_flow(bid.total_flow_m3_per_s);
+    let (total_rate, ru) = u.rate(bid.total_flow_m3_per_s);
+    out.push(line(
+        "total flow",
+        total,
+        fu,
+        format!("sum of the well rates, {total_rate:.2} {ru}"),
+    ));
+    let (design_flow, _) = u.total_flow(bid.design_flow_m3_per_s);
+    let (design_rate, _) = u.rate(bid.design_flow_m3_per_s);
+    out.push(line(
+        "design flow",
+        design_flow,
+        fu,
+        format!(
+            "total × (1 + {:.2}), {design_rate:.2} {ru}",
+            bid.contingency
+        ),
+    ));
+    if let Some(q) = bid.design_flow_per_100m_m3_per_s {
+        // per 100 m of header → per 100 of the display length unit
+        let (per, pu) = u.rate(q / u.len(1.0));
+        out.push(line(
+            format!("design flow per 100 {lu} of header"),
+            per,
+            pu,
+            "wellpoint header pumps",
+        ));
+    }
+    let (est, _) = u.total_flow(estimate_flow);
+    out.push(line(
+        "quick estimate total flow",
+        est,
+        fu,
+        "drydig estimate (equivalent well or line slot)",
+    ));
+}
+
