@@ -366,16 +366,16 @@ fn deep_shaft_is_designed_to_its_relief_head() {
         .as_ref()
         .is_some_and(|o| o.margin_without_m >= -TOL));
     // Cost lines are quantity × the user's price.
-    let lines = drydig::report::bid_out::lines(
+    let lines = drydig::bid::sheet::lines(
         &b,
         d.estimate.total_flow_l_per_s / 1e3,
         drydig::input::units::UnitSystem::Si,
     );
     let prices = [Price::new("Drilling", 120.0, Some("m"))];
-    let (c, total, unused) = drydig::report::bid_out::costs(&lines, &prices).expect("priced");
-    assert_eq!(c.len(), 1);
-    assert!((total - 120.0 * b.drilling_m).abs() < 1e-6);
-    assert!(unused.is_empty());
+    let c = drydig::bid::pricing::costs(&lines, &prices).expect("priced");
+    assert_eq!(c.lines.len(), 1);
+    assert!((c.total - 120.0 * b.drilling_m).abs() < 1e-6);
+    assert!(c.unused.is_empty());
 }
 
 // ---------------------------------------------------------------------------------------------

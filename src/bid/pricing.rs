@@ -58,7 +58,7 @@ pub fn prices_line(price: &Price, l: &BidLine) -> bool {
 /// What to price instead of an information line.
 fn instead(item: &str) -> &'static str {
     match item {
-        "energy per day" | "power running" => "price 'energy' (kWh over the pumping)",
+        "daily energy" | "power running" => "price 'energy' (kWh over the pumping)",
         "power installed" => "price the generators or 'energy'",
         "hire period" => "price each hired line per week",
         _ => "price 'discharged volume' or the lines that carry a cost",

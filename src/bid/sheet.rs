@@ -351,7 +351,7 @@ fn power_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         "working pumps at their running rates",
     ));
     out.push(line(
-        "energy per day",
+        "daily energy",
         bid.energy_per_day_kwh,
         "kWh",
         format!("running power × {:.0} h", bid.hours_per_day),

@@ -18,7 +18,7 @@ use std::path::{Path, PathBuf};
 /// One unit price.
 #[derive(Debug, Clone)]
 pub struct Price {
-    /// The bid item it prices ("drilling", "pumps 8 L/s", "energy per day"), without its unit.
+    /// The bid item it prices ("drilling", "pumps 8 L/s", "energy"), without its unit.
     pub item: String,
     /// Price per unit, in the user's currency.
     pub price: f64,
