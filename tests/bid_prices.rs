@@ -297,6 +297,74 @@ fn design_refuses_its_own_prices_file_as_output_and_lists_it_as_input() {
 }
 
 #[test]
+fn design_with_prices_on_the_shaft_demo_reproduces_a_hand_total() {
+    // `drydig design layouts/deep_shaft.toml --prices`: the demo designs 5 working wells and 1
+    // standby (if a change to the design alters this, the hand sum below must be redone).
+    let dir = std::env::temp_dir().join(format!("drydig-prices-shaft-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    let prices = dir.join("prices.csv");
+    std::fs::write(
+        &prices,
+        "item,price,unit\ndrilling,120,m\nscreen,85,m\nworking wells,1500,no.\nstandby wells,1500,no.\npumps 12 L/s,110,week\nstandby pumps,110,week\nmobilisation,900,day\ninstallation,1200,day\npumping attendance,250,day\nremoval,1000,day\nenergy,0.30,kWh\nmonitoring piezometers,2200,each\n",
+    )
+    .unwrap();
+    let out_dir = dir.join("out");
+    let out = drydig()
+        .args(["design", "layouts/deep_shaft.toml", "--prices"])
+        .arg(&prices)
+        .arg("-o")
+        .arg(&out_dir)
+        .output()
+        .unwrap();
+    assert!(matches!(out.status.code(), Some(0 | 3)), "{out:?}");
+    let text = std::fs::read_to_string(out_dir.join("bid.csv")).unwrap();
+    let mut r = csv::Reader::from_reader(text.as_bytes());
+    let rows: Vec<csv::StringRecord> = r.records().map(Result::unwrap).collect();
+    let get = |item: &str, col: usize| -> f64 {
+        let row = rows.iter().find(|x| &x[0] == item).unwrap_or_else(|| panic!("{item}: {text}"));
+        row[col].parse().unwrap_or_else(|_| panic!("{item}: {text}"))
+    };
+    // columns: item, category, quantity, unit, weeks, basis, unit_price, price_per, cost
+    assert_eq!((get("working wells", 2), get("standby wells", 2)), (5.0, 1.0), "{text}");
+    // Hand quantities (deep_shaft.toml, [bid] pumping_duration = "120 days"; rates of work at
+    // their defaults, common practice (no source)):
+    //   drilling 6 × (20.0 − (−11.5) + 1.0 sump) = 6 × 32.5 = 195 m; screen 6 × 13 = 78 m;
+    //   install = 6 wells ÷ 1 a day + main 56.7 m ÷ 200 m a day = 6.3 → 7 days;
+    //   removal = 6 ÷ 4 + 56.7 ÷ 400 = 1.6 → 2 days;
+    //   hire = (2 + 7 + 120 + 2) ÷ 7 = 18.7 → 19 weeks;
+    //   energy = running power × 24 h × 120 days = running power × 2 880 h;
+    //   piezometers: shaft perimeter 44 m → 1, at least 4, + 1 (the valve house) = 5.
+    assert_eq!(get("drilling", 2), 195.0);
+    assert_eq!(get("screen", 2), 78.0);
+    assert_eq!((get("installation", 2), get("removal", 2)), (7.0, 2.0));
+    assert_eq!(get("pumps 12 L/s", 4), 19.0);
+    let energy = get("energy", 2);
+    assert!((energy - get("power running", 2) * 2880.0).abs() < 0.005 * 2880.0, "{text}");
+    // Hand total:
+    //   drilling              195 m × 120                = 23 400
+    //   screen                78 m × 85                  =  6 630
+    //   working wells         5 × 1 500                  =  7 500
+    //   standby wells         1 × 1 500                  =  1 500
+    //   pumps 12 L/s          5 × 19 weeks × 110         = 10 450
+    //   standby pumps         1 × 19 weeks × 110         =  2 090
+    //   mobilisation          2 days × 900               =  1 800
+    //   installation          7 days × 1 200             =  8 400
+    //   pumping attendance    120 days × 250             = 30 000
+    //   removal               2 days × 1 000             =  2 000
+    //   monitoring piezometers 5 × 2 200                 = 11 000
+    //   subtotal without energy                          = 104 770
+    //   energy                (running kW × 2 880 h) × 0.30
+    let hand = 104_770.0 + energy * 0.30;
+    let total = get("total of the priced lines", 8);
+    assert!((total - hand).abs() < 0.01, "{total} against {hand}: {text}");
+    assert!((get("subtotal hire per week", 8) - 12_540.0).abs() < 0.01);
+    let html = std::fs::read_to_string(out_dir.join("report.html")).unwrap();
+    assert!(html.contains("Cost by category") && html.contains(&format!("{total:.2}")));
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
 fn prices_corpus_is_refused_with_its_reason() {
     // tests/bad_inputs/prices/: each file is refused (reading, or pricing the US bid) with a
     // message naming the line and what is wrong.

@@ -238,13 +238,22 @@ fn well_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         )
         .as_(Category::OneOff));
     }
-    out.push(line(
+    let screen = line(
         "screen",
         u.len(bid.screen_m),
         lu,
-        "screen top − screen base, working + standby; bought, left in the ground",
-    )
-    .as_(Category::Capital));
+        if bid.wellpoints {
+            "screen top − screen base, working + standby; the wellpoints' own screens, in their hire"
+        } else {
+            "screen top − screen base, working + standby; bought, left in the ground"
+        },
+    );
+    // A wellpoint's screen comes out with it (in the wellpoint hire); a well screen stays.
+    out.push(if bid.wellpoints {
+        screen
+    } else {
+        screen.as_(Category::Capital)
+    });
 }
 
 /// One line per pump class (deep wells) or the header pump sets (wellpoints): duty, count,
@@ -348,7 +357,11 @@ fn power_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         "power running",
         bid.power_running_kw,
         "kW",
-        "working pumps at their running rates",
+        if bid.wellpoints {
+            "working sets: vacuum pumps + water pumps at their running rates"
+        } else {
+            "working pumps at their running rates"
+        },
     ));
     out.push(line(
         "daily energy",

@@ -183,7 +183,7 @@ pub fn files(
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let design = &found.design;
     let mut out = match &found.chosen {
-        Some(c) => super::check_files_for(c, Some(design))?,
+        Some(c) => super::check_files_for(c, Some(design), prices)?,
         None => Vec::new(),
     };
     out.push((
