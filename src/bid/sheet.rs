@@ -39,6 +39,25 @@ impl BidUnits {
             UnitSystem::Us => (v / 3.785_411_784e-3, "gal"),
         }
     }
+    /// A pump set's size: "150 mm", or to the nearest inch ("6 in") in US units.
+    pub fn set_size(self, mm: f64) -> String {
+        match self.0 {
+            UnitSystem::Si => format!("{mm:.0} mm"),
+            UnitSystem::Us => format!("{:.0} in", mm / 25.4),
+        }
+    }
+    /// An air flow in m³/h (free air) as (number, the air per wellpoint, unit): m³/h or cfm.
+    pub fn air(self, m3_per_h: f64) -> (f64, f64, &'static str) {
+        let per = crate::bid::vacuum_sets::AIR_PER_WELLPOINT_M3_PER_H;
+        match self.0 {
+            UnitSystem::Si => (m3_per_h, per, "m³/h"),
+            // 1 cfm = 1 ft³/min = 0.3048³ × 60 m³/h = 1.699 m³/h
+            UnitSystem::Us => {
+                let cfm = 0.3048_f64.powi(3) * 60.0;
+                (m3_per_h / cfm, per / cfm, "cfm")
+            }
+        }
+    }
     /// A rate in m³/s as (number, unit) for pumps and well rates.
     pub fn rate(self, q: f64) -> (f64, &'static str) {
         match self.0 {
@@ -276,15 +295,16 @@ fn pump_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         if let (true, Some(set)) = (bid.wellpoints, bid.set_size) {
             let (points, air) = bid.set_air.unwrap_or((0, 0.0));
             let (w, wu) = u.rate(set.water_m3_per_s);
+            let (set_air, per_point, au) = u.air(set.air_m3_per_h);
+            let air = u.air(air).0;
             out.push(
                 line(
-                    format!("wellpoint sets {}", set.name.trim_end_matches(" set")),
+                    format!("wellpoint sets {}", u.set_size(set.size_mm)),
                     p.count as f64,
                     "no.",
                     format!(
-                        "vacuum + water pump set (up to {w:.0} {wu} of water, {:.0} m³/h of air; {} + {} kW) at {head}; water {r0:.2} {ru} running, {d:.1} {du} duty; air {points} wellpoints × {} m³/h = {air:.0} m³/h{}",
-                        set.air_m3_per_h, set.vacuum_kw, set.water_kw,
-                        crate::bid::vacuum_sets::AIR_PER_WELLPOINT_M3_PER_H,
+                        "vacuum + water pump set (up to {w:.0} {wu} of water, {set_air:.0} {au} of air; {} + {} kW) at {head}; water {r0:.2} {ru} running, {d:.1} {du} duty; air {points} wellpoints × {per_point:.2} {au} = {air:.0} {au}{}",
+                        set.vacuum_kw, set.water_kw,
                         if bid.set_above_table { "; the set asks for more than the largest set in the table: split the header" } else { "" }
                     ),
                 )

@@ -10,6 +10,8 @@
 pub struct SetSize {
     /// Name as it is hired ("150 mm set": the suction/discharge size).
     pub name: &'static str,
+    /// The suction/discharge size, mm (4, 6 and 8 in in US units).
+    pub size_mm: f64,
     /// Largest water flow, m³/s.
     pub water_m3_per_s: f64,
     /// Largest air flow (free air), m³/h.
@@ -24,6 +26,7 @@ pub struct SetSize {
 pub const SET_SIZES: [SetSize; 3] = [
     SetSize {
         name: "100 mm set",
+        size_mm: 100.0,
         water_m3_per_s: 0.015,
         air_m3_per_h: 60.0,
         vacuum_kw: 2.2,
@@ -31,6 +34,7 @@ pub const SET_SIZES: [SetSize; 3] = [
     },
     SetSize {
         name: "150 mm set",
+        size_mm: 150.0,
         water_m3_per_s: 0.030,
         air_m3_per_h: 120.0,
         vacuum_kw: 4.0,
@@ -38,6 +42,7 @@ pub const SET_SIZES: [SetSize; 3] = [
     },
     SetSize {
         name: "200 mm set",
+        size_mm: 200.0,
         water_m3_per_s: 0.060,
         air_m3_per_h: 200.0,
         vacuum_kw: 7.5,

@@ -71,8 +71,11 @@ pub fn bid(cx: &Context) -> Part {
         .map(|l| vec![esc(&l.item), esc(&l.basis)])
         .collect();
     body.push_str(&table(&["item", "basis"], &basis));
-    for s in &cx.found.bid.basis {
-        body.push_str(&format!("<p class=\"note\">{}</p>", esc(s)));
+    // The engine's own notes are worded in SI; the sheet's basis above is in the user's units.
+    if cx.f.units == crate::input::units::UnitSystem::Si {
+        for s in &cx.found.bid.basis {
+            body.push_str(&format!("<p class=\"note\">{}</p>", esc(s)));
+        }
     }
     Part::new("bid", "Bid", body)
 }
