@@ -10,6 +10,7 @@
 //! - the relief-only deep shaft against the hand uplift formula (total-stress check, CIRIA C750
 //!   / EN 1997-1 UPL, from memory).
 
+use drydig::bid::quantities::{bid, bid_of};
 use drydig::check::run::CheckRun;
 use drydig::field::checkpoints::{check_points, PointKind};
 use drydig::field::layout::generate;
@@ -17,7 +18,6 @@ use drydig::field::wells::Well;
 use drydig::input::model::{Control, LayoutKind, Model, RingCount};
 use drydig::input::prices::Price;
 use drydig::input::validate::file::{from_str, load};
-use drydig::bid::quantities::{bid, bid_of};
 use drydig::optimise::outcome::{final_run, Design, Outcome};
 use drydig::optimise::pumps::{head, shaft_power};
 use drydig::optimise::rates::{LayoutRates, RateOption};

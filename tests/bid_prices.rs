@@ -4,14 +4,15 @@
 //! multiplied silently (per day against a weekly hire, per week against metres); a duplicated
 //! item, a price that overflows, and a prices file in the output folder are refused.
 
+use drydig::bid::line::{BidLine, Category};
+use drydig::bid::pricing::costs;
+use drydig::bid::quantities::bid;
+use drydig::bid::sheet::lines;
 use drydig::field::wells::Well;
 use drydig::input::model::Model;
 use drydig::input::prices::{read, Price};
 use drydig::input::units::UnitSystem;
 use drydig::input::validate::file::load;
-use drydig::bid::pricing::costs;
-use drydig::bid::quantities::bid;
-use drydig::bid::sheet::{lines, BidLine, Category};
 use drydig::report::bid_out::bid_csv;
 use std::path::Path;
 use std::process::Command;
@@ -78,7 +79,11 @@ fn a_us_prices_file_prices_the_us_bid_over_its_duration() {
     // 0.10733 m; H = 14.20216 m; P = 1000 × 9.81 × 0.005 × 14.20216 / 0.6 = 1161.026 W;
     // 4 wells 4.644105 kW. Energy over the pumping = 4.644105 kW × 24 h × 70 days
     // = 7 802.096 kWh (not one day's 111.46 kWh).
-    assert!((find("energy").quantity - 7_802.096).abs() < 0.01, "{:?}", find("energy"));
+    assert!(
+        (find("energy").quantity - 7_802.096).abs() < 0.01,
+        "{:?}",
+        find("energy")
+    );
     // Discharged volume = 20 L/s × 70 days = 120 960 m³ = 31 954 251.45 US gal.
     assert_eq!(find("discharged volume").unit, "gal");
     assert!((find("discharged volume").quantity - 31_954_251.45).abs() < 0.01);
@@ -146,7 +151,10 @@ fn an_si_prices_file_prices_hire_energy_and_days_over_twelve_weeks() {
     //   piezometers: shaft perimeter 44 m ÷ 50 → 1, at least 4, + 1 neighbour = 5.
     assert!((q("drilling") - 130.0).abs() < 1e-9);
     assert!((q("collecting main") - 60.0).abs() < 1e-9);
-    assert_eq!((q("installation"), q("removal"), q("hire period")), (5.0, 2.0, 14.0));
+    assert_eq!(
+        (q("installation"), q("removal"), q("hire period")),
+        (5.0, 2.0, 14.0)
+    );
     assert!((q("energy") - 14_141.734).abs() < 0.01);
     assert_eq!(q("generators 20 kVA"), 2.0);
     assert_eq!(q("settlement tanks"), 1.0);
@@ -192,19 +200,30 @@ fn a_price_per_the_wrong_time_or_on_an_unpriced_line_is_refused_naming_its_line(
     };
     // A weekly hire priced per day: never turned into a week rate.
     let e = refused("pumps 8 L/s,20,day");
-    assert!(e.message.contains("hired by the week") && e.message.contains("per day"), "{e}");
+    assert!(
+        e.message.contains("hired by the week") && e.message.contains("per day"),
+        "{e}"
+    );
     assert_eq!(e.line, Some(2));
     assert!(e.to_string().contains("prices.csv"), "{e}");
     // A weekly hire priced per item, and pipework per week without its length unit.
     let e = refused("pumps 8 L/s,3500,each");
-    assert!(e.message.contains("per each") && e.message.contains("per week"), "{e}");
-    assert!(refused("collecting main,2.5,week").message.contains("m/week"));
+    assert!(
+        e.message.contains("per each") && e.message.contains("per week"),
+        "{e}"
+    );
+    assert!(refused("collecting main,2.5,week")
+        .message
+        .contains("m/week"));
     // Days of work priced per week; drilling priced per metre-week; metres priced per foot-week.
     assert!(refused("installation,5000,week").message.contains("day"));
     assert!(refused("drilling,120,m/week").message.contains("not hired"));
     // A line shown for information is not priced.
     let e = refused("daily energy,0.3,kWh");
-    assert!(e.message.contains("information") && e.message.contains("'energy'"), "{e}");
+    assert!(
+        e.message.contains("information") && e.message.contains("'energy'"),
+        "{e}"
+    );
     // Per foot against metres on a hire line is converted (1 ft = 0.3048 m):
     // 60 m × 14 weeks × (0.762 per ft-week ÷ 0.3048) = 60 × 14 × 2.5 = 2 100.
     let path = write_prices("ftweek", "item,price,unit\ncollecting main,0.762,ft/week\n");
@@ -322,11 +341,20 @@ fn design_with_prices_on_the_shaft_demo_reproduces_a_hand_total() {
     let mut r = csv::Reader::from_reader(text.as_bytes());
     let rows: Vec<csv::StringRecord> = r.records().map(Result::unwrap).collect();
     let get = |item: &str, col: usize| -> f64 {
-        let row = rows.iter().find(|x| &x[0] == item).unwrap_or_else(|| panic!("{item}: {text}"));
-        row[col].parse().unwrap_or_else(|_| panic!("{item}: {text}"))
+        let row = rows
+            .iter()
+            .find(|x| &x[0] == item)
+            .unwrap_or_else(|| panic!("{item}: {text}"));
+        row[col]
+            .parse()
+            .unwrap_or_else(|_| panic!("{item}: {text}"))
     };
     // columns: item, category, quantity, unit, weeks, basis, unit_price, price_per, cost
-    assert_eq!((get("working wells", 2), get("standby wells", 2)), (5.0, 1.0), "{text}");
+    assert_eq!(
+        (get("working wells", 2), get("standby wells", 2)),
+        (5.0, 1.0),
+        "{text}"
+    );
     // Hand quantities (deep_shaft.toml, [bid] pumping_duration = "120 days"; rates of work at
     // their defaults, common practice (no source)):
     //   drilling 6 × (20.0 − (−11.5) + 1.0 sump) = 6 × 32.5 = 195 m; screen 6 × 13 = 78 m;
@@ -340,7 +368,10 @@ fn design_with_prices_on_the_shaft_demo_reproduces_a_hand_total() {
     assert_eq!((get("installation", 2), get("removal", 2)), (7.0, 2.0));
     assert_eq!(get("pumps 12 L/s", 4), 19.0);
     let energy = get("energy", 2);
-    assert!((energy - get("power running", 2) * 2880.0).abs() < 0.005 * 2880.0, "{text}");
+    assert!(
+        (energy - get("power running", 2) * 2880.0).abs() < 0.005 * 2880.0,
+        "{text}"
+    );
     // Hand total:
     //   drilling              195 m × 120                = 23 400
     //   screen                78 m × 85                  =  6 630
@@ -357,7 +388,10 @@ fn design_with_prices_on_the_shaft_demo_reproduces_a_hand_total() {
     //   energy                (running kW × 2 880 h) × 0.30
     let hand = 104_770.0 + energy * 0.30;
     let total = get("total of the priced lines", 8);
-    assert!((total - hand).abs() < 0.01, "{total} against {hand}: {text}");
+    assert!(
+        (total - hand).abs() < 0.01,
+        "{total} against {hand}: {text}"
+    );
     assert!((get("subtotal hire per week", 8) - 12_540.0).abs() < 0.01);
     let html = std::fs::read_to_string(out_dir.join("report.html")).unwrap();
     assert!(html.contains("Cost by category") && html.contains(&format!("{total:.2}")));

@@ -18,7 +18,12 @@ fn the_programme_gives_the_pumping_duration_when_bid_does_not() {
     assert!(model.bid.pumping_duration_s.is_none());
     let spec = model.layout.as_ref().expect("ring layout");
     let placed = generate(&model, spec, 0.004).expect("ring");
-    let b = bid(&model, &placed.wells, &placed.paths, &vec![None; placed.wells.len()]);
+    let b = bid(
+        &model,
+        &placed.wells,
+        &placed.paths,
+        &vec![None; placed.wells.len()],
+    );
     // [programme] duration = "150 days"; energy over it = running power × 24 h × 150 days.
     assert_eq!(b.time.pumping_from, PumpingFrom::Programme);
     assert!((b.time.pumping_days - 150.0).abs() < 1e-9);
@@ -85,7 +90,11 @@ fn design_refuses_a_day_rate_on_a_weekly_hire_naming_the_line() {
     let _ = std::fs::remove_dir_all(&dir);
     std::fs::create_dir_all(&dir).unwrap();
     let prices = dir.join("prices.csv");
-    std::fs::write(&prices, "item,price,unit\ndrilling,120,m\npumps 12 L/s,20,day\n").unwrap();
+    std::fs::write(
+        &prices,
+        "item,price,unit\ndrilling,120,m\npumps 12 L/s,20,day\n",
+    )
+    .unwrap();
     let out = Command::new(env!("CARGO_BIN_EXE_drydig"))
         .args(["design", "layouts/deep_shaft.toml", "--prices"])
         .arg(&prices)
@@ -96,7 +105,9 @@ fn design_refuses_a_day_rate_on_a_weekly_hire_naming_the_line() {
     assert_eq!(out.status.code(), Some(2), "{out:?}");
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(
-        err.contains("prices.csv:3") && err.contains("hired by the week") && err.contains("per day"),
+        err.contains("prices.csv:3")
+            && err.contains("hired by the week")
+            && err.contains("per day"),
         "{err}"
     );
     let _ = std::fs::remove_dir_all(&dir);

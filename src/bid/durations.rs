@@ -17,7 +17,6 @@
 //! - settlement tanks: design flow × retention time, in standard tanks;
 //! - discharged volume = total flow × pumping hours.
 
-use crate::bid::quantities::Bid;
 use crate::input::model::Model;
 use serde::Serialize;
 
@@ -109,6 +108,25 @@ pub struct WorkRates {
     pub hours_per_day: f64,
 }
 
+/// What the bid's time is worked out from: the quantities of the layout.
+#[derive(Debug, Clone, Copy)]
+pub struct Works {
+    /// Wellpoints (header) or deep wells (wells and collecting main).
+    pub wellpoints: bool,
+    /// Wells built, working + standby.
+    pub built: usize,
+    /// Header or collecting main, m.
+    pub header_length_m: f64,
+    /// Installed power, kW.
+    pub power_installed_kw: f64,
+    /// Running power, kW.
+    pub power_running_kw: f64,
+    /// Design flow, m³/s.
+    pub design_flow_m3_per_s: f64,
+    /// Total flow, m³/s.
+    pub total_flow_m3_per_s: f64,
+}
+
 /// Whole days of `days`, rounded up (a small tolerance keeps 2.0000001 at 2).
 fn whole(days: f64) -> f64 {
     (days - 1e-9).ceil().max(0.0)
@@ -130,9 +148,9 @@ fn perimeters(model: &Model) -> Vec<f64> {
 }
 
 /// The bid's time for the quantities `b` of `model`.
-pub fn durations(model: &Model, b: &Bid) -> Durations {
+pub fn durations(model: &Model, b: &Works) -> Durations {
     let s = &model.bid;
-    let built = (b.working_wells + b.standby_placed.len()) as f64;
+    let built = b.built as f64;
     let (install, removal) = if b.wellpoints {
         (
             b.header_length_m / s.header_per_day_m,
@@ -167,7 +185,10 @@ pub fn durations(model: &Model, b: &Bid) -> Durations {
     let perimeter = perimeters(model);
     let piezometers = perimeter
         .iter()
-        .map(|p| ((p / s.piezometer_spacing_m - 1e-9).ceil() as usize).max(MIN_PIEZOMETERS_PER_EXCAVATION))
+        .map(|p| {
+            ((p / s.piezometer_spacing_m - 1e-9).ceil() as usize)
+                .max(MIN_PIEZOMETERS_PER_EXCAVATION)
+        })
         .sum::<usize>()
         + model.neighbours.len();
     let tank_volume = b.design_flow_m3_per_s * s.retention_s;

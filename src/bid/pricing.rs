@@ -5,7 +5,7 @@
 //! metres, no unit against a length, a per-week price on a line that is not hired, or any price
 //! on a line shown for information. The total is split by category.
 
-use crate::bid::sheet::{BidLine, Category};
+use crate::bid::line::{BidLine, Category};
 use crate::input::error::InputError;
 use crate::input::prices::{item_key, per_time, price_per, pump_duty, Measure, Price};
 use serde::Serialize;
@@ -189,7 +189,11 @@ pub fn costs(lines: &[BidLine], prices: &[Price]) -> Result<Costs, InputError> {
         .iter()
         .filter(|c| out.iter().any(|l| l.category == **c))
         .map(|c| {
-            let sum = out.iter().filter(|l| l.category == *c).map(|l| l.cost).sum();
+            let sum = out
+                .iter()
+                .filter(|l| l.category == *c)
+                .map(|l| l.cost)
+                .sum();
             (*c, sum)
         })
         .collect();

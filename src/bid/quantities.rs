@@ -4,7 +4,7 @@
 //! and its pump sets (sized for air and water in [`crate::bid::vacuum_sets`]), and the bid's
 //! time ([`crate::bid::durations`]). Heads and powers are found in [`crate::optimise::pumps`].
 
-use crate::bid::durations::{durations, Durations};
+use crate::bid::durations::{durations, Durations, Works};
 use crate::bid::vacuum_sets::{choose, SetSize, AIR_PER_WELLPOINT_M3_PER_H};
 use crate::check::run::CheckRun;
 use crate::field::wells::Well;
@@ -460,7 +460,18 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         time: Durations::default(),
         basis,
     };
-    b.time = durations(model, &b);
+    b.time = durations(
+        model,
+        &Works {
+            wellpoints,
+            built: b.working_wells + b.standby_placed.len(),
+            header_length_m: b.header_length_m,
+            power_installed_kw: b.power_installed_kw,
+            power_running_kw: b.power_running_kw,
+            design_flow_m3_per_s: b.design_flow_m3_per_s,
+            total_flow_m3_per_s: b.total_flow_m3_per_s,
+        },
+    );
     b
 }
 

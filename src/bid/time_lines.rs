@@ -3,8 +3,8 @@
 //! settlement tanks, the discharged volume and the monitoring piezometers, in the user's units.
 
 use crate::bid::durations::{PumpingFrom, GENERATOR_POWER_FACTOR, STANDARD_TANK_M3};
+use crate::bid::line::{line, BidLine, BidUnits, Category};
 use crate::bid::quantities::Bid;
-use crate::bid::sheet::{line, BidLine, BidUnits, Category};
 
 /// Days of work: mobilisation, installation, removal (one-off) and pumping attendance
 /// (running), and the hire period they make (information).
@@ -50,8 +50,13 @@ fn day_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         .as_(Category::OneOff),
     );
     out.push(
-        line("installation", t.install_days, "day", format!("{install}; {defaults}"))
-            .as_(Category::OneOff),
+        line(
+            "installation",
+            t.install_days,
+            "day",
+            format!("{install}; {defaults}"),
+        )
+        .as_(Category::OneOff),
     );
     let from = match t.pumping_from {
         PumpingFrom::Bid => "pumping duration from [bid] pumping_duration",
@@ -68,8 +73,13 @@ fn day_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         .as_(Category::Running),
     );
     out.push(
-        line("removal", t.removal_days, "day", format!("{removal}; {defaults}"))
-            .as_(Category::OneOff),
+        line(
+            "removal",
+            t.removal_days,
+            "day",
+            format!("{removal}; {defaults}"),
+        )
+        .as_(Category::OneOff),
     );
     out.push(line(
         "hire period",

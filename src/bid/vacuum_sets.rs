@@ -76,8 +76,14 @@ mod tests {
         // Table above (common practice (no source)): 12 L/s with 40 wellpoints (60 m³/h of
         // air) fits the 100 mm set; 12 L/s with 41 wellpoints (61.5 m³/h) needs the 150 mm
         // set (air decides); 31 L/s needs the 200 mm set (water decides); 70 L/s is above it.
-        assert_eq!(choose(0.012, 40.0 * AIR_PER_WELLPOINT_M3_PER_H).0.name, "100 mm set");
-        assert_eq!(choose(0.012, 41.0 * AIR_PER_WELLPOINT_M3_PER_H).0.name, "150 mm set");
+        assert_eq!(
+            choose(0.012, 40.0 * AIR_PER_WELLPOINT_M3_PER_H).0.name,
+            "100 mm set"
+        );
+        assert_eq!(
+            choose(0.012, 41.0 * AIR_PER_WELLPOINT_M3_PER_H).0.name,
+            "150 mm set"
+        );
         assert_eq!(choose(0.031, 10.0).0.name, "200 mm set");
         assert!(choose(0.070, 10.0).1);
     }

@@ -1,14 +1,15 @@
 //! The findings of one evaluated layout: what `check` shows, and what `design` shows of the
 //! layout it chose. Built once; every output reads the same values.
 
+use crate::bid::line::BidLine;
+use crate::bid::quantities::{bid_of, Bid};
+use crate::bid::sheet::lines;
 use crate::check::run::CheckRun;
 use crate::check::section::Section;
 use crate::estimate::{estimate, Estimate};
 use crate::field::grid::LevelGrid;
 use crate::findings::section::section_of;
 use crate::findings::verdict::{of_evaluation, Verdict};
-use crate::bid::quantities::{bid_of, Bid};
-use crate::bid::sheet::{lines, BidLine};
 use crate::optimise::recharge::RechargeSizing;
 use crate::safety::neighbours::{assess_run, NeighbourResult};
 use crate::safety::settlement_map::{settlement_map, SettlementMap};
@@ -50,7 +51,11 @@ impl<'a> CheckFindings<'a> {
         let settlement = settlement_map(&run);
         let estimate = estimate(run.model);
         let bid = bid_of(run.model, &run);
-        let sheet = lines(&bid, estimate.total_flow_m3_per_day / 86_400.0, run.model.units);
+        let sheet = lines(
+            &bid,
+            estimate.total_flow_m3_per_day / 86_400.0,
+            run.model.units,
+        );
         let verdict = of_evaluation(&run.evaluation, &neighbours);
         CheckFindings {
             run,

@@ -290,7 +290,9 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
             }
         }
         let unit = match (column_unit, named_unit) {
-            (Some(a), Some(b)) if measure_of(&a) != measure_of(&b) || per_time(&a) != per_time(&b) => {
+            (Some(a), Some(b))
+                if measure_of(&a) != measure_of(&b) || per_time(&a) != per_time(&b) =>
+            {
                 return Err(err(
                     Some(line),
                     "unit",

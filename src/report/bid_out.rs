@@ -7,9 +7,9 @@
 //! line. `bid.json` keeps the SI quantities of the engine under `quantities` (their names carry
 //! the unit) beside the lines in the user's units.
 
+use crate::bid::line::BidLine;
 use crate::bid::pricing::{costs, Costs};
 use crate::bid::quantities::Bid;
-use crate::bid::sheet::BidLine;
 use crate::input::prices::Price;
 use serde_json::{json, Value};
 
@@ -140,7 +140,10 @@ pub fn bid_text(lines: &[BidLine], prices: Option<&[Price]>) -> String {
             ));
         }
         for (cat, sum) in &c.subtotals {
-            out.push_str(&format!("  {:<30} {sum:>14.2}\n", format!("subtotal {}", cat.name())));
+            out.push_str(&format!(
+                "  {:<30} {sum:>14.2}\n",
+                format!("subtotal {}", cat.name())
+            ));
         }
         out.push_str(&format!(
             "  {:<30} {:>14.2}\n",

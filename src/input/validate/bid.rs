@@ -22,7 +22,11 @@ fn within<K: Kind>(
     if q.si.is_finite() && q.si >= lo && q.si <= hi {
         Ok(q.si)
     } else {
-        Err(rep.error(format!("bid.{field}"), q.span.clone(), format!("must be {range}")))
+        Err(rep.error(
+            format!("bid.{field}"),
+            q.span.clone(),
+            format!("must be {range}"),
+        ))
     }
 }
 
@@ -67,13 +71,66 @@ pub fn bid_settings(
     };
     Ok(BidSettings {
         pumping_duration_s,
-        mobilise_s: within(rep, "mobilise", b.mobilise.as_ref(), d.mobilise_s, (0.0, 90.0 * DAY), "from 0 to 90 days, e.g. \"2 days\"")?,
-        wells_per_day: number(rep, "wells_per_day", b.wells_per_day, d.wells_per_day, (0.05, 50.0))?,
-        header_per_day_m: within(rep, "header_per_day", b.header_per_day.as_ref(), d.header_per_day_m, (1.0, 5000.0), "from 1 m to 5 km, e.g. \"50 m\"")?,
-        removal_wells_per_day: number(rep, "removal_wells_per_day", b.removal_wells_per_day, d.removal_wells_per_day, (0.05, 100.0))?,
-        removal_header_per_day_m: within(rep, "removal_header_per_day", b.removal_header_per_day.as_ref(), d.removal_header_per_day_m, (1.0, 5000.0), "from 1 m to 5 km, e.g. \"150 m\"")?,
-        retention_s: within(rep, "retention_time", b.retention_time.as_ref(), d.retention_s, (60.0, 86_400.0), "from 1 min to 1 day, e.g. \"15 min\"")?,
-        generators: number(rep, "generators", b.generators.map(f64::from), f64::from(d.generators), (0.0, 50.0))? as u32,
-        piezometer_spacing_m: within(rep, "piezometer_spacing", b.piezometer_spacing.as_ref(), d.piezometer_spacing_m, (5.0, 1000.0), "from 5 m to 1 km, e.g. \"50 m\"")?,
+        mobilise_s: within(
+            rep,
+            "mobilise",
+            b.mobilise.as_ref(),
+            d.mobilise_s,
+            (0.0, 90.0 * DAY),
+            "from 0 to 90 days, e.g. \"2 days\"",
+        )?,
+        wells_per_day: number(
+            rep,
+            "wells_per_day",
+            b.wells_per_day,
+            d.wells_per_day,
+            (0.05, 50.0),
+        )?,
+        header_per_day_m: within(
+            rep,
+            "header_per_day",
+            b.header_per_day.as_ref(),
+            d.header_per_day_m,
+            (1.0, 5000.0),
+            "from 1 m to 5 km, e.g. \"50 m\"",
+        )?,
+        removal_wells_per_day: number(
+            rep,
+            "removal_wells_per_day",
+            b.removal_wells_per_day,
+            d.removal_wells_per_day,
+            (0.05, 100.0),
+        )?,
+        removal_header_per_day_m: within(
+            rep,
+            "removal_header_per_day",
+            b.removal_header_per_day.as_ref(),
+            d.removal_header_per_day_m,
+            (1.0, 5000.0),
+            "from 1 m to 5 km, e.g. \"150 m\"",
+        )?,
+        retention_s: within(
+            rep,
+            "retention_time",
+            b.retention_time.as_ref(),
+            d.retention_s,
+            (60.0, 86_400.0),
+            "from 1 min to 1 day, e.g. \"15 min\"",
+        )?,
+        generators: number(
+            rep,
+            "generators",
+            b.generators.map(f64::from),
+            f64::from(d.generators),
+            (0.0, 50.0),
+        )? as u32,
+        piezometer_spacing_m: within(
+            rep,
+            "piezometer_spacing",
+            b.piezometer_spacing.as_ref(),
+            d.piezometer_spacing_m,
+            (5.0, 1000.0),
+            "from 5 m to 1 km, e.g. \"50 m\"",
+        )?,
     })
 }

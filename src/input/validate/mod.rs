@@ -16,8 +16,8 @@
 //! the site: unit, parameters, round trip, scale factor).
 
 pub mod aquifer;
-pub mod bid;
 pub mod as_built;
+pub mod bid;
 pub mod derived;
 pub mod design_settings;
 pub mod file;
