@@ -128,7 +128,7 @@ fn si_bid_lines() -> Vec<BidLine> {
         .enumerate()
         .map(|(i, p)| Well::from_spec(format!("W{}", i + 1), *p, 0.005, &model.wells))
         .collect();
-    let b = bid(&model, &wells, &[], &vec![Some(0.0); 4]);
+    let b = bid(&model, &wells, &[], &[Some(0.0); 4]);
     lines(&b, 0.02, UnitSystem::Si)
 }
 
