@@ -386,7 +386,8 @@ fn boundary_images(model: &Model, centre: [f64; 2]) -> Vec<(f64, f64)> {
 /// (wetted screen, Sichardt capacity, capacity used, what limits it).
 fn well_capacity(model: &Model, target: f64) -> (f64, f64, f64, String) {
     let w = &model.wells;
-    let wetted = (w.screen_top.min(target) - w.screen_base).max(0.0);
+    // water enters over the filter column round the screen (the screen when none given)
+    let wetted = (w.filter_top.min(target) - w.filter_base).max(0.0);
     let sichardt = capacity::sichardt_well_capacity(w.radius, wetted, model.aquifer.conductivity);
     let (cap, limit) = match w.pump_capacity {
         Some(p) if p < sichardt => (p, "pump capacity".to_string()),

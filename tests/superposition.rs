@@ -32,6 +32,8 @@ fn spec(radius: f64) -> WellSpec {
         radius,
         screen_top: 0.0,
         screen_base: -10.0,
+        filter_top: 0.0,
+        filter_base: -10.0,
         pump_intake: -9.0,
         submergence: 1.0,
         pump_capacity: None,

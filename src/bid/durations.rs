@@ -5,8 +5,8 @@
 //! - install, days = built wells ÷ wells a day + collecting main ÷ main a day (deep wells), or
 //!   header ÷ header a day (wellpoints: jetting and laying), rounded up to whole days (a crew is
 //!   paid by the day); removal the same with the removal rates;
-//! - pumping, days = `[bid] pumping_duration`, else `[programme] duration`, else one week shown
-//!   (the bid says so);
+//! - pumping, days = `[bid] pumping_duration`, else `[programme] duration`, else a rolling
+//!   run's days of digging, else one week shown (the bid says so);
 //! - hire, weeks = (mobilise + install + pumping + removal) ÷ 7, rounded up (hire is charged by
 //!   the week, a part week as a whole: common practice (no source)); every hired item (pumps,
 //!   sets, standby, generators, header or main, tanks) is on hire for that period;
@@ -44,6 +44,8 @@ pub enum PumpingFrom {
     Bid,
     /// `[programme] duration`.
     Programme,
+    /// A rolling run's days of digging (`[rolling]`).
+    Rolling,
     /// Not given: one week shown.
     #[default]
     NotGiven,
@@ -125,6 +127,8 @@ pub struct Works {
     pub design_flow_m3_per_s: f64,
     /// Total flow, m³/s.
     pub total_flow_m3_per_s: f64,
+    /// A rolling run's days of digging, when `[rolling]` is given.
+    pub digging_days: Option<f64>,
 }
 
 /// Whole days of `days`, rounded up (a small tolerance keeps 2.0000001 at 2).
@@ -162,10 +166,11 @@ pub fn durations(model: &Model, b: &Works) -> Durations {
             built / s.removal_wells_per_day + b.header_length_m / s.removal_header_per_day_m,
         )
     };
-    let (pumping_s, pumping_from) = match (s.pumping_duration_s, &model.programme) {
-        (Some(d), _) => (d, PumpingFrom::Bid),
-        (None, Some(p)) => (p.duration, PumpingFrom::Programme),
-        (None, None) => (PUMPING_DAYS_WHEN_NOT_GIVEN * DAY, PumpingFrom::NotGiven),
+    let (pumping_s, pumping_from) = match (s.pumping_duration_s, &model.programme, b.digging_days) {
+        (Some(d), _, _) => (d, PumpingFrom::Bid),
+        (None, Some(p), _) => (p.duration, PumpingFrom::Programme),
+        (None, None, Some(days)) => (days * DAY, PumpingFrom::Rolling),
+        (None, None, None) => (PUMPING_DAYS_WHEN_NOT_GIVEN * DAY, PumpingFrom::NotGiven),
     };
     let mobilise_days = s.mobilise_s / DAY;
     let (install_days, removal_days) = (whole(install), whole(removal));

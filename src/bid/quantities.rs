@@ -63,6 +63,14 @@ pub struct Bid {
     pub jetting_m: f64,
     /// Screen for working + standby wells, m.
     pub screen_m: f64,
+    /// Filter (sand) column for working + standby wells, m, when the design file gives one
+    /// apart from the screen (`wells.filter_top`, `filter_base`, `filter_length`).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub filter_m: Option<f64>,
+    /// A rolling run's quantities along the whole route (`[rolling]`); the other quantities
+    /// are those of the installed length.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rolling: Option<crate::optimise::rolling::RollingBid>,
     /// Pumps by class (deep wells: one per working well; wellpoints: the header pump sets).
     pub pumps: Vec<PumpClass>,
     /// Standby pumps (one per standby well or set, of the largest class).
@@ -442,6 +450,8 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         drilling_m: if wellpoints { 0.0 } else { depth * built },
         jetting_m: if wellpoints { depth * built } else { 0.0 },
         screen_m: screen * built,
+        filter_m: filter_m(model, built),
+        rolling: crate::optimise::rolling::rolling_bid(model, built as usize, depth),
         pumps,
         standby_pumps,
         power_installed_kw: installed_w / 1e3,
@@ -470,9 +480,18 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
             power_running_kw: b.power_running_kw,
             design_flow_m3_per_s: b.design_flow_m3_per_s,
             total_flow_m3_per_s: b.total_flow_m3_per_s,
+            digging_days: b.rolling.as_ref().map(|r| r.digging_days),
         },
     );
     b
+}
+
+/// Filter column of `built` wells, m, when it is not the screen.
+fn filter_m(model: &Model, built: f64) -> Option<f64> {
+    let w = &model.wells;
+    let apart =
+        (w.filter_top - w.screen_top).abs() > 1e-9 || (w.filter_base - w.screen_base).abs() > 1e-9;
+    apart.then_some((w.filter_top - w.filter_base) * built)
 }
 
 /// The bid quantities of the layout in `run`, with the levels it computed in the wells.

@@ -15,6 +15,7 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
     let u = BidUnits(units);
     let mut out = Vec::new();
     well_lines(&mut out, bid, u);
+    rolling_lines(&mut out, bid, u);
     pump_lines(&mut out, bid, u);
     power_lines(&mut out, bid, u);
     crate::bid::time_lines::time_lines(&mut out, bid, u);
@@ -86,15 +87,25 @@ fn well_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
         )
     };
     if bid.wellpoints {
-        out.push(
-            line(
-                "jetting",
-                u.len(bid.jetting_m),
-                lu,
-                format!("wellpoints: {depth}"),
-            )
-            .as_(Category::OneOff),
+        let jetting = line(
+            "jetting",
+            u.len(bid.jetting_m),
+            lu,
+            format!(
+                "wellpoints: {depth}{}",
+                if bid.rolling.is_some() {
+                    "; the set installed at one time, priced in the jetting along the route"
+                } else {
+                    ""
+                }
+            ),
         );
+        // A rolling run prices its jetting along the route (the first set included).
+        out.push(if bid.rolling.is_some() {
+            jetting
+        } else {
+            jetting.as_(Category::OneOff)
+        });
     } else {
         out.push(
             line(
@@ -122,6 +133,64 @@ fn well_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
     } else {
         screen.as_(Category::Capital)
     });
+    if let Some(f) = bid.filter_m {
+        out.push(
+            line(
+                "filter column",
+                u.len(f),
+                lu,
+                "filter (sand) column top − base round each screen, working + standby; sand bought, left in the ground",
+            )
+            .as_(Category::Capital),
+        );
+    }
+}
+
+/// A rolling run: wellpoints jetted and jetting along the whole route, days of digging (the
+/// other lines are the set installed at one time).
+fn rolling_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let Some(r) = &bid.rolling else {
+        return;
+    };
+    let lu = u.len_unit();
+    let (what, work) = if bid.wellpoints {
+        ("wellpoints", "jetted")
+    } else {
+        ("wells", "drilled")
+    };
+    out.push(
+        line(
+            format!("{what} {work} along the route"),
+            r.installations as f64,
+            "no.",
+            format!(
+                "rolling run: the set of {:.0} {lu} (run-out + open length + run-in) pulled and {work} in again ahead along {:.0} {lu} (run-out + {:.0} {lu} trench + run-in)",
+                u.len(r.installed_length_m),
+                u.len(r.route_m),
+                u.len(r.trench_length_m)
+            ),
+        )
+        .as_(Category::OneOff),
+    );
+    out.push(
+        line(
+            if bid.wellpoints {
+                "jetting along the route"
+            } else {
+                "drilling along the route"
+            },
+            u.len(r.jetting_route_m),
+            lu,
+            format!("{what} {work} along the route × depth each"),
+        )
+        .as_(Category::OneOff),
+    );
+    out.push(line(
+        "days of digging",
+        r.digging_days,
+        "day",
+        "trench length ÷ advance a day, rounded up; the pumping runs this long unless [bid] pumping_duration says otherwise",
+    ));
 }
 
 /// One line per pump class (deep wells) or the header pump sets (wellpoints): duty, count,

@@ -61,6 +61,7 @@ fn day_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
     let from = match t.pumping_from {
         PumpingFrom::Bid => "pumping duration from [bid] pumping_duration",
         PumpingFrom::Programme => "pumping duration from [programme] duration",
+        PumpingFrom::Rolling => "pumping duration = the rolling run's days of digging ([bid] pumping_duration to give another)",
         PumpingFrom::NotGiven => "pumping duration NOT GIVEN: one week shown, so the hire and running lines are for one week of pumping; give [bid] pumping_duration",
     };
     out.push(

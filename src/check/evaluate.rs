@@ -215,7 +215,9 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
                     .suction_floor(spec.suction_limit)
                     .max(w.pump_intake + spec.submergence),
             };
-            let wetted = (w.screen_top.min(face) - w.screen_base).max(0.0);
+            // Sichardt's entrance gradient over the wetted filter column (the screen when no
+            // filter column is given)
+            let wetted = (w.filter_top.min(face) - w.filter_base).max(0.0);
             let sichardt = sichardt_well_capacity(w.radius, wetted, aq.conductivity);
             let cap = spec.pump_capacity.map_or(sichardt, |p| p.min(sichardt));
             let mut problems = Vec::new();
@@ -314,7 +316,7 @@ fn recharge_limits(
     problems: &mut Vec<WellProblem>,
 ) -> (f64, f64) {
     let spec = &model.wells;
-    let full_wetted = (w.screen_top.min(aq.initial_level) - w.screen_base).max(0.0);
+    let full_wetted = (w.filter_top.min(aq.initial_level) - w.filter_base).max(0.0);
     let full = sichardt_well_capacity(w.radius, full_wetted, aq.conductivity);
     let full = spec.pump_capacity.map_or(full, |p| p.min(full));
     let inj = model.as_built.injection_fraction * full;

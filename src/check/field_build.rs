@@ -33,7 +33,7 @@ pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
     if let Some(ground) = &model.layers {
         let screens: Vec<(f64, f64, f64)> = wells
             .iter()
-            .map(|w| (w.screen_top, w.screen_base, w.radius))
+            .map(|w| (w.filter_top, w.filter_base, w.radius))
             .collect();
         if let Some(kernel) = LayeredKernel::new(ground, &screens, r) {
             return field.with_layers(kernel, evaluation_level(model));

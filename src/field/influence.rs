@@ -191,9 +191,10 @@ impl Field {
     ) -> Field {
         let screens: Vec<WellScreen> = wells
             .iter()
+            // water enters over the filter column round the screen (the screen when none given)
             .map(|w| WellScreen {
-                screen_base: w.screen_base,
-                screen_top: w.screen_top,
+                screen_base: w.filter_base,
+                screen_top: w.filter_top,
                 radius: w.radius,
             })
             .collect();

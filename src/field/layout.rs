@@ -637,17 +637,22 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
             both_sides,
             centre_line,
             end_extension,
-        } => line_from(
-            model,
-            exc,
-            spec.offset,
-            *spacing,
-            *both_sides,
-            centre_line.as_ref(),
-            *end_extension,
-            rate,
-            spec.start,
-        ),
+        } => {
+            let mut p = line_from(
+                model,
+                exc,
+                spec.offset,
+                *spacing,
+                *both_sides,
+                centre_line.as_ref(),
+                *end_extension,
+                rate,
+                spec.start,
+            );
+            p.notes
+                .extend(model.rolling.as_ref().map(|r| rolling_note(model, r)));
+            p
+        }
         LayoutKind::Listed => listed(model),
         LayoutKind::Csv { path } => Placement {
             wells: read_csv(model, path)?,
@@ -655,6 +660,25 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
             paths: vec![],
         },
     })
+}
+
+/// What a rolling run's line stands for, in the model's units.
+fn rolling_note(model: &Model, r: &crate::input::model::Rolling) -> String {
+    let (u, lu) = (model.units, model.units.length_unit());
+    let tag = |d: bool| {
+        if d {
+            " (default, common practice (no source))"
+        } else {
+            ""
+        }
+    };
+    format!(
+        "rolling run: the line is one position of the set, {:.0} {lu} installed = run-out {:.0} {lu}{} + open length {:.0} {lu} + run-in {:.0} {lu}{}, shown at chainage {:.1}–{:.1} {lu} of the {:.0} {lu} trench; the targets are those of the open length; the set is moved along as the face advances {:.1} {lu} a day ({:.0} days of digging); `programme` does not yet move it",
+        u.length(r.installed_length()), u.length(r.run_out), tag(r.run_out_default),
+        u.length(r.open_length), u.length(r.run_in), tag(r.run_in_default),
+        u.length(r.open_from), u.length(r.open_from + r.open_length), u.length(r.trench_length),
+        u.length(r.advance_per_day), (r.trench_length / r.advance_per_day - 1e-9).ceil()
+    )
 }
 
 /// Whether `p` lies in a keep-out zone (the design file's keep-outs, the neighbours'

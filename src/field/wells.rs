@@ -21,6 +21,10 @@ pub struct Well {
     pub screen_top: f64,
     /// Screen base level, m.
     pub screen_base: f64,
+    /// Top of the filter column round the screen, m (water enters over the filter column).
+    pub filter_top: f64,
+    /// Base of the filter column, m.
+    pub filter_base: f64,
     /// Pump intake level, m.
     pub pump_intake: f64,
     /// Why it stands where it stands, when it was moved.
@@ -38,6 +42,8 @@ impl Well {
             kind: spec.kind,
             screen_top: spec.screen_top,
             screen_base: spec.screen_base,
+            filter_top: spec.filter_top,
+            filter_base: spec.filter_base,
             pump_intake: spec.pump_intake,
             note: None,
         }

@@ -77,6 +77,8 @@ pub struct Model {
     pub programme: Option<Programme>,
     /// The bid's durations and rules of thumb (`[bid]`).
     pub bid: crate::input::model_bid::BidSettings,
+    /// A rolling run (`[rolling]`): the trench dug in lengths, when given.
+    pub rolling: Option<Rolling>,
     /// Map extent, contour interval and the section line of `[output]`.
     pub output: OutputSettings,
     /// The site's coordinate system (`[site] crs`: an EPSG code or a proj string), when given.
@@ -288,6 +290,11 @@ pub struct WellSpec {
     pub screen_top: f64,
     /// Screen base level, m.
     pub screen_base: f64,
+    /// Top of the filter (sand) column round the screen, m: water enters the well over the
+    /// filter column (capacity, partial penetration); the screen top when not given.
+    pub filter_top: f64,
+    /// Base of the filter column, m (the screen base when not given).
+    pub filter_base: f64,
     /// Pump intake level, m.
     pub pump_intake: f64,
     /// Submergence kept above the intake, m.
@@ -587,6 +594,37 @@ impl AsBuilt {
     /// One definition for `estimate`, `check` and `design`.
     pub fn suction_floor(&self, suction_limit: f64) -> f64 {
         self.header_level - suction_limit
+    }
+}
+
+/// A straight trench installed and dug in lengths (`[rolling]`, see
+/// [`crate::input::validate::rolling`]): the model's excavation is its open length and the
+/// layout's line the installed length; the whole trench is kept here. Lengths in m.
+#[derive(Debug, Clone)]
+pub struct Rolling {
+    /// The whole trench along its centre line.
+    pub trench_length: f64,
+    /// Its width (area ÷ length).
+    pub trench_width: f64,
+    /// Trench open at one time.
+    pub open_length: f64,
+    /// Dug a day, m/day.
+    pub advance_per_day: f64,
+    /// Line installed ahead of the open length.
+    pub run_in: f64,
+    /// Line kept behind the open length.
+    pub run_out: f64,
+    /// Whether run-in and run-out are the defaults (common practice (no source)).
+    pub run_in_default: bool,
+    pub run_out_default: bool,
+    /// Chainage along the trench of the open length designed for (the set in the middle).
+    pub open_from: f64,
+}
+
+impl Rolling {
+    /// Line installed at one time: run-out + open length + run-in.
+    pub fn installed_length(&self) -> f64 {
+        self.run_out + self.open_length + self.run_in
     }
 }
 

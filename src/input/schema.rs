@@ -63,6 +63,25 @@ pub struct DesignFile {
     /// The bid's durations and rules of thumb.
     #[serde(default)]
     pub bid: Option<BidTimes>,
+    /// A trench installed and dug in lengths (a rolling run of wellpoints).
+    #[serde(default)]
+    pub rolling: Option<Rolling>,
+}
+
+/// `[rolling]`: a trench installed and dug in lengths.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Rolling {
+    /// Length of trench open at one time.
+    pub open_length: Length,
+    /// Length dug (and piped and backfilled) a day.
+    pub advance_per_day: Length,
+    /// Line installed ahead of the open length (default: two days of advance, at least 10 m).
+    #[serde(default)]
+    pub run_in: Option<Length>,
+    /// Line kept behind the open length (default: one day of advance, at least 10 m).
+    #[serde(default)]
+    pub run_out: Option<Length>,
 }
 
 /// `[bid]`: durations and rules of thumb for the bid (each has a labelled default).
@@ -320,6 +339,15 @@ pub struct WellSpec {
     /// Base of screen level.
     #[serde(default)]
     pub screen_base: Option<Length>,
+    /// Top of the filter (sand) column round the screen (default: the screen top).
+    #[serde(default)]
+    pub filter_top: Option<Length>,
+    /// Base of the filter column (default: the screen base).
+    #[serde(default)]
+    pub filter_base: Option<Length>,
+    /// Length of the filter column up from its base (instead of `filter_top`).
+    #[serde(default)]
+    pub filter_length: Option<Length>,
     /// Pump intake level.
     #[serde(default)]
     pub pump_intake: Option<Length>,

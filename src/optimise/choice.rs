@@ -60,6 +60,16 @@ pub fn choose(
     empty: Design,
 ) -> Result<Design, InputError> {
     let mut notes = empty.notes.clone();
+    // A rolling run's pump sets are moved from behind the face to ahead of it, so each serves
+    // in turn ahead of, beside and behind the open length: one rate in every wellpoint of the
+    // set, the run-in pumping ahead to drain the ground before it is dug (common practice (no
+    // source)); least-flow rates would leave the run-in idle.
+    let asked = if model.rolling.is_some() {
+        notes.push("rolling run: one rate in every wellpoint of the set (each pump set serves in turn ahead of, beside and behind the open length; the run-in drains the ground before it is dug; common practice (no source))".into());
+        RateOption::Uniform
+    } else {
+        asked
+    };
     let mut trials = found.trials.clone();
     trials.sort_by(|a, b| a.count.cmp(&b.count).then(a.variant.cmp(&b.variant)));
     crate::optimise::trial::one_row_per_placement(&mut trials);

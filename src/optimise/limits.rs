@@ -3,8 +3,9 @@
 //! - Level in the well (pump intake + submergence; for wellpoints also header − suction limit):
 //!   Φₖ ≥ Φ(lowest level), linear in the rates and exact.
 //! - Capacity: the rate is at most the pump's capacity and Sichardt's capacity
-//!   α·h_w (α = 2π·r_w·√K/15, h_w the wetted screen, which depends on the well's own level).
-//!   h_w = min(screen top, z) − screen base is a concave function of the level, and the level is
+//!   α·h_w (α = 2π·r_w·√K/15, h_w the wetted filter column round the screen — the screen when
+//!   no filter column is given — which depends on the well's own level).
+//!   h_w = min(filter top, z) − filter base is a concave function of the level, and the level is
 //!   a concave function of Φ, so h_w(Φ) is concave in Φ. Its piecewise-linear interpolation
 //!   through a few levels between the lowest allowed level and the initial level lies below it,
 //!   and equals it at the breakpoints. The linear programme uses those chords
@@ -89,6 +90,7 @@ pub struct WellLimit {
     /// Rows of the level floor on the screen-face potential: Φₖ ≥ φ + slope·qₖ, one per chord
     /// of the Jacob loss (a single row with slope 0 without it).
     pub(super) level_pieces: Vec<(f64, f64)>,
+    /// Top and base of the intake the capacity is taken over: the filter column, m.
     pub(super) screen_top: f64,
     pub(super) screen_base: f64,
     /// Chord pieces of h_w(Φ): (Φ_a, h_w at Φ_a, slope dh_w/dΦ).
@@ -148,8 +150,9 @@ impl WellLimit {
             },
             aquifer: aq.clone(),
             level_pieces: Vec::new(),
-            screen_top: well.screen_top,
-            screen_base: well.screen_base,
+            // Sichardt over the filter column round the screen (the screen when none given)
+            screen_top: well.filter_top,
+            screen_base: well.filter_base,
             pieces: Vec::new(),
         };
         let top = aq.initial_level;
@@ -157,8 +160,8 @@ impl WellLimit {
             let mut levels: Vec<f64> = (0..=CAPACITY_PIECES)
                 .map(|i| floor + (top - floor) * i as f64 / CAPACITY_PIECES as f64)
                 .collect();
-            if well.screen_top > floor && well.screen_top < top {
-                levels.push(well.screen_top);
+            if well.filter_top > floor && well.filter_top < top {
+                levels.push(well.filter_top);
             }
             levels.sort_by(f64::total_cmp);
             levels.dedup_by(|a, b| (*a - *b).abs() < 1e-9);

@@ -26,6 +26,7 @@ pub mod precheck;
 pub mod pumps;
 pub mod rates;
 pub mod recharge;
+pub mod rolling;
 pub mod search;
 pub mod search_range;
 pub mod standby;

@@ -42,8 +42,9 @@ use crate::field::wells::Well;
 use crate::input::model::{FreePlacementSpec, LayoutKind, LayoutSpec, Model, RingCount};
 use crate::optimise::limits::CAPACITY_SAFETY;
 use crate::optimise::lp_problem::LpStatus;
-use crate::optimise::rates::LayoutRates;
+use crate::optimise::rates::{LayoutRates, UnitRows};
 use crate::optimise::trial::{solve_individual, try_placement, TrialRun};
+use std::collections::HashMap;
 
 /// Rates at or below this are idle, m³/s.
 const IDLE: f64 = 1e-9;
@@ -121,21 +122,64 @@ fn dist(a: [f64; 2], b: [f64; 2]) -> f64 {
     (a[0] - b[0]).hypot(b[1] - a[1])
 }
 
+/// The unit rows of every candidate position (and of the wells of a second start) at the
+/// design's targets and at those positions,
+/// summed once: a layout on candidates takes its columns
+/// ([`LayoutRates::with_unit_rows`]) instead of summing its own.
+struct CandidateRows {
+    /// Column of each candidate position (by the bits of its coordinates).
+    column: HashMap<[u64; 2], usize>,
+    rows: UnitRows,
+}
+
+impl CandidateRows {
+    fn new(model: &Model, points: &[CheckPoint], cands: &[[f64; 2]]) -> CandidateRows {
+        let rows = LayoutRates::with_groups(model, points, wells_at(model, cands), usize::MAX)
+            .into_unit_rows();
+        let column = cands
+            .iter()
+            .enumerate()
+            .map(|(i, p)| ([p[0].to_bits(), p[1].to_bits()], i))
+            .collect();
+        CandidateRows { column, rows }
+    }
+
+    /// The columns of `positions`, when every one is a candidate.
+    fn columns(&self, positions: &[[f64; 2]]) -> Option<Vec<usize>> {
+        positions
+            .iter()
+            .map(|p| self.column.get(&[p[0].to_bits(), p[1].to_bits()]).copied())
+            .collect()
+    }
+}
+
+/// Wells built to the design file at `positions` (rates 0), named C001 ….
+fn wells_at(model: &Model, positions: &[[f64; 2]]) -> Vec<Well> {
+    positions
+        .iter()
+        .enumerate()
+        .map(|(i, p)| Well::from_spec(format!("C{:03}", i + 1), *p, 0.0, &model.wells))
+        .collect()
+}
+
 /// The rate programme on `positions` with cost mⱼ / Cⱼ per unit rate (mⱼ = `multiplier`, 1
 /// when not given), every rule of the design: the rates (None when infeasible), whether the
-/// evaluation confirms every rule, and the Cⱼ.
+/// evaluation confirms every rule, and the Cⱼ. The unit rows come from `cache` when every
+/// position is a candidate (a merged well between two candidates is summed afresh).
 fn weighted(
     model: &Model,
     points: &[CheckPoint],
     positions: &[[f64; 2]],
     multiplier: Option<&[f64]>,
+    cache: &CandidateRows,
 ) -> (Option<Vec<f64>>, bool, Vec<f64>) {
-    let wells: Vec<Well> = positions
-        .iter()
-        .enumerate()
-        .map(|(i, p)| Well::from_spec(format!("C{:03}", i + 1), *p, 0.0, &model.wells))
-        .collect();
-    let mut rates = LayoutRates::with_groups(model, points, wells, usize::MAX);
+    let wells = wells_at(model, positions);
+    let mut rates = match cache.columns(positions) {
+        Some(cols) => {
+            LayoutRates::with_unit_rows(model, points, wells, usize::MAX, &cache.rows, &cols)
+        }
+        None => LayoutRates::with_groups(model, points, wells, usize::MAX),
+    };
     let z0 = model.aquifer.initial_level;
     let caps: Vec<f64> = rates
         .limits
@@ -191,8 +235,12 @@ pub fn fewest(
         return Err(NoFree::NoCandidates);
     }
     let mut judged = 1;
+    // Unit rows of every candidate and of the second start's wells, summed once.
+    let mut rows_at = cands.clone();
+    rows_at.extend(also_from.iter().flatten().copied());
+    let cache = CandidateRows::new(model, points, &rows_at);
     // 1. The LP relaxation over every candidate.
-    let (Some(q), _, caps) = weighted(model, points, &cands, None) else {
+    let (Some(q), _, caps) = weighted(model, points, &cands, None, &cache) else {
         return Err(NoFree::Infeasible(cands.len()));
     };
     let mut y: Vec<f64> = q.iter().zip(&caps).map(|(q, c)| q / c).collect();
@@ -203,7 +251,7 @@ pub fn fewest(
     for _ in 0..REWEIGHTS {
         let m: Vec<f64> = y.iter().map(|y| 1.0 / (y + REWEIGHT_EPS)).collect();
         judged += 1;
-        match weighted(model, points, &cands, Some(&m)) {
+        match weighted(model, points, &cands, Some(&m), &cache) {
             (Some(q), _, _) => y = q.iter().zip(&caps).map(|(q, c)| q / c).collect(),
             _ => break,
         }
@@ -213,7 +261,7 @@ pub fn fewest(
     // 3. Greedy removal from each start; the fewest kept.
     let mut best: Option<Vec<[f64; 2]>> = None;
     for start in starts {
-        if let Some(k) = greedy(model, points, start, lower_bound, &mut judged) {
+        if let Some(k) = greedy(model, points, start, lower_bound, &mut judged, &cache) {
             if best.as_ref().is_none_or(|b| k.len() < b.len()) {
                 best = Some(k);
             }
@@ -227,9 +275,10 @@ pub fn fewest(
     // 4. Two for one: neighbours merged into one well on the ring between them.
     if let Some(ring) = rings.first() {
         while kept.len() > lower_bound {
-            match merge_pair(model, points, ring, &kept, &mut judged) {
+            match merge_pair(model, points, ring, &kept, &mut judged, &cache) {
                 Some(k) => {
-                    kept = greedy(model, points, k, lower_bound, &mut judged).unwrap_or_default()
+                    kept = greedy(model, points, k, lower_bound, &mut judged, &cache)
+                        .unwrap_or_default()
                 }
                 None => break,
             }
@@ -267,9 +316,10 @@ fn greedy(
     mut kept: Vec<[f64; 2]>,
     lower_bound: usize,
     judged: &mut usize,
+    cache: &CandidateRows,
 ) -> Option<Vec<[f64; 2]>> {
     *judged += 1;
-    let (Some(mut rates), true, mut caps) = weighted(model, points, &kept, None) else {
+    let (Some(mut rates), true, mut caps) = weighted(model, points, &kept, None, cache) else {
         return None;
     };
     drop_idle(&mut kept, &mut rates, &mut caps);
@@ -291,7 +341,7 @@ fn greedy(
             let mut fewer = kept.clone();
             fewer.remove(i);
             *judged += 1;
-            if let (Some(r), true, c) = weighted(model, points, &fewer, None) {
+            if let (Some(r), true, c) = weighted(model, points, &fewer, None, cache) {
                 (kept, rates, caps) = (fewer, r, c);
                 drop_idle(&mut kept, &mut rates, &mut caps);
                 removed = true;
@@ -312,6 +362,7 @@ fn merge_pair(
     ring: &[[f64; 2]],
     kept: &[[f64; 2]],
     judged: &mut usize,
+    cache: &CandidateRows,
 ) -> Option<Vec<[f64; 2]>> {
     let sorted = by_angle(kept.to_vec());
     let n = sorted.len();
@@ -334,7 +385,7 @@ fn merge_pair(
         let mut fewer = others;
         fewer.push(p);
         *judged += 1;
-        if let (Some(_), true, _) = weighted(model, points, &fewer, None) {
+        if let (Some(_), true, _) = weighted(model, points, &fewer, None, cache) {
             return Some(fewer);
         }
     }

@@ -66,11 +66,11 @@ pub(super) fn impossible_before_search(
             }
         }
     }
-    let wetted = (spec.screen_top.min(aq.initial_level) - spec.screen_base.max(intake)).max(0.0);
+    let wetted = (spec.filter_top.min(aq.initial_level) - spec.filter_base.max(intake)).max(0.0);
     if wetted <= 0.0 {
         return Some(format!(
-            "no length of screen lies between the lowest level a well may be drawn to ({:.2} m) and the groundwater level ({:.2} m): the wells could give no water — lower the screen or the pump",
-            spec.screen_base.max(intake),
+            "no length of screen (or filter column) lies between the lowest level a well may be drawn to ({:.2} m) and the groundwater level ({:.2} m): the wells could give no water — lower the screen or the pump",
+            spec.filter_base.max(intake),
             aq.initial_level
         ));
     }

@@ -102,7 +102,7 @@ pub struct LayoutRates<'a> {
 }
 
 /// Unit rows per well: ΔΦ per unit rate of each well.
-pub(super) struct UnitRows {
+pub struct UnitRows {
     /// At the target points.
     pub(super) at_targets: Vec<Vec<f64>>,
     /// At the wells.
@@ -274,6 +274,47 @@ impl<'a> LayoutRates<'a> {
         wells: Vec<Well>,
         max_groups: usize,
     ) -> LayoutRates<'a> {
+        Self::build(model, points, wells, max_groups, None)
+    }
+
+    /// As [`LayoutRates::with_groups`], the unit rows taken from `from` instead of summed
+    /// again: `from` holds the unit rows of a larger set of wells at the same `points` (built
+    /// alike, no recharge well), and well i of `wells` is well `columns[i]` of that set. ΔΦ per
+    /// unit rate of one well at one point does not depend on the other wells, so the rows of
+    /// `wells` are those columns (the same numbers: tested against rows summed afresh).
+    pub fn with_unit_rows(
+        model: &'a Model,
+        points: &'a [CheckPoint],
+        wells: Vec<Well>,
+        max_groups: usize,
+        from: &UnitRows,
+        columns: &[usize],
+    ) -> LayoutRates<'a> {
+        let pick = |row: &[f64]| -> Vec<f64> { columns.iter().map(|&c| row[c]).collect() };
+        let rows = UnitRows {
+            at_targets: from.at_targets.iter().map(|r| pick(r)).collect(),
+            at_wells: columns.iter().map(|&c| pick(&from.at_wells[c])).collect(),
+        };
+        Self::build(model, points, wells, max_groups, Some(rows))
+    }
+
+    /// The unit rows of this layout (built now if not yet), to be shared by the layouts of
+    /// [`LayoutRates::with_unit_rows`].
+    pub fn into_unit_rows(self) -> UnitRows {
+        self.unit();
+        self.unit.into_inner().unwrap_or(UnitRows {
+            at_targets: Vec::new(),
+            at_wells: Vec::new(),
+        })
+    }
+
+    fn build(
+        model: &'a Model,
+        points: &'a [CheckPoint],
+        wells: Vec<Well>,
+        max_groups: usize,
+        given_rows: Option<UnitRows>,
+    ) -> LayoutRates<'a> {
         let field = crate::check::run::field_for(model, &wells);
         let aq = &model.aquifer;
         let targets: Vec<usize> = points
@@ -334,8 +375,16 @@ impl<'a> LayoutRates<'a> {
         let (a_sum, base_t): (Vec<f64>, Vec<f64>) = positions
             .par_iter()
             .zip(&target_tables)
-            .map(|(p, t)| {
-                let row = field.unit_row_at(*p, t.as_ref());
+            .enumerate()
+            .map(|(i, (p, t))| {
+                let fresh;
+                let row: &[f64] = match &given_rows {
+                    Some(r) => &r.at_targets[i],
+                    None => {
+                        fresh = field.unit_row_at(*p, t.as_ref());
+                        &fresh
+                    }
+                };
                 let dot = |q: &[f64]| row.iter().zip(q).map(|(a, b)| a * b).sum::<f64>();
                 (
                     dot(&free_ones),
@@ -367,6 +416,10 @@ impl<'a> LayoutRates<'a> {
                 l
             })
             .collect();
+        let unit = OnceLock::new();
+        if let Some(rows) = given_rows {
+            let _ = unit.set(rows);
+        }
         LayoutRates {
             model,
             points,
@@ -374,7 +427,7 @@ impl<'a> LayoutRates<'a> {
             field,
             targets,
             target_phi,
-            unit: OnceLock::new(),
+            unit,
             matrices: OnceLock::new(),
             positions,
             target_tables,
@@ -485,6 +538,8 @@ mod tests {
             radius: 0.05,
             screen_top: 0.0,
             screen_base: -1.0,
+            filter_top: 0.0,
+            filter_base: -1.0,
             pump_intake: -1.0,
             kind: crate::input::model::WellKind::Wellpoint,
             note: None,
@@ -548,5 +603,46 @@ mod tests {
                 && g.iter()
                     .all(|m| m.len() == g[0].len() || m.len() < g[0].len())
         );
+    }
+
+    // The fewest-wells search takes a layout's unit rows as columns of the rows of every
+    // candidate (`with_unit_rows`). Checked against the plain all-pairs sum of the kernel
+    // (every source of every well, no R-tree) for the subset, and against the rows the subset
+    // sums itself: the riverside pit (a constant-head river image and partial penetration).
+    #[test]
+    fn candidate_columns_are_the_subsets_own_rows() {
+        use super::LayoutRates;
+        use crate::field::wells::Well;
+        let model =
+            crate::input::validate::file::load(std::path::Path::new("layouts/riverside_pit.toml"))
+                .expect("demo loads");
+        let points = crate::field::checkpoints::check_points(&model);
+        let all: Vec<Well> = (0..24)
+            .map(|i| {
+                let a = i as f64 / 24.0 * std::f64::consts::TAU;
+                let p = [20.0 + 25.0 * a.cos(), 8.0 + 13.0 * a.sin()];
+                Well::from_spec(format!("C{i}"), p, 0.0, &model.wells)
+            })
+            .collect();
+        let cols = [3usize, 7, 8, 15, 22];
+        let sub: Vec<Well> = cols.iter().map(|&c| all[c].clone()).collect();
+        let rows = LayoutRates::with_groups(&model, &points, all, usize::MAX).into_unit_rows();
+        let taken =
+            LayoutRates::with_unit_rows(&model, &points, sub.clone(), usize::MAX, &rows, &cols);
+        let fresh = LayoutRates::with_groups(&model, &points, sub, usize::MAX);
+        let (t, f) = (taken.unit(), fresh.unit());
+        assert_eq!(t.at_targets, f.at_targets, "rows at the targets");
+        assert_eq!(t.at_wells, f.at_wells, "rows at the wells");
+        assert_eq!(taken.a_sum, fresh.a_sum);
+        // the plain sum at the wells (the target rows read each point's own elevation)
+        for (k, w) in fresh.wells.iter().enumerate() {
+            let plain = fresh.field.unit_row_all_pairs(w.position);
+            for (a, b) in t.at_wells[k].iter().zip(&plain) {
+                assert!(
+                    (a - b).abs() <= 1e-12 * b.abs().max(1e-3),
+                    "{a} vs plain {b}"
+                );
+            }
+        }
     }
 }

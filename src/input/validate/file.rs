@@ -267,7 +267,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     let base = layers
         .as_ref()
         .map_or(aquifer.base_level, |l| l.lowest_base());
-    let excavations = shapes::excavations(rep, &raw, ground, base)?;
+    let mut excavations = shapes::excavations(rep, &raw, ground, base)?;
     // in layered ground the design works in the aquifer holding the first excavation's target
     // (the gravel under a shaft, the sand round a basement); the others are in `layers`
     let aquifer = match (&layers, excavations.first()) {
@@ -293,7 +293,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     let listed_wells = listed_wells(rep, &raw, &wells)?;
 
-    let layout = match &raw.layout {
+    let mut layout = match &raw.layout {
         Some(l) => Some(wells::layout_spec(
             rep,
             path,
@@ -304,6 +304,20 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         None => None,
     };
 
+    // a rolling run: the excavation becomes its open length, the line its installed length
+    let rolling = crate::input::validate::rolling::rolling(
+        rep,
+        raw.rolling.as_ref(),
+        &mut excavations,
+        layout.as_mut(),
+    )?;
+    if rolling.is_some() && raw.programme.is_some() {
+        return Err(rep.error(
+            "programme",
+            None,
+            "drydig programme does not yet move a rolling set along the trench; run the [programme] without [rolling] (the trench dug in stages), or leave out [programme]",
+        ));
+    }
     let (boundaries, keep_outs) = shapes::boundaries_and_keep_outs(rep, &raw, &excavations)?;
     let neighbours = neighbours(rep, &raw)?;
 
@@ -359,6 +373,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         design,
         programme,
         bid,
+        rolling,
         output: crate::input::validate::output::output_settings(rep, output)?,
         crs,
         crs_warnings,

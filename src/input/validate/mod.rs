@@ -26,6 +26,7 @@ pub mod neighbours;
 pub mod output;
 pub mod programme;
 pub mod ranges;
+pub mod rolling;
 pub mod shapes;
 pub mod sides;
 pub mod simple;

@@ -174,6 +174,8 @@ fn levels(rep: &Reporter, raw: &DesignFile) -> Result<(), InputError> {
     if let Some(w) = &raw.wells {
         level(rep, "wells.screen_top", w.screen_top.as_ref())?;
         level(rep, "wells.screen_base", w.screen_base.as_ref())?;
+        level(rep, "wells.filter_top", w.filter_top.as_ref())?;
+        level(rep, "wells.filter_base", w.filter_base.as_ref())?;
         level(rep, "wells.pump_intake", w.pump_intake.as_ref())?;
     }
     for (i, n) in raw.neighbour.iter().enumerate() {

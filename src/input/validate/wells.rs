@@ -23,6 +23,8 @@ pub fn well_spec(
             radius: DEFAULT_WELL_RADIUS,
             screen_top: default_top,
             screen_base: aquifer.base_level,
+            filter_top: default_top,
+            filter_base: aquifer.base_level,
             pump_intake: aquifer.base_level + 0.5,
             submergence: DEFAULT_SUBMERGENCE,
             pump_capacity: None,
@@ -78,6 +80,8 @@ pub fn well_spec(
             ),
         ));
     }
+    let (filter_top, filter_base) =
+        filter_column(rep, w, screen_top, screen_base, aquifer, ground)?;
     let pump_intake = w.pump_intake.as_ref().map_or(screen_base + 0.5, |q| q.si);
     if pump_intake < aquifer.base_level - 5.0 || pump_intake > ground {
         return Err(rep.error("wells.pump_intake", w.pump_intake.as_ref().and_then(|q| q.span.clone()), format!("the pump intake ({pump_intake} m) must lie between the aquifer base and ground level")));
@@ -111,12 +115,68 @@ pub fn well_spec(
         radius,
         screen_top,
         screen_base,
+        filter_top,
+        filter_base,
         pump_intake,
         submergence,
         pump_capacity,
         suction_limit,
         standby: w.standby.unwrap_or(0),
     })
+}
+
+/// The filter (sand) column round the screen: `filter_base` (default the screen base) and
+/// `filter_top` or `filter_length` (default the screen top). It must enclose the screen and lie
+/// between the aquifer base and ground level.
+fn filter_column(
+    rep: &Reporter,
+    w: &schema::WellSpec,
+    screen_top: f64,
+    screen_base: f64,
+    aquifer: &Aquifer,
+    ground: f64,
+) -> Result<(f64, f64), InputError> {
+    let span = |q: &Option<crate::input::units::Length>| q.as_ref().and_then(|q| q.span.clone());
+    let base = w.filter_base.as_ref().map_or(screen_base, |q| q.si);
+    if !base.is_finite() || base > screen_base + 1e-9 || base < aquifer.base_level - 1e-9 {
+        return Err(rep.error(
+            "wells.filter_base",
+            span(&w.filter_base),
+            format!("the filter base ({base} m) must lie between the aquifer base ({} m) and the screen base ({screen_base} m): the filter column surrounds the screen", aquifer.base_level),
+        ));
+    }
+    let top = match (&w.filter_top, &w.filter_length) {
+        (Some(_), Some(_)) => {
+            return Err(rep.error(
+                "wells.filter_length",
+                span(&w.filter_length),
+                "give filter_top or filter_length, not both",
+            ))
+        }
+        (Some(t), None) => t.si,
+        (None, Some(l)) => {
+            base + check_positive(
+                rep,
+                "wells.filter_length",
+                l,
+                "filter column length, e.g. \"3 m\"",
+            )?
+        }
+        (None, None) => screen_top,
+    };
+    let field = if w.filter_length.is_some() {
+        "wells.filter_length"
+    } else {
+        "wells.filter_top"
+    };
+    if !top.is_finite() || top < screen_top - 1e-9 || top > ground + 1e-9 {
+        return Err(rep.error(
+            field,
+            span(&w.filter_top).or(span(&w.filter_length)),
+            format!("the filter top ({top} m) must lie between the screen top ({screen_top} m) and ground level ({ground} m): the filter column surrounds the screen"),
+        ));
+    }
+    Ok((top, base))
 }
 
 /// The excavation the layout is placed round: by name, else the first.
