@@ -27,6 +27,7 @@
 #![forbid(unsafe_code)]
 
 pub mod app;
+pub mod bid;
 pub mod caution;
 pub mod check;
 pub mod cli;

@@ -10,6 +10,7 @@
 //! - the relief-only deep shaft against the hand uplift formula (total-stress check, CIRIA C750
 //!   / EN 1997-1 UPL, from memory).
 
+use drydig::bid::quantities::{bid, bid_of};
 use drydig::check::run::CheckRun;
 use drydig::field::checkpoints::{check_points, PointKind};
 use drydig::field::layout::generate;
@@ -17,7 +18,6 @@ use drydig::field::wells::Well;
 use drydig::input::model::{Control, LayoutKind, Model, RingCount};
 use drydig::input::prices::Price;
 use drydig::input::validate::file::{from_str, load};
-use drydig::optimise::bid::{bid, bid_of};
 use drydig::optimise::outcome::{final_run, Design, Outcome};
 use drydig::optimise::pumps::{head, shaft_power};
 use drydig::optimise::rates::{LayoutRates, RateOption};
@@ -366,16 +366,16 @@ fn deep_shaft_is_designed_to_its_relief_head() {
         .as_ref()
         .is_some_and(|o| o.margin_without_m >= -TOL));
     // Cost lines are quantity × the user's price.
-    let lines = drydig::report::bid_out::lines(
+    let lines = drydig::bid::sheet::lines(
         &b,
         d.estimate.total_flow_l_per_s / 1e3,
         drydig::input::units::UnitSystem::Si,
     );
     let prices = [Price::new("Drilling", 120.0, Some("m"))];
-    let (c, total, unused) = drydig::report::bid_out::costs(&lines, &prices).expect("priced");
-    assert_eq!(c.len(), 1);
-    assert!((total - 120.0 * b.drilling_m).abs() < 1e-6);
-    assert!(unused.is_empty());
+    let c = drydig::bid::pricing::costs(&lines, &prices).expect("priced");
+    assert_eq!(c.lines.len(), 1);
+    assert!((c.total - 120.0 * b.drilling_m).abs() < 1e-6);
+    assert!(c.unused.is_empty());
 }
 
 // ---------------------------------------------------------------------------------------------

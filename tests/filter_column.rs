@@ -147,11 +147,11 @@ fn the_bid_bills_screen_and_filter_apart() {
     let m = one_well("filter_base = \"15.0 m\"").unwrap_or_else(|e| panic!("{e}"));
     let p = from_model(&m, None).unwrap();
     let levels = vec![None; p.wells.len()];
-    let b = drydig::optimise::bid::bid(&m, &p.wells, &p.paths, &levels);
+    let b = drydig::bid::quantities::bid(&m, &p.wells, &p.paths, &levels);
     // one well: 1 m of screen, 5 m of filter column
     assert!((b.screen_m - 1.0).abs() < 1e-12);
     assert_eq!(b.filter_m, Some(5.0));
-    let lines = drydig::report::bid_out::lines(&b, 0.0, drydig::input::units::UnitSystem::Si);
+    let lines = drydig::bid::sheet::lines(&b, 0.0, drydig::input::units::UnitSystem::Si);
     let filter = lines
         .iter()
         .find(|l| l.item == "filter column")

@@ -1,13 +1,15 @@
 //! The findings of one evaluated layout: what `check` shows, and what `design` shows of the
 //! layout it chose. Built once; every output reads the same values.
 
+use crate::bid::line::BidLine;
+use crate::bid::quantities::{bid_of, Bid};
+use crate::bid::sheet::lines;
 use crate::check::run::CheckRun;
 use crate::check::section::Section;
 use crate::estimate::{estimate, Estimate};
 use crate::field::grid::LevelGrid;
 use crate::findings::section::section_of;
 use crate::findings::verdict::{of_evaluation, Verdict};
-use crate::optimise::bid::{bid_of, Bid};
 use crate::optimise::recharge::RechargeSizing;
 use crate::safety::neighbours::{assess_run, NeighbourResult};
 use crate::safety::settlement_map::{settlement_map, SettlementMap};
@@ -33,6 +35,8 @@ pub struct CheckFindings<'a> {
     pub estimate: Estimate,
     /// The bid quantities of the layout.
     pub bid: Bid,
+    /// The bid sheet: its lines in the user's units, each with its category.
+    pub sheet: Vec<BidLine>,
     /// Met, or what is short (targets, wells, neighbours).
     pub verdict: Verdict,
 }
@@ -47,6 +51,11 @@ impl<'a> CheckFindings<'a> {
         let settlement = settlement_map(&run);
         let estimate = estimate(run.model);
         let bid = bid_of(run.model, &run);
+        let sheet = lines(
+            &bid,
+            estimate.total_flow_m3_per_day / 86_400.0,
+            run.model.units,
+        );
         let verdict = of_evaluation(&run.evaluation, &neighbours);
         CheckFindings {
             run,
@@ -58,6 +67,7 @@ impl<'a> CheckFindings<'a> {
             settlement,
             estimate,
             bid,
+            sheet,
             verdict,
         }
     }

@@ -27,8 +27,14 @@ impl<'a> DesignFindings<'a> {
                 .map(|c| (&c.run.evaluation, c.neighbours.as_slice())),
         );
         if let Some(c) = chosen.as_mut() {
-            // The report of the chosen layout carries the design's verdict.
+            // The report of the chosen layout carries the design's verdict, and its bid sheet
+            // the quick estimate of the excavation the design was searched for.
             c.verdict = verdict.clone();
+            c.sheet = crate::bid::sheet::lines(
+                &c.bid,
+                design.estimate.total_flow_l_per_s / 1e3,
+                model.units,
+            );
         }
         DesignFindings {
             design,

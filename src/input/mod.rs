@@ -8,6 +8,7 @@
 pub mod error;
 pub mod import;
 pub mod model;
+pub mod model_bid;
 pub mod model_layers;
 pub mod prices;
 pub mod read;

@@ -75,6 +75,8 @@ pub struct Model {
     pub design: DesignSettings,
     /// The pumping programme in time, when given.
     pub programme: Option<Programme>,
+    /// The bid's durations and rules of thumb (`[bid]`).
+    pub bid: crate::input::model_bid::BidSettings,
     /// A rolling run (`[rolling]`): the trench dug in lengths, when given.
     pub rolling: Option<Rolling>,
     /// Map extent, contour interval and the section line of `[output]`.

@@ -7,7 +7,9 @@
 //! Units are never assumed: a price per foot against a quantity in metres is converted
 //! (price per metre = price per foot ÷ 0.3048), a price whose unit measures something else
 //! than its line (per kWh against metres) is refused, and so is a unit missing on a line that
-//! is not counted in numbers. An item priced twice is refused, naming both lines.
+//! is not counted in numbers. A hired line is priced per week (`week` for counted items,
+//! `ft/week` or `m/week` for pipework); a price per day is never turned into one per week, nor
+//! the other way. An item priced twice is refused, naming both lines.
 
 use crate::input::error::InputError;
 use crate::input::units::{parse, FlowKind, LengthKind};
@@ -16,7 +18,7 @@ use std::path::{Path, PathBuf};
 /// One unit price.
 #[derive(Debug, Clone)]
 pub struct Price {
-    /// The bid item it prices ("drilling", "pumps 8 L/s", "energy per day"), without its unit.
+    /// The bid item it prices ("drilling", "pumps 8 L/s", "energy"), without its unit.
     pub item: String,
     /// Price per unit, in the user's currency.
     pub price: f64,
@@ -64,6 +66,12 @@ pub enum Measure {
     Power(f64),
     /// An energy, J.
     Energy(f64),
+    /// A volume, m³.
+    Volume(f64),
+    /// A number of days (never turned into weeks: a day rate and a week rate differ).
+    Day,
+    /// A number of weeks.
+    Week,
 }
 
 impl Measure {
@@ -75,6 +83,9 @@ impl Measure {
             Measure::Flow(f) => ("a flow", f),
             Measure::Power(f) => ("a power", f),
             Measure::Energy(f) => ("an energy", f),
+            Measure::Volume(f) => ("a volume", f),
+            Measure::Day => ("a number of days", 1.0),
+            Measure::Week => ("a number of weeks", 1.0),
         }
     }
 }
@@ -94,12 +105,44 @@ pub fn measure_of(unit: &str) -> Option<Measure> {
         "kwh" => return Some(Measure::Energy(3.6e6)),
         "mwh" => return Some(Measure::Energy(3.6e9)),
         "gpd" | "gal/day" | "gal/d" => return Some(Measure::Flow(3.785_411_784e-3 / 86_400.0)),
+        "day" | "days" | "d" => return Some(Measure::Day),
+        "week" | "weeks" | "wk" => return Some(Measure::Week),
+        "m3" => return Some(Measure::Volume(1.0)),
+        "l" | "litre" | "liter" => return Some(Measure::Volume(1e-3)),
+        "gal" | "gallon" => return Some(Measure::Volume(3.785_411_784e-3)),
+        "kgal" => return Some(Measure::Volume(3.785_411_784)),
         _ => {}
     }
     if let Ok(f) = parse::<LengthKind>(&format!("1 {u}")) {
         return Some(Measure::Length(f));
     }
     parse::<FlowKind>(&format!("1 {u}")).ok().map(Measure::Flow)
+}
+
+/// A unit per time: `week` or `day` alone (`(None, Week)`), or a unit per week or per day
+/// (`ft/week`, `no. per week`, `m/day` → `(Some("ft"), Week)`); `None` for any other unit (a
+/// flow such as `m3/day` is a flow, not a price per day).
+pub fn per_time(unit: &str) -> Option<(Option<String>, Measure)> {
+    let u = unit.trim();
+    if let Some(m) = measure_of(u) {
+        return matches!(m, Measure::Day | Measure::Week).then_some((None, m));
+    }
+    for sep in ["/", " per "] {
+        if let Some(i) = u.rfind(sep) {
+            let (base, time) = (u[..i].trim(), u[i + sep.len()..].trim());
+            if let (Some(t @ (Measure::Day | Measure::Week)), Some(_)) =
+                (measure_of(time), measure_of(base))
+            {
+                return Some((Some(base.to_string()), t));
+            }
+        }
+    }
+    None
+}
+
+/// Whether drydig can read `unit` on a price: a unit it knows, or one per week or per day.
+pub fn known_price_unit(unit: &str) -> bool {
+    measure_of(unit).is_some() || per_time(unit).is_some()
 }
 
 /// The price per one `line_unit` of a bid line from `price`: converted when the units differ
@@ -177,14 +220,14 @@ fn unit_in_name(item: &str) -> (String, Option<String>) {
     for (open, close) in [('[', ']'), ('(', ')')] {
         if let (Some(a), true) = (t.rfind(open), t.ends_with(close)) {
             let u = t[a + 1..t.len() - 1].trim();
-            if measure_of(u).is_some() {
+            if known_price_unit(u) {
                 return (t[..a].trim().to_string(), Some(u.to_string()));
             }
         }
     }
     if let Some(a) = t.rfind(" per ") {
         let u = t[a + 5..].trim();
-        if measure_of(u).is_some() {
+        if known_price_unit(u) {
             return (t[..a].trim().to_string(), Some(u.to_string()));
         }
     }
@@ -238,16 +281,18 @@ pub fn read(path: &Path) -> Result<Vec<Price>, InputError> {
             .filter(|u| !u.is_empty())
             .map(str::to_string);
         if let Some(u) = column_unit.as_deref() {
-            if measure_of(u).is_none() {
+            if !known_price_unit(u) {
                 return Err(err(
                     Some(line),
                     "unit",
-                    format!("\"{u}\" is not a unit drydig knows; use no., m, ft, kW, hp, kWh, m³/day, gpm or L/s"),
+                    format!("\"{u}\" is not a unit drydig knows; use no., m, ft, kWh, m³, gal, day, or a hire unit per week (week, ft/week, m/week)"),
                 ));
             }
         }
         let unit = match (column_unit, named_unit) {
-            (Some(a), Some(b)) if measure_of(&a) != measure_of(&b) => {
+            (Some(a), Some(b))
+                if measure_of(&a) != measure_of(&b) || per_time(&a) != per_time(&b) =>
+            {
                 return Err(err(
                     Some(line),
                     "unit",

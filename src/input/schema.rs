@@ -60,6 +60,9 @@ pub struct DesignFile {
     /// The pumping programme in time (stages of the dig), for `drydig programme`.
     #[serde(default)]
     pub programme: Option<Programme>,
+    /// The bid's durations and rules of thumb.
+    #[serde(default)]
+    pub bid: Option<BidTimes>,
     /// A trench installed and dug in lengths (a rolling run of wellpoints).
     #[serde(default)]
     pub rolling: Option<Rolling>,
@@ -79,6 +82,39 @@ pub struct Rolling {
     /// Line kept behind the open length (default: one day of advance, at least 10 m).
     #[serde(default)]
     pub run_out: Option<Length>,
+}
+
+/// `[bid]`: durations and rules of thumb for the bid (each has a labelled default).
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct BidTimes {
+    /// How long the pumps run ("12 weeks"); default: `[programme] duration` when given.
+    #[serde(default)]
+    pub pumping_duration: Option<Duration>,
+    /// Mobilisation ("2 days").
+    #[serde(default)]
+    pub mobilise: Option<Duration>,
+    /// Deep wells drilled and installed per day (a number).
+    #[serde(default)]
+    pub wells_per_day: Option<f64>,
+    /// Header (wellpoints) or collecting main (deep wells) installed per day ("50 m").
+    #[serde(default)]
+    pub header_per_day: Option<Length>,
+    /// Deep wells removed per day (a number).
+    #[serde(default)]
+    pub removal_wells_per_day: Option<f64>,
+    /// Header or main removed per day ("150 m").
+    #[serde(default)]
+    pub removal_header_per_day: Option<Length>,
+    /// Settlement tank retention at the design flow ("15 min").
+    #[serde(default)]
+    pub retention_time: Option<Duration>,
+    /// Generators on hire, running + standby (0 with a mains supply).
+    #[serde(default)]
+    pub generators: Option<u32>,
+    /// Excavation perimeter per monitoring piezometer ("50 m").
+    #[serde(default)]
+    pub piezometer_spacing: Option<Length>,
 }
 
 /// `[pumps]`

@@ -5,14 +5,14 @@
 //! layout's field and unit rows) → `uniform` and `individual` (the two rate options) → `trial`
 //! (one layout tried) → `precheck` (reasons nothing can work) and `search` (the fewest wells,
 //! `drydig design`; `search_range`: where it starts, the cap on wells; `choice`: the layout
-//! chosen from what it found) → `outcome` (how it ended, whether it is met) and `bid` (the quantities);
+//! chosen from what it found) → `outcome` (how it ended, whether it is met); the bid's quantities are in
+//! [`crate::bid`];
 //! `sweep` (a range of counts or spacings) and `recharge` (sizing recharge wells for neighbours).
 //! `one_out` (the rows for any one well out of service), `standby` (finishing a met design:
 //! idle wells dropped, the worst loss, standby wells placed) and `pumps` (pump classes, heads
 //! and power for the bid). `placement` finds the fewest wells on candidate positions (LP
 //! relaxation, rounding and greedy removal), beside the evenly spaced rings of `search`.
 
-pub mod bid;
 pub mod choice;
 pub mod clarabel;
 pub mod individual;

@@ -75,7 +75,6 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
     let run = found.chosen.as_ref().map(|c| &c.run);
     let total = run.map_or(0.0, |r| r.evaluation.total_abstraction_m3_per_s);
     let (est, ratio) = estimate_comparison(design, total);
-    let bid = found.chosen.as_ref().map(|c| &c.bid);
     json!({
         "drydig_version": env!("CARGO_PKG_VERSION"),
         "project": model.name,
@@ -113,7 +112,7 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
             "ratio_optimised_to_estimate": ratio,
         },
         "counts_tried": design.trials.iter().map(trial_json).collect::<Vec<_>>(),
-        "bid": bid.as_ref().map(|b| super::bid_out::bid_json(b, &super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, model.units), None)),
+        "bid": found.chosen.as_ref().map(|c| super::bid_out::bid_json(&c.bid, &c.sheet, None)),
         "design_allowances": {
             "operating_margin_m": model.design.operating_margin,
             "operating_margin_basis": "below every target with every well running (design file allowances.operating_margin; default 0.3 m, common practice (no source))",
@@ -197,7 +196,7 @@ pub fn files(
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let design = &found.design;
     let mut out = match &found.chosen {
-        Some(c) => super::check_files_for(c, Some(design))?,
+        Some(c) => super::check_files_for(c, Some(design), prices)?,
         None => Vec::new(),
     };
     out.push((
@@ -207,11 +206,11 @@ pub fn files(
     out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
     if let Some(c) = &found.chosen {
         let b = &c.bid;
-        let lines = super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, model.units);
-        out.push(("bid.csv".into(), super::bid_out::bid_csv(&lines, prices)?));
+        let lines = &c.sheet;
+        out.push(("bid.csv".into(), super::bid_out::bid_csv(lines, prices)?));
         out.push((
             "bid.json".into(),
-            serde_json::to_vec_pretty(&super::bid_out::bid_json(b, &lines, prices))?,
+            serde_json::to_vec_pretty(&super::bid_out::bid_json(b, lines, prices))?,
         ));
     }
     Ok(out)
@@ -387,15 +386,12 @@ pub fn to_text(
             ))
         ));
         out.push_str(&allowance_text(model, design, r, units));
-        let b = found
+        let sheet = found
             .chosen
             .as_ref()
-            .map(|c| &c.bid)
+            .map(|c| &c.sheet)
             .expect("a run has findings");
-        out.push_str(&super::bid_out::bid_text(
-            &super::bid_out::lines(b, design.estimate.total_flow_l_per_s / 1e3, units),
-            prices,
-        ));
+        out.push_str(&super::bid_out::bid_text(sheet, prices));
         for n in &r.placement.notes {
             out.push_str(&wrap(&format!("note: {n}"), 96, ""));
         }

@@ -81,14 +81,15 @@ pub fn thousands(value: f64, decimals: usize) -> String {
 
 /// Every file `check` writes, rendered in memory from its findings: (name, bytes).
 pub fn check_files(found: &CheckFindings) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
-    check_files_for(found, None)
+    check_files_for(found, None, None)
 }
 
 /// Every file `check` writes, with `report.html` titled and filled for `design` when a design
-/// is given.
+/// is given, its bid priced with `prices` when given.
 pub fn check_files_for(
     found: &CheckFindings,
     design: Option<&crate::optimise::outcome::Design>,
+    prices: Option<&[crate::input::prices::Price]>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let run = &found.run;
     let command = if design.is_some() { "design" } else { "check" };
@@ -120,6 +121,7 @@ pub fn check_files_for(
         run,
         found,
         design,
+        prices,
         command,
         f,
         map_svg,

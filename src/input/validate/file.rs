@@ -336,6 +336,11 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     let design =
         crate::input::validate::design_settings::design_settings(rep, &raw, ground, wells.kind)?;
+    let bid = crate::input::validate::bid::bid_settings(
+        rep,
+        raw.bid.as_ref(),
+        wells.kind == crate::input::model::WellKind::Wellpoint,
+    )?;
     let (crs, crs_warnings) =
         crate::input::validate::site_grid::site_crs(rep, raw.site.crs.as_deref(), &excavations)?;
     let model = Model {
@@ -367,6 +372,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         as_built,
         design,
         programme,
+        bid,
         rolling,
         output: crate::input::validate::output::output_settings(rep, output)?,
         crs,

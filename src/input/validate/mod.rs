@@ -9,13 +9,15 @@
 //! formulas compute from them: distance of influence, leakage factor, equivalent radius, the
 //! number of check points), `as_built` (screens, well losses, header level, spacing limits,
 //! recharge limits), `sides` (everything on the aquifer side of every boundary),
-//! `design_settings` (operating margin, capacity fraction, one well out, pumps),
+//! `design_settings` (operating margin, capacity fraction, one well out, pumps), `bid` (the bid's
+//! durations and rules of thumb),
 //! `simple` (outlines of many vertices: simplicity by R-tree, simplification), `output` (map
 //! extent, contour interval, section line), `site_grid` (the site coordinate system checked at
 //! the site: unit, parameters, round trip, scale factor).
 
 pub mod aquifer;
 pub mod as_built;
+pub mod bid;
 pub mod derived;
 pub mod design_settings;
 pub mod file;

@@ -7,7 +7,7 @@ use super::page::{document, Part};
 
 /// The parts of a report, in order.
 pub fn parts(cx: &Context) -> Vec<Part> {
-    use super::{inputs, results, safety};
+    use super::{bid, inputs, results, safety};
     let makers: [fn(&Context) -> Part; 12] = [
         inputs::summary,
         inputs::inputs,
@@ -19,7 +19,7 @@ pub fn parts(cx: &Context) -> Vec<Part> {
         results::checkpoints,
         safety::neighbours,
         safety::uplift,
-        safety::bid,
+        bid::bid,
         safety::cautions,
     ];
     makers.iter().map(|m| m(cx)).collect()

@@ -1,7 +1,7 @@
-//! The safety and bid parts of `report.html`: neighbours, base uplift, bid quantities, cautions.
+//! The safety parts of `report.html`: neighbours, base uplift, cautions.
 
 use super::context::Context;
-use super::page::{facts, table, Part};
+use super::page::{table, Part};
 use crate::report::format::esc;
 
 /// Each neighbour: worst drawdown, settlement and distortion against the limits.
@@ -121,54 +121,6 @@ pub fn uplift(cx: &Context) -> Part {
         esc(crate::safety::uplift::METHOD)
     ));
     Part::new("uplift", "Base uplift", body)
-}
-
-/// The quantities a bid needs.
-pub fn bid(cx: &Context) -> Part {
-    let f = &cx.f;
-    let b = &cx.found.bid;
-    let mut rows = vec![
-        ("working wells", b.working_wells.to_string()),
-        ("standby wells placed", b.standby_placed.len().to_string()),
-        ("depth per well", f.length(b.depth_per_well_m)),
-        ("drilling, total", f.length(b.drilling_m)),
-        ("jetting, total", f.length(b.jetting_m)),
-        ("screen, total", f.length(b.screen_m)),
-        ("total flow", f.flow(b.total_flow_m3_per_s)),
-        ("design flow", f.flow(b.design_flow_m3_per_s)),
-    ];
-    for p in &b.pumps {
-        rows.push((
-            "pumps",
-            format!(
-                "{} × duty {} at {} head, {:.1} kW shaft each",
-                p.count,
-                f.rate(p.duty_l_per_s / 1e3),
-                f.length(p.head_m),
-                p.shaft_power_kw
-            ),
-        ));
-    }
-    if b.standby_pumps > 0 {
-        rows.push(("standby pumps", b.standby_pumps.to_string()));
-    }
-    if b.header_length_m > 0.0 {
-        rows.push(("header length", f.length(b.header_length_m)));
-    }
-    rows.push((
-        "power installed / running",
-        format!("{:.1} / {:.1} kW", b.power_installed_kw, b.power_running_kw),
-    ));
-    rows.push(("energy per day", format!("{:.0} kWh", b.energy_per_day_kwh)));
-    let mut body = facts(&rows);
-    if f.units == crate::input::units::UnitSystem::Si {
-        for s in &b.basis {
-            body.push_str(&format!("<p class=\"note\">{}</p>", esc(s)));
-        }
-    } else {
-        body.push_str("<p class=\"note\">drydig design writes how each figure was found beside it in bid.csv.</p>");
-    }
-    Part::new("bid", "Bid quantities", body)
 }
 
 /// The caution every output carries, and what the run noted.

@@ -1,8 +1,11 @@
 //! The quantities a bid needs for a designed layout: wells working and standby, drilling (deep
 //! wells) and jetting (wellpoints) kept apart, screen, pumps by class with their head, power
 //! installed and running, energy per day, flow and design flow, and for wellpoints the header
-//! and its pump sets. Heads and powers are found in [`crate::optimise::pumps`].
+//! and its pump sets (sized for air and water in [`crate::bid::vacuum_sets`]), and the bid's
+//! time ([`crate::bid::durations`]). Heads and powers are found in [`crate::optimise::pumps`].
 
+use crate::bid::durations::{durations, Durations, Works};
+use crate::bid::vacuum_sets::{choose, SetSize, AIR_PER_WELLPOINT_M3_PER_H};
 use crate::check::run::CheckRun;
 use crate::field::wells::Well;
 use crate::input::model::{Model, WellKind};
@@ -10,8 +13,9 @@ use crate::optimise::pumps::{classes, duty_for, head, shaft_power, Head};
 use crate::optimise::standby::is_standby;
 use serde::Serialize;
 
-/// Allowance below the screen base for the sump and the drill bit, m, added to every well's
-/// drilled depth in the bid quantities (common practice (no source)).
+/// Allowance below the screen base for the sump and the drill bit, m, added to every deep
+/// well's drilled depth in the bid quantities (common practice (no source)); a wellpoint is
+/// jetted to its tip and has no sump.
 pub const SUMP_ALLOWANCE: f64 = 1.0;
 
 /// Pumps of one class.
@@ -50,7 +54,8 @@ pub struct Bid {
     pub recharge_wells: usize,
     /// Their total injection, m³/s (a positive number).
     pub recharge_flow_m3_per_s: f64,
-    /// Depth of one well or wellpoint: ground to screen base plus the sump allowance, m.
+    /// Depth of one well (ground to screen base plus the sump allowance) or wellpoint (ground to
+    /// screen base, no sump), m.
     pub depth_per_well_m: f64,
     /// Drilling for working + standby deep wells, m (0 for wellpoints).
     pub drilling_m: f64,
@@ -90,6 +95,14 @@ pub struct Bid {
     pub pump_sets: Option<usize>,
     /// Design flow per 100 m of header, m³/s (wellpoints).
     pub design_flow_per_100m_m3_per_s: Option<f64>,
+    /// The wellpoint pump set chosen for air and water (wellpoints).
+    pub set_size: Option<SetSize>,
+    /// Working wellpoints on the busiest set, and the free air they draw, m³/h.
+    pub set_air: Option<(usize, f64)>,
+    /// The set's air or water is above the largest set of the table.
+    pub set_above_table: bool,
+    /// Durations, hire, energy over the pumping, monitoring and discharge.
+    pub time: Durations,
     /// How each figure was found.
     pub basis: Vec<String>,
 }
@@ -150,11 +163,17 @@ fn bid_basis(model: &Model, depth: f64, from_paths: bool, built_count: usize) ->
     let hours = ps.hours_per_day;
     let wellpoints = spec.kind == WellKind::Wellpoint;
     vec![
-        format!(
-            "depth per {} = ground {:.2} m − screen base {:.2} m + {SUMP_ALLOWANCE:.1} m sump allowance = {depth:.2} m (common practice (no source))",
-            if wellpoints { "wellpoint" } else { "well" },
-            model.ground_level, spec.screen_base
-        ),
+        if wellpoints {
+            format!(
+                "jetted depth per wellpoint = ground {:.2} m − screen base {:.2} m = {depth:.2} m (jetted to the tip: no sump)",
+                model.ground_level, spec.screen_base
+            )
+        } else {
+            format!(
+                "depth per well = ground {:.2} m − screen base {:.2} m + {SUMP_ALLOWANCE:.1} m sump allowance = {depth:.2} m (common practice (no source))",
+                model.ground_level, spec.screen_base
+            )
+        },
         format!("design flow = total × (1 + {f:.2}) (contingency from the design file)"),
         if from_paths {
             "header length = the layout's wellpoint line(s)".to_string()
@@ -245,16 +264,31 @@ fn deep_well_pumps(
     (pumps, running_w)
 }
 
+/// The header pump sets of a wellpoint layout.
+struct WellpointSets {
+    /// Their water side as a pump class.
+    class: PumpClass,
+    /// How many.
+    count: usize,
+    /// The set size chosen for air and water, and whether the demand is above the table.
+    size: (SetSize, bool),
+    /// Working wellpoints on the busiest set, and their free air, m³/h.
+    air: (usize, f64),
+    /// Running power of every set (vacuum pump + water pump at its running rate), W.
+    running_w: f64,
+}
+
 /// Wellpoints: header pump sets by length, each serving `wellpoint_set_length` m of header and
-/// lifting from the lowest level in the working wellpoints `idx`. Returns the class of sets,
-/// their number and the running power, W; `None` when nothing is pumped.
+/// lifting from the lowest level in the working wellpoints `idx`; each set sized for its design
+/// flow of water and the air of its wellpoints ([`crate::bid::vacuum_sets`]). `None` when
+/// nothing is pumped.
 fn wellpoint_sets(
     model: &Model,
     idx: &[usize],
     lowest: &impl Fn(usize) -> f64,
     line_length: f64,
     total: f64,
-) -> Option<(PumpClass, usize, f64)> {
+) -> Option<WellpointSets> {
     let spec = &model.wells;
     let ps = &model.design.pumps;
     let f = model.contingency;
@@ -288,7 +322,11 @@ fn wellpoint_sets(
         0.5 * set_len,
         per_set,
     );
-    let running_w = n as f64 * shaft_power(model, per_set, h_run.total());
+    let points_per_set = idx.len().div_ceil(n);
+    let air = points_per_set as f64 * AIR_PER_WELLPOINT_M3_PER_H;
+    let size = choose(per_set * (1.0 + f), air);
+    let running_w =
+        n as f64 * (size.0.vacuum_kw * 1e3 + shaft_power(model, per_set, h_run.total()));
     let class = PumpClass {
         duty_l_per_s: duty * 1e3,
         head_m: h_duty.total(),
@@ -299,7 +337,13 @@ fn wellpoint_sets(
         shaft_power_kw: shaft_power(model, duty, h_duty.total()) / 1e3,
         above_list: above,
     };
-    Some((class, n, running_w))
+    Some(WellpointSets {
+        class,
+        count: n,
+        size,
+        air: (points_per_set, air),
+        running_w,
+    })
 }
 
 /// The bid quantities of a designed layout; `levels` are the water levels in the wells at
@@ -317,9 +361,10 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
     let total: f64 = idx.iter().map(|&i| wells[i].rate).sum();
     let f = model.contingency;
     let design_flow = total * (1.0 + f);
-    let depth = model.ground_level - spec.screen_base + SUMP_ALLOWANCE;
-    let screen = spec.screen_top - spec.screen_base;
     let wellpoints = spec.kind == WellKind::Wellpoint;
+    let sump = if wellpoints { 0.0 } else { SUMP_ALLOWANCE };
+    let depth = model.ground_level - spec.screen_base + sump;
+    let screen = spec.screen_top - spec.screen_base;
     // Deep wells: the collecting main joins the built wells (working and standby), whatever
     // way the layout was given. Wellpoints: the header runs along the layout's line, or from
     // wellpoint to wellpoint when the wells were listed.
@@ -347,6 +392,7 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
     let mut pumps = Vec::new();
     let mut running_w = 0.0;
     let (mut sets, mut per100) = (None, None);
+    let (mut set_size, mut set_air) = (None, None);
     let standby_pumps;
     if !wellpoints {
         let header_length = 0.5 * line_length;
@@ -354,15 +400,21 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
             deep_well_pumps(model, wells, &lowest, header_length, total, design_flow);
         standby_pumps = standby_placed.len().max(spec.standby as usize) as u32;
     } else {
-        if let Some((class, n, running)) = wellpoint_sets(model, &idx, &lowest, line_length, total)
-        {
-            running_w = running;
-            pumps.push(class);
-            sets = Some(n);
+        if let Some(w) = wellpoint_sets(model, &idx, &lowest, line_length, total) {
+            running_w = w.running_w;
+            pumps.push(w.class);
+            sets = Some(w.count);
+            set_size = Some(w.size);
+            set_air = Some(w.air);
             per100 = (line_length > 0.0).then(|| design_flow / line_length * 100.0);
             basis.push(format!(
                 "wellpoint pump sets = header length {line_length:.0} m ÷ {:.0} m per set, rounded up; each set lifts from the lowest level in its wellpoints (common practice (no source))",
                 ps.wellpoint_set_length
+            ));
+            basis.push(format!(
+                "set size = the smallest of {} moving the set's design flow and its air ({} wellpoints × {AIR_PER_WELLPOINT_M3_PER_H} m³/h free air); installed = vacuum pump + water pump drive, running = vacuum pump + water shaft power at the running rate (common practice (no source))",
+                crate::bid::vacuum_sets::SET_SIZES.iter().map(|s| format!("{} ({:.0} L/s, {:.0} m³/h, {} + {} kW)", s.name, s.water_m3_per_s * 1e3, s.air_m3_per_h, s.vacuum_kw, s.water_kw)).collect::<Vec<_>>().join(", "),
+                w.air.0
             ));
         }
         standby_pumps = spec.standby;
@@ -370,14 +422,20 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
     let largest = pumps
         .iter()
         .max_by(|a, b| a.duty_l_per_s.total_cmp(&b.duty_l_per_s));
+    // A wellpoint set is installed at its drives (vacuum + water pump, the water pump at least
+    // the shaft power its duty asks); a deep-well pump at its shaft power.
+    let unit_kw = |p: &PumpClass| match set_size {
+        Some((s, _)) => s.vacuum_kw + s.water_kw.max(p.shaft_power_kw),
+        None => p.shaft_power_kw,
+    };
     let installed_w: f64 = pumps
         .iter()
-        .map(|p| p.count as f64 * p.shaft_power_kw * 1e3)
+        .map(|p| p.count as f64 * unit_kw(p) * 1e3)
         .sum::<f64>()
-        + standby_pumps as f64 * largest.map_or(0.0, |p| p.shaft_power_kw * 1e3);
+        + standby_pumps as f64 * largest.map_or(0.0, |p| unit_kw(p) * 1e3);
     let built = idx.len() as f64 + standby_placed.len() as f64;
     let energy = running_w * hours / 1e3;
-    Bid {
+    let mut b = Bid {
         wellpoints,
         working_wells: idx.len(),
         standby_placed,
@@ -406,8 +464,26 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         header_length_m: line_length,
         pump_sets: sets,
         design_flow_per_100m_m3_per_s: per100,
+        set_size: set_size.map(|s| s.0),
+        set_air,
+        set_above_table: set_size.is_some_and(|s| s.1),
+        time: Durations::default(),
         basis,
-    }
+    };
+    b.time = durations(
+        model,
+        &Works {
+            wellpoints,
+            built: b.working_wells + b.standby_placed.len(),
+            header_length_m: b.header_length_m,
+            power_installed_kw: b.power_installed_kw,
+            power_running_kw: b.power_running_kw,
+            design_flow_m3_per_s: b.design_flow_m3_per_s,
+            total_flow_m3_per_s: b.total_flow_m3_per_s,
+            digging_days: b.rolling.as_ref().map(|r| r.digging_days),
+        },
+    );
+    b
 }
 
 /// Filter column of `built` wells, m, when it is not the screen.
