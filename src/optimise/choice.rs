@@ -158,8 +158,8 @@ fn met(
             let b = vec![
                 format!("target at {} (sets the rate)", t.trial.uniform_rate_set_by),
                 format!(
-                    "largest uniform rate within the limits {:.2} L/s ({})",
-                    t.trial.uniform_limit_m3_per_s * 1e3,
+                    "largest uniform rate within the limits {} ({})",
+                    model.units.rate_words(t.trial.uniform_limit_m3_per_s),
                     t.trial.binding_limit
                 ),
             ];
