@@ -60,6 +60,9 @@ pub struct DesignFile {
     /// The pumping programme in time (stages of the dig), for `drydig programme`.
     #[serde(default)]
     pub programme: Option<Programme>,
+    /// Uncertain inputs and their sampling, for `drydig uncertainty`.
+    #[serde(default)]
+    pub uncertainty: Option<crate::input::schema_uncertainty::UncertaintySection>,
 }
 
 /// `[pumps]`

@@ -24,6 +24,8 @@ pub mod pumping_test_text;
 pub mod section_svg;
 pub mod sweep_chart;
 pub mod tables;
+pub mod uncertainty_chart;
+pub mod uncertainty_text;
 pub mod verdict;
 
 use crate::findings::check::CheckFindings;

@@ -13,3 +13,4 @@ pub mod inputs;
 pub mod page;
 pub mod results;
 pub mod safety;
+pub mod uncertainty;
