@@ -27,8 +27,8 @@ pub struct CheckSample {
     pub lowest_margin_m: Option<f64>,
     /// Every target met with the given rates.
     pub targets_met: bool,
-    /// Every well within its limits.
-    pub wells_ok: bool,
+    /// Every well within its limits (`None`: not evaluated, the fast path).
+    pub wells_ok: Option<bool>,
     /// Radius of influence used, m.
     pub radius_m: f64,
     /// Each neighbour's largest drawdown, m, and largest settlement checked, m.
@@ -91,7 +91,7 @@ pub fn evaluate_sample(model: &Model, layout: &Layout) -> CheckSample {
             .and_then(|i| e.points.get(i))
             .and_then(|p| p.margin_m),
         targets_met: e.targets_met,
-        wells_ok: e.wells_ok,
+        wells_ok: Some(e.wells_ok),
         radius_m: e.radius_of_influence_m,
         neighbours,
     }

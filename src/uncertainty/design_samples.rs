@@ -14,6 +14,7 @@ use crate::input::model::Model;
 use crate::optimise::outcome::Outcome;
 use crate::optimise::rates::RateOption;
 use crate::uncertainty::check_samples::{evaluate_sample, Layout};
+use crate::uncertainty::fast_check::FastCheck;
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -78,6 +79,7 @@ pub fn robust(
     designs: &[DesignSample],
     reliability: f64,
 ) -> Option<Robust> {
+    let spec = base.uncertainty.as_ref();
     let mut ranked: Vec<usize> = (0..designs.len())
         .filter(|&i| designs[i].met && designs[i].wells.is_some())
         .collect();
@@ -101,9 +103,13 @@ pub fn robust(
     let mut best: Option<(usize, f64)> = None;
     for &i in ranked[start..].iter().take(MAX_ROBUST_TRIES) {
         let layout = Layout::new(base, designs[i].layout.clone());
+        let fast = spec.and_then(|s| FastCheck::new(base, s, &layout));
         let met = models
             .par_iter()
-            .map(|m| evaluate_sample(m, &layout).targets_met as usize)
+            .map(|m| {
+                let s = fast.as_ref().and_then(|f| f.evaluate(m));
+                s.unwrap_or_else(|| evaluate_sample(m, &layout)).targets_met as usize
+            })
             .sum::<usize>();
         let fraction = met as f64 / models.len() as f64;
         tried.push((i, fraction));

@@ -9,6 +9,7 @@ use crate::optimise::rates::RateOption;
 use crate::uncertainty::apply::apply;
 use crate::uncertainty::check_samples::{evaluate_sample, CheckSample, Layout};
 use crate::uncertainty::design_samples::{design_sample, robust, DesignSample, Robust};
+use crate::uncertainty::fast_check::FastCheck;
 use crate::uncertainty::sampling::sample_values;
 use crate::uncertainty::stats::{percentiles, Percentiles};
 use rayon::prelude::*;
@@ -253,10 +254,16 @@ fn check_mode(
         });
     }
     let layout = Layout::new(model, placement.wells);
+    let fast = FastCheck::new(model, spec_of(model)?, &layout);
+    let one = |m: &Model| {
+        fast.as_ref()
+            .and_then(|f| f.evaluate(m))
+            .unwrap_or_else(|| evaluate_sample(m, &layout))
+    };
     let samples: Vec<CheckSample> = models
         .par_iter()
         .map(|m| {
-            let s = evaluate_sample(m, &layout);
+            let s = one(m);
             tick();
             s
         })
@@ -302,8 +309,12 @@ fn check_mode(
     out.sample_met = samples.iter().map(|s| s.targets_met).collect();
     let n = samples.len().max(1) as f64;
     out.fraction_met = samples.iter().filter(|s| s.targets_met).count() as f64 / n;
-    out.fraction_wells_ok = Some(samples.iter().filter(|s| s.wells_ok).count() as f64 / n);
-    let flow = |m: &Model| evaluate_sample(m, &layout).needed_flow_m3_per_s;
+    out.fraction_wells_ok = samples
+        .iter()
+        .map(|s| s.wells_ok)
+        .collect::<Option<Vec<bool>>>()
+        .map(|ok| ok.iter().filter(|o| **o).count() as f64 / n);
+    let flow = |m: &Model| one(m).needed_flow_m3_per_s;
     let swings = swing_models
         .par_iter()
         .map(|(lo, hi)| Swing {
