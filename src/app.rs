@@ -331,7 +331,7 @@ fn uncertainty(
     let run = crate::uncertainty::run::run(model, settings, &|| bar.inc(1));
     bar.finish_and_clear();
     let found = crate::findings::uncertainty::UncertaintyFindings::build(run?);
-    let files = report::uncertainty_text::files(model, &found)?;
+    let files = report::uncertainty_files::files(model, &found)?;
     let mut o = Outputs::written(out, files, report::files::inputs_of(model, None));
     o.text = report::uncertainty_text::to_text(model, &found);
     o.verdict = found.verdict;

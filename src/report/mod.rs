@@ -25,6 +25,7 @@ pub mod section_svg;
 pub mod sweep_chart;
 pub mod tables;
 pub mod uncertainty_chart;
+pub mod uncertainty_files;
 pub mod uncertainty_text;
 pub mod verdict;
 

@@ -15,11 +15,11 @@ const HEIGHT: f64 = 470.0;
 const LEFT: f64 = 80.0;
 const BINS: usize = 24;
 
-fn page(title: &str, subtitle: &str) -> Document {
+fn page(title: &str, subtitle: &str, height: f64) -> Document {
     Document::new()
-        .set("viewBox", (0, 0, WIDTH as i64, HEIGHT as i64))
+        .set("viewBox", (0, 0, WIDTH as i64, height as i64))
         .set("width", WIDTH as i64)
-        .set("height", HEIGHT as i64)
+        .set("height", height as i64)
         .add(
             Rectangle::new()
                 .set("width", "100%")
@@ -30,7 +30,7 @@ fn page(title: &str, subtitle: &str) -> Document {
         .add(text(LEFT, 44.0, 11.0, "start", subtitle.to_string()))
 }
 
-fn caution() -> Group {
+fn caution(height: f64) -> Group {
     let mut g = Group::new().set("id", "caution");
     for (k, l) in wrap(&format!("CAUTION: {CAUTION}"), 125, "")
         .lines()
@@ -39,7 +39,7 @@ fn caution() -> Group {
         g = g.add(
             text(
                 LEFT,
-                HEIGHT - 40.0 + 12.0 * k as f64,
+                height - 40.0 + 12.0 * k as f64,
                 9.5,
                 "start",
                 l.to_string(),
@@ -61,7 +61,10 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
     let unit = unit_words(output_number(s.measure, 0.0, units).1);
     let mut v: Vec<f64> = s.values.iter().flatten().map(|x| conv(*x)).collect();
     v.sort_by(f64::total_cmp);
-    let (lo, hi) = (conv(p.min), conv(p.max));
+    // a long tail would squash the body: the axis stops at the 99th percentile, and says so
+    let p99 = crate::uncertainty::stats::quantile_sorted(&v, 0.99);
+    let clipped = conv(p.max) > p99 + 0.25 * (p99 - conv(p.min));
+    let (lo, hi) = (conv(p.min), if clipped { p99 } else { conv(p.max) });
     let pad = ((hi - lo) * 0.05).max(hi.abs() * 1e-3).max(1e-9);
     let xt = ticks(lo - pad, hi + pad, 8);
     let (x0, x1) = (
@@ -80,7 +83,7 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
     // histogram: bars scaled so the fullest bin reaches the top
     let width = (x1 - x0) / BINS as f64;
     let mut counts = vec![0usize; BINS];
-    for x in &v {
+    for x in v.iter().filter(|x| **x <= x1) {
         let b = (((x - x0) / width).floor() as usize).min(BINS - 1);
         counts[b] += 1;
     }
@@ -100,6 +103,7 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
     let pts: String = v
         .iter()
         .enumerate()
+        .filter(|(_, x)| **x <= x1)
         .map(|(i, x)| format!("{:.1},{:.1} ", fr.px(*x), fr.py((i + 1) as f64 / n * 100.0)))
         .collect();
     let cdf = Polyline::new()
@@ -122,9 +126,18 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
             )
             .add(text(x + 3.0, fr.py(pct) - 4.0, 10.5, "start", name).set("fill", "#b00020"));
     }
+    let cut = if clipped {
+        format!(
+            "; axis cut at P99 (largest {})",
+            super::plot_kit::tick_label(conv(p.max), xt.step)
+        )
+    } else {
+        String::new()
+    };
     let doc = page(
         &format!("{} — {} samples", s.label, v.len()),
-        &format!("{site}: histogram (bars, tallest = full height) and share of samples at or below (line)"),
+        &format!("{site}: histogram (bars), share at or below (line){cut}"),
+        HEIGHT,
     )
     .add(fr.grid(&xt, &yt))
     .add(bars)
@@ -132,7 +145,7 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
     .add(marks)
     .add(fr.x_title(&format!("{} ({unit})", s.label)))
     .add(fr.y_title("samples at or below (%)", 24.0))
-    .add(caution());
+    .add(caution(HEIGHT));
     Some(doc.to_string())
 }
 
@@ -156,19 +169,17 @@ pub fn tornado_svg(
         .collect();
     let lo = vals.iter().copied().fold(f64::INFINITY, f64::min);
     let hi = vals.iter().copied().fold(f64::NEG_INFINITY, f64::max);
-    let pad = ((hi - lo) * 0.08).max(hi.abs() * 0.01).max(1e-9);
+    let pad = ((hi - lo) * 0.12).max(hi.abs() * 0.01).max(1e-9);
     let xt = ticks(lo - pad, hi + pad, 6);
-    let left = 210.0;
+    let left = 190.0;
     let rows = swings.len().max(1) as f64;
+    let height = 70.0 + rows * 36.0 + 110.0;
     let fr = Frame {
         left,
         top: 70.0,
-        width: WIDTH - left - 40.0,
-        height: (rows * 38.0).min(HEIGHT - 190.0),
-        x: (
-            xt.values.first().copied().unwrap_or(lo).min(lo),
-            xt.values.last().copied().unwrap_or(hi).max(hi),
-        ),
+        width: WIDTH - left - 50.0,
+        height: rows * 36.0,
+        x: (lo - pad, hi + pad),
         y: (0.0, rows),
     };
     let mut g = Group::new();
@@ -177,6 +188,9 @@ pub fn tornado_svg(
         let yc = fr.top + (k as f64 + 0.5) * fr.height / rows;
         for (v, colour, tag) in [(w.at_p10, "#7fa7cf", "P10"), (w.at_p90, "#d9825b", "P90")] {
             let Some(v) = v.map(conv) else { continue };
+            if (v - conv(base)).abs() <= 1e-9 * conv(base).abs().max(1e-12) {
+                continue;
+            }
             let (a, b) = (
                 fr.px(conv(base)).min(fr.px(v)),
                 fr.px(conv(base)).max(fr.px(v)),
@@ -198,18 +212,39 @@ pub fn tornado_svg(
                 tag,
             ));
         }
+        let none = [w.at_p10, w.at_p90].iter().all(|v| {
+            v.is_some_and(|v| (conv(v) - conv(base)).abs() <= 1e-9 * conv(base).abs().max(1e-12))
+        });
+        if none {
+            g = g.add(
+                text(fr.px(conv(base)) + 6.0, yc + 4.0, 9.5, "start", "no swing")
+                    .set("fill", "#555"),
+            );
+        }
         g = g.add(text(left - 10.0, yc + 4.0, 11.0, "end", w.input.clone()));
     }
     let bx = fr.px(conv(base));
     let doc = page(
         &format!("Tornado: {}", s.label),
-        &format!("{site}: each input at its P10 (blue) and P90 (orange), the others at their P50; line: every input at P50"),
+        &format!("{site}: each input at P10 (blue) and P90 (orange), the others at P50"),
+        height,
     )
-    .add(fr.grid(&xt, &ticks(0.0, 0.0, 1)))
+    .add(fr.grid(
+        &xt,
+        &super::plot_kit::Ticks {
+            values: Vec::new(),
+            step: 1.0,
+        },
+    ))
     .add(g)
-    .add(line(bx, fr.top - 6.0, bx, fr.bottom()).set("stroke", "black").set("stroke-width", 1.5))
+    .add(
+        line(bx, fr.top - 6.0, bx, fr.bottom())
+            .set("stroke", "black")
+            .set("stroke-width", 1.5),
+    )
+    .add(text(bx, fr.top - 10.0, 10.0, "middle", "all at P50"))
     .add(fr.x_title(&format!("{} ({unit})", s.label)))
-    .add(caution());
+    .add(caution(height));
     Some(doc.to_string())
 }
 

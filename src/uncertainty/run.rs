@@ -271,13 +271,13 @@ fn check_mode(
     let col = |f: &dyn Fn(&CheckSample) -> Option<f64>| samples.iter().map(f).collect::<Vec<_>>();
     out.series.push(Series::new(
         "flow_needed".into(),
-        "flow the layout needs (its rates scaled together to just meet every target)".into(),
+        "flow the layout needs".into(),
         Measure::Flow,
         col(&|s| s.needed_flow_m3_per_s),
     ));
     out.series.push(Series::new(
         "lowest_margin".into(),
-        "lowest margin below a target with the given rates".into(),
+        "lowest margin at the given rates".into(),
         Measure::Length,
         col(&|s| s.lowest_margin_m),
     ));
@@ -349,7 +349,7 @@ fn design_mode(
         .collect();
     out.series.push(Series::new(
         "design_flow".into(),
-        "total flow of the fewest-wells design".into(),
+        "flow of the fewest-wells design".into(),
         Measure::Flow,
         designs
             .iter()
