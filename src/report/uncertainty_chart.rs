@@ -82,7 +82,7 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
     };
     // histogram: bars scaled so the fullest bin reaches the top
     let width = (x1 - x0) / BINS as f64;
-    let mut counts = vec![0usize; BINS];
+    let mut counts = [0usize; BINS];
     for x in v.iter().filter(|x| **x <= x1) {
         let b = (((x - x0) / width).floor() as usize).min(BINS - 1);
         counts[b] += 1;

@@ -62,6 +62,11 @@ fn si_suffix(m: Measure) -> &'static str {
     }
 }
 
+/// Whether an output gets a second column in the user's unit (not when it is the SI one).
+fn user_column(m: Measure, units: UnitSystem) -> bool {
+    m != Measure::Count && output_number(m, 0.0, units).1 != si_suffix(m)
+}
+
 fn column(stem: &str, suffix: &str) -> String {
     if suffix.is_empty() {
         stem.to_string()
@@ -258,7 +263,7 @@ pub fn to_csv(model: &Model, run: &UncertaintyRun) -> anyhow::Result<Vec<u8>> {
     }
     for s in &run.series {
         head.push(column(&s.key, si_suffix(s.measure)));
-        if s.measure != Measure::Count {
+        if user_column(s.measure, units) {
             head.push(column(&s.key, output_number(s.measure, 0.0, units).1));
         }
     }
@@ -270,7 +275,7 @@ pub fn to_csv(model: &Model, run: &UncertaintyRun) -> anyhow::Result<Vec<u8>> {
         for s in &run.series {
             let x = s.values.get(k).copied().flatten();
             rec.push(x.map_or(String::new(), |x| format!("{x:.6e}")));
-            if s.measure != Measure::Count {
+            if user_column(s.measure, units) {
                 rec.push(x.map_or(String::new(), |x| {
                     format!("{:.4}", output_number(s.measure, x, units).0)
                 }));
