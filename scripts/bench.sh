@@ -14,6 +14,9 @@
 # once): transient — the 60 wells at constant rates, 500 × 500 map, 10 output times (1 … 10 days);
 # programme — the same basement in 3 stages (half the wells, then all, then all at 1.3×).
 #
+# Last, scripts/bench_uncertainty.sh: 1 000 samples of `drydig uncertainty` (check) on the
+# riverside basement beside the naive loop, and 200 samples of design.
+#
 # Usage: scripts/bench.sh [GRID]   (GRID nodes per side, default 500). Needs python3 with numpy.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -87,3 +90,6 @@ if not ok:
     print("the kernels DISAGREE beyond 1e-9 m", file=sys.stderr)
     sys.exit(1)
 PY
+
+# `drydig uncertainty`: 1 000 samples of check and 200 of design on the riverside basement.
+scripts/bench_uncertainty.sh

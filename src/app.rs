@@ -162,6 +162,21 @@ pub fn run(command: Command, chatter: Chatter) -> anyhow::Result<Outputs> {
             o.verdict = found.verdict;
             Ok(o)
         }
+        Command::Uncertainty {
+            file,
+            out,
+            of,
+            samples,
+            seed,
+            reliability,
+            rates,
+            units,
+        } => {
+            let mut model = model::load(&file)?;
+            model.units = units.map(Into::into).unwrap_or(model.units);
+            let settings = uncertainty_settings(of, samples, seed, reliability, rates)?;
+            uncertainty(&model, out, settings, chatter)
+        }
         Command::New { file } => {
             crate::input::starter::write_new(&file)?;
             let note = format!(
@@ -286,6 +301,56 @@ fn programme(model: &Model, out: PathBuf, wells: Option<&Path>) -> anyhow::Resul
     let mut o = Outputs::written(out, files, report::files::inputs_of(model, wells));
     o.text = report::programme_text::to_text(model, &answers);
     o.verdict = programme_verdict(&answers);
+    Ok(o)
+}
+
+/// The settings of `uncertainty` from its flags (reliability and samples checked).
+fn uncertainty_settings(
+    of: crate::cli::UncertaintyOf,
+    samples: Option<usize>,
+    seed: Option<u64>,
+    reliability: f64,
+    rates: crate::cli::RatesArg,
+) -> anyhow::Result<crate::uncertainty::run::Settings> {
+    if !(50.0..=99.9).contains(&reliability) {
+        return Err(bad_arg(
+            "--reliability",
+            format!("{reliability} is outside 50 … 99.9 (per cent of samples; 90 is usual)"),
+        ));
+    }
+    let max = crate::input::model_uncertainty::MAX_SAMPLES;
+    if let Some(n) = samples.filter(|n| !(10..=max).contains(n)) {
+        return Err(bad_arg(
+            "--samples",
+            format!("{n} is outside 10 … {max} (1 000 is usual)"),
+        ));
+    }
+    Ok(crate::uncertainty::run::Settings {
+        mode: of.into(),
+        samples,
+        seed,
+        reliability: reliability / 100.0,
+        rates: rates.into(),
+    })
+}
+
+/// `uncertainty`: the samples evaluated, their distributions, charts and report.
+fn uncertainty(
+    model: &Model,
+    out: PathBuf,
+    settings: crate::uncertainty::run::Settings,
+    chatter: Chatter,
+) -> anyhow::Result<Outputs> {
+    let spec = crate::uncertainty::run::spec_of(model)?;
+    let n = settings.samples.unwrap_or(spec.samples);
+    let bar = crate::cli::progress_counted(chatter, n, "samples");
+    let run = crate::uncertainty::run::run(model, settings, &|| bar.inc(1));
+    bar.finish_and_clear();
+    let found = crate::findings::uncertainty::UncertaintyFindings::build(run?);
+    let files = report::uncertainty_files::files(model, &found)?;
+    let mut o = Outputs::written(out, files, report::files::inputs_of(model, None));
+    o.text = report::uncertainty_text::to_text(model, &found);
+    o.verdict = found.verdict;
     Ok(o)
 }
 

@@ -144,6 +144,24 @@ impl From<UnitsArg> for UnitSystem {
     }
 }
 
+/// What each sample of `uncertainty` answers.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum UncertaintyOf {
+    /// The file's layout at its rates, as `check` evaluates it.
+    Check,
+    /// The fewest wells and their rates, as `design` finds them.
+    Design,
+}
+
+impl From<UncertaintyOf> for crate::uncertainty::run::Mode {
+    fn from(u: UncertaintyOf) -> Self {
+        match u {
+            UncertaintyOf::Check => crate::uncertainty::run::Mode::Check,
+            UncertaintyOf::Design => crate::uncertainty::run::Mode::Design,
+        }
+    }
+}
+
 /// Rate option for `design`.
 #[derive(Debug, Clone, Copy, ValueEnum)]
 pub enum RatesArg {
@@ -288,6 +306,37 @@ pub enum Command {
         /// Output folder for pumping_test.svg.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
         out: PathBuf,
+    },
+    /// Sample the design file's [uncertainty] inputs (Latin hypercube) and give P10/P50/P90 of
+    /// the answers: for the file's layout (flow it needs, lowest margin, share of samples meeting
+    /// every target, neighbours' drawdown and settlement) or for the design (fewest wells, flow,
+    /// a robust design); writes uncertainty.csv, uncertainty.json, SVG charts, report.html.
+    Uncertainty {
+        /// Design file (TOML) with an [uncertainty] section.
+        file: PathBuf,
+        /// Output folder.
+        #[arg(short = 'o', long = "out", default_value = "drydig-out")]
+        out: PathBuf,
+        /// What each sample answers: check (the file's layout at its rates) or design (the
+        /// fewest wells).
+        #[arg(long, value_enum, default_value = "check")]
+        of: UncertaintyOf,
+        /// Number of samples (default: the file's, else 1 000).
+        #[arg(long)]
+        samples: Option<usize>,
+        /// Seed of the sampling (default: the file's, else 1).
+        #[arg(long)]
+        seed: Option<u64>,
+        /// Share of samples, in per cent, in which every target must be met (the robust
+        /// design is sized for it; a check passes at it).
+        #[arg(long, default_value_t = 90.0)]
+        reliability: f64,
+        /// Rates of each sample's design: individual (least total flow) or uniform.
+        #[arg(long, value_enum, default_value = "individual")]
+        rates: RatesArg,
+        /// Units for the terminal text and the files people read (default: the design file's).
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
     },
     /// Write a commented starter design file (never overwrites).
     New {

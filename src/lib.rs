@@ -42,4 +42,5 @@ pub mod report;
 pub mod safety;
 pub mod test_analysis;
 pub mod transient;
+pub mod uncertainty;
 pub mod work_counts;

@@ -15,4 +15,5 @@ pub mod check;
 pub mod commands;
 pub mod design;
 pub mod section;
+pub mod uncertainty;
 pub mod verdict;

@@ -67,12 +67,26 @@ pub enum Verdict {
     DayNotMet,
     /// `pumping-test`: no method fitted the data.
     NoFit,
+    /// `uncertainty`: every target met in `fraction_met` of the samples (the given layout at its
+    /// rates, or the robust design), against the `reliability` asked (both 0 … 1).
+    Sampled {
+        /// Fraction of samples with every target met.
+        fraction_met: f64,
+        /// Fraction asked.
+        reliability: f64,
+    },
 }
 
 impl Verdict {
     /// Every target and limit met.
     pub fn is_met(&self) -> bool {
-        *self == Verdict::Met
+        match self {
+            Verdict::Sampled {
+                fraction_met,
+                reliability,
+            } => *fraction_met + 1e-12 >= *reliability,
+            v => *v == Verdict::Met,
+        }
     }
 
     /// The exit code: 0 met, 3 computed but not met.

@@ -94,6 +94,8 @@ pub struct Model {
     /// The drawings (DXF, GeoJSON) the design file reads geometry from: inputs of the run, listed
     /// in the manifest and never overwritten by an output.
     pub drawings: Vec<std::path::PathBuf>,
+    /// `[uncertainty]`: the inputs `drydig uncertainty` samples, when given.
+    pub uncertainty: Option<crate::input::model_uncertainty::Uncertainty>,
 }
 
 /// Output settings of `[output]` beyond units and map quantity, in SI.

@@ -66,6 +66,9 @@ pub struct DesignFile {
     /// A trench installed and dug in lengths (a rolling run of wellpoints).
     #[serde(default)]
     pub rolling: Option<Rolling>,
+    /// Uncertain inputs and their sampling, for `drydig uncertainty`.
+    #[serde(default)]
+    pub uncertainty: Option<crate::input::schema_uncertainty::UncertaintySection>,
 }
 
 /// `[rolling]`: a trench installed and dug in lengths.

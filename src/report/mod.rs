@@ -25,6 +25,9 @@ pub mod section_svg;
 pub mod sweep_chart;
 pub mod table;
 pub mod tables;
+pub mod uncertainty_chart;
+pub mod uncertainty_files;
+pub mod uncertainty_text;
 pub mod verdict;
 
 use crate::findings::check::CheckFindings;

@@ -97,5 +97,20 @@ pub fn headline(v: &Verdict, f: &Fmt) -> String {
         }
         Verdict::DayNotMet => "NOT MET on the day".into(),
         Verdict::NoFit => "NOT MET: no method fitted the data".into(),
+        Verdict::Sampled {
+            fraction_met,
+            reliability,
+        } => {
+            let met = format!(
+                "every target met in {:.1} % of the samples ({:.0} % asked)",
+                fraction_met * 100.0,
+                reliability * 100.0
+            );
+            if v.is_met() {
+                met
+            } else {
+                format!("NOT MET at the reliability asked: {met}")
+            }
+        }
     }
 }

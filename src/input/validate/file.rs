@@ -343,7 +343,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     )?;
     let (crs, crs_warnings) =
         crate::input::validate::site_grid::site_crs(rep, raw.site.crs.as_deref(), &excavations)?;
-    let model = Model {
+    let mut model = Model {
         file: path.to_path_buf(),
         name: raw.site.name.trim().to_string(),
         datum: raw
@@ -380,7 +380,10 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         import_notes: Vec::new(),
         drawing_unit: None,
         drawings: Vec::new(),
+        uncertainty: None,
     };
+    model.uncertainty =
+        crate::input::validate::uncertainty::uncertainty(rep, raw.uncertainty.as_ref(), &model)?;
     crate::input::validate::sides::check_points_and_neighbours(&model)?;
     let listed: Vec<(&str, [f64; 2], f64)> = model
         .listed_wells

@@ -31,4 +31,5 @@ pub mod shapes;
 pub mod sides;
 pub mod simple;
 pub mod site_grid;
+pub mod uncertainty;
 pub mod wells;

@@ -15,3 +15,4 @@ pub mod inputs;
 pub mod page;
 pub mod results;
 pub mod safety;
+pub mod uncertainty;

@@ -1,0 +1,182 @@
+//! `drydig uncertainty`: the sampled percentiles of a lognormal Thiem flow against scipy, the
+//! fast path against the plain evaluation, the same numbers for any thread count, and errors
+//! naming the field.
+
+use drydig::input::model::Model;
+use drydig::input::model_uncertainty::{InputKind, UncertainInput, Uncertainty};
+use drydig::input::validate::file::{from_str, load};
+use drydig::input::validate::uncertainty::parse_distribution;
+use drydig::uncertainty::apply::apply;
+use drydig::uncertainty::check_samples::{evaluate_sample, Layout};
+use drydig::uncertainty::fast_check::FastCheck;
+use drydig::uncertainty::run::{run, Mode, Settings};
+use drydig::uncertainty::sampling::sample_values;
+use drydig::uncertainty::stats::percentiles;
+use std::path::Path;
+
+const DEMO: &str = "layouts/riverside_basement_uncertainty.toml";
+
+fn demo() -> Model {
+    load(Path::new(DEMO)).expect("demo loads")
+}
+
+/// One equivalent well, K lognormal, R fixed: Q = 2πKDs/ln(R/r) (Thiem 1906; Kruseman & de
+/// Ridder 1990, eq. 3.1) is lognormal with K's factor. The Latin hypercube percentiles of 1 000
+/// samples agree with scipy.stats.lognorm's (tests/reference/uncertainty_thiem_lognormal.csv,
+/// scripts/reference_uncertainty.py) to 1 %.
+#[test]
+fn thiem_flow_percentiles_match_scipy_lognormal() {
+    let text = std::fs::read_to_string("tests/reference/uncertainty_thiem_lognormal.csv").unwrap();
+    let rows: Vec<Vec<String>> = text
+        .lines()
+        .skip(1)
+        .map(|l| l.split(',').map(String::from).collect())
+        .collect();
+    assert_eq!(rows.len(), 9);
+    for case in rows.chunks(3) {
+        let n = |i: usize| case[0][i].parse::<f64>().unwrap();
+        let (k, factor, d, s, big_r, r) = (n(1), n(2), n(3), n(4), n(5), n(6));
+        let written = format!("lognormal median {k:e} m/s, factor {factor}");
+        let dist = parse_distribution(&written, |t| {
+            drydig::input::units::parse::<drydig::input::units::ConductivityKind>(t)
+        })
+        .unwrap();
+        let spec = Uncertainty {
+            inputs: vec![UncertainInput {
+                kind: InputKind::Conductivity,
+                distribution: dist,
+                text: written,
+            }],
+            rank_correlation: None,
+            samples: 1000,
+            seed: 7,
+        };
+        let flows = sample_values(&spec, 1000, 7)
+            .into_iter()
+            .map(|v| drydig::physics::thiem::thiem_flow(v[0] * d, s, r, big_r));
+        let p = percentiles(flows).unwrap();
+        for (row, got) in case.iter().zip([p.p10, p.p50, p.p90]) {
+            let want: f64 = row[8].parse().unwrap();
+            assert!(
+                (got / want - 1.0).abs() < 0.01,
+                "{}: p = {}: sampled {got:e}, scipy {want:e}",
+                row[0],
+                row[7]
+            );
+        }
+    }
+}
+
+/// The shortcut (A_p tables, R a shift, the partial-penetration term interpolated over the
+/// sampled groundwater level) gives what the plain evaluation gives, sample by sample: margins
+/// and neighbour drawdowns to 2 mm, the flow needed to 0.2 %, R to 0.05 % (R = C·s·√K follows the produced drawdown, itself
+/// within the 2 mm; the shortcut's rule:
+/// tested against the plain sum, DEVELOPERS.md).
+#[test]
+fn fast_path_matches_plain_evaluation() {
+    let model = demo();
+    let spec = model.uncertainty.clone().unwrap();
+    let placement = drydig::field::layout::from_model(&model, None).unwrap();
+    let layout = Layout::new(&model, placement.wells);
+    let fast = FastCheck::new(&model, &spec, &layout).expect("one boundary: shortcut applies");
+    for v in sample_values(&spec, 6, 3) {
+        let m = apply(&model, &spec, &v);
+        let plain = evaluate_sample(&m, &layout);
+        let quick = fast.evaluate(&m).expect("R reaches every source");
+        let close = |a: f64, b: f64, tol: f64, what: &str| {
+            assert!(
+                (a - b).abs() <= tol,
+                "{what}: fast {a}, plain {b} (sample {v:?})"
+            )
+        };
+        close(
+            quick.lowest_margin_m.unwrap(),
+            plain.lowest_margin_m.unwrap(),
+            2e-3,
+            "margin",
+        );
+        let (qf, qp) = (
+            quick.needed_flow_m3_per_s.unwrap(),
+            plain.needed_flow_m3_per_s.unwrap(),
+        );
+        close(qf / qp, 1.0, 2e-3, "flow needed");
+        close(quick.radius_m / plain.radius_m, 1.0, 5e-4, "radius");
+        for (a, b) in quick.neighbours.iter().zip(&plain.neighbours) {
+            close(a.0, b.0, 2e-3, "neighbour drawdown");
+            close(a.1.unwrap_or(0.0), b.1.unwrap_or(0.0), 2e-4, "settlement");
+        }
+    }
+}
+
+fn csv_with_threads(threads: usize) -> Vec<u8> {
+    let model = demo();
+    let pool = rayon::ThreadPoolBuilder::new()
+        .num_threads(threads)
+        .build()
+        .unwrap();
+    pool.install(|| {
+        let settings = Settings {
+            mode: Mode::Check,
+            samples: Some(40),
+            seed: Some(11),
+            reliability: 0.9,
+            rates: drydig::optimise::rates::RateOption::Individual,
+        };
+        let r = run(&model, settings, &|| {}).unwrap();
+        drydig::report::uncertainty_text::to_csv(&model, &r).unwrap()
+    })
+}
+
+/// Same seed, one thread or two: byte-identical uncertainty.csv (each input draws from its own
+/// stream of the seed; threads only share out the evaluations).
+#[test]
+fn same_numbers_for_any_thread_count() {
+    let one = csv_with_threads(1);
+    let two = csv_with_threads(2);
+    assert!(one.len() > 1000);
+    assert_eq!(one, two);
+}
+
+/// Bad `[uncertainty]` entries are refused naming the field and what is valid.
+#[test]
+fn bad_entries_name_the_field() {
+    let base = std::fs::read_to_string(DEMO).unwrap();
+    let cut = base.find("[uncertainty]").unwrap();
+    for (extra, field, words) in [
+        (
+            "conductivity = \"normal 3e-4 m/s\"",
+            "uncertainty.conductivity",
+            "lognormal",
+        ),
+        (
+            "distance = \"uniform 100 .. 300 m\"",
+            "uncertainty.distance",
+            "fixed",
+        ),
+        (
+            "storativity = \"uniform 1e-4 .. 1e-3\"",
+            "uncertainty.storativity",
+            "specific_yield",
+        ),
+        (
+            "specific_yield = \"lognormal median 0.2, factor 2\"",
+            "uncertainty.specific_yield",
+            "range",
+        ),
+        (
+            "conductivity = \"uniform 1 .. 2 m/s\"\nrank_correlation = 0.5",
+            "uncertainty.rank_correlation",
+            "specific_yield",
+        ),
+        (
+            "conductivity = \"uniform 1e-4 .. 3e-4 m/s\"\nsamples = 3",
+            "uncertainty.samples",
+            "10",
+        ),
+    ] {
+        let text = format!("{}[uncertainty]\n{extra}\n", &base[..cut]);
+        let e = from_str(Path::new("u.toml"), &text).unwrap_err();
+        assert_eq!(e.field, field, "{extra}: {e}");
+        assert!(e.message.contains(words), "{extra}: {e}");
+    }
+}
