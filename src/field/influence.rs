@@ -16,6 +16,7 @@
 use crate::field::fast_log::ln_fast;
 use crate::field::layered::LayeredKernel;
 use crate::field::near_field::{NearField, PointTables, WellScreen};
+use crate::field::walls::{WallInput, WallModes, WallSolution};
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
 use crate::input::model::Boundary;
@@ -67,6 +68,8 @@ pub struct Field {
     layered: Option<Arc<LayeredKernel>>,
     /// The aquifer points read by default (layered ground), and whose level `aquifer` is.
     default_aquifer: usize,
+    /// Cut-off walls solved for each well of unit rate, when the model has `[[wall]]` entries.
+    walls: Option<Arc<WallSolution>>,
 }
 
 impl Field {
@@ -137,6 +140,7 @@ impl Field {
             near: None,
             layered: None,
             default_aquifer: 0,
+            walls: None,
         }
     }
 
@@ -150,6 +154,64 @@ impl Field {
         self.cutoff = kernel.reach();
         self.layered = Some(Arc::new(kernel));
         self
+    }
+
+    /// The same field with cut-off walls: their line-doublet jumps solved once for each well of
+    /// unit rate ([`WallSolution`]), with images in `boundaries` (the field's boundaries).
+    /// Apply after [`Field::with_layers`] / [`Field::with_partial_penetration`].
+    pub fn with_walls(
+        mut self,
+        walls: &[crate::input::model_walls::Wall],
+        boundaries: &[Boundary],
+    ) -> Field {
+        if walls.is_empty() {
+            return self;
+        }
+        let (cut, conductivities, modes) = match &self.layered {
+            Some(k) => (
+                walls
+                    .iter()
+                    .map(|w| k.ground().cut_by_wall(w.toe_level))
+                    .collect(),
+                k.ground()
+                    .aquifers
+                    .iter()
+                    .map(|a| a.aquifer.conductivity)
+                    .collect(),
+                k.wall_modes(),
+            ),
+            None => (
+                vec![vec![0]; walls.len()],
+                vec![self.aquifer.conductivity],
+                WallModes::single(self.aquifer.leakage_factor()),
+            ),
+        };
+        let o = self.origin;
+        let lines = boundaries
+            .iter()
+            .map(|b| (self.local(b.line[0]), self.local(b.line[1]), b.kind))
+            .collect();
+        let input = WallInput {
+            walls,
+            cut,
+            conductivities,
+            modes,
+            lines,
+            origin: o,
+        };
+        let n = self.well_count;
+        let solution = WallSolution::new(input, n, |x, at| {
+            let mut row = vec![0.0; n];
+            self.for_each_source([x[0] + o[0], x[1] + o[1]], at, |w, v| row[w] += v);
+            row
+        });
+        self.walls = Some(Arc::new(solution));
+        self
+    }
+
+    /// The solved walls, when there are any.
+    pub fn walls(&self) -> Option<&WallSolution> {
+        self.walls.as_deref()
     }
 
     /// The multi-aquifer kernel, in layered ground.
@@ -277,24 +339,20 @@ impl Field {
     /// for every source in range of `point`.
     fn for_each_source(&self, point: [f64; 2], at: usize, mut f: impl FnMut(usize, f64)) {
         let p = self.local(point);
-        if let Some(k) = &self.layered {
-            for item in self
-                .tree
-                .locate_within_distance(p, self.cutoff * self.cutoff)
-            {
-                let s = &self.sources[item.data];
-                let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
-                f(s.well, s.sign * k.unit_potential(s.well, at, r, s.radius));
-            }
-            return;
-        }
         for item in self
             .tree
             .locate_within_distance(p, self.cutoff * self.cutoff)
         {
             let s = &self.sources[item.data];
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
-            f(s.well, s.sign * self.unit_potential(r, s.radius));
+            let v = match &self.layered {
+                Some(k) => k.unit_potential(s.well, at, r, s.radius),
+                None => self.unit_potential(r, s.radius),
+            };
+            f(s.well, s.sign * v);
+        }
+        if let Some(w) = &self.walls {
+            w.for_each(p, at, f);
         }
     }
 
@@ -348,6 +406,9 @@ impl Field {
         if let Some(n) = &self.near {
             n.for_each(p, |w, v| row[w] += v);
         }
+        if let Some(walls) = &self.walls {
+            walls.for_each(p, self.default_aquifer, |w, v| row[w] += v);
+        }
         row
     }
 
@@ -383,7 +444,8 @@ impl Field {
         rates: &[f64],
         tables: Option<&PointTables>,
     ) -> Vec<Level> {
-        if self.aquifer.leakage_factor().is_some() || self.layered.is_some() {
+        if self.aquifer.leakage_factor().is_some() || self.layered.is_some() || self.walls.is_some()
+        {
             let (at, aquifer) = self.reading(tables);
             return points
                 .par_iter()

@@ -9,6 +9,7 @@ pub mod error;
 pub mod import;
 pub mod model;
 pub mod model_layers;
+pub mod model_walls;
 pub mod prices;
 pub mod read;
 pub mod schema;

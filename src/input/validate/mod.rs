@@ -28,4 +28,5 @@ pub mod shapes;
 pub mod sides;
 pub mod simple;
 pub mod site_grid;
+pub mod walls;
 pub mod wells;
