@@ -7,6 +7,7 @@ use crate::estimate::{estimate, Estimate};
 use crate::field::grid::LevelGrid;
 use crate::findings::section::section_of;
 use crate::findings::verdict::{of_evaluation, Verdict};
+use crate::findings::walls::{walls_of, WallFindings};
 use crate::optimise::bid::{bid_of, Bid};
 use crate::optimise::recharge::RechargeSizing;
 use crate::safety::neighbours::{assess_run, NeighbourResult};
@@ -35,6 +36,8 @@ pub struct CheckFindings<'a> {
     pub bid: Bid,
     /// Met, or what is short (targets, wells, neighbours).
     pub verdict: Verdict,
+    /// The cut-off walls: quantities and the size of their solve (`None` without walls).
+    pub walls: Option<WallFindings>,
 }
 
 impl<'a> CheckFindings<'a> {
@@ -48,6 +51,7 @@ impl<'a> CheckFindings<'a> {
         let estimate = estimate(run.model);
         let bid = bid_of(run.model, &run);
         let verdict = of_evaluation(&run.evaluation, &neighbours);
+        let walls = walls_of(&run);
         CheckFindings {
             run,
             recharge,
@@ -59,6 +63,7 @@ impl<'a> CheckFindings<'a> {
             estimate,
             bid,
             verdict,
+            walls,
         }
     }
 

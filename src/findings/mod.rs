@@ -9,10 +9,12 @@
 //!
 //! `verdict` holds the verdict and its exit code; `section` the choice of the section line;
 //! `check` the findings of one evaluated layout (`check`, and the layout `design` chose);
-//! `design` the findings of `design`; `commands` the findings of the other commands.
+//! `design` the findings of `design`; `commands` the findings of the other commands; `walls` the cut-off walls' quantities and
+//! the size of their solve.
 
 pub mod check;
 pub mod commands;
 pub mod design;
 pub mod section;
 pub mod verdict;
+pub mod walls;

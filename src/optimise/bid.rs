@@ -84,6 +84,9 @@ pub struct Bid {
     pub design_flow_per_100m_m3_per_s: Option<f64>,
     /// How each figure was found.
     pub basis: Vec<String>,
+    /// Cut-off walls: quantities only, no prices (filled by [`bid_of`]).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub walls: Vec<crate::check::wall_quantities::WallQuantity>,
 }
 
 /// Length of the shortest network joining `points` (a minimum spanning tree, Prim's algorithm
@@ -396,6 +399,7 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         header_length_m: line_length,
         pump_sets: sets,
         design_flow_per_100m_m3_per_s: per100,
+        walls: Vec::new(),
         basis,
     }
 }
@@ -403,7 +407,9 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
 /// The bid quantities of the layout in `run`, with the levels it computed in the wells.
 pub fn bid_of(model: &Model, run: &CheckRun) -> Bid {
     let levels: Vec<Option<f64>> = run.evaluation.wells.iter().map(|w| w.level_m).collect();
-    bid(model, &run.placement.wells, &run.placement.paths, &levels)
+    let mut b = bid(model, &run.placement.wells, &run.placement.paths, &levels);
+    b.walls = crate::check::wall_quantities::wall_quantities(model);
+    b
 }
 
 #[cfg(test)]

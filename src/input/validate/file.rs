@@ -321,6 +321,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
     let neighbours = neighbours(rep, &raw)?;
 
     let checks = check_settings(rep, raw.checks.as_ref())?;
+    crate::input::validate::walls::check_positions(rep, &walls, &listed_wells, &checks.points)?;
     let uplift = crate::input::validate::neighbours::uplift(rep, &raw, &excavations)?;
     let output = raw.output.as_ref();
     let map_quantity = map_quantity(rep, output)?;

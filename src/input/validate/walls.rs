@@ -191,3 +191,39 @@ pub fn check_sealed(
     }
     Ok(())
 }
+
+/// Distance from point p to the wall's line, m.
+fn distance_to(w: &Wall, p: [f64; 2]) -> f64 {
+    w.pieces()
+        .iter()
+        .map(|(a, b)| {
+            let d = [b[0] - a[0], b[1] - a[1]];
+            let l2 = d[0] * d[0] + d[1] * d[1];
+            let t = (((p[0] - a[0]) * d[0] + (p[1] - a[1]) * d[1]) / l2).clamp(0.0, 1.0);
+            (p[0] - a[0] - t * d[0]).hypot(p[1] - a[1] - t * d[1])
+        })
+        .fold(f64::INFINITY, f64::min)
+}
+
+/// A listed well standing in a wall (within its radius + 5 cm) or a named check point on a
+/// wall's line (within 5 cm: the head jumps there, so it has no one value) is refused. Points
+/// and wells behind a wall are allowed.
+pub fn check_positions(
+    rep: &Reporter,
+    walls: &[Wall],
+    listed: &[ListedWell],
+    points: &[(String, [f64; 2], Option<f64>)],
+) -> Result<(), InputError> {
+    for (i, w) in walls.iter().enumerate() {
+        if let Some(l) = listed
+            .iter()
+            .find(|l| distance_to(w, l.position) < l.radius + 0.05)
+        {
+            return Err(rep.error(format!("wall[{}].line", i + 1), None, format!("well \"{}\" stands in wall \"{}\"; move the well (or the wall) so that at least 5 cm of ground lie between the screen and the wall", l.name, w.name)));
+        }
+        if let Some((name, _, _)) = points.iter().find(|(_, p, _)| distance_to(w, *p) < 0.05) {
+            return Err(rep.error(format!("wall[{}].line", i + 1), None, format!("check point \"{name}\" lies on wall \"{}\", where the head jumps from one side to the other; move it to the side it is meant to watch (5 cm is enough)", w.name)));
+        }
+    }
+    Ok(())
+}
