@@ -202,7 +202,7 @@ impl Field {
         let n = self.well_count;
         let solution = WallSolution::new(input, n, |x, at| {
             let mut row = vec![0.0; n];
-            self.for_each_source([x[0] + o[0], x[1] + o[1]], at, |w, v| row[w] += v);
+            self.for_each_well([x[0] + o[0], x[1] + o[1]], at, |w, v| row[w] += v);
             row
         });
         self.walls = Some(Arc::new(solution));
@@ -233,7 +233,8 @@ impl Field {
         (0..k.aquifer_count())
             .map(|at| {
                 let mut d = 0.0;
-                self.for_each_source(point, at, |w, v| d += rates[w] * v);
+                self.for_each_well(point, at, |w, v| d += rates[w] * v);
+                d += self.walls_delta(point, at, rates);
                 let a = k.aquifer(at);
                 a.level(a.initial_potential() + d)
             })
@@ -338,6 +339,14 @@ impl Field {
     /// Add `f(well, ΔΦ per unit rate)` in aquifer `at` (layered ground; ignored otherwise)
     /// for every source in range of `point`.
     fn for_each_source(&self, point: [f64; 2], at: usize, mut f: impl FnMut(usize, f64)) {
+        self.for_each_well(point, at, &mut f);
+        if let Some(w) = &self.walls {
+            w.for_each(self.local(point), at, f);
+        }
+    }
+
+    /// As [`Field::for_each_source`], the wells and their images only (no walls).
+    fn for_each_well(&self, point: [f64; 2], at: usize, mut f: impl FnMut(usize, f64)) {
         let p = self.local(point);
         for item in self
             .tree
@@ -350,9 +359,6 @@ impl Field {
                 None => self.unit_potential(r, s.radius),
             };
             f(s.well, s.sign * v);
-        }
-        if let Some(w) = &self.walls {
-            w.for_each(p, at, f);
         }
     }
 
@@ -415,8 +421,24 @@ impl Field {
     /// ΔΦ at `point` for the given rates (m³/s), summed over wells in range.
     pub fn delta_potential(&self, point: [f64; 2], rates: &[f64]) -> f64 {
         let mut sum = 0.0;
+        if self.walls.is_some() {
+            crate::work_counts::add(&crate::work_counts::KERNEL_SUMS, 1);
+            self.for_each_well(point, self.default_aquifer, |w, v| sum += rates[w] * v);
+            if let Some(n) = &self.near {
+                n.for_each(self.local(point), |w, v| sum += rates[w] * v);
+            }
+            return sum + self.walls_delta(point, self.default_aquifer, rates);
+        }
         self.for_each_in_range(point, |w, v| sum += rates[w] * v);
         sum
+    }
+
+    /// The walls' ΔΦ in aquifer `at` at `point` for `rates` (0 without walls).
+    fn walls_delta(&self, point: [f64; 2], at: usize, rates: &[f64]) -> f64 {
+        match &self.walls {
+            Some(w) => w.delta(self.local(point), at, &w.jumps_cached(rates)),
+            None => 0.0,
+        }
     }
 
     /// Water level at `point` for the given rates.
@@ -447,11 +469,15 @@ impl Field {
         if self.aquifer.leakage_factor().is_some() || self.layered.is_some() || self.walls.is_some()
         {
             let (at, aquifer) = self.reading(tables);
+            let jumps = self.walls.as_ref().map(|w| w.jumps_cached(rates));
             return points
                 .par_iter()
                 .map(|p| {
                     let mut d = 0.0;
-                    self.for_each_source(*p, at, |w, v| d += rates[w] * v);
+                    self.for_each_well(*p, at, |w, v| d += rates[w] * v);
+                    if let (Some(w), Some(j)) = (&self.walls, &jumps) {
+                        d += w.delta(self.local(*p), at, j);
+                    }
                     if let Some(n) = &self.near {
                         n.for_each_at(self.local(*p), tables, |w, v| d += rates[w] * v);
                     }

@@ -22,10 +22,11 @@
 //! mirrored element of opposite jump, a barrier the same jump (first-order images, one per
 //! boundary; wells with two or more boundaries keep their higher-order images).
 
+use crate::field::wall_far::{far_value, BlockGeometry, Moments, BLOCK};
 use crate::geometry::mirror_point;
 use crate::input::model_walls::Wall;
 use crate::physics::images::{image_sign, BoundaryKind};
-use crate::physics::line_doublet::{doublet, Segment};
+use crate::physics::line_doublet::{doublet, doublet_value, Segment};
 use nalgebra::DMatrix;
 
 /// All walls together are cut into about this many elements of equal length (constant jump,
@@ -71,10 +72,30 @@ struct Element {
     seg: Segment,
     /// Aquifers cut and 1/(K_j·c) in each, 1/m.
     cut: Vec<(usize, f64)>,
+    /// Index of its wall.
+    wall: usize,
+}
+
+/// Consecutive elements of one wall, with the geometry of each of their strings (the wall and
+/// each image) for the far field of the Laplace mode ([`crate::field::wall_far`]).
+#[derive(Debug, Clone)]
+struct Block {
+    /// First element and one past the last.
+    range: (usize, usize),
+    /// One per piece of the elements (the wall, then each image).
+    strings: Vec<BlockGeometry>,
+}
+
+/// The jumps of every element in every mode for one set of well rates, and the far-field
+/// moments of every block's strings in the Laplace mode.
+#[derive(Debug)]
+pub struct Jumps {
+    per_element: Vec<Vec<f64>>,
+    moments: Vec<Vec<Moments>>,
 }
 
 /// The walls of one field, solved for each well of unit rate.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub struct WallSolution {
     modes: WallModes,
     elements: Vec<Element>,
@@ -83,6 +104,26 @@ pub struct WallSolution {
     coef: Vec<Vec<Vec<f64>>>,
     unknowns: usize,
     aquifers: usize,
+    blocks: Vec<Block>,
+    /// The Laplace (zero) mode, when the ground has one.
+    laplace: Option<usize>,
+    /// The jumps of the last rates asked (levels at many points one by one reuse them).
+    last_jumps: std::sync::Mutex<Option<(Vec<f64>, std::sync::Arc<Jumps>)>>,
+}
+
+impl Clone for WallSolution {
+    fn clone(&self) -> Self {
+        WallSolution {
+            modes: self.modes.clone(),
+            elements: self.elements.clone(),
+            coef: self.coef.clone(),
+            unknowns: self.unknowns,
+            aquifers: self.aquifers,
+            blocks: self.blocks.clone(),
+            laplace: self.laplace,
+            last_jumps: std::sync::Mutex::new(None),
+        }
+    }
 }
 
 /// The inputs of a solve: the walls in the field's local coordinates.
@@ -188,12 +229,16 @@ impl WallSolution {
                     .collect()
             })
             .collect();
+        let blocks = blocks(&elements);
         WallSolution {
             aquifers: modes.sqrt_t.len(),
+            laplace: modes.lambdas.iter().position(Option::is_none),
+            blocks,
             modes,
             elements,
             coef,
             unknowns: n,
+            last_jumps: std::sync::Mutex::new(None),
         }
     }
 
@@ -211,25 +256,112 @@ impl WallSolution {
         for (el, coef) in self.elements.iter().zip(&self.coef) {
             for (k, lambda) in self.modes.lambdas.iter().enumerate() {
                 let weight = self.modes.sqrt_t[at] * self.modes.vectors[(at, k)];
-                if weight == 0.0 {
-                    continue;
-                }
-                let d: f64 = el
-                    .pieces
-                    .iter()
-                    .map(|(s, fac)| fac * doublet(s, *lambda, x).0)
-                    .sum();
+                let d = weight * self.element_value(el, *lambda, x);
                 if d == 0.0 {
                     continue;
                 }
                 for (sw, c) in sum.iter_mut().zip(&coef[k]) {
-                    *sw += weight * d * c;
+                    *sw += d * c;
                 }
             }
         }
         for (w, v) in sum.into_iter().enumerate() {
             f(w, v);
         }
+    }
+
+    /// The jump of each mode on each element for the well rates `rates` (m³/s), and the
+    /// blocks' far-field moments, for [`WallSolution::delta`]: one sum over the wells, then
+    /// none per point.
+    pub fn jumps(&self, rates: &[f64]) -> Jumps {
+        let per_element: Vec<Vec<f64>> = self
+            .coef
+            .iter()
+            .map(|modes| {
+                modes
+                    .iter()
+                    .map(|c| c.iter().zip(rates).map(|(c, q)| c * q).sum())
+                    .collect()
+            })
+            .collect();
+        let moments = match self.laplace {
+            Some(k) => self
+                .blocks
+                .iter()
+                .map(|b| {
+                    let mu: Vec<f64> = (b.range.0..b.range.1).map(|e| per_element[e][k]).collect();
+                    b.strings.iter().map(|g| g.moments(&mu)).collect()
+                })
+                .collect(),
+            None => Vec::new(),
+        };
+        Jumps {
+            per_element,
+            moments,
+        }
+    }
+
+    /// [`WallSolution::jumps`] of `rates`, kept for the next call with the same rates.
+    pub fn jumps_cached(&self, rates: &[f64]) -> std::sync::Arc<Jumps> {
+        if let Ok(guard) = self.last_jumps.lock() {
+            if let Some((r, j)) = guard.as_ref() {
+                if r.as_slice() == rates {
+                    return j.clone();
+                }
+            }
+        }
+        let j = std::sync::Arc::new(self.jumps(rates));
+        if let Ok(mut guard) = self.last_jumps.lock() {
+            *guard = Some((rates.to_vec(), j.clone()));
+        }
+        j
+    }
+
+    /// The walls' ΔΦ in aquifer `at` at local point x for the jumps of
+    /// [`WallSolution::jumps`]; blocks far from x in the Laplace mode by their moments.
+    pub fn delta(&self, x: [f64; 2], at: usize, jumps: &Jumps) -> f64 {
+        let mut sum = 0.0;
+        for (bi, b) in self.blocks.iter().enumerate() {
+            let (s, t) = b.range;
+            for (k, lambda) in self.modes.lambdas.iter().enumerate() {
+                let weight = self.modes.sqrt_t[at] * self.modes.vectors[(at, k)];
+                if weight == 0.0 {
+                    continue;
+                }
+                if Some(k) == self.laplace {
+                    for (p, g) in b.strings.iter().enumerate() {
+                        match g.far_powers(x) {
+                            Some(pw) => sum += weight * far_value(&jumps.moments[bi][p], &pw),
+                            None => {
+                                for e in s..t {
+                                    let (seg, fac) = &self.elements[e].pieces[p];
+                                    sum += weight
+                                        * jumps.per_element[e][k]
+                                        * fac
+                                        * doublet_value(seg, None, x);
+                                }
+                            }
+                        }
+                    }
+                } else {
+                    for e in s..t {
+                        let j = jumps.per_element[e][k];
+                        if j != 0.0 {
+                            sum += weight * j * self.element_value(&self.elements[e], *lambda, x);
+                        }
+                    }
+                }
+            }
+        }
+        sum
+    }
+
+    /// The doublet of unit jump of element `el` in one mode at x, images included.
+    fn element_value(&self, el: &Element, lambda: Option<f64>, x: [f64; 2]) -> f64 {
+        el.pieces
+            .iter()
+            .map(|(s, fac)| fac * doublet_value(s, lambda, x))
+            .sum()
     }
 }
 
@@ -239,7 +371,7 @@ fn elements(input: &WallInput) -> Vec<Element> {
     let target = (total / ELEMENTS_PER_WALL_LENGTH).max(MIN_ELEMENT);
     let o = input.origin;
     let mut out = Vec::new();
-    for (w, cut) in input.walls.iter().zip(&input.cut) {
+    for (wi, (w, cut)) in input.walls.iter().zip(&input.cut).enumerate() {
         let cut: Vec<(usize, f64)> = cut
             .iter()
             .map(|&j| {
@@ -276,9 +408,35 @@ fn elements(input: &WallInput) -> Vec<Element> {
                     pieces,
                     seg,
                     cut: cut.clone(),
+                    wall: wi,
                 });
             }
         }
+    }
+    out
+}
+
+/// The elements in blocks of at most [`BLOCK`] consecutive ones of the same wall.
+fn blocks(elements: &[Element]) -> Vec<Block> {
+    let mut out = Vec::new();
+    let mut s = 0;
+    while s < elements.len() {
+        let mut t = s + 1;
+        while t < elements.len() && t - s < BLOCK && elements[t].wall == elements[s].wall {
+            t += 1;
+        }
+        let strings = (0..elements[s].pieces.len())
+            .map(|p| {
+                let mut v: Vec<[f64; 2]> = (s..t).map(|e| elements[e].pieces[p].0.a).collect();
+                v.push(elements[t - 1].pieces[p].0.b);
+                BlockGeometry::new(&v, elements[s].pieces[p].1)
+            })
+            .collect();
+        out.push(Block {
+            range: (s, t),
+            strings,
+        });
+        s = t;
     }
     out
 }

@@ -111,6 +111,21 @@ pub fn doublet(seg: &Segment, lambda: Option<f64>, x: [f64; 2]) -> (f64, [f64; 2
     (v, g)
 }
 
+/// The doublet's value only (no gradient): what every level and unit row reads.
+pub fn doublet_value(seg: &Segment, lambda: Option<f64>, x: [f64; 2]) -> f64 {
+    match lambda {
+        None => laplace_value(seg, x),
+        Some(_) => doublet(seg, lambda, x).0,
+    }
+}
+
+/// The Laplace line doublet's value, arg((b − x)/(a − x))/(2π).
+fn laplace_value(seg: &Segment, x: [f64; 2]) -> f64 {
+    let za = [seg.a[0] - x[0], seg.a[1] - x[1]];
+    let zb = [seg.b[0] - x[0], seg.b[1] - x[1]];
+    (za[0] * zb[1] - za[1] * zb[0]).atan2(za[0] * zb[0] + za[1] * zb[1]) / (2.0 * PI)
+}
+
 /// The Laplace line doublet of unit jump: the angle subtended over 2π, and its gradient
 /// ∇D₀ = (⊥(x − b)/|x − b|² − ⊥(x − a)/|x − a|²)/(2π), ⊥(v) = (−v_y, v_x).
 fn laplace(seg: &Segment, x: [f64; 2]) -> (f64, [f64; 2]) {
