@@ -159,42 +159,12 @@ impl WallSolution {
             .collect();
         let n = index.len();
         let nk = modes.lambdas.len();
-        let mut a = DMatrix::<f64>::zeros(n, n);
         let mut b = DMatrix::<f64>::zeros(n, wells);
-        let mut grads = vec![[0.0; 2]; nk];
-        let mut col_start = Vec::with_capacity(elements.len());
-        let mut c = 0;
-        for el in &elements {
-            col_start.push(c);
-            c += el.cut.len();
-        }
         let mut row = 0;
         for el in &elements {
             let x = el.seg.midpoint();
             let nrm = el.seg.normal();
-            for (e2, other) in elements.iter().enumerate() {
-                for (k, g) in grads.iter_mut().enumerate() {
-                    *g = other.pieces.iter().fold([0.0, 0.0], |acc, (s, f)| {
-                        let (_, d) = doublet(s, modes.lambdas[k], x);
-                        [acc[0] + f * d[0], acc[1] + f * d[1]]
-                    });
-                }
-                for (r, &(j, _)) in el.cut.iter().enumerate() {
-                    for (c2, &(j2, _)) in other.cut.iter().enumerate() {
-                        let ratio = modes.sqrt_t[j] / modes.sqrt_t[j2];
-                        let v: f64 = (0..nk)
-                            .map(|k| {
-                                modes.vectors[(j, k)]
-                                    * modes.vectors[(j2, k)]
-                                    * (nrm[0] * grads[k][0] + nrm[1] * grads[k][1])
-                            })
-                            .sum();
-                        a[(row + r, col_start[e2] + c2)] = ratio * v;
-                    }
-                }
-            }
-            for (r, &(j, g)) in el.cut.iter().enumerate() {
-                a[(row + r, row + r)] -= g;
+            for (r, &(j, _)) in el.cut.iter().enumerate() {
                 let plus = wells_row([x[0] + DIFF_STEP * nrm[0], x[1] + DIFF_STEP * nrm[1]], j);
                 let minus = wells_row([x[0] - DIFF_STEP * nrm[0], x[1] - DIFF_STEP * nrm[1]], j);
                 for w in 0..wells {
@@ -203,11 +173,27 @@ impl WallSolution {
             }
             row += el.cut.len();
         }
-        let mu = a
-            .clone()
-            .lu()
-            .solve(&b)
-            .unwrap_or_else(|| a.svd(true, true).solve(&b, 1e-12).unwrap_or(b * 0.0));
+        // the matrix depends on the walls and the ground only, not on the wells: factorised
+        // once and kept for every layout tried on the same model
+        let key = system_key(&elements, &modes);
+        let cached = LAST_SYSTEM.lock().ok().and_then(|g| {
+            g.as_ref()
+                .filter(|(k, _)| *k == key)
+                .map(|(_, f)| f.clone())
+        });
+        let factors = cached.unwrap_or_else(|| {
+            let f = std::sync::Arc::new(system_matrix(&elements, &modes, n).lu());
+            if let Ok(mut g) = LAST_SYSTEM.lock() {
+                *g = Some((key, f.clone()));
+            }
+            f
+        });
+        let mu = factors.solve(&b).unwrap_or_else(|| {
+            system_matrix(&elements, &modes, n)
+                .svd(true, true)
+                .solve(&b, 1e-12)
+                .unwrap_or(b * 0.0)
+        });
         crate::work_counts::add(&crate::work_counts::WALL_SOLVES, 1);
         let coef = (0..elements.len())
             .map(|e| {
@@ -363,6 +349,77 @@ impl WallSolution {
             .map(|(s, fac)| fac * doublet_value(s, lambda, x))
             .sum()
     }
+}
+
+/// The LU factors of the last wall system, with the bits of its elements and modes.
+type Factors = std::sync::Arc<nalgebra::LU<f64, nalgebra::Dyn, nalgebra::Dyn>>;
+static LAST_SYSTEM: std::sync::Mutex<Option<(Vec<u64>, Factors)>> = std::sync::Mutex::new(None);
+
+/// The bits of every number the system matrix is made of.
+fn system_key(elements: &[Element], modes: &WallModes) -> Vec<u64> {
+    let mut k = Vec::new();
+    for el in elements {
+        for (s, f) in &el.pieces {
+            k.extend([s.a[0], s.a[1], s.b[0], s.b[1], *f].map(f64::to_bits));
+        }
+        for (j, g) in &el.cut {
+            k.extend([*j as u64, g.to_bits()]);
+        }
+    }
+    k.extend(modes.sqrt_t.iter().map(|v| v.to_bits()));
+    k.extend(modes.vectors.iter().map(|v| v.to_bits()));
+    k.extend(
+        modes
+            .lambdas
+            .iter()
+            .map(|l| l.map_or(u64::MAX, f64::to_bits)),
+    );
+    k
+}
+
+/// The system matrix: the normal derivative at each collocation point, in each aquifer its
+/// element cuts, of every unknown jump, less 1/(K_j·c) on the diagonal of a leaky wall.
+fn system_matrix(elements: &[Element], modes: &WallModes, n: usize) -> DMatrix<f64> {
+    let nk = modes.lambdas.len();
+    let mut a = DMatrix::<f64>::zeros(n, n);
+    let mut grads = vec![[0.0; 2]; nk];
+    let mut col_start = Vec::with_capacity(elements.len());
+    let mut c = 0;
+    for el in elements {
+        col_start.push(c);
+        c += el.cut.len();
+    }
+    let mut row = 0;
+    for el in elements {
+        let x = el.seg.midpoint();
+        let nrm = el.seg.normal();
+        for (e2, other) in elements.iter().enumerate() {
+            for (k, g) in grads.iter_mut().enumerate() {
+                *g = other.pieces.iter().fold([0.0, 0.0], |acc, (s, f)| {
+                    let (_, d) = doublet(s, modes.lambdas[k], x);
+                    [acc[0] + f * d[0], acc[1] + f * d[1]]
+                });
+            }
+            for (r, &(j, _)) in el.cut.iter().enumerate() {
+                for (c2, &(j2, _)) in other.cut.iter().enumerate() {
+                    let ratio = modes.sqrt_t[j] / modes.sqrt_t[j2];
+                    let v: f64 = (0..nk)
+                        .map(|k| {
+                            modes.vectors[(j, k)]
+                                * modes.vectors[(j2, k)]
+                                * (nrm[0] * grads[k][0] + nrm[1] * grads[k][1])
+                        })
+                        .sum();
+                    a[(row + r, col_start[e2] + c2)] = ratio * v;
+                }
+            }
+        }
+        for (r, &(_, g)) in el.cut.iter().enumerate() {
+            a[(row + r, row + r)] -= g;
+        }
+        row += el.cut.len();
+    }
+    a
 }
 
 /// The elements of every wall, in local coordinates, with their images.
