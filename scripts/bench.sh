@@ -16,10 +16,43 @@
 #
 # Last, scripts/bench_uncertainty.sh: 1 000 samples of `drydig uncertainty` (check) on the
 # riverside basement beside the naive loop, and 200 samples of design.
+# Cut-off walls: `scripts/bench.sh walls` times only `check` and `design -v` (best of 3) on the
+# riverside basement without and with its sheet-pile wall (layouts/riverside_basement.toml,
+# layouts/walled_basement.toml), beside the targets (check < 1 s, design < 5 s on 2 cores) and
+# the size of the wall system solved (collocation points × aquifers).
 #
 # Usage: scripts/bench.sh [GRID]   (GRID nodes per side, default 500). Needs python3 with numpy.
 set -euo pipefail
 cd "$(dirname "$0")/.."
+if [ "${1:-}" = "walls" ]; then
+    cargo build --release --bin drydig >&2
+    work="$(mktemp -d)"
+    trap 'rm -rf "$work"' EXIT
+    python3 - "$work" <<'PY'
+import json, subprocess, sys, time
+work = sys.argv[1]
+def best(args, runs=3):
+    out = None
+    for _ in range(runs):
+        t = time.perf_counter()
+        p = subprocess.run(args, capture_output=True, text=True)
+        t = time.perf_counter() - t
+        if out is None or t < out[0]:
+            out = (t, p)
+    return out
+print(f"{'design file':<26} {'check s':>8} {'design s':>9}  {'wall system':<28} result")
+for demo in ["riverside_basement", "walled_basement"]:
+    path = f"layouts/{demo}.toml"
+    tc, _ = best(["./target/release/drydig", "check", path, "-o", f"{work}/c-{demo}"])
+    td, p = best(["./target/release/drydig", "design", path, "-v", "-o", f"{work}/d-{demo}"])
+    walls = json.load(open(f"{work}/c-{demo}/summary.json")).get("walls")
+    size = f"{walls['collocation_points']} points x {walls['aquifers']} aquifer(s)" if walls else "none"
+    result = next((l for l in p.stdout.splitlines() if l.startswith("RESULT")), "no result line")
+    print(f"{demo:<26} {tc:>8.3f} {td:>9.3f}  {size:<28} {result[:60]}")
+print("targets with walls: check < 1 s, design < 5 s (2 cores)")
+PY
+    exit 0
+fi
 grid="${1:-500}"
 cargo build --release --bin drydig --example bench_kernel >&2
 work="$(mktemp -d)"

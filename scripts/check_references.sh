@@ -70,6 +70,8 @@ done
 
 # layered ground (scripts/reference_layers.py, timml)
 tmp_ly="$(mktemp "${TMPDIR:-/tmp}/drydig-layers.XXXXXX.csv")"; python3 "$root/scripts/reference_layers.py" "$tmp_ly"; if diff -u "$root/tests/reference/layers_timml.csv" "$tmp_ly"; then echo "reference table up to date: $root/tests/reference/layers_timml.csv"; else echo "layers_timml.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_ly"
+# cut-off walls (scripts/reference_walls.py, timml line doublets)
+tmp_wl="$(mktemp "${TMPDIR:-/tmp}/drydig-walls.XXXXXX.csv")"; python3 "$root/scripts/reference_walls.py" "$tmp_wl"; if diff -u "$root/tests/reference/walls_timml.csv" "$tmp_wl"; then echo "reference table up to date: $root/tests/reference/walls_timml.csv"; else echo "walls_timml.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_wl"
 
 # Terzaghi U(T_v) (scripts/reference_consolidation.py, mpmath)
 tmp_u="$(mktemp "${TMPDIR:-/tmp}/drydig-consolidation.XXXXXX.csv")"; python3 "$root/scripts/reference_consolidation.py" "$tmp_u"; if diff -u "$root/tests/reference/consolidation_u.csv" "$tmp_u"; then echo "reference table up to date: $root/tests/reference/consolidation_u.csv"; else echo "consolidation_u.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_u"

@@ -18,6 +18,8 @@ pub static KERNEL_SUMS: AtomicUsize = AtomicUsize::new(0);
 pub static UNIT_MATRIX_BUILDS: AtomicUsize = AtomicUsize::new(0);
 /// Uses of a unit matrix already built (rate options, one-well-out rows and report).
 pub static UNIT_MATRIX_REUSES: AtomicUsize = AtomicUsize::new(0);
+/// Wall systems (line-doublet jumps, one right-hand side per unit well) factorised and solved.
+pub static WALL_SOLVES: AtomicUsize = AtomicUsize::new(0);
 
 /// Layouts the count search still has to try once it has bracketed the count between a
 /// failure `lo` and a success `hi`: ⌈log₂(hi − lo)⌉ bisection steps, the one being tried
@@ -47,14 +49,19 @@ pub fn add(counter: &AtomicUsize, n: usize) {
 /// The counts in one line.
 pub fn summary() -> String {
     let g = |c: &AtomicUsize| c.load(Ordering::Relaxed);
+    let walls = match g(&WALL_SOLVES) {
+        0 => String::new(),
+        n => format!(", wall systems solved {n} times"),
+    };
     format!(
-        "work: {} LP solves, {} layouts tried, {} full evaluations, {} kernel sums, unit matrix built {} times and reused {} times",
+        "work: {} LP solves, {} layouts tried, {} full evaluations, {} kernel sums, unit matrix built {} times and reused {} times{}",
         g(&LP_SOLVES),
         g(&TRIALS),
         g(&EVALUATIONS),
         g(&KERNEL_SUMS),
         g(&UNIT_MATRIX_BUILDS),
-        g(&UNIT_MATRIX_REUSES)
+        g(&UNIT_MATRIX_REUSES),
+        walls
     )
 }
 

@@ -112,6 +112,8 @@ const CASES: &[Case] = &[
     case("check_point_across_boundary.toml", Slot("checks.point[1]"), "move it to the aquifer side", None),
     case("neighbour_across_boundary.toml", Slot("neighbour[1].footprint"), "10.00 m beyond boundary", None),
     case("boundary_one_point.toml", Slot("boundary[1].line"), "two distinct points", Some("line = [[-50, -100]]")),
+    case("wall_one_point.toml", Slot("wall[1].line"), "at least 2 points", Some("line = [[-10, 40]]")),
+    case("wall_sealing_the_dig.toml", Slot("wall[1]"), "toe_level above the base", None),
     case("duplicate_neighbour_names.toml", Slot("neighbour[2].name"), "needs its own name", Some("[[40, 0]")),
     case("negative_distortion.toml", Slot("neighbour[1].allowable_distortion"), "\"1/500\"", Some("allowable_distortion = ")),
     case("neighbour_layer_two_compressibilities.toml", Slot("neighbour[1].layer[1]"), "give exactly one of", None),

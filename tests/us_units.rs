@@ -409,10 +409,13 @@ fn pumping_test_in_us_units_carries_no_si() {
 
 #[test]
 fn design_by_day_in_us_units_carries_no_si() {
-    // Layered ground is refused by the time methods (tests/layers.rs), so not run here.
+    // Layered ground and walls are refused by the time methods (tests/layers.rs,
+    // tests/walls.rs), so not run here.
     let found = for_every_demo(&["design"], Read::All, |d| {
-        (layout_kind(d).as_deref() == Some("ring") && !has_section(d, "[[layer]]"))
-            .then(|| vec!["--by-day".into(), "30".into()])
+        (layout_kind(d).as_deref() == Some("ring")
+            && !has_section(d, "[[layer]]")
+            && !has_section(d, "[[wall]]"))
+        .then(|| vec!["--by-day".into(), "30".into()])
     });
     assert!(found.is_empty(), "{}", report(&found));
 }

@@ -105,6 +105,9 @@ pub struct Bid {
     pub time: Durations,
     /// How each figure was found.
     pub basis: Vec<String>,
+    /// Cut-off walls: quantities only, no prices (filled by [`bid_of`]).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub walls: Vec<crate::check::wall_quantities::WallQuantity>,
 }
 
 /// Length of the shortest network joining `points` (a minimum spanning tree, Prim's algorithm
@@ -468,6 +471,7 @@ pub fn bid(model: &Model, wells: &[Well], paths: &[Vec<[f64; 2]>], levels: &[Opt
         set_air,
         set_above_table: set_size.is_some_and(|s| s.1),
         time: Durations::default(),
+        walls: Vec::new(),
         basis,
     };
     b.time = durations(
@@ -497,7 +501,9 @@ fn filter_m(model: &Model, built: f64) -> Option<f64> {
 /// The bid quantities of the layout in `run`, with the levels it computed in the wells.
 pub fn bid_of(model: &Model, run: &CheckRun) -> Bid {
     let levels: Vec<Option<f64>> = run.evaluation.wells.iter().map(|w| w.level_m).collect();
-    bid(model, &run.placement.wells, &run.placement.paths, &levels)
+    let mut b = bid(model, &run.placement.wells, &run.placement.paths, &levels);
+    b.walls = crate::check::wall_quantities::wall_quantities(model);
+    b
 }
 
 #[cfg(test)]

@@ -20,7 +20,31 @@ pub fn lines(bid: &Bid, estimate_flow: f64, units: UnitSystem) -> Vec<BidLine> {
     power_lines(&mut out, bid, u);
     crate::bid::time_lines::time_lines(&mut out, bid, u);
     flow_lines(&mut out, bid, u, estimate_flow);
+    wall_lines(&mut out, bid, u);
     out
+}
+
+/// Cut-off walls: length and area of each, shown and not priced (drydig prices no wall).
+fn wall_lines(out: &mut Vec<BidLine>, bid: &Bid, u: BidUnits) {
+    let lu = u.len_unit();
+    let l1 = u.len(1.0);
+    for w in &bid.walls {
+        out.push(line(
+            format!("cut-off wall \"{}\": length", w.name),
+            u.len(w.length_m),
+            lu,
+            "along the wall as drawn",
+        ));
+        out.push(line(
+            format!("cut-off wall \"{}\": area", w.name),
+            w.area_m2 * l1 * l1,
+            &format!("{lu}²"),
+            format!(
+                "length × depth from ground level to the toe ({:.1} {lu})",
+                u.len(w.depth_m)
+            ),
+        ));
+    }
 }
 
 /// Wells (working, standby, recharge), drilling or jetting, and screen.

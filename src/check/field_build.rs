@@ -22,6 +22,7 @@ pub fn site_origin(model: &Model) -> [f64; 2] {
 /// Build the field for `wells` in `model` with radius of influence `r` (m).
 /// In layered ground the multi-aquifer kernel ([`LayeredKernel`]) replaces the single-aquifer
 /// one and its partial-penetration term; without `[[layer]]` the field is exactly as before.
+/// Cut-off walls (`[[wall]]`) are solved last, for each well of unit rate.
 pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
     let field = Field::new(
         &model.aquifer,
@@ -36,10 +37,14 @@ pub fn field_with_radius(model: &Model, wells: &[Well], r: f64) -> Field {
             .map(|w| (w.filter_top, w.filter_base, w.radius))
             .collect();
         if let Some(kernel) = LayeredKernel::new(ground, &screens, r) {
-            return field.with_layers(kernel, evaluation_level(model));
+            return field
+                .with_layers(kernel, evaluation_level(model))
+                .with_walls(&model.walls, &model.boundaries);
         }
     }
-    field.with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+    field
+        .with_partial_penetration(wells, model.as_built.anisotropy, evaluation_level(model))
+        .with_walls(&model.walls, &model.boundaries)
 }
 
 /// The level the map, sections and points without a target are evaluated at for partial

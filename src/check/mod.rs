@@ -11,3 +11,4 @@ pub mod evaluate;
 pub mod field_build;
 pub mod run;
 pub mod section;
+pub mod wall_quantities;

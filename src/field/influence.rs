@@ -16,6 +16,7 @@
 use crate::field::fast_log::ln_fast;
 use crate::field::layered::LayeredKernel;
 use crate::field::near_field::{NearField, PointTables, WellScreen};
+use crate::field::walls::{WallInput, WallModes, WallSolution};
 use crate::field::wells::Well;
 use crate::geometry::mirror_point;
 use crate::input::model::Boundary;
@@ -67,6 +68,8 @@ pub struct Field {
     layered: Option<Arc<LayeredKernel>>,
     /// The aquifer points read by default (layered ground), and whose level `aquifer` is.
     default_aquifer: usize,
+    /// Cut-off walls solved for each well of unit rate, when the model has `[[wall]]` entries.
+    walls: Option<Arc<WallSolution>>,
 }
 
 impl Field {
@@ -137,6 +140,7 @@ impl Field {
             near: None,
             layered: None,
             default_aquifer: 0,
+            walls: None,
         }
     }
 
@@ -150,6 +154,64 @@ impl Field {
         self.cutoff = kernel.reach();
         self.layered = Some(Arc::new(kernel));
         self
+    }
+
+    /// The same field with cut-off walls: their line-doublet jumps solved once for each well of
+    /// unit rate ([`WallSolution`]), with images in `boundaries` (the field's boundaries).
+    /// Apply after [`Field::with_layers`] / [`Field::with_partial_penetration`].
+    pub fn with_walls(
+        mut self,
+        walls: &[crate::input::model_walls::Wall],
+        boundaries: &[Boundary],
+    ) -> Field {
+        if walls.is_empty() {
+            return self;
+        }
+        let (cut, conductivities, modes) = match &self.layered {
+            Some(k) => (
+                walls
+                    .iter()
+                    .map(|w| k.ground().cut_by_wall(w.toe_level))
+                    .collect(),
+                k.ground()
+                    .aquifers
+                    .iter()
+                    .map(|a| a.aquifer.conductivity)
+                    .collect(),
+                k.wall_modes(),
+            ),
+            None => (
+                vec![vec![0]; walls.len()],
+                vec![self.aquifer.conductivity],
+                WallModes::single(self.aquifer.leakage_factor()),
+            ),
+        };
+        let o = self.origin;
+        let lines = boundaries
+            .iter()
+            .map(|b| (self.local(b.line[0]), self.local(b.line[1]), b.kind))
+            .collect();
+        let input = WallInput {
+            walls,
+            cut,
+            conductivities,
+            modes,
+            lines,
+            origin: o,
+        };
+        let n = self.well_count;
+        let solution = WallSolution::new(input, n, |x, at| {
+            let mut row = vec![0.0; n];
+            self.for_each_well([x[0] + o[0], x[1] + o[1]], at, |w, v| row[w] += v);
+            row
+        });
+        self.walls = Some(Arc::new(solution));
+        self
+    }
+
+    /// The solved walls, when there are any.
+    pub fn walls(&self) -> Option<&WallSolution> {
+        self.walls.as_deref()
     }
 
     /// The multi-aquifer kernel, in layered ground.
@@ -171,7 +233,8 @@ impl Field {
         (0..k.aquifer_count())
             .map(|at| {
                 let mut d = 0.0;
-                self.for_each_source(point, at, |w, v| d += rates[w] * v);
+                self.for_each_well(point, at, |w, v| d += rates[w] * v);
+                d += self.walls_delta(point, at, rates);
                 let a = k.aquifer(at);
                 a.level(a.initial_potential() + d)
             })
@@ -277,25 +340,26 @@ impl Field {
     /// Add `f(well, ΔΦ per unit rate)` in aquifer `at` (layered ground; ignored otherwise)
     /// for every source in range of `point`.
     fn for_each_source(&self, point: [f64; 2], at: usize, mut f: impl FnMut(usize, f64)) {
-        let p = self.local(point);
-        if let Some(k) = &self.layered {
-            for item in self
-                .tree
-                .locate_within_distance(p, self.cutoff * self.cutoff)
-            {
-                let s = &self.sources[item.data];
-                let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
-                f(s.well, s.sign * k.unit_potential(s.well, at, r, s.radius));
-            }
-            return;
+        self.for_each_well(point, at, &mut f);
+        if let Some(w) = &self.walls {
+            w.for_each(self.local(point), at, f);
         }
+    }
+
+    /// As [`Field::for_each_source`], the wells and their images only (no walls).
+    fn for_each_well(&self, point: [f64; 2], at: usize, mut f: impl FnMut(usize, f64)) {
+        let p = self.local(point);
         for item in self
             .tree
             .locate_within_distance(p, self.cutoff * self.cutoff)
         {
             let s = &self.sources[item.data];
             let r = (s.position[0] - p[0]).hypot(s.position[1] - p[1]);
-            f(s.well, s.sign * self.unit_potential(r, s.radius));
+            let v = match &self.layered {
+                Some(k) => k.unit_potential(s.well, at, r, s.radius),
+                None => self.unit_potential(r, s.radius),
+            };
+            f(s.well, s.sign * v);
         }
     }
 
@@ -349,14 +413,33 @@ impl Field {
         if let Some(n) = &self.near {
             n.for_each(p, |w, v| row[w] += v);
         }
+        if let Some(walls) = &self.walls {
+            walls.for_each(p, self.default_aquifer, |w, v| row[w] += v);
+        }
         row
     }
 
     /// ΔΦ at `point` for the given rates (m³/s), summed over wells in range.
     pub fn delta_potential(&self, point: [f64; 2], rates: &[f64]) -> f64 {
         let mut sum = 0.0;
+        if self.walls.is_some() {
+            crate::work_counts::add(&crate::work_counts::KERNEL_SUMS, 1);
+            self.for_each_well(point, self.default_aquifer, |w, v| sum += rates[w] * v);
+            if let Some(n) = &self.near {
+                n.for_each(self.local(point), |w, v| sum += rates[w] * v);
+            }
+            return sum + self.walls_delta(point, self.default_aquifer, rates);
+        }
         self.for_each_in_range(point, |w, v| sum += rates[w] * v);
         sum
+    }
+
+    /// The walls' ΔΦ in aquifer `at` at `point` for `rates` (0 without walls).
+    fn walls_delta(&self, point: [f64; 2], at: usize, rates: &[f64]) -> f64 {
+        match &self.walls {
+            Some(w) => w.delta(self.local(point), at, &w.jumps_cached(rates)),
+            None => 0.0,
+        }
     }
 
     /// Water level at `point` for the given rates.
@@ -384,13 +467,18 @@ impl Field {
         rates: &[f64],
         tables: Option<&PointTables>,
     ) -> Vec<Level> {
-        if self.aquifer.leakage_factor().is_some() || self.layered.is_some() {
+        if self.aquifer.leakage_factor().is_some() || self.layered.is_some() || self.walls.is_some()
+        {
             let (at, aquifer) = self.reading(tables);
+            let jumps = self.walls.as_ref().map(|w| w.jumps_cached(rates));
             return points
                 .par_iter()
                 .map(|p| {
                     let mut d = 0.0;
-                    self.for_each_source(*p, at, |w, v| d += rates[w] * v);
+                    self.for_each_well(*p, at, |w, v| d += rates[w] * v);
+                    if let (Some(w), Some(j)) = (&self.walls, &jumps) {
+                        d += w.delta(self.local(*p), at, j);
+                    }
                     if let Some(n) = &self.near {
                         n.for_each_at(self.local(*p), tables, |w, v| d += rates[w] * v);
                     }

@@ -118,6 +118,25 @@ impl LayeredKernel {
         self.ground.aquifer_at(z)
     }
 
+    /// The ground the kernel was built for.
+    pub fn ground(&self) -> &LayeredGround {
+        &self.ground
+    }
+
+    /// The modes for the walls' line doublets: √T, U and each mode's leakage factor.
+    pub fn wall_modes(&self) -> crate::field::walls::WallModes {
+        crate::field::walls::WallModes {
+            sqrt_t: self
+                .ground
+                .transmissivities()
+                .iter()
+                .map(|t| t.sqrt())
+                .collect(),
+            vectors: self.system.vectors().clone(),
+            lambdas: self.system.mode_leakage_factors().to_vec(),
+        }
+    }
+
     /// The leakage factors of the modes, m (largest first).
     pub fn leakage_factors(&self) -> Vec<f64> {
         self.system.leakage_factors()

@@ -16,5 +16,7 @@ pub mod layout;
 pub mod near_field;
 pub mod radius;
 pub mod shape;
+pub mod wall_far;
+pub mod walls;
 pub mod wells;
 pub mod wells_csv;

@@ -10,6 +10,7 @@ use crate::estimate::{estimate, Estimate};
 use crate::field::grid::LevelGrid;
 use crate::findings::section::section_of;
 use crate::findings::verdict::{of_evaluation, Verdict};
+use crate::findings::walls::{walls_of, WallFindings};
 use crate::optimise::recharge::RechargeSizing;
 use crate::safety::neighbours::{assess_run, NeighbourResult};
 use crate::safety::settlement_map::{settlement_map, SettlementMap};
@@ -39,6 +40,8 @@ pub struct CheckFindings<'a> {
     pub sheet: Vec<BidLine>,
     /// Met, or what is short (targets, wells, neighbours).
     pub verdict: Verdict,
+    /// The cut-off walls: quantities and the size of their solve (`None` without walls).
+    pub walls: Option<WallFindings>,
 }
 
 impl<'a> CheckFindings<'a> {
@@ -57,6 +60,7 @@ impl<'a> CheckFindings<'a> {
             run.model.units,
         );
         let verdict = of_evaluation(&run.evaluation, &neighbours);
+        let walls = walls_of(&run);
         CheckFindings {
             run,
             recharge,
@@ -69,6 +73,7 @@ impl<'a> CheckFindings<'a> {
             bid,
             sheet,
             verdict,
+            walls,
         }
     }
 

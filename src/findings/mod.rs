@@ -9,7 +9,8 @@
 //!
 //! `verdict` holds the verdict and its exit code; `section` the choice of the section line;
 //! `check` the findings of one evaluated layout (`check`, and the layout `design` chose);
-//! `design` the findings of `design`; `commands` the findings of the other commands.
+//! `design` the findings of `design`; `commands` the findings of the other commands; `walls` the cut-off walls' quantities and
+//! the size of their solve.
 
 pub mod check;
 pub mod commands;
@@ -17,3 +18,4 @@ pub mod design;
 pub mod section;
 pub mod uncertainty;
 pub mod verdict;
+pub mod walls;

@@ -11,6 +11,7 @@ pub mod model;
 pub mod model_bid;
 pub mod model_layers;
 pub mod model_uncertainty;
+pub mod model_walls;
 pub mod prices;
 pub mod read;
 pub mod schema;

@@ -56,6 +56,9 @@ pub struct Model {
     pub listed_wells: Vec<ListedWell>,
     /// Straight boundaries.
     pub boundaries: Vec<Boundary>,
+    /// Cut-off walls (`[[wall]]`); with a toe inside an aquifer, `layers` holds that aquifer
+    /// split at the toe.
+    pub walls: Vec<crate::input::model_walls::Wall>,
     /// Keep-out polygons.
     pub keep_outs: Vec<NamedPolygon>,
     /// Neighbouring buildings.

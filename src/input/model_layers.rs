@@ -13,6 +13,8 @@ pub struct GroundAquifer {
     pub aquifer: Aquifer,
     /// Level of its top, m (for the top one: its confining top, or the water table).
     pub top: f64,
+    /// Vertical hydraulic conductivity K_v, m/s (to split the aquifer at a wall's toe).
+    pub vertical_conductivity: f64,
 }
 
 /// An aquitard between two aquifers.
@@ -63,6 +65,15 @@ impl LayeredGround {
             .iter()
             .position(|a| z > a.aquifer.base_level)
             .unwrap_or(self.aquifers.len() - 1)
+    }
+
+    /// The aquifers a wall with its toe at `toe` (m; `None`: to the base) cuts: those whose
+    /// base is at or above the toe (the ground is split at every toe inside an aquifer, so a
+    /// toe never falls inside one).
+    pub fn cut_by_wall(&self, toe: Option<f64>) -> Vec<usize> {
+        (0..self.aquifers.len())
+            .filter(|&i| toe.is_none_or(|z| self.aquifers[i].aquifer.base_level >= z - 1e-3))
+            .collect()
     }
 
     /// The aquifers a screen from `base` to `top` (m) crosses (more than 1 mm inside); the

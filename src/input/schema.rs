@@ -39,6 +39,9 @@ pub struct DesignFile {
     /// Straight boundaries (rivers, cut-off walls), by the method of images.
     #[serde(default)]
     pub boundary: Vec<Boundary>,
+    /// Cut-off walls of any shape (line doublets solved with the wells).
+    #[serde(default)]
+    pub wall: Vec<Wall>,
     /// Areas where no well may be placed.
     #[serde(default)]
     pub keep_out: Vec<KeepOut>,
@@ -478,6 +481,25 @@ pub struct Boundary {
     pub kind: String,
     /// Two points on the straight line `[[x1, y1], [x2, y2]]`.
     pub line: toml::Spanned<Vec<Vec<f64>>>,
+}
+
+/// `[[wall]]`: a cut-off wall (sheet piles, secant piles, slurry wall) along a polyline.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Wall {
+    /// Name for reports.
+    pub name: String,
+    /// Vertices `[[x, y], …]` in the site grid, m.
+    pub line: toml::Spanned<Vec<Vec<f64>>>,
+    /// Whether the last vertex joins the first (a wall round the dig).
+    #[serde(default)]
+    pub closed: bool,
+    /// Level of the toe; without it the wall cuts every aquifer.
+    #[serde(default)]
+    pub toe_level: Option<Length>,
+    /// Resistance of a leaky wall c = wall thickness / K of the wall, a time.
+    #[serde(default)]
+    pub resistance: Option<Duration>,
 }
 
 /// `[[keep_out]]`

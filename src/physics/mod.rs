@@ -7,6 +7,7 @@ pub mod equivalent;
 pub mod hantush;
 pub mod image_flow;
 pub mod images;
+pub mod line_doublet;
 pub mod multi_aquifer;
 pub mod partial_penetration;
 pub mod pipes;

@@ -93,6 +93,17 @@ impl LeakageSystem {
         v
     }
 
+    /// The eigenvectors U (column k is mode k).
+    pub fn vectors(&self) -> &DMatrix<f64> {
+        &self.vectors
+    }
+
+    /// The leakage factor of each mode in the order of [`LeakageSystem::vectors`], m (`None`:
+    /// the zero mode).
+    pub fn mode_leakage_factors(&self) -> &[Option<f64>] {
+        &self.leakage_factors
+    }
+
     /// Whether the system has a zero mode (no leakage to a fixed head anywhere): then the
     /// radius of influence closes the far field.
     pub fn has_zero_mode(&self) -> bool {

@@ -13,6 +13,18 @@ fn flow(q: f64, units: UnitSystem) -> String {
     }
 }
 
+/// The walls' quantities and solve size in the chosen units (nothing without walls).
+pub fn wall_lines(found: &CheckFindings, units: UnitSystem) -> Vec<String> {
+    let lu = units.length_unit();
+    let l1 = units.length(1.0);
+    found.walls.as_ref().map_or_else(Vec::new, |w| {
+        w.lines(
+            |x| format!("{:.1} {lu}", units.length(x)),
+            |a| format!("{} {lu}²", thousands(a * l1 * l1, 0)),
+        )
+    })
+}
+
 /// The terminal text of `check`: the wells table ([`well_table`], `rows` long), flows, check
 /// points, neighbours and the verdict.
 pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
@@ -37,6 +49,9 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
         ),
     };
     out.push_str(&wrap(&format!("radius of influence: {basis}"), 96, ""));
+    for line in wall_lines(found, units) {
+        out.push_str(&wrap(&line, 96, ""));
+    }
     out.push_str(&wrap(
         &crate::report::as_built_text::as_built_lines(run, units),
         96,

@@ -301,6 +301,11 @@ pub fn to_text(
             "",
         ));
     }
+    if let Some(c) = &found.chosen {
+        for line in crate::report::check_text::wall_lines(c, units) {
+            out.push_str(&wrap(&line, 96, ""));
+        }
+    }
     if !design.trials.is_empty() {
         out.push_str(
             "\nlayouts tried (rate = smallest uniform rate meeting every target; LP = least total with individual rates;\nmargin = lowest margin below target with every well at the largest uniform rate its limits allow):\n",

@@ -260,7 +260,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
     let e = &run.evaluation;
     let worst = e.worst_point.map(|i| &e.points[i]);
     let si = Fmt::new(UnitSystem::Si, run.model.ground_level);
-    json!({
+    let mut summary = json!({
         "drydig_version": env!("CARGO_PKG_VERSION"),
         "inputs": model_record(run.model),
         "radius_of_influence_m": e.radius_of_influence_m,
@@ -287,7 +287,25 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "uplift": found.uplift,
         "recharge_sizing": found.recharge,
         "caution": super::CAUTION,
-    })
+    });
+    // cut-off walls (only when there are any): quantities without prices and the solve size
+    if let Some(w) = &found.walls {
+        summary["walls"] = json!({
+            "walls": w.walls.iter().map(|q| json!({
+                "name": q.name,
+                "length_m": q.length_m,
+                "toe_level_m": q.toe_level_m,
+                "depth_below_ground_m": q.depth_m,
+                "area_m2": q.area_m2,
+                "resistance_s": q.resistance_s,
+                "cuts": q.cuts,
+            })).collect::<Vec<_>>(),
+            "collocation_points": w.collocation_points,
+            "aquifers": w.aquifers,
+            "unknowns": w.unknowns,
+        });
+    }
+    summary
 }
 
 #[cfg(test)]

@@ -354,6 +354,12 @@ pub fn design_by_day(model: &Model, day: f64) -> Result<DatedDesign, InputError>
             format!("{day}: the day must be more than 0 and at most 7300 (20 years)"),
         ));
     }
+    if !model.walls.is_empty() {
+        return Err(err(
+            "wall",
+            "a design by day works in time, which does not take cut-off walls yet ([[wall]] entries): `check` and `design` (steady) do; for a design by day, leave the walls out in a copy of the file".into(),
+        ));
+    }
     if model.layers.is_some() {
         // Theis superposition in one aquifer: layered ground would be answered silently as if
         // it were the design aquifer alone.

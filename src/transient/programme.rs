@@ -186,6 +186,13 @@ pub fn setup_from(model: &Model, wells_csv: Option<&Path>) -> Result<ProgrammeSe
             "the design file has no [programme]: add duration and [[programme.stage]] entries (see `drydig new FILE`)".into(),
         )
     })?;
+    if !model.walls.is_empty() {
+        return Err(err(
+            model,
+            "wall",
+            "the programme in time does not take cut-off walls yet ([[wall]] entries): `check` and `design` (steady) do; for the programme, leave the walls out in a copy of the file (its drawdowns are then those without the walls)".into(),
+        ));
+    }
     if model.layers.is_some() {
         return Err(err(
             model,

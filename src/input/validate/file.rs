@@ -263,6 +263,11 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
 
     let aquifer = crate::input::validate::aquifer::aquifer(rep, &raw, ground)?;
     let layers = crate::input::validate::layers::layers(rep, &raw, &aquifer)?;
+    let walls = crate::input::validate::walls::walls(rep, &raw, &aquifer)?;
+    let top_kv = aquifer.conductivity * raw.aquifer.anisotropy.unwrap_or(1.0);
+    let layers =
+        crate::input::validate::walls::split_at_toes(rep, layers, &aquifer, top_kv, &walls)?;
+    let top_aquifer = aquifer.clone();
     // with layers, excavations and screens may reach down to the lowest aquifer's base
     let base = layers
         .as_ref()
@@ -319,9 +324,18 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         ));
     }
     let (boundaries, keep_outs) = shapes::boundaries_and_keep_outs(rep, &raw, &excavations)?;
+    crate::input::validate::walls::check_sealed(
+        rep,
+        &walls,
+        layers.as_ref(),
+        &top_aquifer,
+        &excavations,
+        &listed_wells,
+    )?;
     let neighbours = neighbours(rep, &raw)?;
 
     let checks = check_settings(rep, raw.checks.as_ref())?;
+    crate::input::validate::walls::check_positions(rep, &walls, &listed_wells, &checks.points)?;
     let uplift = crate::input::validate::neighbours::uplift(rep, &raw, &excavations)?;
     let output = raw.output.as_ref();
     let map_quantity = map_quantity(rep, output)?;
@@ -363,6 +377,7 @@ fn validate(path: &Path, rep: &Reporter, raw: DesignFile) -> Result<Model, Input
         layout,
         listed_wells,
         boundaries,
+        walls,
         keep_outs,
         neighbours,
         checks,

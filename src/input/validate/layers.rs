@@ -35,6 +35,7 @@ pub fn layers(
             name: "aquifer".into(),
             aquifer: top.clone(),
             top: top_level,
+            vertical_conductivity: top_kv,
         }],
         resistances: Vec::new(),
         aquitards: Vec::new(),
@@ -83,6 +84,7 @@ pub fn layers(
                     name: l.name.trim().into(),
                     aquifer,
                     top: layer_top,
+                    vertical_conductivity: kv,
                 });
                 pending = 0.0;
                 through_aquitard = false;

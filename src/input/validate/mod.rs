@@ -32,4 +32,5 @@ pub mod sides;
 pub mod simple;
 pub mod site_grid;
 pub mod uncertainty;
+pub mod walls;
 pub mod wells;

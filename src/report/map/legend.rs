@@ -220,6 +220,26 @@ fn site_entries(run: &CheckRun, grid: &LevelGrid, opts: &MapOptions, failed: usi
             "barrier (no flow)".into(),
         ));
     }
+    if model.walls.iter().any(|w| w.resistance.is_none()) {
+        out.push((
+            line(
+                crate::report::map::walls::WALL,
+                crate::report::map::walls::WALL_WIDTH,
+                None,
+            ),
+            "cut-off wall".into(),
+        ));
+    }
+    if model.walls.iter().any(|w| w.resistance.is_some()) {
+        out.push((
+            line(
+                crate::report::map::walls::WALL,
+                crate::report::map::walls::WALL_WIDTH,
+                Some("10 3"),
+            ),
+            "leaky cut-off wall".into(),
+        ));
+    }
     if !model.keep_outs.is_empty() {
         out.push((
             swatch("#fbe9e4", KEEP_OUT, Some("url(#hatch-keep-out)")),

@@ -38,4 +38,5 @@ pub mod symbols;
 pub mod text;
 pub mod title;
 pub mod view;
+pub mod walls;
 pub mod wells;
