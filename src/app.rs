@@ -234,21 +234,15 @@ fn design(
     let progress = crate::cli::progress_layouts(chatter, model.units);
     let searched = crate::optimise::search::design(model, rates);
     progress.finish();
-    let found = DesignFindings::build(model, searched?);
+    let found = DesignFindings::build(model, searched?, price_list.as_deref())?;
     let mut inputs = report::files::inputs_of(model, None);
     inputs.extend(prices);
-    let files = report::design_text::files(model, &found, price_list.as_deref())?;
+    let files = report::design_text::files(model, &found)?;
     let mut o = Outputs::written(out, files, inputs);
     if chatter == Chatter::Verbose {
         o.messages.push(crate::work_counts::summary());
     }
-    o.text = report::design_text::to_text(
-        model,
-        &found,
-        model.units,
-        price_list.as_deref(),
-        table_rows(chatter),
-    );
+    o.text = report::design_text::to_text(model, &found, model.units, table_rows(chatter));
     o.verdict = found.verdict;
     Ok(o)
 }

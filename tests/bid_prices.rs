@@ -109,7 +109,7 @@ fn a_us_prices_file_prices_the_us_bid_over_its_duration() {
     assert!((sub(Category::Running) - 8_924.81).abs() < 0.01);
     assert!((sub(Category::Capital) - 10_662.73).abs() < 0.01);
     assert!((sub(Category::OneOff) - 9_973.75).abs() < 0.01);
-    let csv = String::from_utf8(bid_csv(&l, Some(&prices)).unwrap()).unwrap();
+    let csv = String::from_utf8(bid_csv(&l, Some(&c)).unwrap()).unwrap();
     assert!(csv.contains("38021.30"), "{csv}");
     assert!(csv.contains("subtotal hire per week"), "{csv}");
     assert!(!csv.contains(",m,") && !csv.contains("m³"), "{csv}");
@@ -270,7 +270,6 @@ fn duplicated_and_overflowing_prices_are_refused() {
     let huge = [Price::new("drilling", 1e308, Some("ft"))];
     let e = costs(&l, &huge).unwrap_err();
     assert!(e.message.contains("not a finite number"), "{e}");
-    assert!(bid_csv(&l, Some(&huge)).is_err());
 }
 
 fn drydig() -> Command {

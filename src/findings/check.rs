@@ -2,6 +2,7 @@
 //! layout it chose. Built once; every output reads the same values.
 
 use crate::bid::line::BidLine;
+use crate::bid::pricing::Costs;
 use crate::bid::quantities::{bid_of, Bid};
 use crate::bid::sheet::lines;
 use crate::check::run::CheckRun;
@@ -38,6 +39,8 @@ pub struct CheckFindings<'a> {
     pub bid: Bid,
     /// The bid sheet: its lines in the user's units, each with its category.
     pub sheet: Vec<BidLine>,
+    /// The sheet priced with the user's unit prices (`design --prices`), once for every output.
+    pub costs: Option<Costs>,
     /// Met, or what is short (targets, wells, neighbours).
     pub verdict: Verdict,
     /// The cut-off walls: quantities and the size of their solve (`None` without walls).
@@ -72,6 +75,7 @@ impl<'a> CheckFindings<'a> {
             estimate,
             bid,
             sheet,
+            costs: None,
             verdict,
             walls,
         }

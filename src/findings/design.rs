@@ -3,7 +3,9 @@
 
 use crate::findings::check::CheckFindings;
 use crate::findings::verdict::{of_design, Verdict};
+use crate::input::error::InputError;
 use crate::input::model::Model;
+use crate::input::prices::Price;
 use crate::optimise::outcome::{final_run, Design};
 
 /// Everything the outputs of `design` show.
@@ -17,8 +19,13 @@ pub struct DesignFindings<'a> {
 }
 
 impl<'a> DesignFindings<'a> {
-    /// The findings of `design` on `model`.
-    pub fn build(model: &'a Model, design: Design) -> Self {
+    /// The findings of `design` on `model`, the chosen layout's bid priced with `prices` when
+    /// given (`Err`: a price that does not fit its line, naming the price file's line).
+    pub fn build(
+        model: &'a Model,
+        design: Design,
+        prices: Option<&[Price]>,
+    ) -> Result<Self, InputError> {
         let mut chosen = final_run(model, &design).map(|run| CheckFindings::build(run, None));
         let verdict = of_design(
             &design,
@@ -35,11 +42,14 @@ impl<'a> DesignFindings<'a> {
                 design.estimate.total_flow_l_per_s / 1e3,
                 model.units,
             );
+            c.costs = prices
+                .map(|p| crate::bid::pricing::costs(&c.sheet, p))
+                .transpose()?;
         }
-        DesignFindings {
+        Ok(DesignFindings {
             design,
             chosen,
             verdict,
-        }
+        })
     }
 }

@@ -8,9 +8,8 @@
 //! the unit) beside the lines in the user's units.
 
 use crate::bid::line::BidLine;
-use crate::bid::pricing::{costs, Costs};
+use crate::bid::pricing::Costs;
 use crate::bid::quantities::Bid;
-use crate::input::prices::Price;
 use serde_json::{json, Value};
 
 /// A quantity as the sheet shows it: counts whole, other quantities to `decimals`.
@@ -29,9 +28,8 @@ fn weeks_text(weeks: Option<f64>) -> String {
 
 /// `bid.csv`: item, category, quantity, unit, weeks, basis (and unit price, what it is per,
 /// cost when prices are given, then each category's subtotal and the total).
-pub fn bid_csv(lines: &[BidLine], prices: Option<&[Price]>) -> anyhow::Result<Vec<u8>> {
+pub fn bid_csv(lines: &[BidLine], priced: Option<&Costs>) -> anyhow::Result<Vec<u8>> {
     let mut w = csv::Writer::from_writer(Vec::new());
-    let priced = prices.map(|p| costs(lines, p)).transpose()?;
     let mut head = vec!["item", "category", "quantity", "unit", "weeks", "basis"];
     if priced.is_some() {
         head.extend(["unit_price", "price_per", "cost"]);
@@ -46,7 +44,7 @@ pub fn bid_csv(lines: &[BidLine], prices: Option<&[Price]>) -> anyhow::Result<Ve
             weeks_text(l.weeks),
             l.basis.clone(),
         ];
-        if let Some(c) = &priced {
+        if let Some(c) = priced {
             let hit = c.lines.iter().find(|c| c.item == l.item);
             rec.push(hit.map_or(String::new(), |c| format!("{:.2}", c.unit_price)));
             rec.push(hit.map_or(String::new(), |c| c.price_per.clone()));
@@ -54,7 +52,7 @@ pub fn bid_csv(lines: &[BidLine], prices: Option<&[Price]>) -> anyhow::Result<Ve
         }
         w.write_record(&rec)?;
     }
-    if let Some(c) = &priced {
+    if let Some(c) = priced {
         for (cat, sum) in &c.subtotals {
             w.write_record([
                 &format!("subtotal {}", cat.name()),
@@ -84,16 +82,11 @@ pub fn bid_csv(lines: &[BidLine], prices: Option<&[Price]>) -> anyhow::Result<Ve
 }
 
 /// `bid.json`: the quantities, the lines, and the costs when prices are given.
-pub fn bid_json(bid: &Bid, lines: &[BidLine], prices: Option<&[Price]>) -> Value {
-    let priced = prices.map(|p| costs(lines, p));
-    if let Some(Err(e)) = &priced {
-        return json!({ "quantities": bid, "lines": lines, "costs_refused": e.to_string() });
-    }
-    let priced = priced.and_then(Result::ok);
+pub fn bid_json(bid: &Bid, lines: &[BidLine], priced: Option<&Costs>) -> Value {
     json!({
         "quantities": bid,
         "lines": lines,
-        "costs": priced.as_ref().map(|c: &Costs| json!({
+        "costs": priced.map(|c: &Costs| json!({
             "lines": c.lines,
             "subtotals": c.subtotals.iter().map(|(cat, sum)| json!({"category": cat, "cost": sum})).collect::<Vec<_>>(),
             "total": c.total,
@@ -103,7 +96,7 @@ pub fn bid_json(bid: &Bid, lines: &[BidLine], prices: Option<&[Price]>) -> Value
 }
 
 /// The bid sheet for the terminal.
-pub fn bid_text(lines: &[BidLine], prices: Option<&[Price]>) -> String {
+pub fn bid_text(lines: &[BidLine], priced: Option<&Costs>) -> String {
     let mut out = String::from("\nbid sheet\n");
     for l in lines {
         out.push_str(&format!(
@@ -116,14 +109,7 @@ pub fn bid_text(lines: &[BidLine], prices: Option<&[Price]>) -> String {
             l.basis
         ));
     }
-    if let Some(p) = prices {
-        let c = match costs(lines, p) {
-            Ok(c) => c,
-            Err(e) => {
-                out.push_str(&format!("\ncost lines refused: {e}\n"));
-                return out;
-            }
-        };
+    if let Some(c) = priced {
         out.push_str("\ncost lines (your unit prices)\n");
         for l in &c.lines {
             let weeks = l

@@ -6,7 +6,6 @@ use super::{thousands, wrap, CAUTION};
 use crate::check::run::CheckRun;
 use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
-use crate::input::prices::Price;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::outcome::{Design, Outcome};
@@ -112,7 +111,7 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
             "ratio_optimised_to_estimate": ratio,
         },
         "counts_tried": design.trials.iter().map(trial_json).collect::<Vec<_>>(),
-        "bid": found.chosen.as_ref().map(|c| super::bid_out::bid_json(&c.bid, &c.sheet, None)),
+        "bid": found.chosen.as_ref().map(|c| super::bid_out::bid_json(&c.bid, &c.sheet, c.costs.as_ref())),
         "design_allowances": {
             "operating_margin_m": model.design.operating_margin,
             "operating_margin_basis": "below every target with every well running (design file allowances.operating_margin; default 0.3 m, common practice (no source))",
@@ -189,14 +188,10 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
 
 /// Every file `design` writes: what `check` writes for the chosen layout, plus `design.json`,
 /// `design.csv` and `bid.csv`.
-pub fn files(
-    model: &Model,
-    found: &DesignFindings,
-    prices: Option<&[Price]>,
-) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
+pub fn files(model: &Model, found: &DesignFindings) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let design = &found.design;
     let mut out = match &found.chosen {
-        Some(c) => super::check_files_for(c, Some(design), prices)?,
+        Some(c) => super::check_files_for(c, Some(design))?,
         None => Vec::new(),
     };
     out.push((
@@ -207,10 +202,13 @@ pub fn files(
     if let Some(c) = &found.chosen {
         let b = &c.bid;
         let lines = &c.sheet;
-        out.push(("bid.csv".into(), super::bid_out::bid_csv(lines, prices)?));
+        out.push((
+            "bid.csv".into(),
+            super::bid_out::bid_csv(lines, c.costs.as_ref())?,
+        ));
         out.push((
             "bid.json".into(),
-            serde_json::to_vec_pretty(&super::bid_out::bid_json(b, lines, prices))?,
+            serde_json::to_vec_pretty(&super::bid_out::bid_json(b, lines, c.costs.as_ref()))?,
         ));
     }
     Ok(out)
@@ -281,7 +279,6 @@ pub fn to_text(
     model: &Model,
     found: &DesignFindings,
     units: UnitSystem,
-    prices: Option<&[Price]>,
     rows: crate::report::table::Rows,
 ) -> String {
     let design = &found.design;
@@ -391,12 +388,8 @@ pub fn to_text(
             ))
         ));
         out.push_str(&allowance_text(model, design, r, units));
-        let sheet = found
-            .chosen
-            .as_ref()
-            .map(|c| &c.sheet)
-            .expect("a run has findings");
-        out.push_str(&super::bid_out::bid_text(sheet, prices));
+        let c = found.chosen.as_ref().expect("a run has findings");
+        out.push_str(&super::bid_out::bid_text(&c.sheet, c.costs.as_ref()));
         for n in &r.placement.notes {
             out.push_str(&wrap(&format!("note: {n}"), 96, ""));
         }

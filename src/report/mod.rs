@@ -84,15 +84,14 @@ pub fn thousands(value: f64, decimals: usize) -> String {
 
 /// Every file `check` writes, rendered in memory from its findings: (name, bytes).
 pub fn check_files(found: &CheckFindings) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
-    check_files_for(found, None, None)
+    check_files_for(found, None)
 }
 
 /// Every file `check` writes, with `report.html` titled and filled for `design` when a design
-/// is given, its bid priced with `prices` when given.
+/// is given (its bid priced in the findings when the run has prices).
 pub fn check_files_for(
     found: &CheckFindings,
     design: Option<&crate::optimise::outcome::Design>,
-    prices: Option<&[crate::input::prices::Price]>,
 ) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let run = &found.run;
     let command = if design.is_some() { "design" } else { "check" };
@@ -124,7 +123,6 @@ pub fn check_files_for(
         run,
         found,
         design,
-        prices,
         command,
         f,
         map_svg,

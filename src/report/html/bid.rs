@@ -4,17 +4,16 @@
 
 use super::context::Context;
 use super::page::{table, Part};
-use crate::bid::pricing::costs;
 use crate::report::bid_out::quantity_text;
 use crate::report::format::esc;
 
 /// The bid sheet, priced when the run has prices.
 pub fn bid(cx: &Context) -> Part {
     let sheet = &cx.found.sheet;
-    let priced = cx.prices.map(|p| costs(sheet, p));
+    let priced = cx.found.costs.as_ref();
     let mut body = String::new();
     let mut head = vec!["item", "category", "#quantity", "unit", "#weeks"];
-    if let Some(Ok(_)) = &priced {
+    if priced.is_some() {
         head.extend(["#unit price", "per", "#cost"]);
     }
     let rows: Vec<Vec<String>> = sheet
@@ -27,7 +26,7 @@ pub fn bid(cx: &Context) -> Part {
                 esc(&l.unit),
                 l.weeks.map_or(String::new(), |w| format!("{w:.0}")),
             ];
-            if let Some(Ok(c)) = &priced {
+            if let Some(c) = priced {
                 let hit = c.lines.iter().find(|c| c.item == l.item);
                 r.push(hit.map_or(String::new(), |c| format!("{:.2}", c.unit_price)));
                 r.push(hit.map_or(String::new(), |c| esc(&c.price_per)));
@@ -37,8 +36,8 @@ pub fn bid(cx: &Context) -> Part {
         })
         .collect();
     body.push_str(&table(&head, &rows));
-    match &priced {
-        Some(Ok(c)) => {
+    match priced {
+        Some(c) => {
             let mut rows: Vec<Vec<String>> = c
                 .subtotals
                 .iter()
@@ -57,10 +56,6 @@ pub fn bid(cx: &Context) -> Part {
                 ));
             }
         }
-        Some(Err(e)) => body.push_str(&format!(
-            "<p class=\"bad\">Cost lines refused: {}</p>",
-            esc(&e.to_string())
-        )),
         None => body.push_str(
             "<p class=\"note\">Give your unit prices with <code>drydig design --prices</code> to price the sheet: a hired line per week, days of work per day, energy per kWh.</p>",
         ),

@@ -14,8 +14,6 @@ pub struct Context<'a> {
     pub found: &'a CheckFindings<'a>,
     /// The design, for `design` reports.
     pub design: Option<&'a Design>,
-    /// The user's unit prices (`design --prices`), for the bid's cost lines.
-    pub prices: Option<&'a [crate::input::prices::Price]>,
     /// "check" or "design".
     pub command: &'static str,
     /// The number formatter.
