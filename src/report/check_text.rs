@@ -105,27 +105,7 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
             l(p.point.position[1])
         ));
     }
-    let unmet: Vec<_> = e.points.iter().filter(|p| p.met == Some(false)).collect();
-    if !unmet.is_empty() {
-        out.push_str(&format!("\ntargets NOT met ({}):\n", unmet.len()));
-        for p in unmet.iter().take(40) {
-            out.push_str(&format!(
-                "  {:<28} ({:>9.1}, {:>9.1})  level {:>7.2}  target {:>7.2}  short {:.2} {lu}\n",
-                p.point.name,
-                l(p.point.position[0]),
-                l(p.point.position[1]),
-                l(p.level_m.unwrap_or(f64::NAN)),
-                l(p.point.target_level.unwrap_or(f64::NAN)),
-                l(-p.margin_m.unwrap_or(0.0))
-            ));
-        }
-        if unmet.len() > 40 {
-            out.push_str(&format!(
-                "  … and {} more (see checkpoints.csv)\n",
-                unmet.len() - 40
-            ));
-        }
-    }
+    out.push_str(&unmet_points(run, units, rows));
     out.push_str(&super::neighbours::text::text(found, units));
     let f = super::format::Fmt::new(units, m.ground_level);
     out.push_str(&format!(
@@ -155,6 +135,39 @@ pub fn well_table(run: &CheckRun, units: UnitSystem, rows: Rows) -> String {
     if short {
         out.push_str(&format!(
             "… {} more in wells.csv (-v lists every well here)\n",
+            n - TERMINAL_ROWS
+        ));
+    }
+    out
+}
+
+/// The check points whose target is not met: name, position, level, target and shortfall. A
+/// long list shows the [`TERMINAL_ROWS`] points short by most and points to checkpoints.csv,
+/// unless `rows` asks for all (then in the order of the design file).
+fn unmet_points(run: &CheckRun, units: UnitSystem, rows: Rows) -> String {
+    let unmet: Vec<usize> = (0..run.evaluation.points.len())
+        .filter(|&i| run.evaluation.points[i].met == Some(false))
+        .collect();
+    let n = unmet.len();
+    if n == 0 {
+        return String::new();
+    }
+    let short = rows == Rows::Short && n > TERMINAL_ROWS;
+    let only = short.then(|| super::tables::worst_unmet_points(run, TERMINAL_ROWS));
+    let f = super::format::Fmt::new(units, run.model.ground_level);
+    let mut out = format!("\ntargets NOT met ({n}):\n");
+    if short {
+        out.push_str(&format!(
+            "the {TERMINAL_ROWS} of {n} points short by most:\n"
+        ));
+    }
+    let table = super::tables::unmet_points_table(run, only.as_deref().unwrap_or(&unmet));
+    for line in table.to_text(&f).lines() {
+        out.push_str(&format!("  {line}\n"));
+    }
+    if short {
+        out.push_str(&format!(
+            "  … {} more in checkpoints.csv (-v lists every point here)\n",
             n - TERMINAL_ROWS
         ));
     }

@@ -307,6 +307,10 @@ pub fn to_text(est: &Estimate, units: UnitSystem) -> String {
         out.push_str(
             "\nAll excavations (each computed alone; shared influence is not subtracted)\n",
         );
+        let table = super::estimate_table::estimate_table(est).to_text(&Fmt::new(units, 0.0));
+        for line in table.lines() {
+            out.push_str(&format!("  {line}\n"));
+        }
         row(
             &mut out,
             "steady total flow",

@@ -6,6 +6,7 @@ pub mod by_day_text;
 pub mod check_text;
 pub mod design_text;
 pub mod dxf_out;
+pub mod estimate_table;
 pub mod estimate_text;
 pub mod files;
 pub mod format;

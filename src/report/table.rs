@@ -39,8 +39,14 @@ pub enum Cell {
     Level(Option<f64>),
     /// The depth below ground of a level above datum (the level, m); `None` shows "—".
     Depth(Option<f64>),
+    /// A length or level to the finer precision margins need, m; `None` shows "—".
+    Fine(Option<f64>),
     /// A rate per well, m³/s.
     Rate(f64),
+    /// A flow total, m³/s ("m³/day" or "gpm" for people).
+    Flow(f64),
+    /// A count (wells), right-aligned, no unit.
+    Count(u64),
     /// What is wrong at a well ("ok" when nothing), in the user's units.
     Status(Vec<WellProblem>),
 }
@@ -54,6 +60,10 @@ pub enum Quantity {
     Length,
     /// Rates per well: "gpm", "L/s".
     Rate,
+    /// Flow totals: "m³/day", "gpm".
+    Flow,
+    /// Counts: no unit, right-aligned.
+    Count,
 }
 
 /// How a column is written in the CSV file.
@@ -99,9 +109,19 @@ pub struct Table {
 impl Quantity {
     fn unit(self, f: &Fmt) -> Option<&'static str> {
         match self {
-            Quantity::Words => None,
+            Quantity::Words | Quantity::Count => None,
             Quantity::Length => Some(f.lu()),
             Quantity::Rate => Some(f.rate_unit()),
+            Quantity::Flow => Some(f.flow_unit()),
+        }
+    }
+
+    /// The heading for report.html: "#" marks a numeric column (right-aligned).
+    fn html_heading(self, title: &str, f: &Fmt) -> String {
+        match (self, self.unit(f)) {
+            (_, Some(u)) => format!("#{title} ({u})"),
+            (Quantity::Count, None) => format!("#{title}"),
+            _ => title.to_string(),
         }
     }
 }
@@ -113,7 +133,10 @@ fn person_text(cell: &Cell, f: &Fmt) -> String {
         Cell::Length(v) => f.length_value(*v),
         Cell::Level(z) => z.map_or("dry".into(), |z| f.length_value(z)),
         Cell::Depth(z) => z.map_or("—".into(), |z| f.depth_value(z)),
+        Cell::Fine(z) => z.map_or("—".into(), |z| f.length_fine_value(z)),
         Cell::Rate(q) => f.rate_value(*q),
+        Cell::Flow(q) => f.flow_value(*q),
+        Cell::Count(n) => n.to_string(),
         Cell::Status(p) if p.is_empty() => "ok".into(),
         Cell::Status(p) => well_problems(p, f),
     }
@@ -129,8 +152,9 @@ fn csv_text(cell: &Cell, csv: Csv, f: &Fmt) -> String {
     match cell {
         Cell::Text(t) if matches!(csv, Csv::Name(_)) => crate::field::wells_csv::csv_text(t),
         Cell::Text(t) => t.clone(),
-        Cell::Length(v) | Cell::Rate(v) => number(*v),
-        Cell::Level(z) | Cell::Depth(z) => z.map_or(String::new(), number),
+        Cell::Length(v) | Cell::Rate(v) | Cell::Flow(v) => number(*v),
+        Cell::Level(z) | Cell::Depth(z) | Cell::Fine(z) => z.map_or(String::new(), number),
+        Cell::Count(n) => n.to_string(),
         Cell::Status(p) if p.is_empty() => "ok".into(),
         Cell::Status(p) => well_problems(p, f),
     }
@@ -206,10 +230,7 @@ impl Table {
         let cols = self.shown(|c| c.html);
         let head: Vec<String> = cols
             .iter()
-            .map(|(_, c)| match c.quantity.unit(f) {
-                Some(u) => format!("#{} ({u})", c.title),
-                None => c.title.to_string(),
-            })
+            .map(|(_, c)| c.quantity.html_heading(c.title, f))
             .collect();
         let head: Vec<&str> = head.iter().map(String::as_str).collect();
         let rows: Vec<Vec<String>> = self

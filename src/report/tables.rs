@@ -127,6 +127,56 @@ pub fn wells_table(run: &CheckRun, only: Option<&[usize]>) -> Table {
     Table { columns, rows }
 }
 
+/// The check points listed in `only` (indices, in that order) whose target is not met, for
+/// the terminal: name, position, level, target and shortfall below it (levels to the finer
+/// precision margins need).
+pub fn unmet_points_table(run: &CheckRun, only: &[usize]) -> Table {
+    use Quantity::{Length, Words};
+    let col = |title, quantity| Column {
+        title,
+        quantity,
+        terminal: true,
+        html: false,
+        csv: Csv::No,
+    };
+    let columns = vec![
+        col("point", Words),
+        col("x", Length),
+        col("y", Length),
+        col("level", Length),
+        col("target", Length),
+        col("short", Length),
+    ];
+    let rows = only
+        .iter()
+        .map(|&i| {
+            let p = &run.evaluation.points[i];
+            vec![
+                Cell::Text(p.point.name.clone()),
+                Cell::Length(p.point.position[0]),
+                Cell::Length(p.point.position[1]),
+                Cell::Fine(p.level_m),
+                Cell::Fine(p.point.target_level),
+                Cell::Fine(p.margin_m.map(|m| -m)),
+            ]
+        })
+        .collect();
+    Table { columns, rows }
+}
+
+/// The `n` unmet check points short by most (largest shortfall first; a dry point, with no
+/// margin, first of all), for a shortened terminal list.
+pub fn worst_unmet_points(run: &CheckRun, n: usize) -> Vec<usize> {
+    let points = &run.evaluation.points;
+    let mut unmet: Vec<usize> = (0..points.len())
+        .filter(|&i| points[i].met == Some(false))
+        .collect();
+    let margin = |i: usize| points[i].margin_m.unwrap_or(f64::NEG_INFINITY);
+    unmet.sort_by(|&a, &b| margin(a).total_cmp(&margin(b)));
+    unmet.truncate(n);
+    unmet
+}
+
 /// `wells.csv`: one row per well, SI units in the headers; the status words (read by a person,
 /// read by no tool beyond "ok") in the user's units.
 pub fn wells_csv(run: &CheckRun) -> anyhow::Result<Vec<u8>> {

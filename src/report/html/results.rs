@@ -3,7 +3,6 @@
 
 use super::context::Context;
 use super::page::{facts, inline_svg, table, Part};
-use crate::estimate::FlowMethod;
 use crate::field::checkpoints::PointKind;
 use crate::report::format::esc;
 
@@ -16,30 +15,7 @@ pub fn estimate(cx: &Context) -> Part {
     let est = &cx.found.estimate;
     let e = &cx.run.evaluation;
     let quick = est.total_flow_m3_per_day / 86_400.0;
-    let mut rows: Vec<Vec<String>> = Vec::new();
-    for x in &est.excavations {
-        rows.push(vec![
-            esc(&x.name),
-            esc(match x.flow_method {
-                FlowMethod::EquivalentWell => "equivalent well",
-                FlowMethod::LineSlot => "line slot",
-                FlowMethod::NoneNeeded => "none needed",
-            }),
-            esc(&f.length(x.radius_of_influence_m)),
-            esc(&f.flow(x.total_flow_m3_per_day / 86_400.0)),
-            format!("{}", x.rough_well_count),
-        ]);
-    }
-    let mut body = table(
-        &[
-            "excavation",
-            "method",
-            "#radius of influence",
-            "#steady flow",
-            "#rough well count",
-        ],
-        &rows,
-    );
+    let mut body = crate::report::estimate_table::estimate_table(est).to_html(f);
     let ratio = if quick > 0.0 {
         format!("{:.2}", e.total_abstraction_m3_per_s / quick)
     } else {
