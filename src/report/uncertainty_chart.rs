@@ -128,15 +128,15 @@ pub fn cdf_svg(site: &str, s: &Series, units: UnitSystem) -> Option<String> {
     }
     let cut = if clipped {
         format!(
-            "; axis cut at P99 (largest {})",
+            "; axis cut at P99 (largest {} {unit})",
             super::plot_kit::tick_label(conv(p.max), xt.step)
         )
     } else {
         String::new()
     };
     let doc = page(
-        &format!("{} — {} samples", s.label, v.len()),
-        &format!("{site}: histogram (bars), share at or below (line){cut}"),
+        &format!("{} — {} samples — {site}", s.label, v.len()),
+        &format!("bars: samples per bin (the fullest, {most:.0}, reaches the top); line: share at or below{cut}"),
         HEIGHT,
     )
     .add(fr.grid(&xt, &yt))

@@ -143,21 +143,21 @@ pub fn to_text(model: &Model, found: &UncertaintyFindings) -> String {
         "",
     ));
     out.push_str(&format!(
-        "\n{:<44} {:>16} {:>16} {:>16}\n",
+        "\n{:<24} {:>22} {:>22} {:>22}\n",
         "input", "P10", "P50", "P90"
     ));
     for i in &run.inputs {
         let q = |p: f64| input_value(i.kind, i.distribution.quantile(p), &f);
         out.push_str(&format!(
-            "{:<44} {:>16} {:>16} {:>16}\n",
-            format!("{} ({})", i.kind.field(), i.text)
-                .chars()
-                .take(44)
-                .collect::<String>(),
+            "{:<24} {:>22} {:>22} {:>22}\n",
+            i.kind.field(),
             q(0.1),
             q(0.5),
             q(0.9)
         ));
+    }
+    for i in &run.inputs {
+        out.push_str(&format!("  {}: {}\n", i.kind.field(), i.text));
     }
     if let Some(r) = run.rank_correlation {
         out.push_str(&format!("rank correlation of K and S: {r:.2}\n"));
