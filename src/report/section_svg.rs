@@ -82,12 +82,12 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     strata(&mut o, &fr, model);
     axes(&mut o, &fr, f);
     excavations(&mut o, &fr, s, f);
+    walls(&mut o, &fr, s, f);
     neighbours(&mut o, &fr, s, f);
     level_lines(&mut o, &fr, model);
     layer_names(&mut o, &fr, model);
     lowered_level(&mut o, &fr, s, model.aquifer.base_level);
     aquifer_lines(&mut o, &fr, s, model);
-    walls(&mut o, &fr, s, f);
     let step = wells(&mut o, &fr, s);
     legend(&mut o, s);
     footnote(&mut o, model, s, f, fr.length, step);
@@ -191,9 +191,10 @@ fn layer_names(o: &mut String, fr: &Frame, model: &Model) {
     let (_, x1) = fr.ends();
     for (name, top, base, aquitard) in bands(model, fr.ground) {
         let (yt, yb) = (fr.py(top), fr.py(base));
-        // below the band's top when there is room, else in its middle
+        // above the band's base when there is room (the level lines are named near the top),
+        // else in its middle
         let y = if yb - yt > 30.0 {
-            yt + 14.0
+            yb - 6.0
         } else {
             (yt + yb) / 2.0 + 4.0
         };
@@ -201,11 +202,18 @@ fn layer_names(o: &mut String, fr: &Frame, model: &Model) {
             o,
             r##"<text x="{:.1}" y="{y:.1}" text-anchor="end" font-size="11" font-style="italic" fill="#5a3d1e" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
             x1 - 6.0,
-            esc(&format!(
-                "{name} ({})",
-                if aquitard { "aquitard" } else { "aquifer" }
-            ))
+            esc(&band_label(&name, aquitard))
         );
+    }
+}
+
+/// A band's name with what it is, unless the name says so already.
+fn band_label(name: &str, aquitard: bool) -> String {
+    let kind = if aquitard { "aquitard" } else { "aquifer" };
+    if name.to_lowercase().contains(kind) {
+        name.to_string()
+    } else {
+        format!("{name} ({kind})")
     }
 }
 
@@ -281,7 +289,7 @@ fn neighbours(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
         };
         let _ = write!(
             o,
-            r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{lx:.1}" y="{:.1}" text-anchor="{anchor}" font-size="11">{}</text>"##,
+            r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{lx:.1}" y="{:.1}" text-anchor="{anchor}" font-size="11" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
             from,
             fr.py(ground) - 24.0,
             (to - from).max(1.0),
