@@ -11,4 +11,5 @@ pub mod evaluate;
 pub mod field_build;
 pub mod run;
 pub mod section;
+pub mod section_ground;
 pub mod wall_quantities;

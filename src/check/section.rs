@@ -70,6 +70,10 @@ pub struct Section {
     pub excavations: Vec<Crossing>,
     /// Neighbours crossed.
     pub neighbours: Vec<Crossing>,
+    /// Cut-off walls crossed, along the line.
+    pub walls: Vec<crate::check::section_ground::SectionWall>,
+    /// Layered ground: the level in each aquifer where they differ (else empty).
+    pub aquifer_levels: Vec<crate::check::section_ground::AquiferLevels>,
 }
 
 /// Wells this close to a line of length `l` (m) are drawn on it: max(3 m, l/30).
@@ -248,8 +252,9 @@ fn crossings<'a>(
 
 /// The section along `line` for the run's wells and rates: levels h(x) from
 /// [`crate::field::influence::Field::levels`] (the superposition of every well and image) at
-/// [`SAMPLES`] equally spaced points, wells within [`well_band`] projected onto the line, and the
-/// stretches inside excavations and neighbour footprints.
+/// [`SAMPLES`] equally spaced points, wells within [`well_band`] projected onto the line, the
+/// stretches inside excavations and neighbour footprints, the walls crossed and, in layered
+/// ground, the level in each aquifer ([`crate::check::section_ground`]).
 pub fn section(run: &CheckRun, line: [[f64; 2]; 2], basis: &str) -> Section {
     let [a, b] = line;
     let length = (b[0] - a[0]).hypot(b[1] - a[1]);
@@ -319,6 +324,8 @@ pub fn section(run: &CheckRun, line: [[f64; 2]; 2], basis: &str) -> Section {
     Section {
         line,
         basis: basis.to_string(),
+        walls: crate::check::section_ground::walls_crossed(run, line),
+        aquifer_levels: crate::check::section_ground::aquifer_levels(run, &positions),
         samples,
         wells,
         excavations,

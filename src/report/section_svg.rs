@@ -1,6 +1,8 @@
 //! `section.svg`: the vertical section along a line — ground, the water level before and during
 //! pumping, aquifer top and base, excavation formation and target, wells with screens and pump
-//! intakes, neighbours' foundations. Levels on the left axis, depths below ground on the right,
+//! intakes, neighbours' foundations; in layered ground the aquifers and aquitards as named
+//! bands and the level in each aquifer where they differ; cut-off walls where the line crosses
+//! them, from ground to the toe. Levels on the left axis, depths below ground on the right,
 //! both in the chosen units. The values come from [`crate::check::section`]; this file only
 //! draws. No `id` attributes, so several drawings can share one HTML page.
 
@@ -43,6 +45,12 @@ impl Frame {
         for w in &s.wells {
             zmin = zmin.min(w.screen_base).min(w.pump_intake);
         }
+        if let Some(l) = &model.layers {
+            zmin = zmin.min(l.lowest_base());
+        }
+        for w in &s.walls {
+            zmin = zmin.min(w.toe);
+        }
         zmax = zmax.max(aq.initial_level);
         let pad = 0.06 * (zmax - zmin).max(1.0);
         Frame {
@@ -73,10 +81,13 @@ pub fn render(model: &Model, s: &Section, f: &Fmt, title: &str) -> String {
     header(&mut o, s, f, title);
     strata(&mut o, &fr, model);
     axes(&mut o, &fr, f);
-    neighbours(&mut o, &fr, s, f);
     excavations(&mut o, &fr, s, f);
+    walls(&mut o, &fr, s, f);
+    neighbours(&mut o, &fr, s, f);
     level_lines(&mut o, &fr, model);
+    layer_names(&mut o, &fr, model);
     lowered_level(&mut o, &fr, s, model.aquifer.base_level);
+    aquifer_lines(&mut o, &fr, s, model);
     let step = wells(&mut o, &fr, s);
     legend(&mut o, s);
     footnote(&mut o, model, s, f, fr.length, step);
@@ -109,25 +120,101 @@ fn header(o: &mut String, s: &Section, f: &Fmt, title: &str) {
     );
 }
 
-/// Aquifer: below base in grey, saturated zone tinted.
+/// The bands of the ground from the top down: (name, top, base, aquitard); one unnamed
+/// aquifer band without `[[layer]]` entries.
+fn bands(model: &Model, ground: f64) -> Vec<(String, f64, f64, bool)> {
+    let Some(l) = &model.layers else {
+        let aq = &model.aquifer;
+        let top = aq.top_level.unwrap_or(ground).min(ground);
+        return vec![(String::new(), top, aq.base_level, false)];
+    };
+    let mut out: Vec<(String, f64, f64, bool)> = l
+        .aquifers
+        .iter()
+        .map(|a| {
+            (
+                a.name.clone(),
+                a.top.min(ground),
+                a.aquifer.base_level,
+                false,
+            )
+        })
+        .chain(
+            l.aquitards
+                .iter()
+                .map(|t| (t.name.clone(), t.top.min(ground), t.base, true)),
+        )
+        .collect();
+    out.sort_by(|a, b| b.1.total_cmp(&a.1));
+    out
+}
+
+/// The ground: aquifers tinted (alternate shades), aquitards darker, below the base in grey.
 fn strata(o: &mut String, fr: &Frame, model: &Model) {
-    let aq = &model.aquifer;
     let (x0, x1) = fr.ends();
-    let top = aq.top_level.unwrap_or(fr.ground).min(fr.ground);
-    let _ = write!(
-        o,
-        r##"<rect x="{x0:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#f3ead8"/>"##,
-        fr.py(top),
-        x1 - x0,
-        fr.py(aq.base_level) - fr.py(top)
-    );
+    let bands = bands(model, fr.ground);
+    let mut aquifers = 0;
+    for (_, top, base, aquitard) in &bands {
+        let fill = if *aquitard {
+            "#c8b59a"
+        } else {
+            aquifers += 1;
+            if aquifers % 2 == 1 {
+                "#f3ead8"
+            } else {
+                "#e8dcc2"
+            }
+        };
+        let _ = write!(
+            o,
+            r##"<rect x="{x0:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="{fill}"/>"##,
+            fr.py(*top),
+            x1 - x0,
+            (fr.py(*base) - fr.py(*top)).max(0.0)
+        );
+    }
+    let lowest = bands.iter().map(|b| b.2).fold(f64::INFINITY, f64::min);
     let _ = write!(
         o,
         r##"<rect x="{x0:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#cfc6b8"/>"##,
-        fr.py(aq.base_level),
+        fr.py(lowest),
         x1 - x0,
-        fr.py(fr.zlo) - fr.py(aq.base_level)
+        (fr.py(fr.zlo) - fr.py(lowest)).max(0.0)
     );
+}
+
+/// Layered ground: each band's name at the right end of the band, with aquifer or aquitard.
+fn layer_names(o: &mut String, fr: &Frame, model: &Model) {
+    if model.layers.is_none() {
+        return;
+    }
+    let (_, x1) = fr.ends();
+    for (name, top, base, aquitard) in bands(model, fr.ground) {
+        let (yt, yb) = (fr.py(top), fr.py(base));
+        // above the band's base when there is room (the level lines are named near the top),
+        // else in its middle
+        let y = if yb - yt > 30.0 {
+            yb - 6.0
+        } else {
+            (yt + yb) / 2.0 + 4.0
+        };
+        let _ = write!(
+            o,
+            r##"<text x="{:.1}" y="{y:.1}" text-anchor="end" font-size="11" font-style="italic" fill="#5a3d1e" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
+            x1 - 6.0,
+            esc(&band_label(&name, aquitard))
+        );
+    }
+}
+
+/// A band's name with what it is, unless the name says so already.
+fn band_label(name: &str, aquitard: bool) -> String {
+    let kind = if aquitard { "aquitard" } else { "aquifer" };
+    if name.to_lowercase().contains(kind) {
+        name.to_string()
+    } else {
+        format!("{name} ({kind})")
+    }
 }
 
 /// Horizontal level grid and axes: round levels on the left, round depths on the right,
@@ -202,7 +289,7 @@ fn neighbours(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
         };
         let _ = write!(
             o,
-            r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{lx:.1}" y="{:.1}" text-anchor="{anchor}" font-size="11">{}</text>"##,
+            r##"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="#b9c2cc" stroke="#556" stroke-width="0.8"/><text x="{lx:.1}" y="{:.1}" text-anchor="{anchor}" font-size="11" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
             from,
             fr.py(ground) - 24.0,
             (to - from).max(1.0),
@@ -230,12 +317,21 @@ fn excavations(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
             (b - a).max(1.0),
             fr.py(zf) - fr.py(ground)
         );
+        // a target within 30 px above the formation: its label above its line, the formation's
+        // below the formation, so the two never overlap
+        let close = e
+            .target
+            .is_some_and(|t| t > zf && fr.py(zf) - fr.py(t) < 30.0);
         if let Some(t) = e.target {
             let _ = write!(
                 o,
                 r##"<line x1="{a:.1}" x2="{b:.1}" y1="{y:.1}" y2="{y:.1}" stroke="#c00" stroke-width="1.2" stroke-dasharray="6 3"/><text x="{:.1}" y="{:.1}" fill="#c00" font-size="11">{}</text>"##,
                 a + 4.0,
-                fr.py(t) + 13.0,
+                if close {
+                    fr.py(t) - 4.0
+                } else {
+                    fr.py(t) + 13.0
+                },
                 esc(&format!(
                     "{} {}",
                     if e.relief { "relief head" } else { "target" },
@@ -248,7 +344,11 @@ fn excavations(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
             o,
             r##"<text x="{:.1}" y="{:.1}" font-size="11">{}</text>"##,
             a + 4.0,
-            fr.py(zf) - 5.0,
+            if close {
+                fr.py(zf) + 13.0
+            } else {
+                fr.py(zf) - 5.0
+            },
             esc(&format!("{}: formation {}", e.name, f.level(zf)))
         );
     }
@@ -270,6 +370,10 @@ fn level_lines(o: &mut String, fr: &Frame, model: &Model) {
     if let Some(t) = aq.top_level {
         hline(t, "#5a3d1e", "4 2", 1.2);
     }
+    for (_, top, base, _) in bands(model, fr.ground).iter().skip(1) {
+        hline(*top, "#5a3d1e", "none", 0.8);
+        hline(*base, "#5a3d1e", "none", 0.8);
+    }
     hline(aq.initial_level, "#1f5fbf", "8 4", 1.4);
 }
 
@@ -290,6 +394,73 @@ fn lowered_level(o: &mut String, fr: &Frame, s: &Section, base: f64) {
         o,
         r##"<path d="{path}" fill="none" stroke="#1f5fbf" stroke-width="2.2"/>"##
     );
+}
+
+/// Layered ground: the level in every other aquifer where it differs from the main line
+/// (dash-dotted, darker), each line named at its right end (the main line too).
+fn aquifer_lines(o: &mut String, fr: &Frame, s: &Section, model: &Model) {
+    let (_, x1) = fr.ends();
+    let mut labels: Vec<(f64, String)> = Vec::new();
+    for line in &s.aquifer_levels {
+        let base = model
+            .layers
+            .as_ref()
+            .and_then(|l| l.aquifers.iter().find(|a| a.name == line.name))
+            .map_or(model.aquifer.base_level, |a| a.aquifer.base_level);
+        let zs: Vec<f64> = line.levels.iter().map(|z| z.unwrap_or(base)).collect();
+        if !line.main {
+            let mut path = String::new();
+            for (i, (smp, z)) in s.samples.iter().zip(&zs).enumerate() {
+                let _ = write!(
+                    path,
+                    "{}{:.1},{:.1}",
+                    if i == 0 { "M" } else { " L" },
+                    fr.px(smp.chainage),
+                    fr.py(*z)
+                );
+            }
+            let _ = write!(
+                o,
+                r##"<path d="{path}" fill="none" stroke="#0b3d7a" stroke-width="1.8" stroke-dasharray="9 3 2 3"/>"##
+            );
+        }
+        if let Some(z) = zs.last() {
+            labels.push((fr.py(*z) - 5.0, format!("level in {}", line.name)));
+        }
+    }
+    // keep the labels at least 13 px apart
+    labels.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let mut last = f64::NEG_INFINITY;
+    for (y, text) in labels {
+        let y = y.max(last + 13.0);
+        last = y;
+        let _ = write!(
+            o,
+            r##"<text x="{:.1}" y="{y:.1}" text-anchor="end" font-size="11" fill="#0b3d7a" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
+            x1 - 6.0,
+            esc(&text)
+        );
+    }
+}
+
+/// Cut-off walls crossed: a thick bar from ground to the toe, its name and toe level written
+/// up along it.
+fn walls(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
+    for w in &s.walls {
+        let x = fr.px(w.chainage);
+        let (yg, yt) = (fr.py(fr.ground), fr.py(w.toe));
+        let toe = if w.toe_given {
+            format!("toe {}", f.level(w.toe))
+        } else {
+            format!("to the impermeable base {}", f.level(w.toe))
+        };
+        let (tx, ty) = (x - 7.0, yt - 4.0);
+        let _ = write!(
+            o,
+            r##"<line class="wall" x1="{x:.1}" x2="{x:.1}" y1="{yg:.1}" y2="{yt:.1}" stroke="#3a3a3a" stroke-width="6"/><text x="{tx:.1}" y="{ty:.1}" transform="rotate(-90 {tx:.1} {ty:.1})" font-size="11" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
+            esc(&format!("{}: {toe}", w.name))
+        );
+    }
 }
 
 /// Wells: casing from ground, screen thick, intake triangle; at most MAX_WELLS drawn (every
@@ -317,22 +488,45 @@ fn wells(o: &mut String, fr: &Frame, s: &Section) -> usize {
 
 /// The legend row under the axis.
 fn legend(o: &mut String, s: &Section) {
-    let ly = H - 30.0;
     let target_label = if s.excavations.iter().any(|e| e.relief) {
         "target level / relief head"
     } else {
         "target level"
     };
-    let items: [(&str, &str, &str); 6] = [
+    let mut items: Vec<(&str, &str, &str)> = vec![
         ("#5a3d1e", "none", "ground, aquifer top and base"),
         ("#1f5fbf", "8 4", "water level before pumping"),
         ("#1f5fbf", "none", "water level while pumping"),
+    ];
+    if s.aquifer_levels.len() > 1 {
+        items.push(("#0b3d7a", "9 3 2 3", "while pumping, in another aquifer"));
+    }
+    items.extend([
         ("#c00", "6 3", target_label),
         ("#222", "2 1.5", "well screen"),
         ("#e07b00", "none", "pump intake"),
-    ];
+    ]);
+    if !s.walls.is_empty() {
+        items.push(("#3a3a3a", "none", "cut-off wall"));
+    }
+    // rows that fit the page, the last one just above the footnote
+    let width = |label: &str| 30.0 + 6.2 * label.chars().count() as f64;
+    let mut rows = 1;
+    let mut lx = LEFT;
+    for (_, _, label) in &items {
+        if lx > LEFT && lx + width(label) > W - 20.0 {
+            rows += 1;
+            lx = LEFT;
+        }
+        lx += width(label);
+    }
+    let mut ly = H - 30.0 - 16.0 * (rows - 1) as f64;
     let mut lx = LEFT;
     for (colour, dash, label) in items {
+        if lx > LEFT && lx + width(label) > W - 20.0 {
+            ly += 16.0;
+            lx = LEFT;
+        }
         let _ = write!(
             o,
             r##"<line x1="{lx:.1}" x2="{:.1}" y1="{ly:.1}" y2="{ly:.1}" stroke="{colour}" stroke-width="3" stroke-dasharray="{dash}"/><text x="{:.1}" y="{:.1}" font-size="11">{}</text>"##,
@@ -341,7 +535,7 @@ fn legend(o: &mut String, s: &Section) {
             ly + 4.0,
             esc(label)
         );
-        lx += 30.0 + 6.2 * label.len() as f64;
+        lx += width(label);
     }
 }
 
