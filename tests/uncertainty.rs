@@ -8,6 +8,7 @@ use drydig::input::validate::file::{from_str, load};
 use drydig::input::validate::uncertainty::parse_distribution;
 use drydig::uncertainty::apply::apply;
 use drydig::uncertainty::check_samples::{evaluate_sample, Layout};
+use drydig::uncertainty::design_samples::{design_sample, sample_of};
 use drydig::uncertainty::fast_check::FastCheck;
 use drydig::uncertainty::run::{run, Mode, Settings};
 use drydig::uncertainty::sampling::sample_values;
@@ -135,6 +136,30 @@ fn same_numbers_for_any_thread_count() {
     let two = csv_with_threads(2);
     assert!(one.len() > 1000);
     assert_eq!(one, two);
+}
+
+/// Each sample's design leaves out the search with one rate in every well when individual
+/// rates find a layout: the wells and the flow equal those of the full `design` on 20 samples
+/// whose fewest wells differ.
+#[test]
+fn sample_designs_match_full_designs() {
+    let model = demo();
+    let spec = model.uncertainty.clone().unwrap();
+    let rates = drydig::optimise::rates::RateOption::Individual;
+    let mut counts = std::collections::BTreeSet::new();
+    for (i, v) in sample_values(&spec, 20, 7).iter().enumerate() {
+        let m = apply(&model, &spec, v);
+        let lean = design_sample(&m, rates);
+        let full = sample_of(drydig::optimise::search::design(&m, rates));
+        assert_eq!(lean.wells, full.wells, "sample {i}: wells");
+        assert_eq!(lean.met, full.met, "sample {i}: met");
+        assert_eq!(
+            lean.total_flow_m3_per_s, full.total_flow_m3_per_s,
+            "sample {i}: flow"
+        );
+        counts.insert(full.wells);
+    }
+    assert!(counts.len() >= 3, "the samples' counts spread: {counts:?}");
 }
 
 /// Bad `[uncertainty]` entries are refused naming the field and what is valid.

@@ -325,6 +325,18 @@ pub fn design_points(model: &Model) -> Vec<CheckPoint> {
 /// Run the design: the smallest layout of the design file's kind that meets every target
 /// within every well limit, with rates by `asked`.
 pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
+    design_scoped(model, asked, false)
+}
+
+/// [`design`], and when `asked_only` with individual rates asked, one rate in every well is
+/// searched only if individual rates find no layout: the layout chosen is the same (the
+/// choice takes the individual count whenever there is one), only the uniform count and its
+/// note are left out. For `drydig uncertainty`, which keeps the layout of each sample's design.
+pub fn design_scoped(
+    model: &Model,
+    asked: RateOption,
+    asked_only: bool,
+) -> Result<Design, InputError> {
     let Some(spec) = model.layout.clone() else {
         return Err(InputError {
             file: model.file.clone(),
@@ -393,7 +405,17 @@ pub fn design(model: &Model, asked: RateOption) -> Result<Design, InputError> {
             ..empty
         });
     }
-    let mut found = search_counts(model, &points, &spec, &fam, probe_placement, &empty)?;
+    // (a rolling run is always designed with one rate: see `choose`)
+    let uniform_too = !(asked_only && asked == RateOption::Individual && model.rolling.is_none());
+    let mut found = search_counts(
+        model,
+        &points,
+        &spec,
+        &fam,
+        probe_placement,
+        &empty,
+        uniform_too,
+    )?;
     let mut notes = empty.notes.clone();
     let free = if asked == RateOption::Individual && matches!(fam, Family::Ring { .. }) {
         spec.free
@@ -461,6 +483,7 @@ fn search_counts(
     fam: &Family,
     probe_placement: layout::Placement,
     empty: &Design,
+    uniform_too: bool,
 ) -> Result<Found, InputError> {
     let mut search_state = Search {
         model,
@@ -499,7 +522,11 @@ fn search_counts(
     }
     let seed = seed_index(spec, empty.estimate.rough_well_count);
     let i = search_state.smallest(|t| t.individual_met, true, seed)?;
-    let u = search_state.smallest(|t| t.uniform_met, false, seed)?;
+    let u = if uniform_too || i.is_none() {
+        search_state.smallest(|t| t.uniform_met, false, seed)?
+    } else {
+        None
+    };
     // The real fewest: below the count found with the design file's placement, other start
     // positions (and the other corner option) of the same count.
     let mut others: Vec<TrialRun> = Vec::new();

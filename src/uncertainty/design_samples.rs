@@ -10,7 +10,9 @@
 //! is reported with its fraction beside it.
 
 use crate::field::wells::Well;
+use crate::input::error::InputError;
 use crate::input::model::Model;
+use crate::optimise::outcome::Design;
 use crate::optimise::outcome::Outcome;
 use crate::optimise::rates::RateOption;
 use crate::uncertainty::check_samples::{evaluate_sample, Layout};
@@ -35,9 +37,15 @@ pub struct DesignSample {
     pub layout: Vec<Well>,
 }
 
-/// The design of `model` with `rates`.
+/// The design of `model` with `rates` (with individual rates, one rate in every well is
+/// searched only when individual rates find no layout: the layout is the full design's).
 pub fn design_sample(model: &Model, rates: RateOption) -> DesignSample {
-    let Ok(d) = crate::optimise::search::design(model, rates) else {
+    sample_of(crate::optimise::search::design_scoped(model, rates, true))
+}
+
+/// The wells, flow and layout of a design.
+pub fn sample_of(design: Result<Design, InputError>) -> DesignSample {
+    let Ok(d) = design else {
         return DesignSample {
             wells: None,
             total_flow_m3_per_s: None,
