@@ -307,12 +307,12 @@ pub enum Command {
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]
         out: PathBuf,
     },
-    /// Sample the design file's [uncertainty] inputs (Latin hypercube) and give P10/P50/P90 of
+    /// Sample the inputs of the design file's uncertainty table (Latin hypercube) and give P10/P50/P90 of
     /// the answers: for the file's layout (flow it needs, lowest margin, share of samples meeting
     /// every target, neighbours' drawdown and settlement) or for the design (fewest wells, flow,
     /// a robust design); writes uncertainty.csv, uncertainty.json, SVG charts, report.html.
     Uncertainty {
-        /// Design file (TOML) with an [uncertainty] section.
+        /// Design file (TOML) with an uncertainty table.
         file: PathBuf,
         /// Output folder.
         #[arg(short = 'o', long = "out", default_value = "drydig-out")]

@@ -271,7 +271,7 @@ pub const TERMINAL_ROWS: usize = 20;
 /// How much of a long table the terminal lists.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Rows {
-    /// Up to [`TERMINAL_ROWS`], then "… N more in <file>".
+    /// Up to [`TERMINAL_ROWS`], then "… N more in" and the file named.
     Short,
     /// Every row (`-v`).
     All,
