@@ -215,3 +215,29 @@ formation_level = "4.5 m"
         assert!(!out_dir.exists(), "{args:?} wrote outputs");
     }
 }
+
+/// Two layers in the leaky limit against the published steady leaky-well solution: an upper
+/// aquifer so transmissive that its head stays put (T₁ = 10⁶·T₂) over an aquitard of resistance
+/// c, the well in the lower aquifer. Then s₂(r) = Q/(2πT₂)·K₀(r/B), B = √(T₂c) (de Glee 1930;
+/// Hantush 1956: the steady limit W(0, r/B) = 2·K₀(r/B)). Values of 2·K₀(r/B) as tabulated for
+/// W(u, r/B) at small u in Kruseman & de Ridder, *Analysis and Evaluation of Pumping Test Data*,
+/// 2nd ed. (1994), Annex 4.1 (from memory), and equal to `2·scipy.special.k0` (library) to the
+/// figures given. The zero mode adds Q/(2π(T₁+T₂))·ln(R/r), a relative 10⁻⁵ here.
+#[test]
+fn two_layers_leaky_limit_is_de_glee() {
+    let (t2, c) = (1e-3, 1e5); // B = √(T₂c) = 10 m
+    let sys = LeakageSystem::new(&[1e6 * t2, t2], &[c]).unwrap();
+    for (r_over_b, two_k0) in [
+        (0.1, 4.854138),
+        (0.5, 1.8488381),
+        (1.0, 0.84204888),
+        (2.0, 0.22778775),
+    ] {
+        let s = sys.unit_drawdown(1, 1, r_over_b * 10.0, BIG_R);
+        let w = 2.0 * 2.0 * std::f64::consts::PI * t2 * s;
+        assert!(
+            (w / two_k0 - 1.0).abs() < 1e-4,
+            "r/B = {r_over_b}: 2·2πT₂·s/Q = {w}, published W(0, r/B) = {two_k0}"
+        );
+    }
+}
