@@ -86,14 +86,22 @@ fn title_rows(
     if !model.datum.is_empty() {
         raw.push((11.0, format!("Levels: {}", model.datum), false));
     }
-    let pumping = run.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
-    let recharging = run.placement.wells.len() - pumping;
-    let first_rate = run.placement.wells.first().map_or(0.0, |w| w.rate);
-    let same = run
+    let standby = run
         .placement
         .wells
         .iter()
-        .all(|w| (w.rate - first_rate).abs() <= 1e-12);
+        .filter(|w| crate::optimise::standby::is_standby(w))
+        .count();
+    let pumping = run.placement.wells.iter().filter(|w| w.rate >= 0.0).count() - standby;
+    let recharging = run.placement.wells.len() - pumping - standby;
+    let duty = || {
+        run.placement
+            .wells
+            .iter()
+            .filter(|w| !crate::optimise::standby::is_standby(w))
+    };
+    let first_rate = duty().next().map_or(0.0, |w| w.rate);
+    let same = duty().all(|w| (w.rate - first_rate).abs() <= 1e-12);
     let wells = if recharging > 0 {
         format!("Wells: {pumping} pumping, {recharging} recharge")
     } else if same && pumping > 1 {
@@ -103,6 +111,11 @@ fn title_rows(
         )
     } else {
         format!("Wells: {pumping}")
+    };
+    let wells = if standby > 0 {
+        format!("{wells} + {standby} standby")
+    } else {
+        wells
     };
     raw.push((12.0, wells, false));
     raw.push((
