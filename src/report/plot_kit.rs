@@ -7,7 +7,8 @@
 //! step (common practice (no source)). A label prints as many decimals as the step needs, so a
 //! tick at 2.5 never reads "2" or "3".
 
-use svg::node::element::{Group, Line, Text};
+use svg::node::element::{Group, Line, Rectangle, Text};
+use svg::Document;
 
 /// A coordinate on the page, one decimal.
 pub fn r1(v: f64) -> String {
@@ -216,6 +217,31 @@ pub fn legend(x: f64, y: f64, step: f64, rows: &[LegendRow]) -> Group {
         g = g
             .add(l)
             .add(text(x + 28.0, ly + 4.0, 10.5, "start", r.label.clone()));
+    }
+    g
+}
+
+/// A blank chart page `width` × `height` px on a white ground.
+pub fn white_page(width: f64, height: f64) -> Document {
+    Document::new()
+        .set("viewBox", (0, 0, width as i64, height as i64))
+        .set("width", width as i64)
+        .set("height", height as i64)
+        .add(
+            Rectangle::new()
+                .set("width", "100%")
+                .set("height", "100%")
+                .set("fill", "white"),
+        )
+}
+
+/// The caution at the foot of a chart: wrapped at `wrap_at` characters, the first line's
+/// baseline at `y`, one line every `step` px, in grey text of `size` px from `x`.
+pub fn caution_block(x: f64, y: f64, size: f64, step: f64, wrap_at: usize) -> Group {
+    let mut g = Group::new().set("id", "caution");
+    let words = format!("CAUTION: {}", crate::caution::CAUTION);
+    for (k, l) in super::wrap(&words, wrap_at, "").lines().enumerate() {
+        g = g.add(text(x, y + step * k as f64, size, "start", l.to_string()).set("fill", "#555"));
     }
     g
 }

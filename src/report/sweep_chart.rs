@@ -6,13 +6,13 @@
 //! with every well at the largest uniform rate its limits allow, with the zero line: above it
 //! the layout has reserve, below it no uniform rate within the limits is enough.
 
-use super::{wrap, CAUTION};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::optimise::sweep::{Axis, Sweep};
 use crate::optimise::trial::Trial;
-use crate::report::plot_kit::{legend, line, r1, text, ticks, Frame, LegendRow};
+use crate::report::plot_kit::{
+    caution_block, legend, line, r1, text, ticks, white_page, Frame, LegendRow,
+};
 use svg::node::element::{Circle, Group, Path, Rectangle};
-use svg::Document;
 
 const WIDTH: f64 = 920.0;
 const HEIGHT: f64 = 600.0;
@@ -274,21 +274,7 @@ fn legend_rows() -> Group {
 }
 
 fn caution() -> Group {
-    let mut g = Group::new().set("id", "caution");
-    let lines = wrap(&format!("CAUTION: {CAUTION}"), 130, "");
-    for (k, l) in lines.lines().enumerate() {
-        g = g.add(
-            text(
-                LEFT,
-                HEIGHT - 50.0 + 13.0 * k as f64,
-                10.0,
-                "start",
-                l.to_string(),
-            )
-            .set("fill", "#555"),
-        );
-    }
-    g
+    caution_block(LEFT, HEIGHT - 50.0, 10.0, 13.0, 130)
 }
 
 /// The chart as SVG text, SI.
@@ -306,16 +292,7 @@ pub fn render_in(title: &str, sweep: &Sweep, units: UnitSystem) -> String {
             Axis::Spacing => "wellpoint spacing",
         }
     );
-    Document::new()
-        .set("viewBox", (0, 0, WIDTH as i64, HEIGHT as i64))
-        .set("width", WIDTH as i64)
-        .set("height", HEIGHT as i64)
-        .add(
-            Rectangle::new()
-                .set("width", "100%")
-                .set("height", "100%")
-                .set("fill", "white"),
-        )
+    white_page(WIDTH, HEIGHT)
         .add(text(LEFT, 28.0, 17.0, "start", heading))
         .add(text(LEFT, 48.0, 12.0, "start", title.to_string()))
         .add(axes(&sc, sweep, units))

@@ -2,9 +2,8 @@
 //! the P10 / P50 / P90 lines, and the tornado of one-at-a-time swings (each input at its P10 and
 //! P90, the others at P50), in the user's units, drawn with the shared plot kit.
 
-use super::plot_kit::{line, text, ticks, Frame};
+use super::plot_kit::{caution_block, line, text, ticks, white_page, Frame};
 use super::uncertainty_text::output_number;
-use super::{wrap, CAUTION};
 use crate::input::units::UnitSystem;
 use crate::uncertainty::run::{Measure, Series, Swing};
 use svg::node::element::{Group, Polyline, Rectangle};
@@ -16,38 +15,13 @@ const LEFT: f64 = 80.0;
 const BINS: usize = 24;
 
 fn page(title: &str, subtitle: &str, height: f64) -> Document {
-    Document::new()
-        .set("viewBox", (0, 0, WIDTH as i64, height as i64))
-        .set("width", WIDTH as i64)
-        .set("height", height as i64)
-        .add(
-            Rectangle::new()
-                .set("width", "100%")
-                .set("height", "100%")
-                .set("fill", "white"),
-        )
+    white_page(WIDTH, height)
         .add(text(LEFT, 26.0, 16.0, "start", title.to_string()))
         .add(text(LEFT, 44.0, 11.0, "start", subtitle.to_string()))
 }
 
 fn caution(height: f64) -> Group {
-    let mut g = Group::new().set("id", "caution");
-    for (k, l) in wrap(&format!("CAUTION: {CAUTION}"), 125, "")
-        .lines()
-        .enumerate()
-    {
-        g = g.add(
-            text(
-                LEFT,
-                height - 40.0 + 12.0 * k as f64,
-                9.5,
-                "start",
-                l.to_string(),
-            )
-            .set("fill", "#555"),
-        );
-    }
-    g
+    caution_block(LEFT, height - 40.0, 9.5, 12.0, 125)
 }
 
 fn unit_words(u: &str) -> String {
