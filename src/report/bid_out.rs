@@ -53,30 +53,25 @@ pub fn bid_csv(lines: &[BidLine], priced: Option<&Costs>) -> anyhow::Result<Vec<
         w.write_record(&rec)?;
     }
     if let Some(c) = priced {
-        for (cat, sum) in &c.subtotals {
+        // item, category, then the cost in the last column, priced by "your unit prices"
+        let mut sum_row = |item: &str, category: &str, cost: f64| {
+            let cost = format!("{cost:.2}");
             w.write_record([
-                &format!("subtotal {}", cat.name()),
-                cat.name(),
+                item,
+                category,
                 "",
                 "",
                 "",
                 "your unit prices",
                 "",
                 "",
-                &format!("{sum:.2}"),
-            ])?;
+                &cost,
+            ])
+        };
+        for (cat, sum) in &c.subtotals {
+            sum_row(&format!("subtotal {}", cat.name()), cat.name(), *sum)?;
         }
-        w.write_record([
-            "total of the priced lines",
-            "",
-            "",
-            "",
-            "",
-            "your unit prices",
-            "",
-            "",
-            &format!("{:.2}", c.total),
-        ])?;
+        sum_row("total of the priced lines", "", c.total)?;
     }
     Ok(w.into_inner()?)
 }
