@@ -86,20 +86,15 @@ fn title_rows(
     if !model.datum.is_empty() {
         raw.push((11.0, format!("Levels: {}", model.datum), false));
     }
-    let standby = run
-        .placement
-        .wells
-        .iter()
-        .filter(|w| crate::optimise::standby::is_standby(w))
-        .count();
-    let pumping = run.placement.wells.iter().filter(|w| w.rate >= 0.0).count() - standby;
-    let recharging = run.placement.wells.len() - pumping - standby;
+    let placed = &run.placement.wells;
     let duty = || {
-        run.placement
-            .wells
+        placed
             .iter()
             .filter(|w| !crate::optimise::standby::is_standby(w))
     };
+    let standby = placed.len() - duty().count();
+    let pumping = duty().filter(|w| w.rate >= 0.0).count();
+    let recharging = duty().count() - pumping;
     let first_rate = duty().next().map_or(0.0, |w| w.rate);
     let same = duty().all(|w| (w.rate - first_rate).abs() <= 1e-12);
     let wells = if recharging > 0 {
