@@ -9,6 +9,7 @@ use drydig::field::layout;
 use drydig::input::model::{Compressibility, SoilLayer};
 use drydig::input::validate::file as model;
 use drydig::physics::uplift;
+use drydig::safety::limit_check::LimitQuantity;
 use drydig::safety::neighbours::{self, Status};
 use drydig::safety::settlement::{self, StressForm};
 use serde_json::Value;
@@ -457,21 +458,25 @@ m_v = "1e-4 1/kPa"
     let run = evaluate_placement(&m, layout::from_model(&m, None).expect("wells"));
     let r = neighbours::assess_run(&run);
     let shed = r.iter().find(|n| n.name == "Shed").expect("shed assessed");
-    assert!(shed.checks.iter().all(|c| c.quantity != "drawdown"));
+    assert!(shed
+        .checks
+        .iter()
+        .all(|c| c.quantity != LimitQuantity::Drawdown));
     let set = shed
         .checks
         .iter()
-        .find(|c| c.quantity == "settlement")
+        .find(|c| c.quantity == LimitQuantity::Settlement)
         .expect("settlement checked");
     assert_eq!(set.limit, 0.025);
-    assert!(set.basis.contains("common practice (no source)"));
+    assert!(set.basis.words().contains("common practice (no source)"));
     let dist = shed
         .checks
         .iter()
-        .find(|c| c.quantity == "angular distortion")
+        .find(|c| c.quantity == LimitQuantity::AngularDistortion)
         .expect("distortion checked");
     assert!((dist.limit - 1.0 / 500.0).abs() < 1e-15);
-    assert!(dist.basis.contains("rule of thumb"));
+    assert!(dist.basis.is_rule_of_thumb());
+    assert!(dist.basis.words().contains("rule of thumb"));
 }
 
 // design.md §4: exit code 3 when computed but a limit is not met. The confined test design
@@ -703,4 +708,82 @@ fn valve_house_in_us_units() {
         html.contains("<h3>Settlement</h3>") && html.contains(" psf"),
         "report"
     );
+}
+
+// The neighbours table is built once and rendered in the run's units: with `--units us` the
+// terminal table and report.html's table carry feet and inches and no metres, while
+// neighbours.csv keeps its SI machine columns. Riverside basement's warehouse has an allowable
+// drawdown of 2.0 m and settlement of 0.015 m, the terrace 0.010 m: by hand (NIST SP 811 (2008)
+// App. B, 1 ft = 0.3048 m, 1 in = 0.0254 m) 2.0 m = 6.56 ft → "6.6", 0.015 m = 0.591 in →
+// "0.59", 0.010 m = 0.394 in → "0.39".
+#[test]
+fn neighbours_table_in_us_units_carries_feet_and_inches() {
+    let out = tmp_dir("table-us");
+    let run = drydig(&[
+        "check",
+        layouts("riverside_basement.toml").to_str().expect("utf-8"),
+        "--units",
+        "us",
+        "-o",
+        out.to_str().expect("utf-8"),
+    ]);
+    assert!(
+        matches!(run.status.code(), Some(0) | Some(3)),
+        "{}",
+        text(&run.stderr)
+    );
+    let stdout = text(&run.stdout);
+    let table: Vec<&str> = stdout
+        .lines()
+        .skip_while(|l| !l.starts_with("neighbours ("))
+        .skip(1)
+        .take(3)
+        .collect();
+    assert!(
+        table[0].contains("drawdown ft") && table[0].contains("settlement in"),
+        "{table:?}"
+    );
+    let row = |name: &str| -> Vec<&str> {
+        let line = table
+            .iter()
+            .find(|l| l.starts_with(name))
+            .unwrap_or_else(|| panic!("{name} in {table:?}"));
+        line[name.len()..].split_whitespace().collect()
+    };
+    // warehouse: drawdown, limit, settlement, limit, distortion, limit, status
+    let warehouse = row("Old mill warehouse");
+    assert_eq!(
+        (warehouse[1], warehouse[3]),
+        ("6.6", "0.59"),
+        "{warehouse:?}"
+    );
+    assert_eq!(warehouse[5], "1/500", "{warehouse:?}");
+    let terrace = row("Terrace houses 2–8");
+    assert_eq!((terrace[1], terrace[3]), ("—", "0.39"), "{terrace:?}");
+    for line in &table {
+        let words: Vec<&str> = line.split_whitespace().collect();
+        assert!(
+            !words.iter().any(|w| ["m", "mm"].contains(w)),
+            "SI in the US table: {line}"
+        );
+    }
+    let html = std::fs::read_to_string(out.join("report.html")).expect("report");
+    assert!(
+        html.contains("<th class=\"n\">drawdown (ft)</th>")
+            && html.contains("<th class=\"n\">settlement (in)</th>")
+            && html.contains("<td class=\"n\">0.59</td>"),
+        "report.html neighbours table in ft and in"
+    );
+    // The CSV stays in SI: 2.000 m and 15.0 mm, as the design file gives them.
+    let csv = std::fs::read_to_string(out.join("neighbours.csv")).expect("neighbours.csv");
+    let head: Vec<&str> = csv.lines().next().expect("header").split(',').collect();
+    let warehouse = csv
+        .lines()
+        .find(|l| l.starts_with("Old mill warehouse"))
+        .expect("warehouse row");
+    let cells: Vec<&str> = warehouse.split(',').collect();
+    let at = |h: &str| cells[head.iter().position(|c| *c == h).expect("column")];
+    assert_eq!(at("allowable_drawdown_m"), "2.000");
+    assert_eq!(at("allowable_settlement_mm"), "15.0");
+    assert_eq!(at("settlement_limit_basis"), "design file");
 }

@@ -112,9 +112,20 @@ impl Fmt {
     }
     /// A small length (settlement): "12.3 mm" or "0.48 in".
     pub fn small_length(&self, m: f64) -> String {
+        format!("{} {}", self.small_length_value(m), self.small_unit())
+    }
+    /// A small length without its unit: mm to one decimal, or inches (1 in = 0.0254 m) to two.
+    pub fn small_length_value(&self, m: f64) -> String {
         match self.units {
-            UnitSystem::Si => format!("{} mm", num(m * 1e3, 1)),
-            UnitSystem::Us => format!("{} in", num(m / 0.0254, 2)),
+            UnitSystem::Si => num(m * 1e3, 1),
+            UnitSystem::Us => num(m / 0.0254, 2),
+        }
+    }
+    /// Unit of a small length ("mm", "in").
+    pub fn small_unit(&self) -> &'static str {
+        match self.units {
+            UnitSystem::Si => "mm",
+            UnitSystem::Us => "in",
         }
     }
     /// A map coordinate (easting or northing) with its unit: "1 040.0 m".
@@ -124,6 +135,17 @@ impl Fmt {
             super::thousands(self.units.length(m), 1),
             self.lu()
         )
+    }
+}
+
+/// An angular distortion or deflection ratio as "1/n" ("0" when none, two decimals from 1 up).
+pub fn ratio_value(beta: f64) -> String {
+    if beta <= 0.0 {
+        "0".into()
+    } else if beta >= 1.0 {
+        format!("{beta:.2}")
+    } else {
+        format!("1/{:.0}", 1.0 / beta)
     }
 }
 

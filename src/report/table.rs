@@ -3,10 +3,14 @@
 //! report.html, the CSV file). The units are applied by the renderers only: through [`Fmt`] in
 //! the user's unit system for the terminal and the report, and in SI at a stated precision for
 //! the CSV (its headers carry the SI unit, `x_m`, `rate_l_per_s`, see [`crate::report::tables`]).
+//! The wells table ([`crate::report::tables`]), the estimate ([`crate::report::estimate_table`])
+//! and the neighbours ([`crate::report::neighbours::table`]) are built this way.
 
 use crate::check::evaluate::WellProblem;
-use crate::report::format::{esc, Fmt};
+use crate::report::format::{esc, ratio_value, Fmt};
 use crate::report::problems::well_problems;
+use crate::safety::limit_check::LimitQuantity;
+use crate::safety::neighbours::Status;
 
 /// `v` to `decimals` places, without a minus sign on a value that rounds to zero.
 pub fn fixed(v: f64, decimals: usize) -> String {
@@ -49,6 +53,22 @@ pub enum Cell {
     Count(u64),
     /// What is wrong at a well ("ok" when nothing), in the user's units.
     Status(Vec<WellProblem>),
+    /// A small length (settlement, differential settlement), m ("mm" or "in" for people).
+    Small(f64),
+    /// A dimensionless ratio (angular distortion, deflection ratio), "1/n" for people.
+    Ratio(f64),
+    /// A fraction (utilisation, value ÷ limit), in per cent for people.
+    Fraction(f64),
+    /// A duration, s (days for people).
+    Duration(f64),
+    /// Nothing to show: "—" for people, an empty CSV cell.
+    Empty,
+    /// The inner cell followed by "*" for people (a footnote says why: a rule-of-thumb limit);
+    /// the CSV writes the inner value.
+    Footnoted(Box<Cell>),
+    /// A neighbour's outcome and the quantities over their limits: "FAIL (drawdown)" for
+    /// people (marked bad in report.html), the status word alone in the CSV.
+    Neighbour(Status, Vec<LimitQuantity>),
 }
 
 /// The quantity of a column, for the unit in its heading.
@@ -64,6 +84,14 @@ pub enum Quantity {
     Flow,
     /// Counts: no unit, right-aligned.
     Count,
+    /// Small lengths (settlement): "mm", "in".
+    Small,
+    /// Ratios ("1/500"): no unit, right-aligned.
+    Ratio,
+    /// Fractions shown in per cent: "%".
+    Percent,
+    /// Durations: "days".
+    Days,
 }
 
 /// How a column is written in the CSV file.
@@ -80,6 +108,8 @@ pub enum Csv {
     Fine(&'static str, f64),
     /// Under this heading, the SI value × `scale` to the given decimals.
     Fixed(&'static str, f64, usize),
+    /// Under this heading, the value in scientific notation to the given decimals ("2.000e-3").
+    Sci(&'static str, usize),
 }
 
 /// One column: its heading for people, its quantity, where it is shown.
@@ -109,10 +139,13 @@ pub struct Table {
 impl Quantity {
     fn unit(self, f: &Fmt) -> Option<&'static str> {
         match self {
-            Quantity::Words | Quantity::Count => None,
+            Quantity::Words | Quantity::Count | Quantity::Ratio => None,
             Quantity::Length => Some(f.lu()),
             Quantity::Rate => Some(f.rate_unit()),
             Quantity::Flow => Some(f.flow_unit()),
+            Quantity::Small => Some(f.small_unit()),
+            Quantity::Percent => Some("%"),
+            Quantity::Days => Some("days"),
         }
     }
 
@@ -120,7 +153,7 @@ impl Quantity {
     fn html_heading(self, title: &str, f: &Fmt) -> String {
         match (self, self.unit(f)) {
             (_, Some(u)) => format!("#{title} ({u})"),
-            (Quantity::Count, None) => format!("#{title}"),
+            (Quantity::Count | Quantity::Ratio, None) => format!("#{title}"),
             _ => title.to_string(),
         }
     }
@@ -139,6 +172,17 @@ fn person_text(cell: &Cell, f: &Fmt) -> String {
         Cell::Count(n) => n.to_string(),
         Cell::Status(p) if p.is_empty() => "ok".into(),
         Cell::Status(p) => well_problems(p, f),
+        Cell::Small(v) => f.small_length_value(*v),
+        Cell::Ratio(b) => ratio_value(*b),
+        Cell::Fraction(u) => fixed(u * 100.0, 0),
+        Cell::Duration(t) => fixed(t / 86_400.0, 1),
+        Cell::Empty => "—".into(),
+        Cell::Footnoted(c) => person_text(c, f) + "*",
+        Cell::Neighbour(status, over) if over.is_empty() => status.word().into(),
+        Cell::Neighbour(status, over) => {
+            let words: Vec<&str> = over.iter().map(|q| q.words()).collect();
+            format!("{} ({})", status.word(), words.join(", "))
+        }
     }
 }
 
@@ -147,16 +191,26 @@ fn csv_text(cell: &Cell, csv: Csv, f: &Fmt) -> String {
     let number = |v: f64| match csv {
         Csv::Fine(_, scale) => fine(v * scale),
         Csv::Fixed(_, scale, decimals) => fixed(v * scale, decimals),
+        Csv::Sci(_, decimals) => format!("{v:.decimals$e}"),
         Csv::Words(_) | Csv::Name(_) | Csv::No => fine(v),
     };
     match cell {
         Cell::Text(t) if matches!(csv, Csv::Name(_)) => crate::field::wells_csv::csv_text(t),
         Cell::Text(t) => t.clone(),
-        Cell::Length(v) | Cell::Rate(v) | Cell::Flow(v) => number(*v),
+        Cell::Length(v)
+        | Cell::Rate(v)
+        | Cell::Flow(v)
+        | Cell::Small(v)
+        | Cell::Ratio(v)
+        | Cell::Fraction(v)
+        | Cell::Duration(v) => number(*v),
         Cell::Level(z) | Cell::Depth(z) | Cell::Fine(z) => z.map_or(String::new(), number),
         Cell::Count(n) => n.to_string(),
         Cell::Status(p) if p.is_empty() => "ok".into(),
         Cell::Status(p) => well_problems(p, f),
+        Cell::Empty => String::new(),
+        Cell::Footnoted(c) => csv_text(c, csv, f),
+        Cell::Neighbour(status, _) => status.word().into(),
     }
 }
 
@@ -239,7 +293,7 @@ impl Table {
             .map(|r| {
                 cols.iter()
                     .map(|(i, _)| match &r[*i] {
-                        c @ Cell::Status(p) if !p.is_empty() => {
+                        c @ (Cell::Status(_) | Cell::Neighbour(..)) if is_bad(c) => {
                             format!("<span class=\"bad\">{}</span>", esc(&person_text(c, f)))
                         }
                         c => esc(&person_text(c, f)),
@@ -255,13 +309,26 @@ impl Table {
         let cols = self.shown(|c| c.csv != Csv::No);
         let mut w = csv::Writer::from_writer(Vec::new());
         w.write_record(cols.iter().map(|(_, c)| match c.csv {
-            Csv::Words(h) | Csv::Name(h) | Csv::Fine(h, _) | Csv::Fixed(h, _, _) => h,
+            Csv::Words(h)
+            | Csv::Name(h)
+            | Csv::Fine(h, _)
+            | Csv::Fixed(h, _, _)
+            | Csv::Sci(h, _) => h,
             Csv::No => "",
         }))?;
         for r in &self.rows {
             w.write_record(cols.iter().map(|(i, c)| csv_text(&r[*i], c.csv, f)))?;
         }
         Ok(w.into_inner()?)
+    }
+}
+
+/// A status cell that report.html marks bad: problems at a well, a neighbour over a limit.
+fn is_bad(cell: &Cell) -> bool {
+    match cell {
+        Cell::Status(p) => !p.is_empty(),
+        Cell::Neighbour(status, _) => *status == Status::Fail,
+        _ => false,
     }
 }
 
@@ -330,5 +397,46 @@ mod tests {
             csv,
             "name,x_m,level_m,rate_l_per_s,status\n'=W1,3.048,,5.2,ok\n"
         );
+    }
+
+    #[test]
+    fn limit_cells_in_inches_and_csv_in_si() {
+        // 25.4 mm = 1.00 in (NIST SP 811 (2008) App. B: 1 in = 0.0254 m); β = 0.002 = 1/500.
+        let col = |title, quantity, csv| Column {
+            title,
+            quantity,
+            terminal: true,
+            html: true,
+            csv,
+        };
+        let t = Table {
+            columns: vec![
+                col("settlement", Quantity::Small, Csv::Fixed("s_mm", 1e3, 1)),
+                col("limit", Quantity::Ratio, Csv::Sci("beta", 3)),
+                col(
+                    "drawdown limit",
+                    Quantity::Length,
+                    Csv::Fixed("d_m", 1.0, 3),
+                ),
+                col("status", Quantity::Words, Csv::Words("status")),
+            ],
+            rows: vec![vec![
+                Cell::Small(0.0254),
+                Cell::Footnoted(Box::new(Cell::Ratio(0.002))),
+                Cell::Empty,
+                Cell::Neighbour(Status::Fail, vec![LimitQuantity::Settlement]),
+            ]],
+        };
+        let us = Fmt::new(UnitSystem::Us, 0.0);
+        assert_eq!(
+            t.to_text(&us),
+            "settlement in   limit  drawdown limit ft  status\n\
+             \x20        1.00  1/500*                  —  FAIL (settlement)\n"
+        );
+        assert!(t
+            .to_html(&us)
+            .contains("<span class=\"bad\">FAIL (settlement)</span>"));
+        let csv = String::from_utf8(t.to_csv(&us).unwrap()).unwrap();
+        assert_eq!(csv, "s_mm,beta,d_m,status\n25.4,2.000e-3,,FAIL\n");
     }
 }

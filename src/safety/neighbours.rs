@@ -27,6 +27,7 @@ use crate::input::model::{Model, Neighbour};
 use crate::physics::building_damage::Category;
 use crate::physics::potential::Level;
 use crate::safety::distortion::{self, Side};
+use crate::safety::limit_check::{LimitBasis, LimitCheck, LimitQuantity};
 use crate::safety::pore_pressure::{self, HeadDrop};
 use crate::safety::settlement::{self, StressForm};
 use geo::{BoundingRect, Contains, Point};
@@ -40,6 +41,9 @@ pub const RULE_OF_THUMB_DISTORTION: f64 = 1.0 / 500.0;
 /// recharge wells (common practice (no source): cellars and services were built for the old
 /// level).
 pub const RULE_OF_THUMB_RISE: f64 = 0.3;
+/// Label of the rule-of-thumb rise above the original level.
+pub const RULE_OF_THUMB_RISE_LABEL: &str =
+    "rise above the original level, common practice (no source)";
 /// Label carried beside every rule-of-thumb limit.
 pub const RULE_OF_THUMB_LABEL: &str =
     "rule of thumb for buildings on shallow footings, common practice (no source)";
@@ -78,23 +82,6 @@ pub struct Sample {
     pub settlement_m: Option<f64>,
     /// Final (fully consolidated) settlement, m.
     pub settlement_final_m: Option<f64>,
-}
-
-/// One quantity against its limit.
-#[derive(Debug, Clone, Serialize)]
-pub struct LimitCheck {
-    /// "drawdown", "settlement" or "angular distortion".
-    pub quantity: String,
-    /// The worst value under the building (m, or a ratio for distortion).
-    pub value: f64,
-    /// The limit.
-    pub limit: f64,
-    /// "design file", or the rule-of-thumb label.
-    pub basis: String,
-    /// value ÷ limit.
-    pub utilisation: f64,
-    /// Within the limit.
-    pub pass: bool,
 }
 
 /// Outcome for one neighbour.
@@ -295,18 +282,24 @@ pub fn works_duration(model: &Model, n: &Neighbour) -> Option<(f64, String)> {
 }
 
 /// The settlement limit in force (m) and its basis.
-pub fn settlement_limit(n: &Neighbour) -> (f64, String) {
+pub fn settlement_limit(n: &Neighbour) -> (f64, LimitBasis) {
     match n.allowable_settlement {
-        Some(v) => (v, "design file".into()),
-        None => (RULE_OF_THUMB_SETTLEMENT, RULE_OF_THUMB_LABEL.into()),
+        Some(v) => (v, LimitBasis::DesignFile),
+        None => (
+            RULE_OF_THUMB_SETTLEMENT,
+            LimitBasis::RuleOfThumb(RULE_OF_THUMB_LABEL),
+        ),
     }
 }
 
 /// The distortion limit in force and its basis.
-pub fn distortion_limit(n: &Neighbour) -> (f64, String) {
+pub fn distortion_limit(n: &Neighbour) -> (f64, LimitBasis) {
     match n.allowable_distortion {
-        Some(v) => (v, "design file".into()),
-        None => (RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL.into()),
+        Some(v) => (v, LimitBasis::DesignFile),
+        None => (
+            RULE_OF_THUMB_DISTORTION,
+            LimitBasis::RuleOfThumb(RULE_OF_THUMB_LABEL),
+        ),
     }
 }
 
@@ -327,26 +320,15 @@ pub fn drawdown_limit_for_recharge(model: &Model, n: &Neighbour) -> Option<(f64,
                 best = Some((
                     s,
                     format!(
-                        "drawdown that settles it by {:.1} mm ({basis})",
-                        limit * 1e3
+                        "drawdown that settles it by {:.1} mm ({})",
+                        limit * 1e3,
+                        basis.words()
                     ),
                 ));
             }
         }
     }
     best
-}
-
-fn check(quantity: &str, value: f64, limit: f64, basis: String) -> LimitCheck {
-    let utilisation = if limit > 0.0 { value / limit } else { 0.0 };
-    LimitCheck {
-        quantity: quantity.into(),
-        value,
-        limit,
-        basis,
-        utilisation,
-        pass: value <= limit * (1.0 + 1e-9),
-    }
 }
 
 /// Samples under the footprint with their levels, drawdowns and settlements (final and at the
@@ -665,20 +647,25 @@ fn checks_and_notes(
         .fold(0.0_f64, f64::max);
     if worst_rise > 1e-6 || n.allowable_rise.is_some() {
         let (limit, basis) = match n.allowable_rise {
-            Some(v) => (v, "design file".to_string()),
+            Some(v) => (v, LimitBasis::DesignFile),
             None => (
                 RULE_OF_THUMB_RISE,
-                "rise above the original level, common practice (no source)".to_string(),
+                LimitBasis::RuleOfThumb(RULE_OF_THUMB_RISE_LABEL),
             ),
         };
-        checks.push(check("rise above original level", worst_rise, limit, basis));
+        checks.push(LimitCheck::new(
+            LimitQuantity::Rise,
+            worst_rise,
+            limit,
+            basis,
+        ));
     }
     match n.allowable_drawdown {
-        Some(limit) => checks.push(check(
-            "drawdown",
+        Some(limit) => checks.push(LimitCheck::new(
+            LimitQuantity::Drawdown,
             worst_drawdown.drawdown_m,
             limit,
-            "design file".into(),
+            LimitBasis::DesignFile,
         )),
         None => notes.push(
             "no allowable_drawdown given: drawdown is reported, not checked (there is no general rule of thumb for it)"
@@ -687,15 +674,20 @@ fn checks_and_notes(
     }
     if let Some(ws) = worst_settlement {
         let (limit, basis) = settlement_limit(n);
-        checks.push(check(
-            "settlement",
+        checks.push(LimitCheck::new(
+            LimitQuantity::Settlement,
             ws.settlement_m.unwrap_or(0.0),
             limit,
             basis,
         ));
         if let Some(beta) = max_distortion {
             let (limit, basis) = distortion_limit(n);
-            checks.push(check("angular distortion", beta, limit, basis));
+            checks.push(LimitCheck::new(
+                LimitQuantity::AngularDistortion,
+                beta,
+                limit,
+                basis,
+            ));
         }
     } else {
         notes.push(

@@ -3,6 +3,8 @@
 use super::context::Context;
 use super::page::{table, Part};
 use crate::report::format::esc;
+use crate::report::neighbours::table::neighbours_table;
+use crate::report::neighbours::text::rule_of_thumb_note;
 
 /// Each neighbour: worst drawdown, settlement and distortion against the limits.
 pub fn neighbours(cx: &Context) -> Part {
@@ -15,52 +17,12 @@ pub fn neighbours(cx: &Context) -> Part {
             "<p>No neighbouring buildings are given in the design file.</p>".into(),
         );
     }
-    let mut rows = Vec::new();
-    for n in results {
-        let checks: Vec<String> = n
-            .checks
-            .iter()
-            .map(|c| {
-                let v = |x: f64| match c.quantity.as_str() {
-                    "angular distortion" => {
-                        if x > 0.0 {
-                            format!("1/{:.0}", 1.0 / x)
-                        } else {
-                            "0".into()
-                        }
-                    }
-                    "settlement" => f.small_length(x),
-                    _ => f.length(x),
-                };
-                format!(
-                    "{} {} of {} ({:.0} %)",
-                    c.quantity,
-                    v(c.value),
-                    v(c.limit),
-                    c.utilisation * 100.0
-                )
-            })
-            .collect();
-        rows.push(vec![
-            esc(&n.name),
-            esc(&f.length(n.worst_drawdown.drawdown_m)),
-            esc(&n
-                .worst_settlement
-                .as_ref()
-                .and_then(|s| s.settlement_m)
-                .map_or("—".into(), |s| f.small_length(s))),
-            esc(&checks.join("; ")),
-            if n.status == crate::safety::neighbours::Status::Fail {
-                format!("<span class=\"bad\">{}</span>", n.status.word())
-            } else {
-                esc(n.status.word())
-            },
-        ]);
+    let mut body = neighbours_table(results).to_html(f);
+    if let Some(note) = rule_of_thumb_note(results, cx.run.model.units) {
+        body.push_str(&format!("<p class=\"note\">{}</p>", esc(&note)));
     }
-    let body = table(
-        &["neighbour", "#worst drawdown", "#worst settlement", "checks against limits", "status"],
-        &rows,
-    ) + "<p class=\"note\">Every sample under each building is in neighbours.csv; settlement.svg draws them.</p>"
+    let body = body
+        + "<p class=\"note\">Every sample under each building is in neighbours.csv; settlement.svg draws them.</p>"
         + &crate::report::neighbours::html_section::settlement_section(
             results,
             &crate::report::neighbours::settlement_svg::settlement_svg(

@@ -1,5 +1,6 @@
-//! Neighbours, base uplift and recharge in the outputs: the terminal section ([`text`], with the
-//! settlement in time, damage category and soil column of [`column_text`]),
+//! Neighbours, base uplift and recharge in the outputs: the neighbours table built once for the
+//! terminal, report.html and `neighbours.csv` ([`table`]), the terminal section ([`text`], with
+//! the settlement in time, damage category and soil column of [`column_text`]),
 //! `neighbours.csv` and `neighbour_points.csv` ([`csv_tables`]), the rule-of-thumb limits in
 //! `summary.json` ([`summary`]), `settlement.svg` ([`settlement_svg`], drawn with the
 //! transform, grids, colour ramp and labels of [`settlement_plot`]), the status colours
@@ -17,4 +18,5 @@ pub mod settlement_svg;
 pub mod soil_column_svg;
 pub mod status;
 pub mod summary;
+pub mod table;
 pub mod text;

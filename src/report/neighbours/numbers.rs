@@ -5,13 +5,7 @@ use crate::input::units::UnitSystem;
 
 /// An angular distortion or deflection ratio as "1/n" ("0" when none).
 pub fn ratio_text(beta: f64) -> String {
-    if beta <= 0.0 {
-        "0".into()
-    } else if beta >= 1.0 {
-        format!("{beta:.2}")
-    } else {
-        format!("1/{:.0}", 1.0 / beta)
-    }
+    crate::report::format::ratio_value(beta)
 }
 
 /// A settlement in mm (SI) or inches (US; 1 in = 0.0254 m, NIST SP 811 App. B): value, unit.

@@ -6,39 +6,46 @@
 use crate::findings::check::CheckFindings;
 use crate::input::units::UnitSystem;
 use crate::optimise::recharge::RechargeSizing;
+use crate::report::format::Fmt;
 use crate::report::neighbours::numbers::{
-    mm, pressure_kpa, ratio_text, rule_settlement, small, truncate, unit_weight,
+    mm, pressure_kpa, ratio_text, rule_settlement, truncate, unit_weight,
 };
+use crate::report::neighbours::table::neighbours_table;
 use crate::report::wrap;
+use crate::safety::limit_check::{LimitBasis, LimitQuantity};
 use crate::safety::neighbours::{
-    NeighbourResult, Status, RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL,
-    RULE_OF_THUMB_SETTLEMENT,
+    NeighbourResult, Status, RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL, RULE_OF_THUMB_RISE,
+    RULE_OF_THUMB_RISE_LABEL, RULE_OF_THUMB_SETTLEMENT,
 };
 use crate::safety::uplift::UpliftResult;
 
-/// The checks of a neighbour in one line: "drawdown 1.62/1.50 m FAIL; …".
+/// The checks of a neighbour in one line: "drawdown 1.62 of 1.50 m OVER; …", with the basis of
+/// a limit that is not the design file's.
 fn checks_line(r: &NeighbourResult, units: UnitSystem) -> String {
     r.checks
         .iter()
         .map(|c| {
-            let v = match c.quantity.as_str() {
-                "drawdown" => format!(
+            let v = match c.quantity {
+                LimitQuantity::Drawdown | LimitQuantity::Rise => format!(
                     "{:.2} of {:.2} {}",
                     units.length(c.value),
                     units.length(c.limit),
                     units.length_unit()
                 ),
-                "settlement" => format!("{} of {}", mm(c.value, units), mm(c.limit, units)),
-                _ => format!("{} of {}", ratio_text(c.value), ratio_text(c.limit)),
+                LimitQuantity::Settlement => {
+                    format!("{} of {}", mm(c.value, units), mm(c.limit, units))
+                }
+                LimitQuantity::AngularDistortion => {
+                    format!("{} of {}", ratio_text(c.value), ratio_text(c.limit))
+                }
             };
-            let basis = if c.basis == "design file" {
-                String::new()
-            } else {
-                format!(" [limit: {}]", c.basis)
+            let basis = match c.basis {
+                LimitBasis::DesignFile => String::new(),
+                LimitBasis::RuleOfThumb(label) => format!(" [limit: {label}]"),
             };
             format!(
                 "{} {v} {}{basis}",
-                c.quantity,
+                c.quantity.words(),
                 if c.pass { "ok" } else { "OVER" }
             )
         })
@@ -68,95 +75,49 @@ pub fn text(found: &CheckFindings, units: UnitSystem) -> String {
     out
 }
 
-/// The neighbours table: heading, one row per building, and the note on limits not given.
+/// The neighbours table ([`neighbours_table`]): heading, one row per building, and the note on
+/// limits not given.
 fn table(results: &[NeighbourResult], units: UnitSystem) -> String {
     let mut out = String::new();
-    let lu = units.length_unit();
     out.push_str("\nneighbours (drawdown from superposition; settlement by 1D consolidation on the listed layers)\n");
-    out.push_str(&format!(
-        "{:<26} {:>10} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
-        "name",
-        &format!("drawdown {lu}"),
-        "limit",
-        "settlement",
-        "limit",
-        "distortion",
-        "limit",
-        "status"
-    ));
-    for r in results {
-        out.push_str(&table_row(r, units));
-    }
-    if results
-        .iter()
-        .flat_map(|r| &r.checks)
-        .any(|c| c.basis != "design file")
-    {
-        out.push_str(&wrap(
-            &format!(
-                "* limit not in the design file: {} — {} total settlement, angular distortion {}; give the building's own limits",
-                RULE_OF_THUMB_LABEL,
-                rule_settlement(RULE_OF_THUMB_SETTLEMENT, units),
-                ratio_text(RULE_OF_THUMB_DISTORTION)
-            ),
-            96,
-            "  ",
-        ));
+    out.push_str(&neighbours_table(results).to_text(&Fmt::new(units, 0.0)));
+    if let Some(note) = rule_of_thumb_note(results, units) {
+        out.push_str(&wrap(&note, 96, "  "));
     }
     out
 }
 
-/// One row of the neighbours table: worst drawdown, settlement and distortion with their
-/// limits (* where the limit is the rule of thumb), and the status.
-fn table_row(r: &NeighbourResult, units: UnitSystem) -> String {
-    let l = |x: f64| units.length(x);
-    let find = |q: &str| r.checks.iter().find(|c| c.quantity == q);
-    let lim_dd = find("drawdown").map_or("—".into(), |c| format!("{:.2}", l(c.limit)));
-    let (rho, lim_rho) = match (&r.worst_settlement, find("settlement")) {
-        (Some(s), Some(c)) => (
-            mm(s.settlement_m.unwrap_or(0.0), units),
-            format!(
-                "{:.*}{}",
-                if units == UnitSystem::Us { 2 } else { 1 },
-                small(c.limit, units).0,
-                if c.basis == "design file" { "" } else { "*" }
-            ),
-        ),
-        _ => ("—".into(), "—".into()),
+/// The footnote of the "*" limits: the rules of thumb the table uses where the design file gives
+/// no limit (`None` when it uses none).
+pub fn rule_of_thumb_note(results: &[NeighbourResult], units: UnitSystem) -> Option<String> {
+    let ruled = |q: LimitQuantity| {
+        results
+            .iter()
+            .flat_map(|r| &r.checks)
+            .any(|c| c.quantity == q && c.basis.is_rule_of_thumb())
     };
-    let (beta, lim_beta) = match (r.max_distortion, find("angular distortion")) {
-        (Some(b), Some(c)) => (
-            ratio_text(b),
-            format!(
-                "{}{}",
-                ratio_text(c.limit),
-                if c.basis == "design file" { "" } else { "*" }
-            ),
-        ),
-        _ => ("—".into(), "—".into()),
-    };
-    let failing: Vec<&str> = r
-        .checks
-        .iter()
-        .filter(|c| !c.pass)
-        .map(|c| c.quantity.as_str())
-        .collect();
-    let status = if failing.is_empty() {
-        r.status.word().to_string()
-    } else {
-        format!("FAIL ({})", failing.join(", "))
-    };
-    format!(
-        "{:<26} {:>10.2} {:>9} {:>11} {:>9} {:>11} {:>9}  {}\n",
-        truncate(&r.name, 26),
-        l(r.worst_drawdown.drawdown_m),
-        lim_dd,
-        rho,
-        lim_rho,
-        beta,
-        lim_beta,
-        status
-    )
+    let mut rules = Vec::new();
+    if ruled(LimitQuantity::Settlement) || ruled(LimitQuantity::AngularDistortion) {
+        rules.push(format!(
+            "{} — {} total settlement, angular distortion {}",
+            RULE_OF_THUMB_LABEL,
+            rule_settlement(RULE_OF_THUMB_SETTLEMENT, units),
+            ratio_text(RULE_OF_THUMB_DISTORTION)
+        ));
+    }
+    if ruled(LimitQuantity::Rise) {
+        rules.push(format!(
+            "{} — {}",
+            RULE_OF_THUMB_RISE_LABEL,
+            Fmt::new(units, 0.0).length(RULE_OF_THUMB_RISE)
+        ));
+    }
+    (!rules.is_empty()).then(|| {
+        format!(
+            "* limit not in the design file: {}; give the building's own limits",
+            rules.join("; ")
+        )
+    })
 }
 
 /// One building in detail: settlement profile basis, corners, worst point, sides, settlement
