@@ -136,8 +136,7 @@ impl Table {
             Nodes::Ready(values) => &values[i..i + 4],
             Nodes::Lazy { cells, value } => {
                 lazy = [0, 1, 2, 3].map(|k| {
-                    *cells[i + k]
-                        .get_or_init(|| value(Table::node_radius(self.u0, self.du, i + k)))
+                    *cells[i + k].get_or_init(|| value(Table::node_radius(self.u0, self.du, i + k)))
                 });
                 &lazy
             }

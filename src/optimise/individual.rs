@@ -219,7 +219,13 @@ impl LayoutRates<'_> {
 
     /// The answer of a solved programme: its binding rows in words, and whether the evaluation
     /// at its rates confirms every target and limit.
-    fn judged(&self, sol: LpSolution, rows: Vec<RowRef>, rounds: usize, rates: Vec<f64>) -> Individual {
+    fn judged(
+        &self,
+        sol: LpSolution,
+        rows: Vec<RowRef>,
+        rounds: usize,
+        rates: Vec<f64>,
+    ) -> Individual {
         let binding = self.binding_labels(&sol, &rows, &rates);
         let e = self.evaluate(&rates);
         Individual {
