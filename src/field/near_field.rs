@@ -21,7 +21,9 @@
 //! - beyond [`cutoff_radius`] (|Δ| < [`NEAR_FIELD_TOLERANCE`] = 1e-3) the term is dropped.
 //!
 //! Δ(r) at a fixed elevation is tabulated once per screen on a uniform grid in ln r and read by
-//! cubic (Catmull–Rom) interpolation, within 1e-6 of the series (tested below).
+//! cubic (Catmull–Rom) interpolation, within 1e-6 of the series (tested below). The tables
+//! averaged over a well's screen (dear: a quadrature of the series per node, most of it near
+//! the well, where no other well stands) compute each node on first read, to the same values.
 
 use crate::physics::partial_penetration::{
     cutoff_radius, is_partial, point_correction, well_correction, Screen,
@@ -39,29 +41,78 @@ pub const NEAR_FIELD_TOLERANCE: f64 = 1e-3;
 /// Nodes of each Δ(ln r) table.
 const TABLE_NODES: usize = 320;
 
-/// Δ(r) at one elevation for one screen, tabulated in u = ln r.
+/// Δ(r) at one elevation (or averaged over a screen) for one screen, tabulated in u = ln r.
 #[derive(Debug)]
 struct Table {
     u0: f64,
     du: f64,
-    values: Vec<f64>,
+    nodes: Nodes,
     cutoff: f64,
 }
 
+/// The node values of a [`Table`]: all computed when it is built, or each on first read.
+enum Nodes {
+    /// Every node computed.
+    Ready(Vec<f64>),
+    /// Each node computed on first read (the same value as `Ready` would hold): for the
+    /// screen-averaged tables, read only at the distances between wells but dear near the well
+    /// (a quadrature of the series per node).
+    Lazy {
+        cells: Vec<OnceLock<f64>>,
+        value: LazyValue,
+    },
+}
+
+/// Δ(r) of a lazily built table.
+type LazyValue = Box<dyn Fn(f64) -> f64 + Send + Sync>;
+
+impl std::fmt::Debug for Nodes {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Nodes::Ready(v) => f.debug_tuple("Ready").field(&v.len()).finish(),
+            Nodes::Lazy { cells, .. } => f.debug_tuple("Lazy").field(&cells.len()).finish(),
+        }
+    }
+}
+
 impl Table {
-    /// Δ(r) = `value(r)` tabulated from `r_lo` to `cutoff`.
-    fn build(value: impl Fn(f64) -> f64, r_lo: f64, cutoff: f64) -> Table {
+    /// The ln r grid from `r_lo` to `cutoff`: (u0, du).
+    fn grid(r_lo: f64, cutoff: f64) -> (f64, f64) {
         let u0 = r_lo.ln();
         let u1 = cutoff.max(r_lo * 1.001).ln();
-        let du = (u1 - u0) / (TABLE_NODES - 1) as f64;
-        // one node either side for the cubic at the ends
+        (u0, (u1 - u0) / (TABLE_NODES - 1) as f64)
+    }
+
+    /// The radius of node `i` (one node either side of the range for the cubic at the ends).
+    #[inline]
+    fn node_radius(u0: f64, du: f64, i: usize) -> f64 {
+        (u0 + (i as f64 - 1.0) * du).exp()
+    }
+
+    /// Δ(r) = `value(r)` tabulated from `r_lo` to `cutoff`.
+    fn build(value: impl Fn(f64) -> f64, r_lo: f64, cutoff: f64) -> Table {
+        let (u0, du) = Table::grid(r_lo, cutoff);
         let values = (0..TABLE_NODES + 2)
-            .map(|i| value((u0 + (i as f64 - 1.0) * du).exp()))
+            .map(|i| value(Table::node_radius(u0, du, i)))
             .collect();
         Table {
             u0,
             du,
-            values,
+            nodes: Nodes::Ready(values),
+            cutoff,
+        }
+    }
+
+    /// As [`Table::build`], each node computed when first read (same values).
+    fn build_lazy(value: LazyValue, r_lo: f64, cutoff: f64) -> Table {
+        let (u0, du) = Table::grid(r_lo, cutoff);
+        Table {
+            u0,
+            du,
+            nodes: Nodes::Lazy {
+                cells: (0..TABLE_NODES + 2).map(|_| OnceLock::new()).collect(),
+                value,
+            },
             cutoff,
         }
     }
@@ -80,7 +131,16 @@ impl Table {
         let t = ((u - self.u0) / self.du).max(0.0);
         let i = (t as usize).min(TABLE_NODES - 2);
         let f = t - i as f64;
-        let p = &self.values[i..i + 4];
+        let lazy;
+        let p: &[f64] = match &self.nodes {
+            Nodes::Ready(values) => &values[i..i + 4],
+            Nodes::Lazy { cells, value } => {
+                lazy = [0, 1, 2, 3].map(|k| {
+                    *cells[i + k].get_or_init(|| value(Table::node_radius(self.u0, self.du, i + k)))
+                });
+                &lazy
+            }
+        };
         // Catmull–Rom between p[1] and p[2]
         let a = -0.5 * p[0] + 1.5 * p[1] - 1.5 * p[2] + 0.5 * p[3];
         let b = p[0] - 2.5 * p[1] + 2.0 * p[2] - 0.5 * p[3];
@@ -131,8 +191,9 @@ fn cached_table(screen: &Screen, at: [f64; 2], r_lo: f64) -> Arc<Table> {
     let t = Arc::new(if at[1].is_nan() {
         Table::build(|r| point_correction(screen, r, at[0]), r_lo, cutoff)
     } else {
-        Table::build(
-            |r| screen_averaged_correction(screen, r, at[0], at[1]),
+        let (s, [b, t]) = (*screen, at);
+        Table::build_lazy(
+            Box::new(move |r| screen_averaged_correction(&s, r, b, t)),
             r_lo,
             cutoff,
         )
@@ -560,6 +621,29 @@ mod tests {
                 );
                 r *= 1.013;
             }
+        }
+    }
+
+    // Nodes computed on first read are the nodes computed up front: the same numbers, in any
+    // order of reading; and the averaged table follows the averaged series of
+    // physics::screen_average (tested against scipy there) to 1e-6.
+    #[test]
+    fn lazy_table_equals_the_built_one() {
+        let s = Screen::new(4.0, 12.0, 15.0).with_anisotropy(0.5);
+        let (b, t) = (3.0, 11.0);
+        let cutoff = cutoff_radius(&s, NEAR_FIELD_TOLERANCE);
+        let eager = Table::build(|r| screen_averaged_correction(&s, r, b, t), 0.15, cutoff);
+        let lazy = Table::build_lazy(
+            Box::new(move |r| screen_averaged_correction(&s, r, b, t)),
+            0.15,
+            cutoff,
+        );
+        let mut r = cutoff * 0.99;
+        while r > 0.15 {
+            assert_eq!(lazy.at(r).to_bits(), eager.at(r).to_bits(), "r {r}");
+            let exact = screen_averaged_correction(&s, r, b, t);
+            assert!((lazy.at(r) - exact).abs() < 1e-6 * exact.abs().max(1.0));
+            r *= 0.93;
         }
     }
 }

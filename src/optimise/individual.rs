@@ -63,6 +63,55 @@ enum RowRef {
 #[derive(Debug, Clone, Default)]
 pub struct CarriedRows(Vec<RowRef>);
 
+/// A solve of the rate programme ([`LayoutRates::solve_carried`]): optimal and not yet judged,
+/// or final.
+#[derive(Debug)]
+pub struct Pending(PendingKind);
+
+#[derive(Debug)]
+enum PendingKind {
+    /// Optimal; the rows it was solved with and the rates per well.
+    Solved {
+        sol: LpSolution,
+        rows: Vec<RowRef>,
+        rounds: usize,
+        rates: Vec<f64>,
+    },
+    /// The answer as it stands (not optimal, or solved on coarser rate groups and judged).
+    Judged(Individual),
+}
+
+impl Pending {
+    /// How the programme ended.
+    pub fn status(&self) -> LpStatus {
+        match &self.0 {
+            PendingKind::Solved { .. } => LpStatus::Optimal,
+            PendingKind::Judged(ind) => ind.status.clone(),
+        }
+    }
+
+    /// Rates per well, m³/s (empty unless solved).
+    pub fn rates(&self) -> &[f64] {
+        match &self.0 {
+            PendingKind::Solved { rates, .. } => rates,
+            PendingKind::Judged(ind) => &ind.rates,
+        }
+    }
+
+    /// The answer, judged on `layout` (the layout it was solved for).
+    pub fn judge(self, layout: &LayoutRates) -> Individual {
+        match self.0 {
+            PendingKind::Solved {
+                sol,
+                rows,
+                rounds,
+                rates,
+            } => layout.judged(sol, rows, rounds, rates),
+            PendingKind::Judged(ind) => ind,
+        }
+    }
+}
+
 /// What the programme minimises.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 enum Goal {
@@ -126,6 +175,13 @@ impl LayoutRates<'_> {
     /// optimum is the same (row generation stops only when no row of the full programme is
     /// violated); fewer rounds lead to it.
     pub fn individual_carried(&self, extra: &[WellRow], carried: &mut CarriedRows) -> Individual {
+        self.solve_carried(extra, carried).judge(self)
+    }
+
+    /// [`LayoutRates::individual_carried`] before its rates are judged (binding rows named,
+    /// the layout evaluated at them): for a round whose rates are looked at only for rows still
+    /// violated (one well out), judged only when it is the last.
+    pub fn solve_carried(&self, extra: &[WellRow], carried: &mut CarriedRows) -> Pending {
         let (sol, rows, rounds) = self.solve(Goal::MinFlow, extra, &carried.0);
         if matches!(sol.status, LpStatus::Failed(_)) && self.groups.len() >= 16 {
             let mut coarser = LayoutRates::with_groups(
@@ -138,11 +194,11 @@ impl LayoutRates<'_> {
             coarser.well_cost.clone_from(&self.well_cost);
             // the rows refer to this layout's rate groups: the coarser one starts afresh
             carried.0.clear();
-            return coarser.individual_with(extra);
+            return Pending(PendingKind::Judged(coarser.individual_with(extra)));
         }
         carried.0.clone_from(&rows);
         if sol.status != LpStatus::Optimal {
-            return Individual {
+            return Pending(PendingKind::Judged(Individual {
                 status: sol.status,
                 rates: Vec::new(),
                 total: 0.0,
@@ -150,9 +206,26 @@ impl LayoutRates<'_> {
                 met: false,
                 rounds,
                 groups: self.groups.len(),
-            };
+            }));
         }
         let rates = self.well_rates(&sol.values);
+        Pending(PendingKind::Solved {
+            sol,
+            rows,
+            rounds,
+            rates,
+        })
+    }
+
+    /// The answer of a solved programme: its binding rows in words, and whether the evaluation
+    /// at its rates confirms every target and limit.
+    fn judged(
+        &self,
+        sol: LpSolution,
+        rows: Vec<RowRef>,
+        rounds: usize,
+        rates: Vec<f64>,
+    ) -> Individual {
         let binding = self.binding_labels(&sol, &rows, &rates);
         let e = self.evaluate(&rates);
         Individual {

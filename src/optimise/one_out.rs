@@ -55,11 +55,12 @@ impl LayoutRates<'_> {
         let mut extra: Vec<WellRow> = Vec::new();
         let mut have = std::collections::HashSet::new();
         let mut carried = CarriedRows::default();
-        let mut ind = self.individual_carried(&extra, &mut carried);
+        // Each round is judged (binding rows, evaluation) only when it is the last.
+        let mut round = self.solve_carried(&extra, &mut carried);
         let mut rounds = 0;
-        while ind.status == LpStatus::Optimal && rounds < MAX_ROUNDS {
+        while round.status() == LpStatus::Optimal && rounds < MAX_ROUNDS {
             rounds += 1;
-            let x = &ind.rates;
+            let x = round.rates();
             let free: Vec<f64> = (0..n)
                 .map(|k| {
                     if self.group_of[k].is_some() {
@@ -110,8 +111,9 @@ impl LayoutRates<'_> {
             if added == 0 {
                 break;
             }
-            ind = self.individual_carried(&extra, &mut carried);
+            round = self.solve_carried(&extra, &mut carried);
         }
+        let mut ind = round.judge(self);
         if ind.status == LpStatus::Optimal {
             // The one-well-out rows that bind, in words.
             let x = &ind.rates;

@@ -68,6 +68,9 @@ pub struct LayoutRates<'a> {
     /// Unit rows per well at the target points and at the wells, built once when first needed
     /// and shared by the rate options, the one-well-out rows and the one-well-out report.
     pub(super) unit: OnceLock<UnitRows>,
+    /// The unit rows at the target points summed when the layout was built (for the row sums),
+    /// kept for [`LayoutRates::unit`] instead of summed again.
+    summed_rows: std::sync::Mutex<Option<Vec<Vec<f64>>>>,
     /// Unit rows per rate group at the target points and at the wells, folded from `unit` when
     /// the linear programme first needs them.
     pub(super) matrices: OnceLock<Matrices>,
@@ -80,8 +83,9 @@ pub struct LayoutRates<'a> {
     pub(super) well_positions: Vec<[f64; 2]>,
     /// Row sums of the unit rows at the target points (ΔΦ per unit uniform rate).
     pub(super) a_sum: Vec<f64>,
-    /// Row sums of the unit rows at the wells.
-    pub(super) at_wells_sum: Vec<f64>,
+    /// Row sums of the unit rows at the wells (summed when first needed: only the uniform
+    /// option reads them).
+    at_wells_sum: OnceLock<Vec<f64>>,
     /// Wells of each rate group (indices into `wells`).
     pub(super) groups: Vec<Vec<usize>>,
     /// Group of each well; `None` for a recharge well kept at its given (negative) rate.
@@ -356,35 +360,23 @@ impl<'a> LayoutRates<'a> {
             .collect();
         let fixed: Vec<f64> = wells.iter().map(|w| w.rate.min(0.0)).collect();
         let any_fixed = fixed.iter().any(|q| *q < 0.0);
-        let sums = |pts: &[[f64; 2]]| -> (Vec<f64>, Vec<f64>) {
-            pts.par_iter()
-                .map(|p| {
-                    let base = if any_fixed {
-                        field.delta_potential(*p, &fixed)
-                    } else {
-                        0.0
-                    };
-                    (field.delta_potential(*p, &free_ones), phi0 + base)
-                })
-                .unzip()
-        };
         let positions: Vec<[f64; 2]> = targets.iter().map(|&i| points[i].position).collect();
         let target_points: Vec<CheckPoint> = targets.iter().map(|&i| points[i].clone()).collect();
         let target_tables = crate::check::field_build::point_tables(model, &field, &target_points);
-        // the target points at their own elevations
-        let (a_sum, base_t): (Vec<f64>, Vec<f64>) = positions
+        // the target points at their own elevations (the rows summed here are kept for
+        // `unit`)
+        let summed: Option<Vec<Vec<f64>>> = given_rows.is_none().then(|| {
+            positions
+                .par_iter()
+                .zip(&target_tables)
+                .map(|(p, t)| field.unit_row_at(*p, t.as_ref()))
+                .collect()
+        });
+        let (a_sum, base_t): (Vec<f64>, Vec<f64>) = given_rows
+            .as_ref()
+            .map_or_else(|| summed.as_deref().unwrap_or_default(), |r| &r.at_targets)
             .par_iter()
-            .zip(&target_tables)
-            .enumerate()
-            .map(|(i, (p, t))| {
-                let fresh;
-                let row: &[f64] = match &given_rows {
-                    Some(r) => &r.at_targets[i],
-                    None => {
-                        fresh = field.unit_row_at(*p, t.as_ref());
-                        &fresh
-                    }
-                };
+            .map(|row| {
                 let dot = |q: &[f64]| row.iter().zip(q).map(|(a, b)| a * b).sum::<f64>();
                 (
                     dot(&free_ones),
@@ -393,7 +385,24 @@ impl<'a> LayoutRates<'a> {
             })
             .unzip();
         let well_positions: Vec<[f64; 2]> = wells.iter().map(|w| w.position).collect();
-        let (at_wells_sum, base_w) = sums(&well_positions);
+        // Φ₀ and the recharge wells' effect at each well; the row sums at the wells when first
+        // needed (with recharge wells, now: one kernel sum gives both)
+        let at_wells_sum = OnceLock::new();
+        let base_w: Vec<f64> = if any_fixed {
+            let (sums, base): (Vec<f64>, Vec<f64>) = well_positions
+                .par_iter()
+                .map(|p| {
+                    (
+                        field.delta_potential(*p, &free_ones),
+                        phi0 + field.delta_potential(*p, &fixed),
+                    )
+                })
+                .unzip();
+            let _ = at_wells_sum.set(sums);
+            base
+        } else {
+            vec![phi0 + 0.0; well_positions.len()]
+        };
         // The design runs each well at no more than the design file's capacity fraction.
         let fraction = model.design.capacity_fraction;
         let efficiency = matches!(
@@ -428,6 +437,7 @@ impl<'a> LayoutRates<'a> {
             targets,
             target_phi,
             unit,
+            summed_rows: std::sync::Mutex::new(summed),
             matrices: OnceLock::new(),
             positions,
             target_tables,
@@ -455,11 +465,17 @@ impl<'a> LayoutRates<'a> {
             add(&UNIT_MATRIX_BUILDS, 1);
             UnitRows {
                 at_targets: self
-                    .positions
-                    .par_iter()
-                    .zip(&self.target_tables)
-                    .map(|(p, t)| self.field.unit_row_at(*p, t.as_ref()))
-                    .collect(),
+                    .summed_rows
+                    .lock()
+                    .ok()
+                    .and_then(|mut r| r.take())
+                    .unwrap_or_else(|| {
+                        self.positions
+                            .par_iter()
+                            .zip(&self.target_tables)
+                            .map(|(p, t)| self.field.unit_row_at(*p, t.as_ref()))
+                            .collect()
+                    }),
                 at_wells: self.field.unit_matrix(&self.well_positions),
             }
         });
@@ -467,6 +483,22 @@ impl<'a> LayoutRates<'a> {
             add(&UNIT_MATRIX_REUSES, 1);
         }
         rows
+    }
+
+    /// Row sums of the unit rows at the wells: ΔΦ at each well per unit rate in every pumping
+    /// well (a kernel sum per well, once).
+    pub(super) fn at_wells_sum(&self) -> &[f64] {
+        self.at_wells_sum.get_or_init(|| {
+            let ones: Vec<f64> = self
+                .wells
+                .iter()
+                .map(|w| if w.rate >= 0.0 { 1.0 } else { 0.0 })
+                .collect();
+            self.well_positions
+                .par_iter()
+                .map(|p| self.field.delta_potential(*p, &ones))
+                .collect()
+        })
     }
 
     /// The unit rows per rate group (ΔΦ per unit rate of each group), folded once from

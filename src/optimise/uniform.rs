@@ -45,7 +45,7 @@ impl LayoutRates<'_> {
                     );
                 }
             }
-            let s = self.at_wells_sum[k];
+            let s = self.at_wells_sum()[k];
             if s >= 0.0 {
                 continue;
             }
