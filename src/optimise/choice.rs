@@ -7,6 +7,7 @@ use crate::check::evaluate::Evaluation;
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::input::error::InputError;
 use crate::input::model::Model;
+use crate::optimise::binding::Binding;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::rates::{LayoutRates, RateOption, MAX_LP_VARIABLES};
 use crate::optimise::standby::{finish, is_standby};
@@ -109,7 +110,7 @@ pub fn choose(
             notes.push(format!(
                 "with one rate in every well no count tried meets every target: at best ({} wells, every well at the most its limits allow, {}) \"{}\" stays {} above its target; individual rates give more to the wells that serve it",
                 t.trial.count,
-                t.trial.binding_limit,
+                t.trial.binding_limit.words(model.units),
                 t.trial.lowest_margin_at,
                 model.units.length_words(-t.trial.lowest_margin_m, 2)
             ));
@@ -156,12 +157,13 @@ fn met(
         RateOption::Uniform => {
             let q = t.trial.uniform_rate_m3_per_s.unwrap_or(0.0);
             let b = vec![
-                format!("target at {} (sets the rate)", t.trial.uniform_rate_set_by),
-                format!(
-                    "largest uniform rate within the limits {} ({})",
-                    model.units.rate_words(t.trial.uniform_limit_m3_per_s),
-                    t.trial.binding_limit
-                ),
+                Binding::TargetSetsRate {
+                    point: t.trial.uniform_rate_set_by.clone(),
+                },
+                Binding::UniformLimit {
+                    rate_m3_per_s: t.trial.uniform_limit_m3_per_s,
+                    set_by: Box::new(t.trial.binding_limit.clone()),
+                },
             ];
             let rates = t
                 .placement

@@ -47,7 +47,7 @@ pub fn estimate_comparison(design: &Design, total: f64) -> (f64, Option<f64>) {
     (est, (est > 0.0).then(|| total / est))
 }
 
-fn trial_json(t: &Trial) -> Value {
+fn trial_json(t: &Trial, units: UnitSystem) -> Value {
     json!({
         "count": t.count,
         "per_side": t.per_side,
@@ -59,11 +59,11 @@ fn trial_json(t: &Trial) -> Value {
         "individual_total_m3_per_day": t.individual_total_m3_per_s.map(|q| q * DAY),
         "lowest_margin_at_uniform_limit_m": t.lowest_margin_m,
         "lowest_margin_at": t.lowest_margin_at,
-        "binding_limit": t.binding_limit,
+        "binding_limit": t.binding_limit.words(units),
         "uniform_met": t.uniform_met,
         "individual_met": t.individual_met,
         "individual_status": individual_status_words(&t.individual_status),
-        "outcome": t.outcome,
+        "outcome": t.outcome_words(units),
         "placement": t.variant,
     })
 }
@@ -103,14 +103,14 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
             LayoutKind::Listed => json!({"kind": "listed"}),
             LayoutKind::Csv { path } => json!({"kind": "csv", "file": path.display().to_string()}),
         }),
-        "binding_constraints": design.binding,
+        "binding_constraints": design.binding.iter().map(|b| b.words(model.units)).collect::<Vec<_>>(),
         "comparison_with_quick_estimate": {
             "method": design.estimate.flow_method,
             "estimate_total_flow_m3_per_day": est * DAY,
             "optimised_total_flow_m3_per_day": total * DAY,
             "ratio_optimised_to_estimate": ratio,
         },
-        "counts_tried": design.trials.iter().map(trial_json).collect::<Vec<_>>(),
+        "counts_tried": design.trials.iter().map(|t| trial_json(t, model.units)).collect::<Vec<_>>(),
         "bid": found.chosen.as_ref().map(|c| super::bid_out::bid_json(&c.bid, &c.sheet, c.costs.as_ref())),
         "design_allowances": {
             "operating_margin_m": model.design.operating_margin,
@@ -133,8 +133,13 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
     })
 }
 
-/// The counts table as CSV (used by `design.csv` and `sweep.csv`), SI units in the headers.
-pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result<Vec<u8>> {
+/// The counts table as CSV (used by `design.csv` and `sweep.csv`), SI units in the headers;
+/// the limit and outcome in words in `units`.
+pub fn trials_csv(
+    trials: &[Trial],
+    requested: Option<&[f64]>,
+    units: UnitSystem,
+) -> anyhow::Result<Vec<u8>> {
     let mut w = csv::Writer::from_writer(Vec::new());
     let mut header = vec![
         "count",
@@ -171,11 +176,11 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
             format!("{:.4}", t.uniform_limit_m3_per_s * 1e3),
             format!("{:.4}", t.lowest_margin_m),
             t.lowest_margin_at.clone(),
-            t.binding_limit.clone(),
+            t.binding_limit.words(units),
             t.uniform_met.to_string(),
             t.individual_met.to_string(),
             individual_status_words(&t.individual_status),
-            t.outcome.clone(),
+            t.outcome_words(units),
             t.variant.clone(),
         ];
         if let Some(r) = requested {
@@ -198,7 +203,10 @@ pub fn files(model: &Model, found: &DesignFindings) -> anyhow::Result<Vec<(Strin
         "design.json".into(),
         serde_json::to_vec_pretty(&design_json(model, found))?,
     ));
-    out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
+    out.push((
+        "design.csv".into(),
+        trials_csv(&design.trials, None, model.units)?,
+    ));
     if let Some(c) = &found.chosen {
         let b = &c.bid;
         let lines = &c.sheet;
@@ -242,7 +250,7 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
                 r.get(i).map_or(String::new(), |v| format!("{v}"))
             ));
         }
-        let mut limit = t.binding_limit.clone();
+        let mut limit = t.binding_limit.words(units);
         if limit.chars().count() > 40 {
             limit = limit.chars().take(39).collect::<String>() + "…";
         }
@@ -265,9 +273,9 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
             units.length(t.lowest_margin_m),
             limit,
             if t.variant.is_empty() {
-                t.outcome.clone()
+                t.outcome_words(units)
             } else {
-                format!("{} [{}]", t.outcome, t.variant)
+                format!("{} [{}]", t.outcome_words(units), t.variant)
             }
         ));
     }
@@ -350,7 +358,10 @@ pub fn to_text(
     }
     if !design.binding.is_empty() {
         out.push_str(&wrap(
-            &format!("binding: {}", summarise_binding(&design.binding)),
+            &format!(
+                "binding: {}",
+                crate::optimise::binding::summarise(&design.binding, units)
+            ),
             96,
             "  ",
         ));
@@ -510,44 +521,4 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
         ));
     }
     out
-}
-
-/// Short summary of binding constraints: "targets at 7 points (…); capacity: W01, W04".
-fn summarise_binding(binding: &[String]) -> String {
-    let targets: Vec<&str> = binding
-        .iter()
-        .filter_map(|b| b.strip_prefix("target at "))
-        .collect();
-    let mut parts = Vec::new();
-    if !targets.is_empty() {
-        let shown: Vec<&str> = targets.iter().take(3).copied().collect();
-        parts.push(format!(
-            "targets at {} point{} ({}{})",
-            targets.len(),
-            if targets.len() == 1 { "" } else { "s" },
-            shown.join(", "),
-            if targets.len() > 3 { ", …" } else { "" }
-        ));
-    }
-    let wells: Vec<&String> = binding
-        .iter()
-        .filter(|b| !b.starts_with("target at "))
-        .collect();
-    if !wells.is_empty() {
-        let shown: Vec<&str> = wells.iter().take(4).map(|s| s.as_str()).collect();
-        parts.push(format!(
-            "{}{}",
-            shown.join("; "),
-            if wells.len() > 4 {
-                format!("; and {} more well limits", wells.len() - 4)
-            } else {
-                String::new()
-            }
-        ));
-    }
-    if parts.is_empty() {
-        "none".into()
-    } else {
-        parts.join("; ")
-    }
 }
