@@ -209,44 +209,6 @@ impl serde::Serialize for Binding {
     }
 }
 
-/// Short summary of binding constraints in `units`: "targets at 7 points (…); capacity of W01".
-pub fn summarise(binding: &[Binding], units: UnitSystem) -> String {
-    let targets: Vec<String> = binding.iter().filter_map(Binding::target_words).collect();
-    let mut parts = Vec::new();
-    if !targets.is_empty() {
-        let shown: Vec<&str> = targets.iter().take(3).map(String::as_str).collect();
-        parts.push(format!(
-            "targets at {} point{} ({}{})",
-            targets.len(),
-            if targets.len() == 1 { "" } else { "s" },
-            shown.join(", "),
-            if targets.len() > 3 { ", …" } else { "" }
-        ));
-    }
-    let wells: Vec<String> = binding
-        .iter()
-        .filter(|b| b.target_words().is_none())
-        .map(|b| b.words(units))
-        .collect();
-    if !wells.is_empty() {
-        let shown: Vec<&str> = wells.iter().take(4).map(String::as_str).collect();
-        parts.push(format!(
-            "{}{}",
-            shown.join("; "),
-            if wells.len() > 4 {
-                format!("; and {} more well limits", wells.len() - 4)
-            } else {
-                String::new()
-            }
-        ));
-    }
-    if parts.is_empty() {
-        "none".into()
-    } else {
-        parts.join("; ")
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -299,22 +261,5 @@ mod tests {
             b.to_string(),
             "drawdown limit 0.25 m at \"Old mill\" corner 2"
         );
-    }
-
-    #[test]
-    fn summary_counts_targets_and_lists_well_limits() {
-        let b = vec![
-            Binding::Target { point: "P1".into() },
-            Binding::TargetWithWellOut {
-                point: "P2".into(),
-                well: "W03".into(),
-            },
-            Binding::PumpCapacity { well: "W01".into() },
-        ];
-        assert_eq!(
-            summarise(&b, UnitSystem::Si),
-            "targets at 2 points (P1, P2 with W03 out); pump capacity of W01"
-        );
-        assert_eq!(summarise(&[], UnitSystem::Us), "none");
     }
 }

@@ -7,6 +7,7 @@ use crate::check::run::CheckRun;
 use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
+use crate::optimise::binding::Binding;
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::trial::Trial;
@@ -521,4 +522,75 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
         ));
     }
     out
+}
+
+/// Short summary of binding constraints in `units`: "targets at 7 points (…); capacity of W01".
+fn summarise_binding(binding: &[Binding], units: UnitSystem) -> String {
+    let targets: Vec<String> = binding.iter().filter_map(Binding::target_words).collect();
+    let mut parts = Vec::new();
+    if !targets.is_empty() {
+        let shown: Vec<&str> = targets.iter().take(3).map(String::as_str).collect();
+        parts.push(format!(
+            "targets at {} point{} ({}{})",
+            targets.len(),
+            if targets.len() == 1 { "" } else { "s" },
+            shown.join(", "),
+            if targets.len() > 3 { ", …" } else { "" }
+        ));
+    }
+    let wells: Vec<String> = binding
+        .iter()
+        .filter(|b| b.target_words().is_none())
+        .map(|b| b.words(units))
+        .collect();
+    if !wells.is_empty() {
+        let shown: Vec<&str> = wells.iter().take(4).map(String::as_str).collect();
+        parts.push(format!(
+            "{}{}",
+            shown.join("; "),
+            if wells.len() > 4 {
+                format!("; and {} more well limits", wells.len() - 4)
+            } else {
+                String::new()
+            }
+        ));
+    }
+    if parts.is_empty() {
+        "none".into()
+    } else {
+        parts.join("; ")
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn summary_counts_targets_and_lists_well_limits() {
+        let b = vec![
+            Binding::Target { point: "P1".into() },
+            Binding::TargetWithWellOut {
+                point: "P2".into(),
+                well: "W03".into(),
+            },
+            Binding::PumpCapacity { well: "W01".into() },
+        ];
+        assert_eq!(
+            summarise_binding(&b, UnitSystem::Si),
+            "targets at 2 points (P1, P2 with W03 out); pump capacity of W01"
+        );
+        assert_eq!(summarise_binding(&[], UnitSystem::Us), "none");
+        // 3.50 m ÷ 0.3048 m/ft = 11.48 ft (NIST SP 811 (2008) App. B: 1 ft = 0.3048 m exactly)
+        let level = vec![Binding::WellLevel {
+            well: "W01".into(),
+            level_m: 3.5,
+            floor: crate::optimise::limits::FloorKind::PumpIntake,
+            loss: crate::optimise::binding::LevelLoss::Jacob,
+        }];
+        assert_eq!(
+            summarise_binding(&level, UnitSystem::Us),
+            "level in W01 at 11.48 ft (pump intake + submergence, with the well loss C·Q²)"
+        );
+    }
 }
