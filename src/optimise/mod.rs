@@ -16,6 +16,7 @@
 pub mod binding;
 pub mod choice;
 pub mod clarabel;
+pub mod design_notes;
 pub mod individual;
 pub mod limits;
 pub mod lp;
