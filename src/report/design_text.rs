@@ -348,21 +348,26 @@ pub fn to_text(
             position,
             shortfall_m,
         } => {
-            out.push_str(&format!(
-                "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
-                l(position[0]),
-                l(position[1]),
-                l(*shortfall_m)
-            ));
+            if *shortfall_m <= crate::check::evaluate::TARGET_TOLERANCE {
+                out.push_str(&format!(
+                    "  best layout: {count} wells; every target met, the lowest margin at \"{worst_point}\" ({:.1}, {:.1}), but not with the design's allowances\n",
+                    l(position[0]),
+                    l(position[1]),
+                ));
+            } else {
+                out.push_str(&format!(
+                    "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
+                    l(position[0]),
+                    l(position[1]),
+                    l(*shortfall_m)
+                ));
+            }
         }
         Outcome::Impossible { .. } => {}
     }
     if !design.binding.is_empty() {
         out.push_str(&wrap(
-            &format!(
-                "binding: {}",
-                crate::optimise::binding::summarise(&design.binding, units)
-            ),
+            &format!("binding: {}", summarise_binding(&design.binding, units)),
             96,
             "  ",
         ));
