@@ -350,7 +350,7 @@ pub fn to_text(
         } => {
             if *shortfall_m <= crate::check::evaluate::TARGET_TOLERANCE {
                 out.push_str(&format!(
-                    "  best layout: {count} wells; every target met, the lowest margin at \"{worst_point}\" ({:.1}, {:.1}), but not with the design's allowances\n",
+                    "  best layout: {count} wells; every target met, the lowest margin at \"{worst_point}\" ({:.1}, {:.1}), but not with the design allowances\n",
                     l(position[0]),
                     l(position[1]),
                 ));

@@ -60,7 +60,7 @@ pub fn headline(v: &Verdict, f: &Fmt) -> String {
             // not (said so, rather than "0.00 m above target").
             let mut s = if *shortfall_m <= crate::check::evaluate::TARGET_TOLERANCE {
                 format!(
-                    "NOT MET: no layout tried meets every target within the well limits and the design's allowances; the best ({n} wells) meets every target, but not with the allowances (operating margin, capacity fraction, one well out)"
+                    "NOT MET: no layout tried meets every target within the well limits and the design allowances; the best ({n} wells) meets every target, but not with the allowances (operating margin, capacity fraction, one well out)"
                 )
             } else {
                 format!(
