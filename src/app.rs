@@ -263,7 +263,7 @@ fn sweep(
     let files = vec![
         (
             "sweep.csv".to_string(),
-            report::design_text::trials_csv(&sweep.trials, Some(&sweep.values))?,
+            report::design_text::trials_csv(&sweep.trials, Some(&sweep.values), units)?,
         ),
         (
             "sweep.svg".to_string(),

@@ -98,7 +98,9 @@ fn a_1_km_trench_needs_the_wellpoints_per_metre_of_a_200_m_one() {
 fn the_cap_on_wells_is_said_when_a_trench_needs_more() {
     let m = trench(4000.0, "");
     let spec = m.layout.as_ref().expect("layout");
-    let note = cap_note(&m, spec, MAX_WELLS).expect("a 4 km line at 3 m needs over 2000 wells");
+    let note = cap_note(&m, spec, MAX_WELLS)
+        .expect("a 4 km line at 3 m needs over 2000 wells")
+        .words(m.units);
     assert!(
         note.contains(&format!("at most {MAX_WELLS} wells"))
             && note.contains("wider than the maximum"),

@@ -215,7 +215,9 @@ rate = "1 L/s"
         panic!("expected met, got {:?}", d.outcome);
     };
     assert!(
-        d.binding.iter().any(|b| b.starts_with("pump capacity")),
+        d.binding
+            .iter()
+            .any(|b| matches!(b, drydig::optimise::binding::Binding::PumpCapacity { .. })),
         "the pump limit should bind: {:?}",
         d.binding
     );

@@ -3,6 +3,7 @@
 //! are moved along their ring or line to the nearest free place, and the move is reported.
 
 use crate::field::centre_line;
+use crate::field::layout_notes::LayoutNote;
 use crate::field::shape::length_and_width;
 use crate::field::wells::Well;
 use crate::field::wells_csv::read_csv;
@@ -273,10 +274,12 @@ fn place(
                 Some(s2) => {
                     let moved = (s2 - s).abs().min(path.length() - (s2 - s).abs());
                     well.position = at(s2);
-                    let msg = format!(
-                        "{name} moved {} along its line out of keep-out zone \"{zone}\"",
-                        model.units.length_words(moved, 1)
-                    );
+                    let msg = LayoutNote::Moved {
+                        well: name.clone(),
+                        distance_m: moved,
+                        zone: zone.to_string(),
+                    }
+                    .words(model.units);
                     well.note = Some(msg.clone());
                     notes.push(msg);
                 }
@@ -492,23 +495,15 @@ pub fn line_from(
     let (lo, hi) = spacings
         .iter()
         .fold((f64::INFINITY, 0.0f64), |(a, b), s| (a.min(*s), b.max(*s)));
-    let units = model.units;
-    let lu = units.length_unit();
-    notes.push(format!(
-        "{} wellpoints at {} {lu} spacing along {:.0} {lu}{}",
-        wells.len(),
-        if hi - lo < 0.005 {
-            format!("{:.2}", units.length(lo))
-        } else {
-            format!("{:.2}–{:.2}", units.length(lo), units.length(hi))
-        },
-        units.length(total),
-        if both_sides {
-            " on both sides"
-        } else {
-            " on one side"
+    notes.push(
+        LayoutNote::Wellpoints {
+            count: wells.len(),
+            spacing_m: (lo, hi),
+            length_m: total,
+            both_sides,
         }
-    ));
+        .words(model.units),
+    );
     Placement {
         wells,
         notes,
@@ -649,8 +644,12 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
                 rate,
                 spec.start,
             );
-            p.notes
-                .extend(model.rolling.as_ref().map(|r| rolling_note(model, r)));
+            p.notes.extend(
+                model
+                    .rolling
+                    .as_ref()
+                    .map(|r| LayoutNote::Rolling(Box::new(r.clone())).words(model.units)),
+            );
             p
         }
         LayoutKind::Listed => listed(model),
@@ -660,25 +659,6 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
             paths: vec![],
         },
     })
-}
-
-/// What a rolling run's line stands for, in the model's units.
-fn rolling_note(model: &Model, r: &crate::input::model::Rolling) -> String {
-    let (u, lu) = (model.units, model.units.length_unit());
-    let tag = |d: bool| {
-        if d {
-            " (default, common practice (no source))"
-        } else {
-            ""
-        }
-    };
-    format!(
-        "rolling run: the line is one position of the set, {:.0} {lu} installed = run-out {:.0} {lu}{} + open length {:.0} {lu} + run-in {:.0} {lu}{}, shown at chainage {:.1}–{:.1} {lu} of the {:.0} {lu} trench; the targets are those of the open length; the set is moved along as the face advances {:.1} {lu} a day ({:.0} days of digging); `programme` does not yet move it",
-        u.length(r.installed_length()), u.length(r.run_out), tag(r.run_out_default),
-        u.length(r.open_length), u.length(r.run_in), tag(r.run_in_default),
-        u.length(r.open_from), u.length(r.open_from + r.open_length), u.length(r.trench_length),
-        u.length(r.advance_per_day), (r.trench_length / r.advance_per_day - 1e-9).ceil()
-    )
 }
 
 /// Whether `p` lies in a keep-out zone (the design file's keep-outs, the neighbours'

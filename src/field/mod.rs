@@ -13,6 +13,7 @@ pub mod grid;
 pub mod influence;
 pub mod layered;
 pub mod layout;
+pub mod layout_notes;
 pub mod near_field;
 pub mod radius;
 pub mod shape;

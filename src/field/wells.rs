@@ -3,6 +3,17 @@
 use crate::input::model::{WellKind, WellSpec};
 use serde::Serialize;
 
+/// What a placed well is for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum WellRole {
+    /// It pumps (or recharges) in the design.
+    #[default]
+    Duty,
+    /// It stands by at rate 0, started when a duty well is lost (placed by
+    /// [`crate::optimise::standby::finish`]).
+    Standby,
+}
+
 /// One well or wellpoint in a layout. Levels in m above datum, rate in m³/s (negative: recharge).
 #[derive(Debug, Clone, Serialize)]
 pub struct Well {
@@ -29,6 +40,9 @@ pub struct Well {
     pub pump_intake: f64,
     /// Why it stands where it stands, when it was moved.
     pub note: Option<String>,
+    /// Duty or standby.
+    #[serde(skip)]
+    pub role: WellRole,
 }
 
 impl Well {
@@ -46,6 +60,7 @@ impl Well {
             filter_base: spec.filter_base,
             pump_intake: spec.pump_intake,
             note: None,
+            role: WellRole::Duty,
         }
     }
 }

@@ -7,6 +7,8 @@ use crate::check::evaluate::Evaluation;
 use crate::field::checkpoints::{check_points, CheckPoint};
 use crate::input::error::InputError;
 use crate::input::model::Model;
+use crate::optimise::binding::Binding;
+use crate::optimise::design_notes::DesignNote;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::rates::{LayoutRates, RateOption, MAX_LP_VARIABLES};
 use crate::optimise::standby::{finish, is_standby};
@@ -106,13 +108,15 @@ pub fn choose(
             .filter(|t| t.trial.count > 0)
             .max_by(|a, b| a.trial.lowest_margin_m.total_cmp(&b.trial.lowest_margin_m))
         {
-            notes.push(format!(
-                "with one rate in every well no count tried meets every target: at best ({} wells, every well at the most its limits allow, {}) \"{}\" stays {} above its target; individual rates give more to the wells that serve it",
-                t.trial.count,
-                t.trial.binding_limit,
-                t.trial.lowest_margin_at,
-                model.units.length_words(-t.trial.lowest_margin_m, 2)
-            ));
+            notes.push(
+                DesignNote::UniformShort {
+                    count: t.trial.count,
+                    limit: t.trial.binding_limit.clone(),
+                    point: t.trial.lowest_margin_at.clone(),
+                    shortfall_m: -t.trial.lowest_margin_m,
+                }
+                .words(model.units),
+            );
         }
     }
     if let (Some(i), Some(u)) = (ci, cu) {
@@ -156,12 +160,13 @@ fn met(
         RateOption::Uniform => {
             let q = t.trial.uniform_rate_m3_per_s.unwrap_or(0.0);
             let b = vec![
-                format!("target at {} (sets the rate)", t.trial.uniform_rate_set_by),
-                format!(
-                    "largest uniform rate within the limits {} ({})",
-                    model.units.rate_words(t.trial.uniform_limit_m3_per_s),
-                    t.trial.binding_limit
-                ),
+                Binding::TargetSetsRate {
+                    point: t.trial.uniform_rate_set_by.clone(),
+                },
+                Binding::UniformLimit {
+                    rate_m3_per_s: t.trial.uniform_limit_m3_per_s,
+                    set_by: Box::new(t.trial.binding_limit.clone()),
+                },
             ];
             let rates = t
                 .placement
@@ -335,15 +340,11 @@ fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String 
     bare.design.one_well_out = false;
     let points = check_points(&bare);
     let plain = LayoutRates::new(&bare, &points, wells.to_vec()).individual();
-    format!(
-        "the design keeps {} below every target with every well running, uses at most {:.0} % of each well's capacity{} (allowances.operating_margin, capacity_fraction, one_well_out); {}",
-        model.units.length_words(d.operating_margin, 2),
-        d.capacity_fraction * 100.0,
-        if d.one_well_out { " and plans for any one well out" } else { "" },
-        if plain.met {
-            "without these allowances the same wells meet every target, with no reserve: add wells, or relax an allowance if the engineer accepts less reserve"
-        } else {
-            "the same wells do not meet every target even without them"
-        }
-    )
+    DesignNote::Allowances {
+        margin_m: d.operating_margin,
+        capacity_fraction: d.capacity_fraction,
+        one_well_out: d.one_well_out,
+        met_without: plain.met,
+    }
+    .words(model.units)
 }

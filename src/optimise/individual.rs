@@ -9,6 +9,7 @@
 //! whole). Above [`crate::optimise::rates::MAX_LP_VARIABLES`] wells, neighbouring wells share a rate (see
 //! [`LayoutRates`]).
 
+use crate::optimise::binding::{Binding, LevelLoss};
 use crate::optimise::limits::CAPACITY_SAFETY;
 use crate::optimise::lp;
 use crate::optimise::lp_problem::{Constraint, LpSolution, LpStatus, RateProblem, Sense};
@@ -28,8 +29,8 @@ pub struct Individual {
     pub rates: Vec<f64>,
     /// Σ rates, m³/s.
     pub total: f64,
-    /// Constraints that bind at the optimum, in words.
-    pub binding: Vec<String>,
+    /// Constraints that bind at the optimum.
+    pub binding: Vec<Binding>,
     /// Solved, and the evaluation confirms every target and limit.
     pub met: bool,
     /// Rounds of adding violated constraints.
@@ -47,7 +48,7 @@ pub struct WellRow {
     /// Right-hand side.
     pub rhs: f64,
     /// What it stands for.
-    pub label: String,
+    pub label: Binding,
 }
 
 /// Which constraint a programme row stands for.
@@ -274,7 +275,7 @@ impl LayoutRates<'_> {
                     coefficients,
                     sense: Sense::AtLeast,
                     rhs: self.base_t[t] - self.target_phi[t],
-                    label: format!("target at {}", self.points[self.targets[t]].name),
+                    label: self.binding_of(r).words(self.model.units),
                 }
             }
             RowRef::Level(k, i) => {
@@ -288,19 +289,7 @@ impl LayoutRates<'_> {
                     coefficients,
                     sense: Sense::AtLeast,
                     rhs: phi - self.base_w[k],
-                    label: format!(
-                        "level in {} at {} ({}{})",
-                        self.wells[k].name,
-                        self.model.units.length_words(lim.lowest_level, 2),
-                        lim.floor_kind.describe(),
-                        if lim.loss_c > 0.0 {
-                            ", with the well loss C·Q²"
-                        } else if lim.efficiency.is_some() {
-                            ", with the well efficiency"
-                        } else {
-                            ""
-                        }
-                    ),
+                    label: self.binding_of(r).words(self.model.units),
                 }
             }
             RowRef::Capacity(k, s) => {
@@ -317,10 +306,7 @@ impl LayoutRates<'_> {
                     coefficients,
                     sense: Sense::AtMost,
                     rhs: f * (ha + slope * (self.base_w[k] - pa)),
-                    label: format!(
-                        "Sichardt capacity of {} on its wetted screen",
-                        self.wells[k].name
-                    ),
+                    label: self.binding_of(r).words(self.model.units),
                 }
             }
         }
@@ -604,17 +590,44 @@ impl LayoutRates<'_> {
             coefficients,
             sense: Sense::AtLeast,
             rhs,
-            label: e.label.clone(),
+            label: e.label.words(self.model.units),
         }
     }
 
-    fn binding_labels(&self, sol: &LpSolution, rows: &[RowRef], rates: &[f64]) -> Vec<String> {
+    /// What programme row `r` stands for.
+    fn binding_of(&self, r: RowRef) -> Binding {
+        match r {
+            RowRef::Target(t) => Binding::Target {
+                point: self.points[self.targets[t]].name.clone(),
+            },
+            RowRef::Level(k, _) => {
+                let lim = &self.limits[k];
+                Binding::WellLevel {
+                    well: self.wells[k].name.clone(),
+                    level_m: lim.lowest_level,
+                    floor: lim.floor_kind,
+                    loss: if lim.loss_c > 0.0 {
+                        LevelLoss::Jacob
+                    } else if lim.efficiency.is_some() {
+                        LevelLoss::Efficiency
+                    } else {
+                        LevelLoss::None
+                    },
+                }
+            }
+            RowRef::Capacity(k, _) => Binding::SichardtCapacity {
+                well: self.wells[k].name.clone(),
+            },
+        }
+    }
+
+    fn binding_labels(&self, sol: &LpSolution, rows: &[RowRef], rates: &[f64]) -> Vec<Binding> {
         let mut out = Vec::new();
         let mut targets = Vec::new();
         for &i in &sol.binding {
             match rows.get(i) {
-                Some(RowRef::Target(t)) => targets.push(self.points[self.targets[*t]].name.clone()),
-                Some(r) => out.push(self.row(*r, Goal::MinFlow).label),
+                Some(RowRef::Target(t)) => targets.push(self.binding_of(RowRef::Target(*t))),
+                Some(r) => out.push(self.binding_of(*r)),
                 None => {}
             }
         }
@@ -624,17 +637,16 @@ impl LayoutRates<'_> {
             }
             if let Some(p) = self.limits[k].pump {
                 if *q >= p * CAPACITY_SAFETY * (1.0 - 1e-7) {
-                    out.push(format!("pump capacity of {}", self.wells[k].name));
+                    out.push(Binding::PumpCapacity {
+                        well: self.wells[k].name.clone(),
+                    });
                 }
             }
         }
-        out.sort();
+        // in the order of their words, as the summary lists them
+        out.sort_by_cached_key(|b| b.words(self.model.units));
         out.dedup();
-        let mut all: Vec<String> = targets
-            .into_iter()
-            .map(|name| format!("target at {name}"))
-            .collect();
-        all.extend(out);
-        all
+        targets.extend(out);
+        targets
     }
 }

@@ -13,8 +13,10 @@
 //! and power for the bid). `placement` finds the fewest wells on candidate positions (LP
 //! relaxation, rounding and greedy removal), beside the evenly spaced rings of `search`.
 
+pub mod binding;
 pub mod choice;
 pub mod clarabel;
+pub mod design_notes;
 pub mod individual;
 pub mod limits;
 pub mod lp;

@@ -16,6 +16,7 @@
 //! With one well out the targets are held at the target itself; with every well on at the
 //! target less the operating margin.
 
+use crate::optimise::binding::Binding;
 use crate::optimise::individual::{CarriedRows, Individual, WellRow};
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::rates::LayoutRates;
@@ -99,10 +100,10 @@ impl LayoutRates<'_> {
                         extra.push(WellRow {
                             per_well,
                             rhs: self.base_t[t] - phi_out[t],
-                            label: format!(
-                                "target at {} with {} out",
-                                self.points[self.targets[t]].name, self.wells[k].name
-                            ),
+                            label: Binding::TargetWithWellOut {
+                                point: self.points[self.targets[t]].name.clone(),
+                                well: self.wells[k].name.clone(),
+                            },
                         });
                         added += 1;
                     }

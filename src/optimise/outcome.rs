@@ -59,7 +59,7 @@ pub struct Design {
     /// Smallest count meeting every target with individual rates.
     pub smallest_individual: Option<usize>,
     /// Binding constraints of the chosen rates.
-    pub binding: Vec<String>,
+    pub binding: Vec<crate::optimise::binding::Binding>,
     /// What was searched, in words.
     pub search: String,
     /// What an engineer should know.

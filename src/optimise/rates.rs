@@ -575,6 +575,7 @@ mod tests {
             pump_intake: -1.0,
             kind: crate::input::model::WellKind::Wellpoint,
             note: None,
+            role: crate::field::wells::WellRole::Duty,
         }
     }
 

@@ -31,6 +31,7 @@ use crate::field::influence::Field;
 use crate::field::layout::{self, Placement};
 use crate::input::error::InputError;
 use crate::input::model::Model;
+use crate::optimise::binding::Binding;
 use crate::optimise::lp;
 use crate::optimise::lp_problem::{Constraint, LpStatus, RateProblem, Sense};
 use crate::safety::neighbours::{drawdown_limit_for_recharge, sample_points};
@@ -87,7 +88,8 @@ pub struct RechargeSizing {
     pub recharge_m3_per_s: f64,
     /// Net flow, abstraction − recharge, m³/s.
     pub net_flow_m3_per_s: f64,
-    /// Constraints active at the optimum.
+    /// Constraints active at the optimum, in the run's units (worded here: the recharge text
+    /// reads them as words).
     pub binding: Vec<String>,
     /// What an engineer should know.
     pub notes: Vec<String>,
@@ -105,6 +107,8 @@ enum Mode {
 /// The programme over every well's rate, with the sample data behind it.
 struct Problem {
     rate_problem: RateProblem,
+    /// What each row of the programme stands for.
+    rows: Vec<Binding>,
     protected: Vec<Protected>,
     unmet_without_recharge: usize,
 }
@@ -165,6 +169,7 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
     let wells = &placement.wells;
     let abstraction_now: Vec<f64> = wells.iter().map(|w| w.rate.max(0.0)).collect();
     let mut constraints = Vec::new();
+    let mut rows = Vec::new();
     let mut unmet = 0;
     for p in check_points(model) {
         let Some(t) = p.target_level else { continue };
@@ -179,12 +184,16 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
         if without > rhs + 1e-12 {
             unmet += 1;
         }
+        let b = Binding::RechargeTarget {
+            point: p.name.clone(),
+        };
         constraints.push(Constraint {
             coefficients: row,
             sense: Sense::AtMost,
             rhs,
-            label: format!("target at \"{}\"", p.name),
+            label: b.to_string(),
         });
+        rows.push(b);
     }
     let mut protected = Vec::new();
     for n in protected_neighbours(model) {
@@ -198,21 +207,33 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
             let without: f64 = row.iter().zip(&abstraction_now).map(|(a, q)| a * q).sum();
             let z = aq.level(phi0 + without).or_base(aq.base_level);
             worst = worst.max(aq.initial_level - z);
+            let b = Binding::NeighbourDrawdown {
+                neighbour: n.name.clone(),
+                sample: name.to_string(),
+                limit_m: limit,
+            };
             constraints.push(Constraint {
                 coefficients: row.clone(),
                 sense: Sense::AtLeast,
                 rhs: aq.potential(level) - phi0,
-                label: format!("drawdown limit {limit:.2} m at \"{}\" {name}", n.name),
+                label: b.to_string(),
             });
+            rows.push(b);
             let rise = n
                 .allowable_rise
                 .unwrap_or(crate::safety::neighbours::RULE_OF_THUMB_RISE);
+            let b = Binding::NeighbourRise {
+                neighbour: n.name.clone(),
+                sample: name.to_string(),
+                rise_m: rise,
+            };
             constraints.push(Constraint {
                 coefficients: row,
                 sense: Sense::AtMost,
                 rhs: aq.potential(aq.initial_level + rise - LP_MARGIN) - phi0,
-                label: format!("rise limit {rise:.2} m at \"{}\" {name}", n.name),
+                label: b.to_string(),
             });
+            rows.push(b);
         }
         protected.push(Protected {
             name: n.name.clone(),
@@ -236,26 +257,31 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
                 _ => 0.0,
             };
             let cap_level = model.as_built.max_injection_level - loss - LP_MARGIN;
+            let b = Binding::RechargeWellLevel {
+                well: w.name.clone(),
+                level_m: model.as_built.max_injection_level,
+                basis: model.as_built.injection_basis.to_string(),
+            };
             constraints.push(Constraint {
                 coefficients: row,
                 sense: Sense::AtMost,
                 rhs: aq.potential(cap_level) - phi0,
-                label: format!(
-                    "level in recharge well {} ≤ {:.2} m ({})",
-                    w.name, model.as_built.max_injection_level, model.as_built.injection_basis
-                ),
+                label: b.to_string(),
             });
+            rows.push(b);
         } else if mode == Mode::Joint {
             let (_, lowest) = abstraction_limits(model, w);
+            let b = Binding::WellLowestLevel {
+                well: w.name.clone(),
+                level_m: lowest,
+            };
             constraints.push(Constraint {
                 coefficients: row,
                 sense: Sense::AtLeast,
                 rhs: aq.potential(lowest) - phi0,
-                label: format!(
-                    "level in {} ≥ {lowest:.2} m (pump intake + submergence; screen wet enough for its capacity)",
-                    w.name
-                ),
+                label: b.to_string(),
             });
+            rows.push(b);
         }
     }
     let bounds = wells
@@ -280,6 +306,7 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
             bounds,
             constraints,
         },
+        rows,
         protected,
         unmet_without_recharge: unmet,
     }
@@ -402,8 +429,8 @@ pub fn size(
     let binding = sol
         .binding
         .iter()
-        .filter_map(|i| problem.rate_problem.constraints.get(*i))
-        .map(|c| c.label.clone())
+        .filter_map(|i| problem.rows.get(*i))
+        .map(|b| b.words(model.units))
         .collect();
     Ok((
         placement,

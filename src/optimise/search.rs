@@ -357,7 +357,10 @@ pub fn design_scoped(
             message: "the layout's excavation does not exist".into(),
         })?;
     let fam = family(model, &spec);
-    let notes: Vec<String> = cap_note(model, &spec, MAX_WELLS).into_iter().collect();
+    let notes: Vec<String> = cap_note(model, &spec, MAX_WELLS)
+        .map(|n| n.words(model.units))
+        .into_iter()
+        .collect();
     let (search, probe) = search_words(model, &spec, &fam);
     let probe_placement = layout::generate(model, &probe, 0.0)?;
     let named: Vec<(&str, [f64; 2], f64)> = probe_placement

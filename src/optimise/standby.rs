@@ -12,20 +12,17 @@
 //! well and standby well already placed.
 
 use crate::field::checkpoints::{check_points, CheckPoint};
-use crate::field::wells::Well;
+use crate::field::wells::{Well, WellRole};
 use crate::input::model::{LayoutKind, Model, WellKind};
 use crate::optimise::one_out::{one_out_report, OneOut};
 use crate::optimise::rates::LayoutRates;
 
-/// Every standby well's note starts with this, so outputs can tell it from a working well.
+/// Every standby well's note (shown in the wells table) starts with this.
 pub const STANDBY_NOTE: &str = "standby";
 
-/// Whether `w` is a placed standby well.
+/// Whether `w` is a placed standby well (its role, set where it is placed).
 pub fn is_standby(w: &Well) -> bool {
-    w.rate == 0.0
-        && w.note
-            .as_deref()
-            .is_some_and(|n| n.starts_with(STANDBY_NOTE))
+    w.role == WellRole::Standby
 }
 
 /// What finishing did.
@@ -107,6 +104,7 @@ pub fn finish(model: &Model, wells: &mut Vec<Well>) -> Finish {
         let p = on_ring(model, mid, &taken).unwrap_or(mid);
         let sname = format!("S{:02}", j + 1);
         let mut s = Well::from_spec(sname.clone(), p, 0.0, &model.wells);
+        s.role = WellRole::Standby;
         s.note = Some(format!(
             "{STANDBY_NOTE}: between {} and {}, where the loss of {} hurts most",
             w.name, side.name, w.name

@@ -6,6 +6,8 @@ use crate::field::checkpoints::CheckPoint;
 use crate::field::layout::{self, Placement};
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model};
+use crate::input::units::UnitSystem;
+use crate::optimise::binding::Binding;
 use crate::optimise::individual::Individual;
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::one_out::one_out_report;
@@ -42,13 +44,11 @@ pub struct Trial {
     /// Where that margin is.
     pub lowest_margin_at: String,
     /// The limit that caps the uniform rate.
-    pub binding_limit: String,
+    pub binding_limit: Binding,
     /// The uniform rate meets every target within the limits (confirmed by evaluation).
     pub uniform_met: bool,
     /// The individual rates meet every target within the limits (confirmed by evaluation).
     pub individual_met: bool,
-    /// In words.
-    pub outcome: String,
     /// Where the first well stands and the corner option ("start 0.0 m", "corner wells").
     pub variant: String,
 }
@@ -196,26 +196,29 @@ impl TrialRun {
         t.individual_met = ind.met;
         t.individual_status = Some(ind.status.clone());
         t.individual_total_m3_per_s = (ind.status == LpStatus::Optimal).then_some(ind.total);
-        t.outcome = outcome_words(t);
         self.individual = Some(ind);
     }
 }
 
-fn outcome_words(t: &Trial) -> String {
-    match (t.uniform_met, t.individual_met) {
-        (true, true) => "met (both rate options)".to_string(),
-        (false, true) => "met with individual rates only".to_string(),
-        (true, false) if t.individual_status.is_none() => {
-            "met with the same rate in every well".to_string()
-        }
-        (true, false) => "met with the same rate in every well only".to_string(),
-        (false, false) => {
-            if t.count == 0 {
-                "no wells placed".to_string()
-            } else if t.uniform_rate_m3_per_s.is_none() {
-                "not met: a target is out of every well's reach".to_string()
-            } else {
-                format!("not met: {}", t.binding_limit)
+impl Trial {
+    /// How the layout ended, in words, quantities in `units`.
+    pub fn outcome_words(&self, units: UnitSystem) -> String {
+        let t = self;
+        match (t.uniform_met, t.individual_met) {
+            (true, true) => "met (both rate options)".to_string(),
+            (false, true) => "met with individual rates only".to_string(),
+            (true, false) if t.individual_status.is_none() => {
+                "met with the same rate in every well".to_string()
+            }
+            (true, false) => "met with the same rate in every well only".to_string(),
+            (false, false) => {
+                if t.count == 0 {
+                    "no wells placed".to_string()
+                } else if t.uniform_rate_m3_per_s.is_none() {
+                    "not met: a target is out of every well's reach".to_string()
+                } else {
+                    format!("not met: {}", t.binding_limit.words(units))
+                }
             }
         }
     }
@@ -231,7 +234,7 @@ fn trial_row(
     individual: Option<&Individual>,
 ) -> Trial {
     let ind_met = individual.is_some_and(|i| i.met);
-    let mut trial = Trial {
+    Trial {
         count,
         per_side,
         spacing_m: spacing,
@@ -254,11 +257,8 @@ fn trial_row(
         binding_limit: uniform.limit_reason.clone(),
         uniform_met: uniform.met,
         individual_met: ind_met,
-        outcome: String::new(),
         variant: String::new(),
-    };
-    trial.outcome = outcome_words(&trial);
-    trial
+    }
 }
 
 /// Mean spacing of a generated layout along its path, m.

@@ -4,6 +4,7 @@
 //! largest q within every well's limits: the level floor (linear in q) and Sichardt's capacity on
 //! the wetted screen (a monotone equation in q, solved by bisection).
 
+use crate::optimise::binding::{Binding, LevelLoss};
 use crate::optimise::rates::LayoutRates;
 use serde::Serialize;
 
@@ -18,7 +19,7 @@ pub struct Uniform {
     /// Largest rate per well within every well limit, m³/s.
     pub limit_m3_per_s: f64,
     /// What sets that limit.
-    pub limit_reason: String,
+    pub limit_reason: Binding,
     /// Lowest margin below target with every well at the limit rate, m (negative: short).
     pub margin_at_limit_m: f64,
     /// Where that margin is (index into the check points).
@@ -29,8 +30,8 @@ pub struct Uniform {
 
 impl LayoutRates<'_> {
     /// The largest uniform rate within every well's limits, and what sets it.
-    fn uniform_limit(&self) -> (f64, String) {
-        let mut best = (f64::INFINITY, String::from("no limit"));
+    fn uniform_limit(&self) -> (f64, Binding) {
+        let mut best = (f64::INFINITY, Binding::NoLimit);
         for (k, lim) in self.limits.iter().enumerate() {
             if self.group_of[k].is_none() {
                 continue;
@@ -39,10 +40,7 @@ impl LayoutRates<'_> {
             let phi_k = self.base_w[k];
             if let Some(p) = lim.pump {
                 if p < best.0 {
-                    best = (
-                        p,
-                        format!("pump capacity {}", self.model.units.rate_words(p)),
-                    );
+                    best = (p, Binding::PumpRate { rate_m3_per_s: p });
                 }
             }
             let s = self.at_wells_sum()[k];
@@ -70,11 +68,12 @@ impl LayoutRates<'_> {
             let (q_k, why) = if cap(q_level) >= 0.0 {
                 (
                     q_level,
-                    format!(
-                        "level in {name} at {} ({})",
-                        self.model.units.length_words(lim.floor_level, 2),
-                        lim.floor_kind.describe()
-                    ),
+                    Binding::WellLevel {
+                        well: name.clone(),
+                        level_m: lim.floor_level,
+                        floor: lim.floor_kind,
+                        loss: LevelLoss::None,
+                    },
                 )
             } else {
                 let (mut lo, mut hi) = (0.0, q_level);
@@ -86,10 +85,7 @@ impl LayoutRates<'_> {
                         hi = mid;
                     }
                 }
-                (
-                    lo,
-                    format!("Sichardt capacity of {name} on its wetted screen"),
-                )
+                (lo, Binding::SichardtCapacity { well: name.clone() })
             };
             if q_k < best.0 {
                 best = (q_k, why);
@@ -98,7 +94,7 @@ impl LayoutRates<'_> {
         if best.0.is_finite() {
             best
         } else {
-            (0.0, "no wells".into())
+            (0.0, Binding::NoWells)
         }
     }
 

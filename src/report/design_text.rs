@@ -7,6 +7,7 @@ use crate::check::run::CheckRun;
 use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
+use crate::optimise::binding::Binding;
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::trial::Trial;
@@ -47,7 +48,7 @@ pub fn estimate_comparison(design: &Design, total: f64) -> (f64, Option<f64>) {
     (est, (est > 0.0).then(|| total / est))
 }
 
-fn trial_json(t: &Trial) -> Value {
+fn trial_json(t: &Trial, units: UnitSystem) -> Value {
     json!({
         "count": t.count,
         "per_side": t.per_side,
@@ -59,11 +60,11 @@ fn trial_json(t: &Trial) -> Value {
         "individual_total_m3_per_day": t.individual_total_m3_per_s.map(|q| q * DAY),
         "lowest_margin_at_uniform_limit_m": t.lowest_margin_m,
         "lowest_margin_at": t.lowest_margin_at,
-        "binding_limit": t.binding_limit,
+        "binding_limit": t.binding_limit.words(units),
         "uniform_met": t.uniform_met,
         "individual_met": t.individual_met,
         "individual_status": individual_status_words(&t.individual_status),
-        "outcome": t.outcome,
+        "outcome": t.outcome_words(units),
         "placement": t.variant,
     })
 }
@@ -103,14 +104,14 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
             LayoutKind::Listed => json!({"kind": "listed"}),
             LayoutKind::Csv { path } => json!({"kind": "csv", "file": path.display().to_string()}),
         }),
-        "binding_constraints": design.binding,
+        "binding_constraints": design.binding.iter().map(|b| b.words(model.units)).collect::<Vec<_>>(),
         "comparison_with_quick_estimate": {
             "method": design.estimate.flow_method,
             "estimate_total_flow_m3_per_day": est * DAY,
             "optimised_total_flow_m3_per_day": total * DAY,
             "ratio_optimised_to_estimate": ratio,
         },
-        "counts_tried": design.trials.iter().map(trial_json).collect::<Vec<_>>(),
+        "counts_tried": design.trials.iter().map(|t| trial_json(t, model.units)).collect::<Vec<_>>(),
         "bid": found.chosen.as_ref().map(|c| super::bid_out::bid_json(&c.bid, &c.sheet, c.costs.as_ref())),
         "design_allowances": {
             "operating_margin_m": model.design.operating_margin,
@@ -133,8 +134,13 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
     })
 }
 
-/// The counts table as CSV (used by `design.csv` and `sweep.csv`), SI units in the headers.
-pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result<Vec<u8>> {
+/// The counts table as CSV (used by `design.csv` and `sweep.csv`), SI units in the headers;
+/// the limit and outcome in words in `units`.
+pub fn trials_csv(
+    trials: &[Trial],
+    requested: Option<&[f64]>,
+    units: UnitSystem,
+) -> anyhow::Result<Vec<u8>> {
     let mut w = csv::Writer::from_writer(Vec::new());
     let mut header = vec![
         "count",
@@ -171,11 +177,11 @@ pub fn trials_csv(trials: &[Trial], requested: Option<&[f64]>) -> anyhow::Result
             format!("{:.4}", t.uniform_limit_m3_per_s * 1e3),
             format!("{:.4}", t.lowest_margin_m),
             t.lowest_margin_at.clone(),
-            t.binding_limit.clone(),
+            t.binding_limit.words(units),
             t.uniform_met.to_string(),
             t.individual_met.to_string(),
             individual_status_words(&t.individual_status),
-            t.outcome.clone(),
+            t.outcome_words(units),
             t.variant.clone(),
         ];
         if let Some(r) = requested {
@@ -198,7 +204,10 @@ pub fn files(model: &Model, found: &DesignFindings) -> anyhow::Result<Vec<(Strin
         "design.json".into(),
         serde_json::to_vec_pretty(&design_json(model, found))?,
     ));
-    out.push(("design.csv".into(), trials_csv(&design.trials, None)?));
+    out.push((
+        "design.csv".into(),
+        trials_csv(&design.trials, None, model.units)?,
+    ));
     if let Some(c) = &found.chosen {
         let b = &c.bid;
         let lines = &c.sheet;
@@ -242,7 +251,7 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
                 r.get(i).map_or(String::new(), |v| format!("{v}"))
             ));
         }
-        let mut limit = t.binding_limit.clone();
+        let mut limit = t.binding_limit.words(units);
         if limit.chars().count() > 40 {
             limit = limit.chars().take(39).collect::<String>() + "…";
         }
@@ -265,9 +274,9 @@ fn trials_table(trials: &[Trial], units: UnitSystem, requested: Option<&[f64]>) 
             units.length(t.lowest_margin_m),
             limit,
             if t.variant.is_empty() {
-                t.outcome.clone()
+                t.outcome_words(units)
             } else {
-                format!("{} [{}]", t.outcome, t.variant)
+                format!("{} [{}]", t.outcome_words(units), t.variant)
             }
         ));
     }
@@ -339,18 +348,26 @@ pub fn to_text(
             position,
             shortfall_m,
         } => {
-            out.push_str(&format!(
-                "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
-                l(position[0]),
-                l(position[1]),
-                l(*shortfall_m)
-            ));
+            if *shortfall_m <= crate::check::evaluate::TARGET_TOLERANCE {
+                out.push_str(&format!(
+                    "  best layout: {count} wells; every target met, the lowest margin at \"{worst_point}\" ({:.1}, {:.1}), but not with the design allowances\n",
+                    l(position[0]),
+                    l(position[1]),
+                ));
+            } else {
+                out.push_str(&format!(
+                    "  best layout: {count} wells; worst point \"{worst_point}\" ({:.1}, {:.1}) stays {:.2} {lu} above its target\n",
+                    l(position[0]),
+                    l(position[1]),
+                    l(*shortfall_m)
+                ));
+            }
         }
         Outcome::Impossible { .. } => {}
     }
     if !design.binding.is_empty() {
         out.push_str(&wrap(
-            &format!("binding: {}", summarise_binding(&design.binding)),
+            &format!("binding: {}", summarise_binding(&design.binding, units)),
             96,
             "  ",
         ));
@@ -512,15 +529,12 @@ fn allowance_text(model: &Model, design: &Design, r: &CheckRun, units: UnitSyste
     out
 }
 
-/// Short summary of binding constraints: "targets at 7 points (…); capacity: W01, W04".
-fn summarise_binding(binding: &[String]) -> String {
-    let targets: Vec<&str> = binding
-        .iter()
-        .filter_map(|b| b.strip_prefix("target at "))
-        .collect();
+/// Short summary of binding constraints in `units`: "targets at 7 points (…); capacity of W01".
+fn summarise_binding(binding: &[Binding], units: UnitSystem) -> String {
+    let targets: Vec<String> = binding.iter().filter_map(Binding::target_words).collect();
     let mut parts = Vec::new();
     if !targets.is_empty() {
-        let shown: Vec<&str> = targets.iter().take(3).copied().collect();
+        let shown: Vec<&str> = targets.iter().take(3).map(String::as_str).collect();
         parts.push(format!(
             "targets at {} point{} ({}{})",
             targets.len(),
@@ -529,12 +543,13 @@ fn summarise_binding(binding: &[String]) -> String {
             if targets.len() > 3 { ", …" } else { "" }
         ));
     }
-    let wells: Vec<&String> = binding
+    let wells: Vec<String> = binding
         .iter()
-        .filter(|b| !b.starts_with("target at "))
+        .filter(|b| b.target_words().is_none())
+        .map(|b| b.words(units))
         .collect();
     if !wells.is_empty() {
-        let shown: Vec<&str> = wells.iter().take(4).map(|s| s.as_str()).collect();
+        let shown: Vec<&str> = wells.iter().take(4).map(String::as_str).collect();
         parts.push(format!(
             "{}{}",
             shown.join("; "),
@@ -549,5 +564,38 @@ fn summarise_binding(binding: &[String]) -> String {
         "none".into()
     } else {
         parts.join("; ")
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn summary_counts_targets_and_lists_well_limits() {
+        let b = vec![
+            Binding::Target { point: "P1".into() },
+            Binding::TargetWithWellOut {
+                point: "P2".into(),
+                well: "W03".into(),
+            },
+            Binding::PumpCapacity { well: "W01".into() },
+        ];
+        assert_eq!(
+            summarise_binding(&b, UnitSystem::Si),
+            "targets at 2 points (P1, P2 with W03 out); pump capacity of W01"
+        );
+        assert_eq!(summarise_binding(&[], UnitSystem::Us), "none");
+        // 3.50 m ÷ 0.3048 m/ft = 11.48 ft (NIST SP 811 (2008) App. B: 1 ft = 0.3048 m exactly)
+        let level = vec![Binding::WellLevel {
+            well: "W01".into(),
+            level_m: 3.5,
+            floor: crate::optimise::limits::FloorKind::PumpIntake,
+            loss: crate::optimise::binding::LevelLoss::Jacob,
+        }];
+        assert_eq!(
+            summarise_binding(&level, UnitSystem::Us),
+            "level in W01 at 11.48 ft (pump intake + submergence, with the well loss C·Q²)"
+        );
     }
 }
