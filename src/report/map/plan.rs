@@ -48,7 +48,7 @@ pub(super) fn draw_plan(
     draw_neighbours(&mut lay, run, view, &mut occ, plan_px, opts);
     draw_keep_outs(&mut lay, run, view, &mut occ, plan_px);
     draw_boundaries(&mut lay, run, grid, view, &mut occ, plan_px);
-    crate::report::map::walls::draw_walls(&mut lay, run, view);
+    crate::report::map::walls::draw_walls(&mut lay, run, view, &mut occ, plan_px);
     draw_dry(&mut lay, grid, view);
     let failed = draw_failed(&mut lay, run, view, &mut occ, plan_px, only);
     crate::report::map::named::draw_named(&mut lay, run, view, &mut occ, plan_px, only);
