@@ -319,6 +319,9 @@ fn polygon_from(
     Ok(())
 }
 
+/// A wall line picked from a drawing: its vertices (m) and whether it closes on itself.
+type WallLine = super::Shape<(Vec<(f64, f64)>, bool)>;
+
 /// Replace a wall's `line_from` (a drawing reference) in `t` by its `line` and `closed`: an
 /// open polyline (DXF LWPOLYLINE/POLYLINE/LINE/ARC, GeoJSON LineString) gives an open wall, a
 /// closed one (DXF closed polyline, GeoJSON Polygon) a wall round on itself, as does an open
@@ -346,7 +349,7 @@ fn wall_from(design: &Path, field: &str, t: &mut Table, log: &mut Log) -> Result
     }
     let got = read(design, &f, &r, true)?;
     // Every line and every closed outline picked, as (vertices, closed).
-    let mut found: Vec<super::Shape<(Vec<(f64, f64)>, bool)>> = Vec::new();
+    let mut found: Vec<WallLine> = Vec::new();
     for s in &got.lines {
         let mut pts: Vec<(f64, f64)> = s.geometry.0.iter().map(|c| (c.x, c.y)).collect();
         let (a, b) = (pts[0], pts[pts.len() - 1]);

@@ -5,7 +5,7 @@
 
 use crate::check::run::CheckRun;
 use crate::input::model_walls::Wall;
-use crate::report::map::labels::{inside, rotated_half_extent, Occupied};
+use crate::report::map::labels::{inside, reserve_segment, rotated_half_extent, Occupied};
 use crate::report::map::layers::{group, Layers};
 use crate::report::map::text::{halo, r1, text, text_width};
 use crate::report::map::view::View;
@@ -15,6 +15,15 @@ use svg::node::element::{Group, Path, Rectangle};
 pub const WALL: &str = "#3d3128";
 /// Stroke width of a wall, px.
 pub const WALL_WIDTH: f64 = 5.0;
+
+/// Keep every label off the walls (drawn `WALL_WIDTH` px wide), before any label is placed.
+pub(super) fn reserve_walls(run: &CheckRun, view: &View, occ: &mut Occupied) {
+    for w in &run.model.walls {
+        for (a, b) in w.pieces() {
+            reserve_segment(view, occ, a, b, 1.0 + WALL_WIDTH / 2.0);
+        }
+    }
+}
 
 /// Draw every `[[wall]]` of the model into the boundaries layer.
 pub(super) fn draw_walls(
