@@ -1,7 +1,7 @@
 #!/usr/bin/env python3
 """Cut-off walls drawn in a DXF (written by ezdxf, the way CAD programs write them) and in a
 GeoJSON file, and where outside libraries put them: ezdxf for the DXF's world coordinates,
-shapely for every wall's length.
+shapely for every wall's length, GDAL's ogrinfo for the GeoJSON's grid (gdal-bin).
 
 Usage: python3 scripts/wall_drawings.py OUT_DIR
 Writes OUT_DIR/walls.dxf, OUT_DIR/walls.geojson and OUT_DIR/walls_expected.csv. The committed
@@ -15,7 +15,7 @@ shaft, a rectangle 12 m x 8 m turned 30 degrees about (100, 10) m.
 In the DXF (millimetres) the sheet-pile wall is drawn on the other side of x = 0 and mirrored
 as a CAD user would (ezdxf stores the mirrored LWPOLYLINE with extrusion (0, 0, -1)); the
 cofferdam is a closed 2D POLYLINE. In the GeoJSON (metres, a local grid named in a top-level
-"crs" member) the first is a LineString, the second a Polygon (counter-clockwise).
+"crs" member, as drydig writes it; ogrinfo must read it as a local grid) the first is a LineString, the second a Polygon (counter-clockwise).
 
 Rows: fixture, selector, kind, index, x, y
   vertex   vertex `index` of the wall in metres (DXF: ezdxf's OCS -> WCS of the entity);
@@ -25,6 +25,7 @@ Rows: fixture, selector, kind, index, x, y
 import csv
 import json
 import math
+import subprocess
 import sys
 from pathlib import Path
 
@@ -79,7 +80,14 @@ def write_geojson(out):
     ring = cofferdam()
     fc = {
         "type": "FeatureCollection",
-        "crs": {"type": "name", "properties": {"name": "local site grid (metres)"}},
+        # the local grid as drydig writes it in layout.geojson (GDAL reads it as an ENGCRS)
+        "crs": {
+            "type": "name",
+            "properties": {
+                "name": 'LOCAL_CS["local site grid (metres)",LOCAL_DATUM["site grid",0],'
+                'UNIT["metre",1],AXIS["x",EAST],AXIS["y",NORTH]]'
+            },
+        },
         "features": [
             {
                 "type": "Feature",
@@ -99,6 +107,12 @@ def write_geojson(out):
         ],
     }
     (out / "walls.geojson").write_text(json.dumps(fc, indent=1) + "\n")
+    # GDAL opens the file and reads the local grid, not longitude/latitude.
+    info = subprocess.run(
+        ["ogrinfo", "-ro", "-so", "-al", str(out / "walls.geojson")],
+        capture_output=True, text=True, check=True,
+    ).stdout
+    assert "ENGCRS" in info and "Feature Count: 3" in info, info
     rows = []
     for f in json.loads((out / "walls.geojson").read_text())["features"]:
         if f["properties"]["layer"] != "wall":
