@@ -56,6 +56,9 @@ tmp_sa="$(mktemp "${TMPDIR:-/tmp}/drydig-sa.XXXXXX.csv")"; python3 "$root/script
 # DXF test drawings and where ezdxf places their entities (scripts/dxf_fixtures.py, ezdxf)
 tmp_dxf="$(mktemp -d "${TMPDIR:-/tmp}/drydig-dxf.XXXXXX")"; python3 "$root/scripts/dxf_fixtures.py" "$tmp_dxf"; for f in mirrored.dxf inserts.dxf; do diff -q "$root/tests/dxf/$f" "$tmp_dxf/$f" || { echo "tests/dxf/$f differs from a fresh run" >&2; status=1; }; done; for f in "$tmp_dxf"/bad/*.dxf; do diff -q "$root/tests/bad_inputs/drawings/$(basename "$f")" "$f" || status=1; done; if diff -u "$root/tests/reference/dxf_expected.csv" "$tmp_dxf/dxf_expected.csv"; then echo "reference table up to date: $root/tests/reference/dxf_expected.csv"; else status=1; fi; rm -rf "$tmp_dxf"
 
+# cut-off walls drawn in a DXF and a GeoJSON file (scripts/wall_drawings.py, ezdxf and shapely)
+tmp_wd="$(mktemp -d "${TMPDIR:-/tmp}/drydig-walldrawings.XXXXXX")"; python3 "$root/scripts/wall_drawings.py" "$tmp_wd"; for f in walls.dxf walls.geojson; do diff -q "$root/tests/dxf/$f" "$tmp_wd/$f" || { echo "tests/dxf/$f differs from a fresh run" >&2; status=1; }; done; if diff -u "$root/tests/reference/walls_expected.csv" "$tmp_wd/walls_expected.csv"; then echo "reference table up to date: $root/tests/reference/walls_expected.csv"; else status=1; fi; rm -rf "$tmp_wd"
+
 # site CRS positions and scale factors (scripts/reference_crs.py, pyproj)
 tmp_crs="$(mktemp "${TMPDIR:-/tmp}/drydig-crs.XXXXXX.csv")"; python3 "$root/scripts/reference_crs.py" "$tmp_crs"; if diff -u "$root/tests/reference/crs_scale_factors.csv" "$tmp_crs"; then echo "reference table up to date: $root/tests/reference/crs_scale_factors.csv"; else echo "crs_scale_factors.csv differs from a fresh run" >&2; status=1; fi; rm -f "$tmp_crs"
 

@@ -106,6 +106,63 @@ fn walled_demo_section_shows_the_wall_where_the_line_crosses_it() {
     );
 }
 
+/// Page x of every well drawn (its casing line, 1.2 px) and of the wall label's baseline.
+fn well_and_label_xs(svg: &str) -> (Vec<f64>, Vec<f64>) {
+    let wells = svg
+        .split("<line x1=\"")
+        .skip(1)
+        .filter(|rest| {
+            rest.split('>')
+                .next()
+                .unwrap()
+                .contains(r##"stroke="#222" stroke-width="1.2""##)
+        })
+        .map(|rest| rest.split('"').next().unwrap().parse().unwrap())
+        .collect();
+    let labels = svg
+        .split(r#"<line class="wall""#)
+        .skip(1)
+        .map(|rest| {
+            let after = rest.split("rotate(-90 ").nth(1).unwrap();
+            after.split(' ').next().unwrap().parse().unwrap()
+        })
+        .collect();
+    (wells, labels)
+}
+
+// A section line through well W14 of the ring, (15, 47) m, and the wall 1 m north of it at
+// y = 48 m: the wall's name, written up beside the wall (11 px text: about 10 px left of its
+// baseline to 3 px right), must not cross the well's casing, screen or intake (±6 px).
+#[test]
+fn the_wall_label_keeps_clear_of_a_well_beside_the_wall() {
+    let text = demo("walled_basement.toml").replace(
+        "[output]\n",
+        "[output]\nsection = [[15.0, -20.0], [15.0, 90.0]]\n",
+    );
+    let svg = section_svg(&text);
+    let (wells, labels) = well_and_label_xs(&svg);
+    let wall = wall_xs(&svg);
+    // the line crosses the wall 68 m along its 110 m: x = 80 + 840 · 68/110
+    assert!(
+        (wall[0] - (80.0 + 840.0 * 68.0 / 110.0)).abs() < 0.15,
+        "{wall:?}"
+    );
+    let near: Vec<f64> = wells
+        .iter()
+        .copied()
+        .filter(|w| (w - wall[0]).abs() < 20.0)
+        .collect();
+    assert!(!near.is_empty(), "a well drawn beside the wall: {wells:?}");
+    let (lo, hi) = (labels[0] - 10.0, labels[0] + 3.0);
+    for w in &wells {
+        assert!(
+            hi < w - 6.0 || lo > w + 6.0,
+            "label at {} crosses the well at {w}",
+            labels[0]
+        );
+    }
+}
+
 #[test]
 fn walled_demo_in_us_units_gives_the_toe_in_feet() {
     let text = demo("walled_basement.toml")

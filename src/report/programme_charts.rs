@@ -4,14 +4,14 @@
 //! the switch-off are marked by vertical lines. Levels, flows and volumes in the model's units.
 
 use super::format::Fmt;
-use super::{wrap, CAUTION};
 use crate::input::model::Model;
 use crate::input::units::UnitSystem;
-use crate::report::plot_kit::{legend, line, r1, text, ticks, Frame, LegendRow};
+use crate::report::plot_kit::{
+    caution_block, legend, line, r1, text, ticks, white_page, Frame, LegendRow,
+};
 use crate::transient::answers::{ProgrammeAnswers, SeriesKind};
 use crate::transient::programme::DAY;
-use svg::node::element::{Group, Path, Rectangle};
-use svg::Document;
+use svg::node::element::{Group, Path};
 
 const WIDTH: f64 = 960.0;
 const HEIGHT: f64 = 620.0;
@@ -178,17 +178,8 @@ fn chart(
         x: (0.0, x_max),
         y: value_range(series, steps),
     };
-    let mut doc = Document::new()
-        .set("viewBox", (0, 0, WIDTH, HEIGHT))
-        .set("width", WIDTH)
-        .set("height", HEIGHT)
-        .add(
-            Rectangle::new()
-                .set("width", WIDTH)
-                .set("height", HEIGHT)
-                .set("fill", "white"),
-        )
-        .add(text(WIDTH / 2.0 - RIGHT / 2.0, 30.0, 16.0, "middle", title))
+    let mut doc = white_page(WIDTH, HEIGHT)
+        .add(title_text(title))
         .add(fr.grid(&ticks(0.0, x_max, 10), &ticks(fr.y.0, fr.y.1, 8)))
         .add(fr.x_title("days from the start of pumping"))
         .add(fr.y_title(y_label, 18.0))
@@ -200,12 +191,20 @@ fn chart(
         doc = doc.add(series_path(&fr, days, s, COLOURS[i % COLOURS.len()]));
     }
     doc = doc.add(legend_of(&fr, series, !steps.is_empty()));
-    let mut y = TOP + PLOT_H + 60.0;
-    for line in wrap(&format!("CAUTION: {CAUTION}"), 150, "").lines() {
-        doc = doc.add(text(LEFT, y, 10.0, "start", line.to_string()));
-        y += 13.0;
-    }
+    doc = doc.add(caution_block(LEFT, TOP + PLOT_H + 60.0, 10.0, 13.0, 150));
     doc.to_string()
+}
+
+/// The chart's title, centred over the plot; a title too long for that (about 0.56 em a
+/// character, sans-serif) starts at the page's left margin instead of running off the page.
+fn title_text(title: &str) -> svg::node::element::Text {
+    let centre = WIDTH / 2.0 - RIGHT / 2.0;
+    let half_width = 0.5 * 0.56 * 16.0 * title.chars().count() as f64;
+    if half_width > centre - 20.0 {
+        text(20.0, 30.0, 16.0, "start", title)
+    } else {
+        text(centre, 30.0, 16.0, "middle", title)
+    }
 }
 
 fn marks(model: &Model, a: &ProgrammeAnswers) -> Vec<(f64, String)> {

@@ -2,7 +2,7 @@
 //! excavations, neighbours and wells drawn over it and a colour scale.
 
 use super::format::Fmt;
-use super::{wrap, CAUTION};
+use super::plot_kit::caution_block;
 use crate::input::model::Model;
 use crate::transient::answers::DrawdownMap;
 use crate::transient::programme::DAY;
@@ -143,10 +143,7 @@ pub fn map_svg(model: &Model, map: &DrawdownMap, wells: &[[f64; 2]]) -> String {
         10.5,
         format!("grid {}", units.length(map.step)),
     ));
-    let mut y = PAD + SIZE + 24.0;
-    for line in wrap(&format!("CAUTION: {CAUTION}"), 130, "").lines() {
-        doc = doc.add(text(PAD, y, 9.5, line.to_string()));
-        y += 12.0;
-    }
+    // The caution as on the other charts (plot kit): 10 px, a line every 13 px.
+    doc = doc.add(caution_block(PAD, PAD + SIZE + 24.0, 10.0, 13.0, 130));
     doc.to_string()
 }

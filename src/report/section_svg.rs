@@ -443,9 +443,40 @@ fn aquifer_lines(o: &mut String, fr: &Frame, s: &Section, model: &Model) {
     }
 }
 
+/// Page x of the baseline of a wall's label written up beside the wall at page x `x`: the first
+/// of x − 7, x + 14, x − 11, x + 18, … (4 px further out each time, up to 60 px) whose band
+/// (the rotated text of 11 px reaches about 10 px left of its baseline and 3 px right of it)
+/// stays clear of every drawn well (screen, casing and intake triangle: ±6 px of `wells`) and
+/// inside the plot from `left` to `right`; x − 7 when none is.
+fn wall_label_x(x: f64, wells: &[f64], left: f64, right: f64) -> f64 {
+    let clear = |bx: f64| {
+        let (lo, hi) = (bx - 10.0, bx + 3.0);
+        lo >= left && hi <= right && wells.iter().all(|w| hi < w - 6.0 || lo > w + 6.0)
+    };
+    (0..15)
+        .flat_map(|k| {
+            let step = 4.0 * k as f64;
+            [x - 7.0 - step, x + 14.0 + step]
+        })
+        .find(|bx| clear(*bx))
+        .unwrap_or(x - 7.0)
+}
+
+/// Page x of the wells drawn (every k-th along the line, as [`wells`] draws them).
+fn drawn_well_xs(fr: &Frame, s: &Section) -> Vec<f64> {
+    let k = s.wells.len().div_ceil(MAX_WELLS).max(1);
+    s.wells
+        .iter()
+        .step_by(k)
+        .map(|w| fr.px(w.chainage))
+        .collect()
+}
+
 /// Cut-off walls crossed: a thick bar from ground to the toe, its name and toe level written
-/// up along it.
+/// up beside it, on a side clear of the wells ([`wall_label_x`]).
 fn walls(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
+    let well_xs = drawn_well_xs(fr, s);
+    let (left, right) = fr.ends();
     for w in &s.walls {
         let x = fr.px(w.chainage);
         let (yg, yt) = (fr.py(fr.ground), fr.py(w.toe));
@@ -454,7 +485,7 @@ fn walls(o: &mut String, fr: &Frame, s: &Section, f: &Fmt) {
         } else {
             format!("to the impermeable base {}", f.level(w.toe))
         };
-        let (tx, ty) = (x - 7.0, yt - 4.0);
+        let (tx, ty) = (wall_label_x(x, &well_xs, left, right), yt - 4.0);
         let _ = write!(
             o,
             r##"<line class="wall" x1="{x:.1}" x2="{x:.1}" y1="{yg:.1}" y2="{yt:.1}" stroke="#3a3a3a" stroke-width="6"/><text x="{tx:.1}" y="{ty:.1}" transform="rotate(-90 {tx:.1} {ty:.1})" font-size="11" paint-order="stroke" stroke="#fff" stroke-width="3">{}</text>"##,
@@ -556,4 +587,30 @@ fn footnote(o: &mut String, model: &Model, s: &Section, f: &Fmt, length: f64, st
             f.length(crate::check::section::well_band(length))
         ))
     );
+}
+
+#[cfg(test)]
+mod tests {
+    use super::wall_label_x;
+
+    /// The band of page x the label covers (10 px left of its baseline, 3 px right).
+    fn band(bx: f64) -> (f64, f64) {
+        (bx - 10.0, bx + 3.0)
+    }
+
+    #[test]
+    fn a_wall_label_keeps_clear_of_the_wells_beside_the_wall() {
+        // No well near: left of the wall as before.
+        assert_eq!(wall_label_x(599.1, &[238.7], 80.0, 920.0), 592.1);
+        // The walled demo's design: W14 10.5 px left of the wall; the label goes right.
+        let bx = wall_label_x(599.1, &[238.7, 588.6], 80.0, 920.0);
+        assert_eq!(bx, 613.1);
+        // Wells on both sides close by, and the plot's right end: further out on the left,
+        // clear of every well.
+        let wells = [590.0, 612.0, 625.0];
+        let bx = wall_label_x(600.0, &wells, 80.0, 640.0);
+        let (lo, hi) = band(bx);
+        assert!(wells.iter().all(|w| hi < w - 6.0 || lo > w + 6.0), "{bx}");
+        assert!(lo >= 80.0 && hi <= 640.0);
+    }
 }

@@ -1,5 +1,6 @@
 //! Geometry taken from drawings named in the design file: `outline_from` (excavations),
-//! `footprint_from` (neighbours), `line_from` (boundaries), `outline_from` (keep-out zones) and
+//! `footprint_from` (neighbours), `line_from` (boundaries, and cut-off walls: [`wall_from`]),
+//! `outline_from` (keep-out zones) and
 //! `[layout] wells_from` (given wells), each `{ file = "drawings/site.dxf", layer = "EXCAVATION" }`
 //! for a DXF drawing or `{ file = "site.geojson", property = "layer", value = "excavation" }`
 //! for GeoJSON, with optional `name` (pick one of several items), `units` (a unitless DXF) and,
@@ -318,6 +319,125 @@ fn polygon_from(
     Ok(())
 }
 
+/// A wall line picked from a drawing: its vertices (m) and whether it closes on itself.
+type WallLine = super::Shape<(Vec<(f64, f64)>, bool)>;
+
+/// Replace a wall's `line_from` (a drawing reference) in `t` by its `line` and `closed`: an
+/// open polyline (DXF LWPOLYLINE/POLYLINE/LINE/ARC, GeoJSON LineString) gives an open wall, a
+/// closed one (DXF closed polyline, GeoJSON Polygon) a wall round on itself, as does an open
+/// polyline whose ends meet (within 1 mm: drawn round but not flagged closed). A `closed` given
+/// beside `line_from` must agree with the drawing.
+fn wall_from(design: &Path, field: &str, t: &mut Table, log: &mut Log) -> Result<(), InputError> {
+    let Some(v) = t.remove("line_from") else {
+        return Ok(());
+    };
+    let f = format!("{field}.line_from");
+    if t.contains_key("line") {
+        return Err(err(
+            design,
+            &f,
+            "give either `line` (the vertices typed) or `line_from` (read from a drawing), not both",
+        ));
+    }
+    let r = reference(design, &f, &v)?;
+    if v.get("rate").is_some() {
+        return Err(err(
+            design,
+            &format!("{f}.rate"),
+            "unknown key `rate` for a wall; valid keys: file, layer, property, value, name, units",
+        ));
+    }
+    let got = read(design, &f, &r, true)?;
+    // Every line and every closed outline picked, as (vertices, closed).
+    let mut found: Vec<WallLine> = Vec::new();
+    for s in &got.lines {
+        let mut pts: Vec<(f64, f64)> = s.geometry.0.iter().map(|c| (c.x, c.y)).collect();
+        let (a, b) = (pts[0], pts[pts.len() - 1]);
+        let ends_meet = pts.len() > 3 && (b.0 - a.0).hypot(b.1 - a.1) < 1e-3;
+        if ends_meet {
+            pts.pop();
+        }
+        found.push(super::Shape {
+            name: s.name.clone(),
+            source: s.source.clone(),
+            geometry: (pts, ends_meet),
+        });
+    }
+    for s in &got.polygons {
+        if !s.geometry.interiors().is_empty() {
+            return Err(err(
+                design,
+                &f,
+                format!(
+                    "\"{}\" ({}) in {} is a polygon with holes; a wall is one line — draw it as a polyline or a polygon without holes",
+                    s.name, s.source, r.shown
+                ),
+            ));
+        }
+        let mut pts: Vec<(f64, f64)> = s.geometry.exterior().0.iter().map(|c| (c.x, c.y)).collect();
+        if pts.len() > 1 && pts.first() == pts.last() {
+            pts.pop();
+        }
+        found.push(super::Shape {
+            name: s.name.clone(),
+            source: s.source.clone(),
+            geometry: (pts, true),
+        });
+    }
+    if found.is_empty() {
+        return Err(err(
+            design,
+            &f,
+            format!(
+                "no line or outline found in {} with that layer or property (only points); draw the wall as a polyline, open or closed",
+                r.shown
+            ),
+        ));
+    }
+    let s = pick(design, &f, &r, &found, "wall line")?;
+    let (pts, closed) = &s.geometry;
+    match t.get("closed").map(Value::as_bool) {
+        None => {}
+        Some(Some(c)) if c == *closed => {}
+        Some(Some(c)) => {
+            return Err(err(
+                design,
+                &format!("{field}.closed"),
+                format!(
+                    "closed = {c}, but \"{}\" in {} is {}; leave `closed` out when the line comes from a drawing (the drawing says whether it closes)",
+                    s.name,
+                    r.shown,
+                    if *closed { "a closed polyline or polygon" } else { "an open polyline" }
+                ),
+            ))
+        }
+        Some(None) => {
+            return Err(err(
+                design,
+                &format!("{field}.closed"),
+                "expected true or false",
+            ))
+        }
+    }
+    let shape = if *closed { "closed" } else { "open" };
+    note(
+        log,
+        &f,
+        &r,
+        &got,
+        &format!(
+            "\"{}\" ({}, {shape}, {} vertices)",
+            s.name,
+            s.source,
+            pts.len()
+        ),
+    );
+    log.source(format!("{field}.line"), &r, &s.source);
+    t.insert("line".into(), coords(pts.iter().copied()));
+    t.insert("closed".into(), Value::Boolean(*closed));
+    Ok(())
+}
+
 /// Rewrite `source` when it names drawings; `None` when it names none.
 pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputError> {
     if !mentions_drawings(source) {
@@ -374,6 +494,14 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             );
             log.source(format!("boundary[{}].line", i + 1), &r, &s.source);
             t.insert("line".into(), coords([(a.x, a.y), (b.x, b.y)].into_iter()));
+        }
+    }
+    if let Some(Value::Array(items)) = doc.get_mut("wall") {
+        for (i, item) in items.iter_mut().enumerate() {
+            if let Some(t) = item.as_table_mut() {
+                any |= t.contains_key("line_from");
+                wall_from(design, &format!("wall[{}]", i + 1), t, &mut log)?;
+            }
         }
     }
     if let Some(layout) = doc.get_mut("layout").and_then(Value::as_table_mut) {

@@ -41,7 +41,8 @@ pub(super) fn inside(b: [f64; 4], area: [f64; 4]) -> bool {
 }
 
 /// Mark what labels must keep clear of, before any label is placed: well symbols, failed
-/// check points, and the outlines of excavations, neighbours and keep-out zones.
+/// check points, and the outlines of excavations, neighbours and keep-out zones (cut-off walls:
+/// [`crate::report::map::walls::reserve_walls`]).
 pub(super) fn reserve(run: &CheckRun, view: &View, occ: &mut Occupied) {
     let r = well_radius(run, view);
     for w in &run.placement.wells {
@@ -72,16 +73,27 @@ pub(super) fn reserve(run: &CheckRun, view: &View, occ: &mut Occupied) {
         .chain(model.keep_outs.iter().map(|k| &k.polygon));
     for poly in outlines {
         for seg in poly.exterior().0.windows(2) {
-            let a = view.px([seg[0].x, seg[0].y]);
-            let b = view.px([seg[1].x, seg[1].y]);
-            let len = (b[0] - a[0]).hypot(b[1] - a[1]);
-            let n = (len / 5.0).ceil().max(1.0) as usize;
-            for k in 0..=n {
-                let t = k as f64 / n as f64;
-                let p = [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
-                occ.take([p[0] - 1.5, p[1] - 1.5, p[0] + 1.5, p[1] + 1.5]);
-            }
+            reserve_segment(view, occ, [seg[0].x, seg[0].y], [seg[1].x, seg[1].y], 1.5);
         }
+    }
+}
+
+/// Keep labels off the line from `a` to `b` (site coordinates): boxes of ± `half` px every 5 px
+/// or closer along it.
+pub(super) fn reserve_segment(
+    view: &View,
+    occ: &mut Occupied,
+    a: [f64; 2],
+    b: [f64; 2],
+    half: f64,
+) {
+    let (a, b) = (view.px(a), view.px(b));
+    let len = (b[0] - a[0]).hypot(b[1] - a[1]);
+    let n = (len / 5.0).ceil().max(1.0) as usize;
+    for k in 0..=n {
+        let t = k as f64 / n as f64;
+        let p = [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
+        occ.take([p[0] - half, p[1] - half, p[0] + half, p[1] + half]);
     }
 }
 

@@ -43,12 +43,13 @@ pub(super) fn draw_plan(
     // Labels are placed in order of importance (each keeps clear of those before it); the
     // layers are stacked in their fixed order, whatever the order here.
     reserve(run, view, &mut occ);
+    crate::report::map::walls::reserve_walls(run, view, &mut occ);
     let omitted = draw_wells(&mut lay, run, view, &mut occ, plan_px, only);
     draw_excavations(&mut lay, run, view, &mut occ, plan_px);
     draw_neighbours(&mut lay, run, view, &mut occ, plan_px, opts);
     draw_keep_outs(&mut lay, run, view, &mut occ, plan_px);
     draw_boundaries(&mut lay, run, grid, view, &mut occ, plan_px);
-    crate::report::map::walls::draw_walls(&mut lay, run, view);
+    crate::report::map::walls::draw_walls(&mut lay, run, view, &mut occ, plan_px);
     draw_dry(&mut lay, grid, view);
     let failed = draw_failed(&mut lay, run, view, &mut occ, plan_px, only);
     crate::report::map::named::draw_named(&mut lay, run, view, &mut occ, plan_px, only);
