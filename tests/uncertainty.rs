@@ -8,6 +8,7 @@ use drydig::input::validate::file::{from_str, load};
 use drydig::input::validate::uncertainty::parse_distribution;
 use drydig::uncertainty::apply::apply;
 use drydig::uncertainty::check_samples::{evaluate_sample, Layout};
+use drydig::uncertainty::days_to_dig::DigStages;
 use drydig::uncertainty::design_samples::{design_sample, sample_of};
 use drydig::uncertainty::fast_check::FastCheck;
 use drydig::uncertainty::run::{run, Mode, Settings};
@@ -204,4 +205,143 @@ fn bad_entries_name_the_field() {
         assert_eq!(e.field, field, "{extra}: {e}");
         assert!(e.message.contains(words), "{extra}: {e}");
     }
+}
+
+/// One well outside a small pit in a confined aquifer, with a one-stage programme (the geometry
+/// of scripts/reference_days_to_dig.py); K is sampled.
+const DIG: &str = r#"
+[site]
+name = "Days-to-dig check pit"
+datum = "0.00 m = test datum"
+ground_level = "6.0 m"
+grid = "local"
+
+[aquifer]
+kind = "confined"
+conductivity = "1e-4 m/s"
+top_level = "0.0 m"
+base_level = "-10.0 m"
+groundwater_level = "5.0 m"
+storativity = 1e-3
+
+[[excavation]]
+name = "Pit"
+outline = [[20, -5], [30, -5], [30, 5], [20, 5]]
+formation_level = "2.5 m"
+target_margin = "0.5 m"
+
+[influence]
+method = "sichardt"
+sichardt_c = 3000
+
+[wells]
+kind = "deep-well"
+radius = "0.15 m"
+screen_top = "0.0 m"
+screen_base = "-10.0 m"
+pump_intake = "-9.0 m"
+submergence = "1.0 m"
+pump_capacity = "8 L/s"
+
+[layout]
+kind = "listed"
+excavation = "Pit"
+
+[[well]]
+name = "W1"
+x = 0.0
+y = 0.0
+rate = "5 L/s"
+
+[programme]
+start_date = "2027-03-01"
+duration = "60 days"
+output_step = "1 day"
+recovery = "5 days"
+
+[[programme.stage]]
+name = "Dig to formation"
+start = "0 days"
+formation_level = "2.5 m"
+rate = "as designed"
+
+[uncertainty]
+conductivity = "lognormal median 1.1e-4 m/s, factor 1.2"
+samples = 20
+seed = 3
+"#;
+
+fn dig_model() -> Model {
+    from_str(Path::new("dig.toml"), DIG).expect("the pit file loads")
+}
+
+/// Days to dig on a sampled K: the time a single Theis well (Theis 1935) draws the pit's farthest
+/// corner down 3.0 m, from scipy.special.exp1 and brentq (tests/reference/uncertainty_days_to_dig.csv,
+/// scripts/reference_days_to_dig.py), to the programme's 1 s bisection (2 s allowed); a K too
+/// high for the rate never gets there within the 60 days.
+#[test]
+fn days_to_dig_match_scipy_theis_times() {
+    let model = dig_model();
+    let spec = model.uncertainty.clone().unwrap();
+    let dig = DigStages::new(&model).expect("the programme sets up");
+    assert_eq!(dig.names(), vec!["Dig to formation".to_string()]);
+    let text = std::fs::read_to_string("tests/reference/uncertainty_days_to_dig.csv").unwrap();
+    let mut never = 0;
+    for line in text.lines().skip(1) {
+        let (k, t) = line.split_once(',').unwrap();
+        let k: f64 = k.parse().unwrap();
+        let got = dig.earliest(&apply(&model, &spec, &[k])).unwrap()[0];
+        match t.parse::<f64>() {
+            Ok(want) => {
+                let got = got.expect("ready within the programme");
+                assert!(
+                    (got - want).abs() <= 2.0,
+                    "K {k:e}: {got} s, scipy {want} s"
+                );
+            }
+            Err(_) => {
+                assert_eq!(got, None, "K {k:e}: not ready within 60 days");
+                never += 1;
+            }
+        }
+    }
+    assert_eq!(never, 1);
+}
+
+/// The same quantity `drydig programme` reports: on the file's own ground the sampled rule gives
+/// the programme's earliest day to the second, and `uncertainty` writes a days column and its
+/// percentiles.
+#[test]
+fn days_to_dig_sampled_in_uncertainty() {
+    let model = dig_model();
+    let setup = drydig::transient::programme::setup(&model).unwrap();
+    let answers = drydig::transient::answers::answer(&model, &setup);
+    let dig = DigStages::new(&model).unwrap();
+    let quick = dig.earliest(&model).unwrap()[0].unwrap();
+    let full = answers.stages[0].earliest.unwrap();
+    assert!((quick - full).abs() <= 1.0, "{quick} vs {full}");
+    let settings = Settings {
+        mode: Mode::Check,
+        samples: None,
+        seed: None,
+        reliability: 0.9,
+        rates: drydig::optimise::rates::RateOption::Individual,
+    };
+    let r = run(&model, settings, &|| {}).unwrap();
+    let days = r
+        .series
+        .iter()
+        .find(|s| s.key == "days_to_dig_1")
+        .expect("a days series");
+    let p = days.percentiles.unwrap();
+    // a lower K draws the pit down sooner (9 days at 1e-4 m/s, 47 at 1.25e-4 m/s: the scipy
+    // times); the samples of high K not ready within the 60 days are left out and counted
+    assert!(p.p10 > 86_400.0 && p.p90 < 60.0 * 86_400.0, "{p:?}");
+    let not_ready = r.days_not_ready.as_ref().unwrap()[0].1;
+    assert_eq!(not_ready, 20 - p.count);
+    assert!(not_ready > 0 && not_ready < 20);
+    assert!(p.p10 < p.p50 && p.p50 < p.p90);
+    let csv =
+        String::from_utf8(drydig::report::uncertainty_text::to_csv(&model, &r).unwrap()).unwrap();
+    assert!(csv.lines().next().unwrap().contains("days_to_dig_1"));
 }

@@ -15,7 +15,25 @@ use serde_json::json;
 pub const SAMPLING: &str = "Latin hypercube (McKay, Beckman & Conover 1979), one ChaCha8 stream per input from the seed; K–S rank correlation by Iman–Conover reordering (1982)";
 
 /// Days to dig are not sampled yet: said wherever a `[programme]` is given.
-pub const NO_DAYS: &str = "days to dig: not computed by `uncertainty` (run `drydig programme` on a sample's ground for the time answers)";
+pub const NO_DAYS: &str = "days to dig: not sampled here (sampled with `uncertainty` on a given layout whose [programme] `drydig programme` can set up; run `drydig programme` for the time answers)";
+
+/// The note on sampled days to dig: the method, and the stages not ready in some samples (left
+/// out of the percentiles, so the P90 then reads short of the truth).
+fn days_note(not_ready: &[(String, usize)]) -> String {
+    let mut s = "days to dig: the earliest day each stage's check points meet its target, on each sample's T and S, by the programme's Theis superposition in time (as `drydig programme`)".to_string();
+    let short: Vec<String> = not_ready
+        .iter()
+        .filter(|(_, n)| *n > 0)
+        .map(|(name, n)| format!("{name}: {n}"))
+        .collect();
+    if !short.is_empty() {
+        s.push_str(&format!(
+            "; samples not ready within the programme, left out of its percentiles (so its P90 is at least the value shown) — {}",
+            short.join(", ")
+        ));
+    }
+    s
+}
 
 /// An input's value in the user's units, with its unit.
 pub fn input_value(kind: InputKind, v: f64, f: &Fmt) -> String {
@@ -37,6 +55,7 @@ pub fn output_value(m: Measure, v: f64, f: &Fmt) -> String {
         Measure::Length => f.length(v),
         Measure::Settlement => f.small_length(v),
         Measure::Count => format!("{v:.0}"),
+        Measure::Duration => format!("{:.1} days", v / 86_400.0),
     }
 }
 
@@ -50,6 +69,7 @@ pub fn output_number(m: Measure, v: f64, units: UnitSystem) -> (f64, &'static st
         (Measure::Settlement, UnitSystem::Si) => (v * 1e3, "mm"),
         (Measure::Settlement, UnitSystem::Us) => (v / 0.0254, "in"),
         (Measure::Count, _) => (v, "wells"),
+        (Measure::Duration, _) => (v / 86_400.0, "days"),
     }
 }
 
@@ -59,6 +79,7 @@ fn si_suffix(m: Measure) -> &'static str {
         Measure::Flow => "m3_per_s",
         Measure::Length | Measure::Settlement => "m",
         Measure::Count => "",
+        Measure::Duration => "s",
     }
 }
 
@@ -108,8 +129,10 @@ pub fn notes(run: &UncertaintyRun) -> Vec<String> {
     if run.mode == Mode::Design {
         n.push("robust design: the samples' designs ranked by wells then flow; the one at the reliability's rank is evaluated on every sample at its own rates, and the next up tried when it falls short".into());
     }
-    if run.has_programme {
-        n.push(NO_DAYS.into());
+    match &run.days_not_ready {
+        Some(not_ready) => n.push(days_note(not_ready)),
+        None if run.has_programme => n.push(NO_DAYS.into()),
+        None => {}
     }
     n
 }

@@ -8,6 +8,7 @@ use crate::input::model_uncertainty::{UncertainInput, Uncertainty};
 use crate::optimise::rates::RateOption;
 use crate::uncertainty::apply::apply;
 use crate::uncertainty::check_samples::{evaluate_sample, CheckSample, Layout};
+use crate::uncertainty::days_to_dig::DigStages;
 use crate::uncertainty::design_samples::{design_sample, robust, DesignSample, Robust};
 use crate::uncertainty::fast_check::FastCheck;
 use crate::uncertainty::sampling::sample_values;
@@ -37,6 +38,8 @@ pub enum Measure {
     Settlement,
     /// A count of wells.
     Count,
+    /// A time, s (shown in days).
+    Duration,
 }
 
 /// One sampled output.
@@ -122,8 +125,11 @@ pub struct UncertaintyRun {
     pub implied_ratio: Option<f64>,
     /// Names of the neighbours (check mode columns).
     pub neighbours: Vec<String>,
-    /// Whether the file has a `[programme]` (days to dig are not sampled: said in the outputs).
+    /// Whether the file has a `[programme]`.
     pub has_programme: bool,
+    /// Days to dig were sampled (check mode with a `[programme]` that can be set up): each
+    /// stage's name and the samples in which it is not ready within the programme.
+    pub days_not_ready: Option<Vec<(String, usize)>>,
 }
 
 /// Settings of one run.
@@ -199,6 +205,7 @@ pub fn run(
         implied_ratio: None,
         neighbours: model.neighbours.iter().map(|n| n.name.clone()).collect(),
         has_programme: model.programme.is_some(),
+        days_not_ready: None,
     };
     match settings.mode {
         Mode::Check => check_mode(model, &models, &median, &swing_models, tick, &mut out)?,
@@ -306,6 +313,7 @@ fn check_mode(
             ));
         }
     }
+    days_to_dig(model, models, out);
     out.sample_met = samples.iter().map(|s| s.targets_met).collect();
     let n = samples.len().max(1) as f64;
     out.fraction_met = samples.iter().filter(|s| s.targets_met).count() as f64 / n;
@@ -389,6 +397,31 @@ fn design_mode(
     out.tornado = ("design_flow".into(), out.p50_design.map(|d| d.1), swings);
     fill_swing_inputs(out);
     out.robust = robust(model, models, &designs, settings.reliability);
+}
+
+/// Days to dig of each stage on every sample (a file with a `[programme]`): one series per
+/// stage, in seconds (`None` where the stage is not ready within the programme).
+fn days_to_dig(model: &Model, models: &[Model], out: &mut UncertaintyRun) {
+    let Some(dig) = DigStages::new(model) else {
+        return;
+    };
+    let per_sample: Vec<Option<Vec<Option<f64>>>> =
+        models.par_iter().map(|m| dig.earliest(m)).collect();
+    let mut not_ready = Vec::new();
+    for (k, name) in dig.names().into_iter().enumerate() {
+        let values: Vec<Option<f64>> = per_sample
+            .iter()
+            .map(|s| s.as_ref().and_then(|v| v.get(k).copied().flatten()))
+            .collect();
+        not_ready.push((name.clone(), values.iter().filter(|v| v.is_none()).count()));
+        out.series.push(Series::new(
+            format!("days_to_dig_{}", k + 1),
+            format!("days to dig: {name}"),
+            Measure::Duration,
+            values,
+        ));
+    }
+    out.days_not_ready = Some(not_ready);
 }
 
 /// Each swing's input values at P10 and P90 (the swings are in the order of the inputs here).
