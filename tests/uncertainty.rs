@@ -103,6 +103,10 @@ fn fast_path_matches_plain_evaluation() {
         );
         close(qf / qp, 1.0, 2e-3, "flow needed");
         close(quick.radius_m / plain.radius_m, 1.0, 5e-4, "radius");
+        assert_eq!(
+            quick.wells_ok, plain.wells_ok,
+            "wells within limits ({v:?})"
+        );
         for (a, b) in quick.neighbours.iter().zip(&plain.neighbours) {
             close(a.0, b.0, 2e-3, "neighbour drawdown");
             close(a.1.unwrap_or(0.0), b.1.unwrap_or(0.0), 2e-4, "settlement");
@@ -344,4 +348,46 @@ fn days_to_dig_sampled_in_uncertainty() {
     let csv =
         String::from_utf8(drydig::report::uncertainty_text::to_csv(&model, &r).unwrap()).unwrap();
     assert!(csv.lines().next().unwrap().contains("days_to_dig_1"));
+}
+
+/// A well past its limit makes a sample not met. The pit's well alone, R fixed at 300 m, its
+/// pump intake raised so the lowest allowed level is 3.0 m (2.0 m below the rest level): by
+/// Thiem (1906; Kruseman & de Ridder 1994, eq. 3.1; confined, b = 10 m, r_w = 0.15 m), the
+/// drawdown at the well face s_w = Q/(2πKb)·ln(R/r_w) is 3.02 m at K = 2e-4 m/s (level 1.98 m,
+/// below 3.0 m: past the limit) and 0.60 m at K = 1e-3 m/s (within it; Sichardt's capacity
+/// 2π·0.15·10·√K/15 = 8.9 L/s and more, above the 5 L/s).
+#[test]
+fn a_well_below_its_lowest_level_makes_a_sample_not_met() {
+    let text = DIG
+        .replace(
+            "method = \"sichardt\"\nsichardt_c = 3000",
+            "method = \"fixed\"\ndistance = \"300 m\"",
+        )
+        .replace("pump_intake = \"-9.0 m\"", "pump_intake = \"2.0 m\"");
+    let model = from_str(Path::new("limits.toml"), &text).expect("loads");
+    let spec = model.uncertainty.clone().unwrap();
+    let placement = drydig::field::layout::from_model(&model, None).unwrap();
+    let layout = Layout::new(&model, placement.wells);
+    let fast = FastCheck::new(&model, &spec, &layout).expect("shortcut applies");
+    let thiem = |k: f64| 0.005 / (2.0 * std::f64::consts::PI * k * 10.0) * (300.0_f64 / 0.15).ln();
+    assert!((thiem(2e-4) - 3.02).abs() < 0.01 && (thiem(1e-3) - 0.60).abs() < 0.01);
+    for (k, ok) in [(2e-4, false), (1e-3, true)] {
+        let m = apply(&model, &spec, &[k]);
+        let quick = fast.evaluate(&m).expect("R reaches the pit");
+        let plain = evaluate_sample(&m, &layout);
+        assert_eq!(quick.wells_ok, Some(ok), "K {k:e}: fast");
+        assert_eq!(plain.wells_ok, Some(ok), "K {k:e}: plain");
+    }
+    // 20 samples of K around 1.1e-4 m/s: s_w ≈ 5.5 m, every one past the limit and not met
+    let settings = Settings {
+        mode: Mode::Check,
+        samples: None,
+        seed: None,
+        reliability: 0.9,
+        rates: drydig::optimise::rates::RateOption::Individual,
+    };
+    let r = run(&model, settings, &|| {}).unwrap();
+    assert_eq!(r.wells_past_limit, 20);
+    assert_eq!(r.fraction_wells_ok, Some(0.0));
+    assert!(r.sample_met.iter().all(|m| !m));
 }

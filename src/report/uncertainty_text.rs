@@ -197,13 +197,14 @@ pub fn to_text(model: &Model, found: &UncertaintyFindings) -> String {
     match run.mode {
         Mode::Check => {
             out.push_str(&format!(
-                "every target met with the given rates: {:.1} % of samples\n",
+                "every target met with the given rates, every well within its limits: {:.1} % of samples\n",
                 run.fraction_met * 100.0
             ));
             if let Some(w) = run.fraction_wells_ok {
                 out.push_str(&format!(
-                    "every well within its limits: {:.1} % of samples\n",
-                    w * 100.0
+                    "every well within its limits (capacity, lowest level): {:.1} % of samples; a well past a limit in {} samples (counted as not met)\n",
+                    w * 100.0,
+                    run.wells_past_limit
                 ));
             }
         }
@@ -351,6 +352,7 @@ pub fn to_json(model: &Model, found: &UncertaintyFindings) -> serde_json::Value 
         "outputs": outputs,
         "fraction_targets_met": run.fraction_met,
         "fraction_wells_within_limits": run.fraction_wells_ok,
+        "samples_with_a_well_past_a_limit": run.wells_past_limit,
         "reliability": run.reliability,
         "p50_design": run.p50_design.map(|(w, q)| json!({"wells": w, "total_flow_m3_per_s": q})),
         "robust_design": run.robust,

@@ -105,14 +105,16 @@ pub struct UncertaintyRun {
     /// The output of the tornado (its key in `series`), its value with every input at P50, and
     /// the swings, largest first.
     pub tornado: (String, Option<f64>, Vec<Swing>),
-    /// Per sample: every target met (check: the given rates; design: a layout meets every
-    /// target).
+    /// Per sample: every target met (check: the given rates, with every well within its limits;
+    /// design: a layout meets every target).
     pub sample_met: Vec<bool>,
     /// Fraction of samples with every target met (check: the given rates; design: a layout
     /// was found that meets every target).
     pub fraction_met: f64,
     /// Fraction of samples with every well within its limits (check).
     pub fraction_wells_ok: Option<f64>,
+    /// Samples in which a well breaks a limit (check; counted as not met).
+    pub wells_past_limit: usize,
     /// The design with every input at its P50 (wells, flow m³/s), design mode.
     pub p50_design: Option<(usize, f64)>,
     /// The robust design (design mode).
@@ -198,6 +200,7 @@ pub fn run(
         sample_met: Vec::new(),
         fraction_met: 0.0,
         fraction_wells_ok: None,
+        wells_past_limit: 0,
         p50_design: None,
         robust: None,
         reliability: settings.reliability,
@@ -314,9 +317,15 @@ fn check_mode(
         }
     }
     days_to_dig(model, models, out);
-    out.sample_met = samples.iter().map(|s| s.targets_met).collect();
+    // a sample is met only when the wells can also deliver their rates (the limits `check`
+    // applies: capacity, lowest level, suction)
+    out.sample_met = samples
+        .iter()
+        .map(|s| s.targets_met && s.wells_ok != Some(false))
+        .collect();
+    out.wells_past_limit = samples.iter().filter(|s| s.wells_ok == Some(false)).count();
     let n = samples.len().max(1) as f64;
-    out.fraction_met = samples.iter().filter(|s| s.targets_met).count() as f64 / n;
+    out.fraction_met = out.sample_met.iter().filter(|m| **m).count() as f64 / n;
     out.fraction_wells_ok = samples
         .iter()
         .map(|s| s.wells_ok)

@@ -34,10 +34,16 @@ pub fn part(model: &Model, found: &UncertaintyFindings, charts: &[(String, Strin
         rows.push(("rank correlation of K and S", format!("{r:.2}")));
     }
     match run.mode {
-        Mode::Check => rows.push((
-            "every target met with the given rates",
-            format!("{:.1} % of samples", run.fraction_met * 100.0),
-        )),
+        Mode::Check => {
+            rows.push((
+                "every target met with the given rates, every well within its limits",
+                format!("{:.1} % of samples", run.fraction_met * 100.0),
+            ));
+            rows.push((
+                "samples with a well past a limit (capacity, lowest level)",
+                run.wells_past_limit.to_string(),
+            ));
+        }
         Mode::Design => {
             rows.push((
                 "P50 design (every input at its median)",
