@@ -17,6 +17,21 @@ pub const SAMPLING: &str = "Latin hypercube (McKay, Beckman & Conover 1979), one
 /// Days to dig are not sampled yet: said wherever a `[programme]` is given.
 pub const NO_DAYS: &str = "days to dig: not sampled here (sampled with `uncertainty` on a given layout whose [programme] `drydig programme` can set up; run `drydig programme` for the time answers)";
 
+/// How the convergence figure is found.
+pub const CONVERGENCE_METHOD: &str = "half-width of the 95 % bootstrap percentile interval of P90 (resamples of the samples with replacement), divided by P90; the bootstrap treats the samples as independent, so for a Latin hypercube and an output that rises or falls with its inputs it is an upper bound";
+
+/// The convergence line: how far the P90 of the first output may move with other samples.
+pub fn convergence_line(run: &UncertaintyRun) -> Option<String> {
+    let c = run.convergence?;
+    let label = &run.series.first()?.label;
+    Some(format!(
+        "sampling convergence: P90 of {label} within ± {:.1} % at N = {} ({CONVERGENCE_METHOD}, {} resamples)\n",
+        100.0 * c.relative_half_width,
+        c.samples,
+        c.resamples
+    ))
+}
+
 /// The note on sampled days to dig: the method, and the stages not ready in some samples (left
 /// out of the percentiles, so the P90 then reads short of the truth).
 fn days_note(not_ready: &[(String, usize)]) -> String {
@@ -212,6 +227,9 @@ pub fn to_text(model: &Model, found: &UncertaintyFindings) -> String {
     }
     out.push_str(&implied_contingency(run));
     out.push('\n');
+    if let Some(c) = convergence_line(run) {
+        out.push_str(&wrap(&c, 96, ""));
+    }
     out.push_str(&tornado_lines(run, &f));
     for n in notes(run) {
         out.push_str(&wrap(&format!("note: {n}"), 96, "  "));
@@ -358,6 +376,14 @@ pub fn to_json(model: &Model, found: &UncertaintyFindings) -> serde_json::Value 
         "robust_design": run.robust,
         "contingency": run.contingency,
         "implied_contingency_p90_over_p50": run.implied_ratio,
+        "convergence_p90": run.convergence.map(|c| json!({
+            "output": run.series.first().map(|s| s.key.clone()),
+            "p": c.p,
+            "samples": c.samples,
+            "resamples": c.resamples,
+            "relative_half_width_95": c.relative_half_width,
+            "method": CONVERGENCE_METHOD,
+        })),
         "tornado": {"output": run.tornado.0, "all_at_p50": run.tornado.1, "swings": run.tornado.2},
         "notes": notes(run),
         "result": super::verdict::headline(&found.verdict, &f),

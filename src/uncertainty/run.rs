@@ -12,9 +12,12 @@ use crate::uncertainty::days_to_dig::DigStages;
 use crate::uncertainty::design_samples::{design_sample, robust, DesignSample, Robust};
 use crate::uncertainty::fast_check::FastCheck;
 use crate::uncertainty::sampling::sample_values;
-use crate::uncertainty::stats::{percentiles, Percentiles};
+use crate::uncertainty::stats::{bootstrap_convergence, percentiles, Convergence, Percentiles};
 use rayon::prelude::*;
 use serde::Serialize;
+
+/// Resamples of the bootstrap behind the convergence figure.
+pub const BOOTSTRAP_RESAMPLES: usize = 1000;
 
 /// Which command's question is asked of each sample.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -125,6 +128,8 @@ pub struct UncertaintyRun {
     pub contingency: f64,
     /// P90 flow ÷ P50 flow of the flow output.
     pub implied_ratio: Option<f64>,
+    /// How settled the P90 of the flow output is (bootstrap, [`BOOTSTRAP_RESAMPLES`]).
+    pub convergence: Option<Convergence>,
     /// Names of the neighbours (check mode columns).
     pub neighbours: Vec<String>,
     /// Whether the file has a `[programme]`.
@@ -206,6 +211,7 @@ pub fn run(
         reliability: settings.reliability,
         contingency: model.contingency,
         implied_ratio: None,
+        convergence: None,
         neighbours: model.neighbours.iter().map(|n| n.name.clone()).collect(),
         has_programme: model.programme.is_some(),
         days_not_ready: None,
@@ -224,6 +230,10 @@ pub fn run(
     }
     let flow = out.series.first().and_then(|s| s.percentiles);
     out.implied_ratio = flow.filter(|p| p.p50 > 0.0).map(|p| p.p90 / p.p50);
+    out.convergence = out.series.first().and_then(|s| {
+        let v: Vec<f64> = s.values.iter().flatten().copied().collect();
+        bootstrap_convergence(&v, 0.9, BOOTSTRAP_RESAMPLES, seed)
+    });
     let names: Vec<String> = spec
         .inputs
         .iter()

@@ -33,6 +33,16 @@ pub fn part(model: &Model, found: &UncertaintyFindings, charts: &[(String, Strin
     if let Some(r) = run.rank_correlation {
         rows.push(("rank correlation of K and S", format!("{r:.2}")));
     }
+    if let Some(c) = run.convergence {
+        rows.push((
+            "sampling convergence of P90 (95 % bootstrap, an upper bound for Latin hypercube)",
+            format!(
+                "± {:.1} % at N = {}",
+                100.0 * c.relative_half_width,
+                c.samples
+            ),
+        ));
+    }
     match run.mode {
         Mode::Check => {
             rows.push((
