@@ -167,7 +167,7 @@ fn sample_designs_match_full_designs() {
     assert!(counts.len() >= 3, "the samples' counts spread: {counts:?}");
 }
 
-/// Bad `[uncertainty]` entries are refused naming the field and what is valid.
+/// Bad `[uncertainty]` entries are refused naming the field, its line and what is valid.
 #[test]
 fn bad_entries_name_the_field() {
     let base = std::fs::read_to_string(DEMO).unwrap();
@@ -208,6 +208,21 @@ fn bad_entries_name_the_field() {
         let e = from_str(Path::new("u.toml"), &text).unwrap_err();
         assert_eq!(e.field, field, "{extra}: {e}");
         assert!(e.message.contains(words), "{extra}: {e}");
+        // the error names the line of the entry, as other sections' errors do
+        let key = field.trim_start_matches("uncertainty.");
+        let section = text.lines().position(|l| l == "[uncertainty]").unwrap();
+        let line = text
+            .lines()
+            .enumerate()
+            .skip(section)
+            .find(|(_, l)| l.starts_with(&format!("{key} =")))
+            .map(|(i, _)| i + 1);
+        assert!(line.is_some_and(|l| l > 100));
+        assert_eq!(e.line, line, "{extra}: {e}");
+        assert!(
+            e.to_string().contains(&format!("u.toml:{}", line.unwrap())),
+            "{e}"
+        );
     }
 }
 
