@@ -36,6 +36,7 @@ fi
 
 d="$(mktemp -d)"; python3 "$root/scripts/reference_pumping_test.py" "$d" >/dev/null && for f in "$d"/*.csv; do diff -u "$root/tests/reference/$(basename "$f")" "$f" || status=1; done; rm -rf "$d"  # pumping-test tables (scripts/reference_pumping_test.py)
 d="$(mktemp -d)"; python3 "$root/scripts/reference_uncertainty.py" "$d/u.csv" && { diff -u "$root/tests/reference/uncertainty_thiem_lognormal.csv" "$d/u.csv" || status=1; }; rm -rf "$d"  # lognormal Thiem flow percentiles (scripts/reference_uncertainty.py, scipy.stats.lognorm)
+d="$(mktemp -d)"; python3 "$root/scripts/reference_days_to_dig.py" "$d" && for f in "$d"/*.csv; do diff -u "$root/tests/reference/$(basename "$f")" "$f" || status=1; done; rm -rf "$d"  # Theis time to a drawdown (days to dig) and numpy.percentile (scripts/reference_days_to_dig.py)
 committed_lp="$root/tests/reference/lp_reference.json"
 python3 "$root/scripts/reference_lp.py" "$tmp_lp"
 

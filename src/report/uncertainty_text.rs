@@ -15,7 +15,40 @@ use serde_json::json;
 pub const SAMPLING: &str = "Latin hypercube (McKay, Beckman & Conover 1979), one ChaCha8 stream per input from the seed; K–S rank correlation by Iman–Conover reordering (1982)";
 
 /// Days to dig are not sampled yet: said wherever a `[programme]` is given.
-pub const NO_DAYS: &str = "days to dig: not computed by `uncertainty` (run `drydig programme` on a sample's ground for the time answers)";
+pub const NO_DAYS: &str = "days to dig: not sampled here (sampled with `uncertainty` on a given layout whose [programme] `drydig programme` can set up; run `drydig programme` for the time answers)";
+
+/// How the convergence figure is found.
+pub const CONVERGENCE_METHOD: &str = "half-width of the 95 % bootstrap percentile interval of P90 (resamples of the samples with replacement), divided by P90; the bootstrap treats the samples as independent, so for a Latin hypercube and an output that rises or falls with its inputs it is an upper bound";
+
+/// The convergence line: how far the P90 of the first output may move with other samples.
+pub fn convergence_line(run: &UncertaintyRun) -> Option<String> {
+    let c = run.convergence?;
+    let label = &run.series.first()?.label;
+    Some(format!(
+        "sampling convergence: P90 of {label} within ± {:.1} % at N = {} ({CONVERGENCE_METHOD}, {} resamples)\n",
+        100.0 * c.relative_half_width,
+        c.samples,
+        c.resamples
+    ))
+}
+
+/// The note on sampled days to dig: the method, and the stages not ready in some samples (left
+/// out of the percentiles, so the P90 then reads short of the truth).
+fn days_note(not_ready: &[(String, usize)]) -> String {
+    let mut s = "days to dig: the earliest day each stage's check points meet its target, on each sample's T and S, by the programme's Theis superposition in time (as `drydig programme`)".to_string();
+    let short: Vec<String> = not_ready
+        .iter()
+        .filter(|(_, n)| *n > 0)
+        .map(|(name, n)| format!("{name}: {n}"))
+        .collect();
+    if !short.is_empty() {
+        s.push_str(&format!(
+            "; samples not ready within the programme, left out of its percentiles (so its P90 is at least the value shown) — {}",
+            short.join(", ")
+        ));
+    }
+    s
+}
 
 /// An input's value in the user's units, with its unit.
 pub fn input_value(kind: InputKind, v: f64, f: &Fmt) -> String {
@@ -37,6 +70,7 @@ pub fn output_value(m: Measure, v: f64, f: &Fmt) -> String {
         Measure::Length => f.length(v),
         Measure::Settlement => f.small_length(v),
         Measure::Count => format!("{v:.0}"),
+        Measure::Duration => format!("{:.1} days", v / 86_400.0),
     }
 }
 
@@ -50,6 +84,7 @@ pub fn output_number(m: Measure, v: f64, units: UnitSystem) -> (f64, &'static st
         (Measure::Settlement, UnitSystem::Si) => (v * 1e3, "mm"),
         (Measure::Settlement, UnitSystem::Us) => (v / 0.0254, "in"),
         (Measure::Count, _) => (v, "wells"),
+        (Measure::Duration, _) => (v / 86_400.0, "days"),
     }
 }
 
@@ -59,6 +94,7 @@ fn si_suffix(m: Measure) -> &'static str {
         Measure::Flow => "m3_per_s",
         Measure::Length | Measure::Settlement => "m",
         Measure::Count => "",
+        Measure::Duration => "s",
     }
 }
 
@@ -108,8 +144,10 @@ pub fn notes(run: &UncertaintyRun) -> Vec<String> {
     if run.mode == Mode::Design {
         n.push("robust design: the samples' designs ranked by wells then flow; the one at the reliability's rank is evaluated on every sample at its own rates, and the next up tried when it falls short".into());
     }
-    if run.has_programme {
-        n.push(NO_DAYS.into());
+    match &run.days_not_ready {
+        Some(not_ready) => n.push(days_note(not_ready)),
+        None if run.has_programme => n.push(NO_DAYS.into()),
+        None => {}
     }
     n
 }
@@ -174,13 +212,14 @@ pub fn to_text(model: &Model, found: &UncertaintyFindings) -> String {
     match run.mode {
         Mode::Check => {
             out.push_str(&format!(
-                "every target met with the given rates: {:.1} % of samples\n",
+                "every target met with the given rates, every well within its limits: {:.1} % of samples\n",
                 run.fraction_met * 100.0
             ));
             if let Some(w) = run.fraction_wells_ok {
                 out.push_str(&format!(
-                    "every well within its limits: {:.1} % of samples\n",
-                    w * 100.0
+                    "every well within its limits (capacity, lowest level): {:.1} % of samples; a well past a limit in {} samples (counted as not met)\n",
+                    w * 100.0,
+                    run.wells_past_limit
                 ));
             }
         }
@@ -188,6 +227,9 @@ pub fn to_text(model: &Model, found: &UncertaintyFindings) -> String {
     }
     out.push_str(&implied_contingency(run));
     out.push('\n');
+    if let Some(c) = convergence_line(run) {
+        out.push_str(&wrap(&c, 96, ""));
+    }
     out.push_str(&tornado_lines(run, &f));
     for n in notes(run) {
         out.push_str(&wrap(&format!("note: {n}"), 96, "  "));
@@ -328,11 +370,20 @@ pub fn to_json(model: &Model, found: &UncertaintyFindings) -> serde_json::Value 
         "outputs": outputs,
         "fraction_targets_met": run.fraction_met,
         "fraction_wells_within_limits": run.fraction_wells_ok,
+        "samples_with_a_well_past_a_limit": run.wells_past_limit,
         "reliability": run.reliability,
         "p50_design": run.p50_design.map(|(w, q)| json!({"wells": w, "total_flow_m3_per_s": q})),
         "robust_design": run.robust,
         "contingency": run.contingency,
         "implied_contingency_p90_over_p50": run.implied_ratio,
+        "convergence_p90": run.convergence.map(|c| json!({
+            "output": run.series.first().map(|s| s.key.clone()),
+            "p": c.p,
+            "samples": c.samples,
+            "resamples": c.resamples,
+            "relative_half_width_95": c.relative_half_width,
+            "method": CONVERGENCE_METHOD,
+        })),
         "tornado": {"output": run.tornado.0, "all_at_p50": run.tornado.1, "swings": run.tornado.2},
         "notes": notes(run),
         "result": super::verdict::headline(&found.verdict, &f),

@@ -251,7 +251,7 @@ fn first_crossing(times: &[f64], values: &[bool], ok: impl Fn(f64) -> bool) -> O
 }
 
 /// The check points of excavation `e` that decide when it can be dug: grid, corners, edges.
-fn points_in_excavation(points: &[CheckPoint], e: usize) -> Vec<usize> {
+pub fn points_in_excavation(points: &[CheckPoint], e: usize) -> Vec<usize> {
     (0..points.len())
         .filter(|&i| {
             points[i].excavation == Some(e)
@@ -482,16 +482,16 @@ pub fn answer(model: &Model, setup: &ProgrammeSetup) -> ProgrammeAnswers {
 }
 
 /// The levels a stage is judged by, as field levels (m).
-struct StageLevels {
+pub struct StageLevels {
     /// The level the water must be below before digging: formation − margin, or for relief the
     /// head at the required factor of safety against uplift (the lower of the two for
     /// `control = "both"`).
-    target: f64,
+    pub target: f64,
     /// The level above which the stage floods: water above formation, or for relief the head at
     /// which the uplift factor of safety falls to 1.0 (the lower of the two for `"both"`).
-    flood: f64,
+    pub flood: f64,
     /// The flood level is the uplift one.
-    relief: bool,
+    pub relief: bool,
 }
 
 /// The levels of a stage at `formation` in `excavation` by its `control`: `"dewater"` formation
@@ -500,7 +500,7 @@ struct StageLevels {
 /// [`crate::field::checkpoints::field_target`] does) at the required factor of safety and at
 /// 1.0, `"both"` the lower of each pair — the same rule as the steady design's
 /// [`crate::field::checkpoints::design_target`].
-fn stage_levels(model: &Model, excavation: usize, formation: f64) -> StageLevels {
+pub fn stage_levels(model: &Model, excavation: usize, formation: f64) -> StageLevels {
     let e = &model.excavations[excavation];
     let dewater = StageLevels {
         target: formation - e.target_margin,

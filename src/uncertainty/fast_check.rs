@@ -20,13 +20,25 @@
 //! R falls short of the farthest source, a leaky aquifer and two or more boundaries (images of
 //! images) are left to the plain evaluation ([`FastCheck::new`] gives `None`,
 //! [`FastCheck::evaluate`] gives `None`).
+//!
+//! The wells' limits are those `check` applies ([`crate::check::evaluate`]): the level in each
+//! well (the aquifer's at the well face, from the same tables, less Jacob's loss C·Q²) not below
+//! its lowest allowed level (pump intake + submergence, or the wellpoints' suction floor), not
+//! pumped dry, and the rate within the capacity (Sichardt's, on the wetted screen and the
+//! sample's K, and the pump's). A file with well losses given as an efficiency (the loss then
+//! depends on the sample's own-well drawdown) is left to the plain evaluation.
 
 use crate::check::evaluate::TARGET_TOLERANCE;
 use crate::check::field_build::{field_with_radius, point_elevation};
 use crate::field::radius::{depends_on_drawdown, design_drawdown, radius_at, serves_trench};
+use crate::field::wells::Well;
 use crate::input::model::Model;
+use crate::input::model::{WellKind, WellLossSpec};
 use crate::input::model_uncertainty::{InputKind, Uncertainty};
+use crate::physics::capacity::sichardt_well_capacity;
 use crate::physics::images::BoundaryKind;
+use crate::physics::potential::Level;
+use crate::physics::well_loss::jacob_loss;
 use crate::safety::neighbours::{column_at, sample_points, works_duration};
 use crate::uncertainty::check_samples::{CheckSample, Layout};
 use rayon::prelude::*;
@@ -56,6 +68,10 @@ pub struct FastCheck {
     coverage: f64,
     /// Σ Q_w, m³/s.
     total_rate: f64,
+    /// The wells (their probes, at the well positions, follow the neighbours').
+    wells: Vec<Well>,
+    /// Index of the first well probe.
+    well_probes: usize,
 }
 
 /// `n` nodes spread over the support of `kind` in `spec` (one node at `base` when not sampled).
@@ -90,6 +106,7 @@ impl FastCheck {
             || model.layers.is_some()
             || model.boundaries.len() > 1
             || layout.wells.iter().any(|w| w.rate < 0.0)
+            || matches!(model.as_built.loss, WellLossSpec::Efficiency(_))
         {
             return None;
         }
@@ -112,6 +129,8 @@ impl FastCheck {
             probes.extend(sample_points(&n.footprint).into_iter().map(|s| (s.2, None)));
             neighbours.push((start, probes.len()));
         }
+        let well_probes = probes.len();
+        probes.extend(wells.iter().map(|w| (w.position, None)));
         let sign_sum = 1.0
             + model
                 .boundaries
@@ -185,6 +204,8 @@ impl FastCheck {
             b,
             coverage,
             total_rate,
+            wells: wells.clone(),
+            well_probes,
         })
     }
 
@@ -211,10 +232,8 @@ impl FastCheck {
         let aq = &model.aquifer;
         let a = self.a_at(aq.initial_level, model.as_built.anisotropy);
         let phi0 = aq.initial_potential();
-        let level = |p: usize, r: f64| {
-            aq.level(phi0 + a[p] - r.ln() / (2.0 * PI) * self.b)
-                .or_base(aq.base_level)
-        };
+        let wet_level = |p: usize, r: f64| aq.level(phi0 + a[p] - r.ln() / (2.0 * PI) * self.b);
+        let level = |p: usize, r: f64| wet_level(p, r).or_base(aq.base_level);
         let produced = |r: f64| {
             self.targets
                 .iter()
@@ -286,9 +305,44 @@ impl FastCheck {
             needed_flow_m3_per_s: alpha.map(|x| x * self.total_rate),
             lowest_margin_m: lowest,
             targets_met: met,
-            wells_ok: None,
+            wells_ok: Some(
+                self.wells
+                    .iter()
+                    .enumerate()
+                    .all(|(k, w)| within_limits(model, w, wet_level(self.well_probes + k, r))),
+            ),
             radius_m: r,
             neighbours,
         })
     }
+}
+
+/// Whether well `w` keeps within its limits on the ground of `model` with the aquifer level `lv`
+/// at its face: the rules of [`crate::check::evaluate`] for an abstraction well with no loss or
+/// Jacob's loss (not pumped dry; the level inside, face − C·Q², not below pump intake +
+/// submergence or, for a wellpoint, its suction floor; Q within Sichardt's capacity on the
+/// wetted screen and the pump's).
+fn within_limits(model: &Model, w: &Well, lv: Level) -> bool {
+    let Level::Wet(face) = lv else {
+        return false;
+    };
+    let spec = &model.wells;
+    let loss = match model.as_built.loss {
+        WellLossSpec::Jacob(c) => jacob_loss(c, w.rate),
+        _ => 0.0,
+    };
+    let lowest = match w.kind {
+        WellKind::DeepWell => w.pump_intake + spec.submergence,
+        WellKind::Wellpoint => model
+            .as_built
+            .suction_floor(spec.suction_limit)
+            .max(w.pump_intake + spec.submergence),
+    };
+    if w.rate > 0.0 && face - loss < lowest - TARGET_TOLERANCE {
+        return false;
+    }
+    let wetted = (w.filter_top.min(face) - w.filter_base).max(0.0);
+    let sichardt = sichardt_well_capacity(w.radius, wetted, model.aquifer.conductivity);
+    let cap = spec.pump_capacity.map_or(sichardt, |p| p.min(sichardt));
+    w.rate <= cap * (1.0 + 1e-9)
 }

@@ -8,12 +8,16 @@ use crate::input::model_uncertainty::{UncertainInput, Uncertainty};
 use crate::optimise::rates::RateOption;
 use crate::uncertainty::apply::apply;
 use crate::uncertainty::check_samples::{evaluate_sample, CheckSample, Layout};
+use crate::uncertainty::days_to_dig::DigStages;
 use crate::uncertainty::design_samples::{design_sample, robust, DesignSample, Robust};
 use crate::uncertainty::fast_check::FastCheck;
 use crate::uncertainty::sampling::sample_values;
-use crate::uncertainty::stats::{percentiles, Percentiles};
+use crate::uncertainty::stats::{bootstrap_convergence, percentiles, Convergence, Percentiles};
 use rayon::prelude::*;
 use serde::Serialize;
+
+/// Resamples of the bootstrap behind the convergence figure.
+pub const BOOTSTRAP_RESAMPLES: usize = 1000;
 
 /// Which command's question is asked of each sample.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -37,6 +41,8 @@ pub enum Measure {
     Settlement,
     /// A count of wells.
     Count,
+    /// A time, s (shown in days).
+    Duration,
 }
 
 /// One sampled output.
@@ -102,14 +108,16 @@ pub struct UncertaintyRun {
     /// The output of the tornado (its key in `series`), its value with every input at P50, and
     /// the swings, largest first.
     pub tornado: (String, Option<f64>, Vec<Swing>),
-    /// Per sample: every target met (check: the given rates; design: a layout meets every
-    /// target).
+    /// Per sample: every target met (check: the given rates, with every well within its limits;
+    /// design: a layout meets every target).
     pub sample_met: Vec<bool>,
     /// Fraction of samples with every target met (check: the given rates; design: a layout
     /// was found that meets every target).
     pub fraction_met: f64,
     /// Fraction of samples with every well within its limits (check).
     pub fraction_wells_ok: Option<f64>,
+    /// Samples in which a well breaks a limit (check; counted as not met).
+    pub wells_past_limit: usize,
     /// The design with every input at its P50 (wells, flow m³/s), design mode.
     pub p50_design: Option<(usize, f64)>,
     /// The robust design (design mode).
@@ -120,10 +128,15 @@ pub struct UncertaintyRun {
     pub contingency: f64,
     /// P90 flow ÷ P50 flow of the flow output.
     pub implied_ratio: Option<f64>,
+    /// How settled the P90 of the flow output is (bootstrap, [`BOOTSTRAP_RESAMPLES`]).
+    pub convergence: Option<Convergence>,
     /// Names of the neighbours (check mode columns).
     pub neighbours: Vec<String>,
-    /// Whether the file has a `[programme]` (days to dig are not sampled: said in the outputs).
+    /// Whether the file has a `[programme]`.
     pub has_programme: bool,
+    /// Days to dig were sampled (check mode with a `[programme]` that can be set up): each
+    /// stage's name and the samples in which it is not ready within the programme.
+    pub days_not_ready: Option<Vec<(String, usize)>>,
 }
 
 /// Settings of one run.
@@ -192,13 +205,16 @@ pub fn run(
         sample_met: Vec::new(),
         fraction_met: 0.0,
         fraction_wells_ok: None,
+        wells_past_limit: 0,
         p50_design: None,
         robust: None,
         reliability: settings.reliability,
         contingency: model.contingency,
         implied_ratio: None,
+        convergence: None,
         neighbours: model.neighbours.iter().map(|n| n.name.clone()).collect(),
         has_programme: model.programme.is_some(),
+        days_not_ready: None,
     };
     match settings.mode {
         Mode::Check => check_mode(model, &models, &median, &swing_models, tick, &mut out)?,
@@ -214,6 +230,10 @@ pub fn run(
     }
     let flow = out.series.first().and_then(|s| s.percentiles);
     out.implied_ratio = flow.filter(|p| p.p50 > 0.0).map(|p| p.p90 / p.p50);
+    out.convergence = out.series.first().and_then(|s| {
+        let v: Vec<f64> = s.values.iter().flatten().copied().collect();
+        bootstrap_convergence(&v, 0.9, BOOTSTRAP_RESAMPLES, seed)
+    });
     let names: Vec<String> = spec
         .inputs
         .iter()
@@ -306,9 +326,16 @@ fn check_mode(
             ));
         }
     }
-    out.sample_met = samples.iter().map(|s| s.targets_met).collect();
+    days_to_dig(model, models, out);
+    // a sample is met only when the wells can also deliver their rates (the limits `check`
+    // applies: capacity, lowest level, suction)
+    out.sample_met = samples
+        .iter()
+        .map(|s| s.targets_met && s.wells_ok != Some(false))
+        .collect();
+    out.wells_past_limit = samples.iter().filter(|s| s.wells_ok == Some(false)).count();
     let n = samples.len().max(1) as f64;
-    out.fraction_met = samples.iter().filter(|s| s.targets_met).count() as f64 / n;
+    out.fraction_met = out.sample_met.iter().filter(|m| **m).count() as f64 / n;
     out.fraction_wells_ok = samples
         .iter()
         .map(|s| s.wells_ok)
@@ -389,6 +416,31 @@ fn design_mode(
     out.tornado = ("design_flow".into(), out.p50_design.map(|d| d.1), swings);
     fill_swing_inputs(out);
     out.robust = robust(model, models, &designs, settings.reliability);
+}
+
+/// Days to dig of each stage on every sample (a file with a `[programme]`): one series per
+/// stage, in seconds (`None` where the stage is not ready within the programme).
+fn days_to_dig(model: &Model, models: &[Model], out: &mut UncertaintyRun) {
+    let Some(dig) = DigStages::new(model) else {
+        return;
+    };
+    let per_sample: Vec<Option<Vec<Option<f64>>>> =
+        models.par_iter().map(|m| dig.earliest(m)).collect();
+    let mut not_ready = Vec::new();
+    for (k, name) in dig.names().into_iter().enumerate() {
+        let values: Vec<Option<f64>> = per_sample
+            .iter()
+            .map(|s| s.as_ref().and_then(|v| v.get(k).copied().flatten()))
+            .collect();
+        not_ready.push((name.clone(), values.iter().filter(|v| v.is_none()).count()));
+        out.series.push(Series::new(
+            format!("days_to_dig_{}", k + 1),
+            format!("days to dig: {name}"),
+            Measure::Duration,
+            values,
+        ));
+    }
+    out.days_not_ready = Some(not_ready);
 }
 
 /// Each swing's input values at P10 and P90 (the swings are in the order of the inputs here).

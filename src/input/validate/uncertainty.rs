@@ -12,6 +12,7 @@ use crate::input::model_uncertainty::{
 use crate::input::schema_uncertainty::UncertaintySection;
 use crate::input::units::{parse, ConductivityKind, LengthKind, TimeKind, TransmissivityKind};
 use crate::physics::potential::AquiferKind;
+use toml::Spanned;
 
 /// How the three forms are written, for error messages.
 const FORMS: &str = "\"lognormal median 2e-4 m/s, factor 3\", \"uniform 1e-4 .. 5e-4 m/s\" or \"triangular 1e-4 2e-4 5e-4 m/s\" (low, most likely, high)";
@@ -131,6 +132,30 @@ fn support(d: &Distribution) -> Option<(f64, f64)> {
     }
 }
 
+/// The place of the section's first entry in the file (`None` when it is empty).
+fn section_start(raw: &UncertaintySection) -> Option<std::ops::Range<usize>> {
+    let strings = [
+        &raw.conductivity,
+        &raw.transmissivity,
+        &raw.specific_yield,
+        &raw.storativity,
+        &raw.sichardt_c,
+        &raw.distance,
+        &raw.groundwater_level,
+        &raw.aquitard_resistance,
+        &raw.anisotropy,
+        &raw.compressibility_factor,
+    ];
+    let spans = strings
+        .into_iter()
+        .flatten()
+        .map(|s| s.span())
+        .chain(raw.rank_correlation.as_ref().map(|s| s.span()))
+        .chain(raw.samples.as_ref().map(|s| s.span()))
+        .chain(raw.seed.as_ref().map(|s| s.span()));
+    spans.min_by_key(|s| s.start)
+}
+
 /// The `[uncertainty]` of `model`, checked (`None` without the section).
 pub fn uncertainty(
     rep: &Reporter,
@@ -140,11 +165,16 @@ pub fn uncertainty(
     let Some(raw) = raw else {
         return Ok(None);
     };
-    let err = |field: &str, m: String| rep.error(format!("uncertainty.{field}"), None, m);
+    // an error about the section as a whole is placed at its first entry
+    let first = section_start(raw);
+    let err_at = |field: &str, span: Option<std::ops::Range<usize>>, m: String| {
+        rep.error(format!("uncertainty.{field}"), span.or(first.clone()), m)
+    };
+    let err = |field: &str, m: String| err_at(field, None, m);
     if model.layers.is_some() {
         return Err(err("", "sampling is for one aquifer: layered ground ([[layer]]) is not sampled yet; remove [uncertainty] or the [[layer]] entries".into()));
     }
-    let given: [(InputKind, &Option<String>, ValueParser); 10] = [
+    let given: [(InputKind, &Option<Spanned<String>>, ValueParser); 10] = [
         (InputKind::Conductivity, &raw.conductivity, conductivity),
         (
             InputKind::Transmissivity,
@@ -171,10 +201,11 @@ pub fn uncertainty(
     let mut inputs = Vec::new();
     for (kind, text, value) in given {
         let Some(text) = text else { continue };
+        let (span, text) = (Some(text.span()), text.get_ref());
         let field = kind.field();
-        let d = parse_distribution(text, value).map_err(|m| err(field, m))?;
+        let d = parse_distribution(text, value).map_err(|m| err_at(field, span.clone(), m))?;
         if let Some(m) = applies(kind, &d, model) {
-            return Err(err(field, m));
+            return Err(err_at(field, span, m));
         }
         inputs.push(UncertainInput {
             kind,
@@ -185,41 +216,52 @@ pub fn uncertainty(
     if inputs.is_empty() {
         return Err(err("", "no uncertain input: give at least one, e.g. conductivity = \"lognormal median 2e-4 m/s, factor 3\"".into()));
     }
-    if raw.conductivity.is_some() && raw.transmissivity.is_some() {
-        return Err(err(
+    if let (Some(_), Some(t)) = (&raw.conductivity, &raw.transmissivity) {
+        return Err(err_at(
             "transmissivity",
+            Some(t.span()),
             "give conductivity or transmissivity, not both".into(),
         ));
     }
-    if let Some(rho) = raw.rank_correlation {
+    if let Some(spanned) = &raw.rank_correlation {
+        let (rho, span) = (*spanned.get_ref(), Some(spanned.span()));
         if !(-0.99..=0.99).contains(&rho) {
-            return Err(err(
+            return Err(err_at(
                 "rank_correlation",
+                span.clone(),
                 format!("{rho} is outside −0.99 … 0.99 (the Spearman rank correlation of K and S)"),
             ));
         }
         let has = |f: fn(InputKind) -> bool| inputs.iter().any(|i| f(i.kind));
         if !(has(InputKind::is_permeability) && has(InputKind::is_storage)) {
-            return Err(err("rank_correlation", "a rank correlation needs both conductivity (or transmissivity) and specific_yield (or storativity) in [uncertainty]".into()));
+            return Err(err_at("rank_correlation", span, "a rank correlation needs both conductivity (or transmissivity) and specific_yield (or storativity) in [uncertainty]".into()));
         }
     }
-    let samples = raw.samples.unwrap_or(DEFAULT_SAMPLES as i64);
+    let samples = raw
+        .samples
+        .as_ref()
+        .map_or(DEFAULT_SAMPLES as i64, |s| *s.get_ref());
     if !(10..=MAX_SAMPLES as i64).contains(&samples) {
-        return Err(err(
+        return Err(err_at(
             "samples",
+            raw.samples.as_ref().map(|s| s.span()),
             format!("{samples} is outside 10 … {MAX_SAMPLES} (1 000 is usual)"),
         ));
     }
-    let seed = raw.seed.unwrap_or(DEFAULT_SEED as i64);
+    let seed = raw
+        .seed
+        .as_ref()
+        .map_or(DEFAULT_SEED as i64, |s| *s.get_ref());
     if seed < 0 {
-        return Err(err(
+        return Err(err_at(
             "seed",
+            raw.seed.as_ref().map(|s| s.span()),
             format!("{seed}: a seed is a whole number from 0"),
         ));
     }
     Ok(Some(Uncertainty {
         inputs,
-        rank_correlation: raw.rank_correlation,
+        rank_correlation: raw.rank_correlation.as_ref().map(|r| *r.get_ref()),
         samples: samples as usize,
         seed: seed as u64,
     }))

@@ -33,11 +33,27 @@ pub fn part(model: &Model, found: &UncertaintyFindings, charts: &[(String, Strin
     if let Some(r) = run.rank_correlation {
         rows.push(("rank correlation of K and S", format!("{r:.2}")));
     }
+    if let Some(c) = run.convergence {
+        rows.push((
+            "sampling convergence of P90 (95 % bootstrap, an upper bound for Latin hypercube)",
+            format!(
+                "± {:.1} % at N = {}",
+                100.0 * c.relative_half_width,
+                c.samples
+            ),
+        ));
+    }
     match run.mode {
-        Mode::Check => rows.push((
-            "every target met with the given rates",
-            format!("{:.1} % of samples", run.fraction_met * 100.0),
-        )),
+        Mode::Check => {
+            rows.push((
+                "every target met with the given rates, every well within its limits",
+                format!("{:.1} % of samples", run.fraction_met * 100.0),
+            ));
+            rows.push((
+                "samples with a well past a limit (capacity, lowest level)",
+                run.wells_past_limit.to_string(),
+            ));
+        }
         Mode::Design => {
             rows.push((
                 "P50 design (every input at its median)",
