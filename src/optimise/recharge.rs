@@ -88,9 +88,9 @@ pub struct RechargeSizing {
     pub recharge_m3_per_s: f64,
     /// Net flow, abstraction − recharge, m³/s.
     pub net_flow_m3_per_s: f64,
-    /// Constraints active at the optimum, in the run's units (worded here: the recharge text
-    /// reads them as words).
-    pub binding: Vec<String>,
+    /// Constraints active at the optimum (SI numbers), worded where shown with
+    /// [`Binding::words`] in the run's units.
+    pub binding: Vec<Binding>,
     /// What an engineer should know.
     pub notes: Vec<String>,
 }
@@ -430,7 +430,7 @@ pub fn size(
         .binding
         .iter()
         .filter_map(|i| problem.rows.get(*i))
-        .map(|b| b.words(model.units))
+        .cloned()
         .collect();
     Ok((
         placement,

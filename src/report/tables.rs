@@ -338,6 +338,14 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "recharge_sizing": found.recharge,
         "caution": super::CAUTION,
     });
+    // the recharge programme's binding limits worded in the run's units
+    if let Some(rs) = &found.recharge {
+        summary["recharge_sizing"]["binding"] = json!(rs
+            .binding
+            .iter()
+            .map(|b| b.words(run.model.units))
+            .collect::<Vec<_>>());
+    }
     // cut-off walls (only when there are any): quantities without prices and the solve size
     if let Some(w) = &found.walls {
         summary["walls"] = json!({
