@@ -1,15 +1,21 @@
 //! Notes of the design choice that carry numbers, as data with SI values, worded in the run's
 //! units ([`DesignNote::words`]); the pattern of [`crate::input::import::notes`].
 //!
-//! The design's note list is read as words by outputs outside `optimise/`, so the notes are
-//! worded (in the model's units) where they join it.
+//! The design's note list carries these notes (the count search's cap as [`DesignNote::Cap`],
+//! notes without numbers as [`DesignNote::Said`]); the outputs word them in the run's units
+//! where they show them.
 
 use crate::input::units::UnitSystem;
 use crate::optimise::binding::Binding;
+use crate::optimise::search_range::CapNote;
 
-/// A note of the design choice with a quantity in it.
+/// A note of the design choice.
 #[derive(Debug, Clone, PartialEq)]
 pub enum DesignNote {
+    /// The count search's cap on wells keeps it from the spacing limits.
+    Cap(CapNote),
+    /// A note without quantities, in words.
+    Said(String),
     /// With one rate in every well no count meets every target: the closest one.
     UniformShort {
         /// Wells of the closest layout.
@@ -38,6 +44,8 @@ impl DesignNote {
     /// The note in words, quantities in `units`.
     pub fn words(&self, units: UnitSystem) -> String {
         match self {
+            DesignNote::Cap(c) => c.words(units),
+            DesignNote::Said(s) => s.clone(),
             DesignNote::UniformShort {
                 count,
                 limit,

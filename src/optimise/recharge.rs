@@ -29,6 +29,7 @@ use crate::check::run::{evaluate_placement, field_for, CheckRun};
 use crate::field::checkpoints::check_points;
 use crate::field::influence::Field;
 use crate::field::layout::{self, Placement};
+use crate::field::layout_notes::LayoutNote;
 use crate::input::error::InputError;
 use crate::input::model::Model;
 use crate::optimise::binding::Binding;
@@ -402,11 +403,11 @@ pub fn size(
             ));
         }
     }
-    placement.notes.push(if feasible {
+    placement.notes.push(LayoutNote::Said(if feasible {
         "rates sized by the recharge linear programme (drydig check --size-recharge)".into()
     } else {
         format!("recharge sizing {status}: recharge wells at their listed rates")
-    });
+    }));
     let wells: Vec<RechargeWell> = recharge
         .iter()
         .map(|j| {

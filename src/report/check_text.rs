@@ -59,7 +59,7 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
     ));
     out.push_str(&well_table(run, units, rows));
     for n in &run.placement.notes {
-        out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+        out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, ""));
     }
     for n in &run.model.crs_warnings {
         out.push_str(&wrap(&format!("warning: {n}"), 96, ""));

@@ -129,7 +129,7 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
         "standby_wells_placed": design.finish.standby,
         "idle_wells_dropped": design.finish.dropped,
         "highest_use_of_capacity": run.map(highest_use),
-        "notes": design.notes,
+        "notes": design.notes.iter().map(|n| n.words(model.units)).collect::<Vec<_>>(),
         "caution": CAUTION,
     })
 }
@@ -408,11 +408,11 @@ pub fn to_text(
         let c = found.chosen.as_ref().expect("a run has findings");
         out.push_str(&super::bid_out::bid_text(&c.sheet, c.costs.as_ref()));
         for n in &r.placement.notes {
-            out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+            out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, ""));
         }
     }
     for n in &design.notes {
-        out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+        out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, ""));
     }
     for n in &model.crs_warnings {
         out.push_str(&wrap(&format!("warning: {n}"), 96, ""));

@@ -330,7 +330,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "unmet_count": e.unmet_count,
         "lowest_margin_m": worst.and_then(|p| p.margin_m),
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
-        "placement_notes": run.placement.notes,
+        "placement_notes": run.placement.notes.iter().map(|n| n.words(run.model.units)).collect::<Vec<_>>(),
         "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems.iter().map(|p| well_problem(p, &si)).collect::<Vec<_>>()})).collect::<Vec<_>>(),
         "neighbours": found.neighbours,
         "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
