@@ -1,10 +1,11 @@
 //! Terminal summary of an evaluated layout.
 
-use super::{thousands, wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::check::run::CheckRun;
 use crate::findings::check::CheckFindings;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::report::table::{Rows, TERMINAL_ROWS};
+use crate::report::words::{thousands, wrap};
 
 fn flow(q: f64, units: UnitSystem) -> String {
     match units {

@@ -4,10 +4,11 @@
 //! the switch-off are marked by vertical lines. Levels, flows and volumes in the model's units.
 
 use super::format::Fmt;
-use super::{wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::input::model::Model;
 use crate::input::units::UnitSystem;
 use crate::report::plot_kit::{legend, line, r1, text, ticks, Frame, LegendRow};
+use crate::report::words::wrap;
 use crate::transient::answers::{ProgrammeAnswers, SeriesKind};
 use crate::transient::programme::DAY;
 use svg::node::element::{Group, Path, Rectangle};

@@ -2,8 +2,9 @@
 //! excavations, neighbours and wells drawn over it and a colour scale.
 
 use super::format::Fmt;
-use super::{wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::input::model::Model;
+use crate::report::words::wrap;
 use crate::transient::answers::DrawdownMap;
 use crate::transient::programme::DAY;
 use svg::node::element::{Circle, Polygon, Rectangle, Text};

@@ -336,7 +336,7 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
         "uplift": found.uplift,
         "recharge_sizing": found.recharge,
-        "caution": super::CAUTION,
+        "caution": crate::caution::CAUTION,
     });
     // the recharge programme's binding limits worded in the run's units
     if let Some(rs) = &found.recharge {

@@ -11,7 +11,7 @@ use crate::report::neighbours::numbers::{
     mm, pressure_kpa, ratio_text, rule_settlement, truncate, unit_weight,
 };
 use crate::report::neighbours::table::neighbours_table;
-use crate::report::wrap;
+use crate::report::words::wrap;
 use crate::safety::limit_check::{LimitBasis, LimitQuantity};
 use crate::safety::neighbours::{
     NeighbourResult, Status, RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL, RULE_OF_THUMB_RISE,
