@@ -179,8 +179,10 @@ fn met(
         w.rate = *q;
     }
     if model.design.pumps.one_rate_per_class && used == RateOption::Individual {
-        notes.push(DesignNote::Said(
-            crate::optimise::pumps::one_rate_per_class(model, points, &mut placement.wells),
+        notes.push(crate::optimise::pumps::one_rate_per_class(
+            model,
+            points,
+            &mut placement.wells,
         ));
     }
     let fin = finish(model, &mut placement.wells);
