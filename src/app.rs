@@ -213,7 +213,7 @@ fn check(
         CheckFindings::build(crate::check::run::run(model, wells)?, None)
     };
     let inputs = report::files::inputs_of(model, wells);
-    let mut o = Outputs::written(out, report::check_files(&found)?, inputs);
+    let mut o = Outputs::written(out, report::check_outputs::check_files(&found)?, inputs);
     o.text = report::check_text::to_text(&found, model.units, table_rows(chatter));
     o.verdict = found.verdict;
     Ok(o)

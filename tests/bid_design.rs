@@ -248,7 +248,9 @@ fn phase_search_finds_a_ring_the_fixed_start_misses() {
         .trials
         .iter()
         .any(|t| t.count == n && t.variant.contains("0.0 m") && !t.individual_met));
-    assert!(d.notes.iter().any(|s| s.contains("also tried")));
+    assert!(d.notes.iter().any(|s| s
+        .words(drydig::input::units::UnitSystem::Si)
+        .contains("also tried")));
     // And the ring found is met by plain superposition with its margin (river image).
     let k = 2e-4;
     let base = -12.0;

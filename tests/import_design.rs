@@ -75,7 +75,7 @@ fn demo_reads_the_site_from_the_dxf_drawing() {
     );
     let run = check::run(&m, None).unwrap();
     let found = drydig::findings::check::CheckFindings::build(run, None);
-    let files = drydig::report::check_files(&found).unwrap();
+    let files = drydig::report::check_outputs::check_files(&found).unwrap();
     let html = &files.iter().find(|(n, _)| n == "report.html").unwrap().1;
     assert!(String::from_utf8_lossy(html).contains("flattened"));
 }

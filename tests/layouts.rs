@@ -476,10 +476,11 @@ fn a_well_in_a_keep_out_zone_is_moved_out_and_noted() {
         note.contains("moved") && note.contains("Crane base"),
         "{note}"
     );
-    assert!(p
-        .notes
-        .iter()
-        .any(|n| n.contains(&moved.name) && n.contains("Crane base")));
+    assert!(p.notes.iter().any(|n| matches!(
+        n,
+        drydig::field::layout_notes::LayoutNote::Moved { well, zone, .. }
+            if *well == moved.name && zone == "Crane base"
+    )));
     // the other wells did not move
     for (i, (a, b)) in free.wells.iter().zip(&p.wells).enumerate() {
         if i != 3 {

@@ -4,13 +4,13 @@
 //! The SVG is read back with the `svg` crate's parser, so the checks see what a viewer sees:
 //! the layer groups and their order, the well symbols, the contour labels, the caution text.
 
+use drydig::caution::CAUTION;
 use drydig::check::run::{self as check, CheckRun};
 use drydig::field::grid::LevelGrid;
 use drydig::input::model::Model;
 use drydig::input::validate::file as model;
 use drydig::report::geojson_out::{contours_geojson, layout_geojson};
 use drydig::report::map::render::map_svg;
-use drydig::report::CAUTION;
 use geojson::{FeatureCollection, GeometryValue};
 use std::collections::HashMap;
 use std::f64::consts::PI;

@@ -787,3 +787,67 @@ fn neighbours_table_in_us_units_carries_feet_and_inches() {
     assert_eq!(at("allowable_settlement_mm"), "15.0");
     assert_eq!(at("settlement_limit_basis"), "design file");
 }
+
+// `check --size-recharge --units us` words the recharge flows in gpm: the abstraction, recharge
+// and net flow of riverside_basement_recharge, 104.5, 36.8 and 67.7 L/s in an SI run, read by
+// hand (NIST SP 811 (2008) App. B, 1 US gal = 3.785411784 L; q gpm = q L/s × 60 ÷ 3.785411784)
+// as 1656.4, 583.3 and 1073.1 gpm; the SI text rounds to 0.05 L/s, i.e. ±0.8 gpm. The exact
+// figures come from summary.json's m³/s. The recharge part of the text carries no "L/s".
+#[test]
+fn sized_recharge_flows_in_us_units_read_in_gpm() {
+    let dir = tmp_dir("recharge-us");
+    let out = dir.join("us");
+    let run = drydig(&[
+        "check",
+        layouts("riverside_basement_recharge.toml")
+            .to_str()
+            .expect("utf-8"),
+        "--size-recharge",
+        "--units",
+        "us",
+        "-o",
+        out.to_str().expect("utf-8"),
+    ]);
+    assert!(
+        matches!(run.status.code(), Some(0) | Some(3)),
+        "{}",
+        text(&run.stderr)
+    );
+    let stdout = text(&run.stdout);
+    let from = stdout.find("recharge sizing:").expect("recharge section");
+    let to = stdout[from..]
+        .find("RESULT (neighbours)")
+        .map_or(stdout.len(), |i| from + i);
+    let part = &stdout[from..to];
+    assert!(!part.contains("L/s"), "{part}");
+    assert!(!part.contains("m³/day"), "{part}");
+    let line = part
+        .lines()
+        .find(|l| l.trim_start().starts_with("abstraction "))
+        .expect("flow line");
+    // "abstraction 1656.4 gpm, recharge 583.3 gpm, net flow 1073.1 gpm"
+    let numbers: Vec<f64> = line
+        .split(|c: char| c == ',' || c.is_whitespace())
+        .filter_map(|w| w.parse::<f64>().ok())
+        .collect();
+    assert_eq!(numbers.len(), 3, "{line}");
+    assert_eq!(line.matches(" gpm").count(), 3, "{line}");
+    let gal_l = 3.785411784;
+    for (shown, si_l_per_s) in numbers.iter().zip([104.5, 36.8, 67.7]) {
+        let by_hand = si_l_per_s * 60.0 / gal_l;
+        assert!((shown - by_hand).abs() <= 0.8, "{shown} gpm vs {by_hand}");
+    }
+    let rs = &summary(&out)["recharge_sizing"];
+    for (shown, key) in numbers.iter().zip([
+        "abstraction_m3_per_s",
+        "recharge_m3_per_s",
+        "net_flow_m3_per_s",
+    ]) {
+        let gpm = rs[key].as_f64().expect(key) * 1e3 * 60.0 / gal_l;
+        assert!(
+            (shown - gpm).abs() <= 0.05 + 1e-9,
+            "{key}: {shown} vs {gpm}"
+        );
+    }
+    assert!(part.contains("binding: "), "{part}");
+}

@@ -20,7 +20,7 @@ fn demo(name: &str) -> PathBuf {
 
 fn files_of(run: CheckRun) -> Vec<(String, Vec<u8>)> {
     let found = drydig::findings::check::CheckFindings::build(run, None);
-    drydig::report::check_files(&found).expect("files render")
+    drydig::report::check_outputs::check_files(&found).expect("files render")
 }
 
 fn file<'a>(files: &'a [(String, Vec<u8>)], name: &str) -> &'a str {

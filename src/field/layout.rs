@@ -28,8 +28,9 @@ pub const MAX_WELLS: usize = crate::input::validate::ranges::MAX_WELLS;
 pub struct Placement {
     /// The wells.
     pub wells: Vec<Well>,
-    /// What an engineer should know about the placement.
-    pub notes: Vec<String>,
+    /// What an engineer should know about the placement (SI numbers; worded with
+    /// [`LayoutNote::words`] in the run's units where shown).
+    pub notes: Vec<LayoutNote>,
     /// The path the wells were placed along (ring or lines), for maps.
     pub paths: Vec<Vec<[f64; 2]>>,
 }
@@ -259,7 +260,7 @@ fn place(
     closed: bool,
     prefix: &str,
     rate: f64,
-    notes: &mut Vec<String>,
+    notes: &mut Vec<LayoutNote>,
 ) -> Vec<Well> {
     let zones = keep_out_zones(model);
     let polys: Vec<&Polygon<f64>> = zones.iter().map(|z| z.1).collect();
@@ -274,17 +275,16 @@ fn place(
                 Some(s2) => {
                     let moved = (s2 - s).abs().min(path.length() - (s2 - s).abs());
                     well.position = at(s2);
-                    let msg = LayoutNote::Moved {
+                    let note = LayoutNote::Moved {
                         well: name.clone(),
                         distance_m: moved,
                         zone: zone.to_string(),
-                    }
-                    .words(model.units);
-                    well.note = Some(msg.clone());
-                    notes.push(msg);
+                    };
+                    well.note = Some(note.words(model.units));
+                    notes.push(note);
                 }
                 None => {
-                    notes.push(format!("{name} dropped: no free place on its line outside keep-out zone \"{zone}\""));
+                    notes.push(LayoutNote::Said(format!("{name} dropped: no free place on its line outside keep-out zone \"{zone}\"")));
                     continue;
                 }
             }
@@ -338,18 +338,18 @@ pub fn ring_from(
     // `generate` refuses counts past MAX_WELLS before this is reached; callers that build rings
     // of their own (the count search) are held to the same bound here.
     let n = if n > MAX_WELLS {
-        notes.push(format!(
+        notes.push(LayoutNote::Said(format!(
             "{n} wells is more than {MAX_WELLS}: {MAX_WELLS} placed"
-        ));
+        )));
         MAX_WELLS
     } else {
         n
     };
     if corner_wells && n < corners.len() {
-        notes.push(format!(
+        notes.push(LayoutNote::Said(format!(
             "{n} wells are fewer than the {} corners: spaced evenly instead",
             corners.len()
-        ));
+        )));
     }
     let mut positions = ring_positions(&path, &corners, n);
     if corners.is_empty() && start != 0.0 {
@@ -495,15 +495,12 @@ pub fn line_from(
     let (lo, hi) = spacings
         .iter()
         .fold((f64::INFINITY, 0.0f64), |(a, b), s| (a.min(*s), b.max(*s)));
-    notes.push(
-        LayoutNote::Wellpoints {
-            count: wells.len(),
-            spacing_m: (lo, hi),
-            length_m: total,
-            both_sides,
-        }
-        .words(model.units),
-    );
+    notes.push(LayoutNote::Wellpoints {
+        count: wells.len(),
+        spacing_m: (lo, hi),
+        length_m: total,
+        both_sides,
+    });
     Placement {
         wells,
         notes,
@@ -563,7 +560,7 @@ pub fn from_model(model: &Model, wells_csv: Option<&Path>) -> Result<Placement, 
     if let Some(p) = wells_csv {
         return Ok(Placement {
             wells: read_csv(model, p)?,
-            notes: vec![format!("wells read from {}", p.display())],
+            notes: vec![LayoutNote::Said(format!("wells read from {}", p.display()))],
             paths: vec![],
         });
     }
@@ -648,7 +645,7 @@ pub fn generate(model: &Model, spec: &LayoutSpec, rate: f64) -> Result<Placement
                 model
                     .rolling
                     .as_ref()
-                    .map(|r| LayoutNote::Rolling(Box::new(r.clone())).words(model.units)),
+                    .map(|r| LayoutNote::Rolling(Box::new(r.clone()))),
             );
             p
         }

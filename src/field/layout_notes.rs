@@ -1,8 +1,8 @@
 //! What placing a layout noted, as data with SI numbers, worded in the run's units
 //! ([`LayoutNote::words`]); the pattern of [`crate::input::import::notes`].
 //!
-//! The placement's note list is read as words by outputs outside `field/`, so the notes are
-//! worded (in the model's units) where they join it.
+//! The placement's note list carries these notes (notes without numbers as [`LayoutNote::Said`]);
+//! the outputs word them in the run's units where they show them.
 
 use crate::input::model::Rolling;
 use crate::input::units::UnitSystem;
@@ -32,6 +32,8 @@ pub enum LayoutNote {
     },
     /// A rolling run's line is one position of the set.
     Rolling(Box<Rolling>),
+    /// A note without quantities, in words.
+    Said(String),
 }
 
 impl LayoutNote {
@@ -67,6 +69,7 @@ impl LayoutNote {
                 }
             ),
             LayoutNote::Rolling(r) => rolling_words(r, units),
+            LayoutNote::Said(s) => s.clone(),
         }
     }
 }

@@ -24,7 +24,7 @@ pub struct Found {
     pub smallest_uniform: Option<usize>,
     pub run_i: Option<TrialRun>,
     pub run_u: Option<TrialRun>,
-    pub notes: Vec<String>,
+    pub notes: Vec<DesignNote>,
 }
 
 impl Found {
@@ -67,7 +67,7 @@ pub fn choose(
     // set, the run-in pumping ahead to drain the ground before it is dug (common practice (no
     // source)); least-flow rates would leave the run-in idle.
     let asked = if model.rolling.is_some() {
-        notes.push("rolling run: one rate in every wellpoint of the set (each pump set serves in turn ahead of, beside and behind the open length; the run-in drains the ground before it is dug; common practice (no source))".into());
+        notes.push(DesignNote::Said("rolling run: one rate in every wellpoint of the set (each pump set serves in turn ahead of, beside and behind the open length; the run-in drains the ground before it is dug; common practice (no source))".into()));
         RateOption::Uniform
     } else {
         asked
@@ -86,19 +86,19 @@ pub fn choose(
     };
     if let Some((_, used)) = pick {
         if used != asked {
-            notes.push(format!(
+            notes.push(DesignNote::Said(format!(
                 "no layout tried meets every target with {}; the design uses {} instead",
                 asked.describe(),
                 used.describe()
-            ));
+            )));
         }
     }
     if !model.boundaries.is_empty() {
-        notes.push(format!(
+        notes.push(DesignNote::Said(format!(
             "the quick estimate takes the design file's {} straight boundar{} by the first-order image of one equivalent well at the centroid; the wells on the boundary side stand nearer to it than the centroid (a river feeds them more, a barrier less), so the two flows differ by more than usual",
             model.boundaries.len(),
             if model.boundaries.len() == 1 { "y" } else { "ies" }
-        ));
+        )));
     }
     let (ci, cu) = (found.count(true), found.count(false));
     if su.is_none() && si.is_some() {
@@ -108,22 +108,19 @@ pub fn choose(
             .filter(|t| t.trial.count > 0)
             .max_by(|a, b| a.trial.lowest_margin_m.total_cmp(&b.trial.lowest_margin_m))
         {
-            notes.push(
-                DesignNote::UniformShort {
-                    count: t.trial.count,
-                    limit: t.trial.binding_limit.clone(),
-                    point: t.trial.lowest_margin_at.clone(),
-                    shortfall_m: -t.trial.lowest_margin_m,
-                }
-                .words(model.units),
-            );
+            notes.push(DesignNote::UniformShort {
+                count: t.trial.count,
+                limit: t.trial.binding_limit.clone(),
+                point: t.trial.lowest_margin_at.clone(),
+                shortfall_m: -t.trial.lowest_margin_m,
+            });
         }
     }
     if let (Some(i), Some(u)) = (ci, cu) {
         if u > i {
-            notes.push(format!(
+            notes.push(DesignNote::Said(format!(
                 "with one rate in every well {u} wells are needed; with individual rates {i}"
-            ));
+            )));
         }
     }
     let Some((used, t)) = pick.and_then(|(n, used)| found.run(n, used).map(|t| (used, t))) else {
@@ -140,7 +137,7 @@ fn met(
     points: &[CheckPoint],
     used: RateOption,
     t: &TrialRun,
-    mut notes: Vec<String>,
+    mut notes: Vec<DesignNote>,
     trials: Vec<Trial>,
     (ci, cu): (Option<usize>, Option<usize>),
     empty: Design,
@@ -149,10 +146,10 @@ fn met(
         RateOption::Individual => {
             let pumping = t.placement.wells.iter().filter(|w| w.rate >= 0.0).count();
             if let Some(i) = t.individual.as_ref().filter(|i| i.groups < pumping) {
-                notes.push(format!(
+                notes.push(DesignNote::Said(format!(
                     "the {pumping} wells share {} rates in the linear programme (neighbouring wells in groups, as above {MAX_LP_VARIABLES} wells): each well is still held to its own limits, and the total may be a little above the ungrouped least flow",
                     i.groups
-                ));
+                )));
             }
             let ind = t.individual.clone().map(|i| (i.rates, i.binding));
             ind.unwrap_or_default()
@@ -190,12 +187,12 @@ fn met(
     }
     let fin = finish(model, &mut placement.wells);
     if !fin.dropped.is_empty() {
-        notes.push(format!(
+        notes.push(DesignNote::Said(format!(
             "{} well{} the least-flow rates leave idle dropped from the layout: {}",
             fin.dropped.len(),
             if fin.dropped.len() == 1 { "" } else { "s" },
             fin.dropped.join(", ")
-        ));
+        )));
     }
     Design {
         used: Some(used),
@@ -221,7 +218,7 @@ fn not_met(
     points: &[CheckPoint],
     cache: &BTreeMap<usize, TrialRun>,
     trials: Vec<Trial>,
-    mut notes: Vec<String>,
+    mut notes: Vec<DesignNote>,
     empty: Design,
 ) -> Result<Design, InputError> {
     let Some(best) = cache
@@ -298,7 +295,7 @@ fn not_met(
     }
     let worst = e.worst_point.map(|i| &e.points[i]);
     notes.push(allowance_note(model, &best.placement.wells));
-    notes.push(format!(
+    notes.push(DesignNote::Said(format!(
         "the best layout tried has {} wells; shown with {}",
         n,
         match option {
@@ -306,7 +303,7 @@ fn not_met(
             RateOption::Individual =>
                 "rates that make the largest shortfall least within the limits",
         }
-    ));
+    )));
     let mut placement = best.placement.clone();
     for (w, q) in placement.wells.iter_mut().zip(&rates) {
         w.rate = *q;
@@ -332,7 +329,7 @@ fn not_met(
 
 /// Why a layout that is not met may still be close: the design's allowances in words, and
 /// whether the same wells meet every target without them (then the layout has no reserve).
-fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String {
+fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> DesignNote {
     let d = &model.design;
     let mut bare = model.clone();
     bare.design.operating_margin = 0.0;
@@ -346,5 +343,4 @@ fn allowance_note(model: &Model, wells: &[crate::field::wells::Well]) -> String 
         one_well_out: d.one_well_out,
         met_without: plain.met,
     }
-    .words(model.units)
 }

@@ -1,15 +1,26 @@
 //! Notes of the design choice that carry numbers, as data with SI values, worded in the run's
 //! units ([`DesignNote::words`]); the pattern of [`crate::input::import::notes`].
 //!
-//! The design's note list is read as words by outputs outside `optimise/`, so the notes are
-//! worded (in the model's units) where they join it.
+//! The design's note list carries these notes (the count search's cap as [`DesignNote::Cap`],
+//! notes without numbers as [`DesignNote::Said`]); the outputs word them in the run's units
+//! where they show them.
 
 use crate::input::units::UnitSystem;
 use crate::optimise::binding::Binding;
+use crate::optimise::search_range::CapNote;
 
-/// A note of the design choice with a quantity in it.
+/// A note of the design choice.
 #[derive(Debug, Clone, PartialEq)]
 pub enum DesignNote {
+    /// The count search's cap on wells keeps it from the spacing limits.
+    Cap(CapNote),
+    /// A note without quantities, in words.
+    Said(String),
+    /// Every well runs at its pump class's largest rate (`pumps.one_rate_per_class`).
+    OneRatePerClass {
+        /// Flow added over the individual rates, m³/s.
+        added_m3_per_s: f64,
+    },
     /// With one rate in every well no count meets every target: the closest one.
     UniformShort {
         /// Wells of the closest layout.
@@ -38,6 +49,12 @@ impl DesignNote {
     /// The note in words, quantities in `units`.
     pub fn words(&self, units: UnitSystem) -> String {
         match self {
+            DesignNote::Cap(c) => c.words(units),
+            DesignNote::Said(s) => s.clone(),
+            DesignNote::OneRatePerClass { added_m3_per_s } => format!(
+                "one rate per pump class (pumps.one_rate_per_class): every well runs at its class's largest rate, {} more in all",
+                units.rate_words(*added_m3_per_s)
+            ),
             DesignNote::UniformShort {
                 count,
                 limit,
@@ -97,5 +114,11 @@ mod tests {
             u.words(UnitSystem::Us),
             "with one rate in every well no count tried meets every target: at best (12 wells, every well at the most its limits allow, pump capacity 79.3 gpm) \"P4\" stays 0.39 ft above its target; individual rates give more to the wells that serve it"
         );
+        // 2.5 L/s × 60 ÷ 3.785411784 = 39.63 gpm (NIST SP 811 (2008) App. B)
+        let c = DesignNote::OneRatePerClass {
+            added_m3_per_s: 0.0025,
+        };
+        assert!(c.words(UnitSystem::Us).ends_with(", 39.6 gpm more in all"));
+        assert!(c.words(UnitSystem::Si).ends_with(", 2.50 L/s more in all"));
     }
 }

@@ -62,8 +62,9 @@ pub struct Design {
     pub binding: Vec<crate::optimise::binding::Binding>,
     /// What was searched, in words.
     pub search: String,
-    /// What an engineer should know.
-    pub notes: Vec<String>,
+    /// What an engineer should know (SI numbers; worded with [`DesignNote::words`] in the
+    /// run's units where shown).
+    pub notes: Vec<crate::optimise::design_notes::DesignNote>,
     /// The quick estimate of the layout's excavation.
     pub estimate: ExcavationEstimate,
     /// Idle wells dropped, one well out, standby wells placed (met designs).

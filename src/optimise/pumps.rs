@@ -14,6 +14,7 @@
 //!   head, running at each well's own rate and head; energy per day E = P_running·t.
 
 use crate::input::model::{Model, PumpSettings};
+use crate::optimise::design_notes::DesignNote;
 use crate::physics::pipes::{hazen_williams_head_loss, pump_power};
 use crate::physics::water::{G, WATER_DENSITY};
 
@@ -120,7 +121,7 @@ pub fn one_rate_per_class(
     model: &Model,
     points: &[crate::field::checkpoints::CheckPoint],
     wells: &mut [crate::field::wells::Well],
-) -> String {
+) -> DesignNote {
     let rates: Vec<f64> = wells.iter().map(|w| w.rate).collect();
     let mut new = rates.clone();
     for (_, members) in classes(model, &rates) {
@@ -142,11 +143,10 @@ pub fn one_rate_per_class(
         for (w, q) in wells.iter_mut().zip(&new) {
             w.rate = *q;
         }
-        format!(
-            "one rate per pump class (pumps.one_rate_per_class): every well runs at its class's largest rate, {:.2} L/s more in all",
-            added * 1e3
-        )
+        DesignNote::OneRatePerClass {
+            added_m3_per_s: added,
+        }
     } else {
-        "one rate per pump class was asked, but at the class rates a well would run past its limits; the individual rates are kept".into()
+        DesignNote::Said("one rate per pump class was asked, but at the class rates a well would run past its limits; the individual rates are kept".into())
     }
 }

@@ -29,6 +29,7 @@ use crate::check::run::{evaluate_placement, field_for, CheckRun};
 use crate::field::checkpoints::check_points;
 use crate::field::influence::Field;
 use crate::field::layout::{self, Placement};
+use crate::field::layout_notes::LayoutNote;
 use crate::input::error::InputError;
 use crate::input::model::Model;
 use crate::optimise::binding::Binding;
@@ -88,9 +89,9 @@ pub struct RechargeSizing {
     pub recharge_m3_per_s: f64,
     /// Net flow, abstraction − recharge, m³/s.
     pub net_flow_m3_per_s: f64,
-    /// Constraints active at the optimum, in the run's units (worded here: the recharge text
-    /// reads them as words).
-    pub binding: Vec<String>,
+    /// Constraints active at the optimum (SI numbers), worded where shown with
+    /// [`Binding::words`] in the run's units.
+    pub binding: Vec<Binding>,
     /// What an engineer should know.
     pub notes: Vec<String>,
 }
@@ -402,11 +403,11 @@ pub fn size(
             ));
         }
     }
-    placement.notes.push(if feasible {
+    placement.notes.push(LayoutNote::Said(if feasible {
         "rates sized by the recharge linear programme (drydig check --size-recharge)".into()
     } else {
         format!("recharge sizing {status}: recharge wells at their listed rates")
-    });
+    }));
     let wells: Vec<RechargeWell> = recharge
         .iter()
         .map(|j| {
@@ -430,7 +431,7 @@ pub fn size(
         .binding
         .iter()
         .filter_map(|i| problem.rows.get(*i))
-        .map(|b| b.words(model.units))
+        .cloned()
         .collect();
     Ok((
         placement,

@@ -16,6 +16,7 @@ use crate::field::layout;
 use crate::input::error::InputError;
 use crate::input::model::{LayoutKind, LayoutSpec, Model, RingCount};
 use crate::optimise::choice::{choose, Found};
+use crate::optimise::design_notes::DesignNote;
 use crate::optimise::outcome::{Design, FreeSummary, Outcome};
 use crate::optimise::placement::{self, NoFree};
 use crate::optimise::precheck::impossible_before_search;
@@ -357,8 +358,8 @@ pub fn design_scoped(
             message: "the layout's excavation does not exist".into(),
         })?;
     let fam = family(model, &spec);
-    let notes: Vec<String> = cap_note(model, &spec, MAX_WELLS)
-        .map(|n| n.words(model.units))
+    let notes: Vec<DesignNote> = cap_note(model, &spec, MAX_WELLS)
+        .map(DesignNote::Cap)
         .into_iter()
         .collect();
     let (search, probe) = search_words(model, &spec, &fam);
@@ -541,10 +542,10 @@ fn search_counts(
     if !tried_words.is_empty() {
         let mut seen = std::collections::HashSet::new();
         tried_words.retain(|w| seen.insert(w.clone()));
-        notes.push(format!(
+        notes.push(DesignNote::Said(format!(
             "below the count found with the design file's placement, also tried: {}",
             tried_words.join("; ")
-        ));
+        )));
     }
     let cache = search_state.cache;
     let mut trials: Vec<Trial> = cache.values().map(|t| t.trial.clone()).collect();
@@ -582,7 +583,7 @@ fn free_placement(
     spec: &LayoutSpec,
     free: &crate::input::model::FreePlacementSpec,
     found: &mut Found,
-    notes: &mut Vec<String>,
+    notes: &mut Vec<DesignNote>,
 ) -> FreeSummary {
     let even_run = found
         .run_i
@@ -619,7 +620,7 @@ fn free_placement(
             summary.relaxation = Some(f.relaxation);
             summary.candidates = f.candidates;
             summary.used = even_count.is_none_or(|e| n < e);
-            notes.push(format!(
+            notes.push(DesignNote::Said(format!(
                 "fewest wells on {} candidate positions: {n} (no placement on them can have fewer than {} wells: LP relaxation {:.2}; found by rounding the relaxation and removing wells greedily, {} layouts judged); evenly spaced rings: {}; {}",
                 f.candidates,
                 f.lower_bound,
@@ -631,7 +632,7 @@ fn free_placement(
                 } else {
                     "the evenly spaced ring is kept (no fewer wells)"
                 }
-            ));
+            )));
             found.trials.push(f.run.trial.clone());
             if summary.used {
                 found.run_i = Some(f.run);
@@ -641,7 +642,7 @@ fn free_placement(
         Err(why) => {
             let (c, _) = placement::candidates(model, spec, free);
             summary.candidates = c.len();
-            notes.push(format!(
+            notes.push(DesignNote::Said(format!(
                 "fewest wells on candidate positions: none found ({}); the evenly spaced ring stands",
                 match why {
                     NoFree::NoCandidates => "keep-out zones cover every candidate".to_string(),
@@ -649,7 +650,7 @@ fn free_placement(
                         format!("even all {n} candidates together cannot meet every rule"),
                     NoFree::NotMet(why) => why,
                 }
-            ));
+            )));
         }
     }
     summary

@@ -2,9 +2,10 @@
 //! the user's units (the CSV keeps its SI machine columns and adds the user's beside them).
 
 use super::format::Fmt;
-use super::{wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::input::model::Model;
 use crate::input::units::UnitSystem;
+use crate::report::words::wrap;
 use crate::transient::by_date::DatedDesign;
 use crate::transient::programme::DAY;
 

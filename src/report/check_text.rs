@@ -1,10 +1,11 @@
 //! Terminal summary of an evaluated layout.
 
-use super::{thousands, wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::check::run::CheckRun;
 use crate::findings::check::CheckFindings;
 use crate::input::units::{m3s_to_gpm, UnitSystem};
 use crate::report::table::{Rows, TERMINAL_ROWS};
+use crate::report::words::{thousands, wrap};
 
 fn flow(q: f64, units: UnitSystem) -> String {
     match units {
@@ -59,7 +60,7 @@ pub fn to_text(found: &CheckFindings, units: UnitSystem, rows: Rows) -> String {
     ));
     out.push_str(&well_table(run, units, rows));
     for n in &run.placement.notes {
-        out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+        out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, ""));
     }
     for n in &run.model.crs_warnings {
         out.push_str(&wrap(&format!("warning: {n}"), 96, ""));

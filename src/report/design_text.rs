@@ -2,7 +2,7 @@
 //! counts tried), `bid.csv` (the quantities and the comparison with the quick estimate), and the
 //! sweep table (`sweep.csv`).
 
-use super::{thousands, wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::check::run::CheckRun;
 use crate::findings::design::DesignFindings;
 use crate::input::model::{LayoutKind, Model};
@@ -11,6 +11,7 @@ use crate::optimise::binding::Binding;
 use crate::optimise::lp_problem::LpStatus;
 use crate::optimise::outcome::{Design, Outcome};
 use crate::optimise::trial::Trial;
+use crate::report::words::{thousands, wrap};
 use serde_json::{json, Value};
 
 const DAY: f64 = 86_400.0;
@@ -129,7 +130,7 @@ pub fn design_json(model: &Model, found: &DesignFindings) -> Value {
         "standby_wells_placed": design.finish.standby,
         "idle_wells_dropped": design.finish.dropped,
         "highest_use_of_capacity": run.map(highest_use),
-        "notes": design.notes,
+        "notes": design.notes.iter().map(|n| n.words(model.units)).collect::<Vec<_>>(),
         "caution": CAUTION,
     })
 }
@@ -197,7 +198,7 @@ pub fn trials_csv(
 pub fn files(model: &Model, found: &DesignFindings) -> anyhow::Result<Vec<(String, Vec<u8>)>> {
     let design = &found.design;
     let mut out = match &found.chosen {
-        Some(c) => super::check_files_for(c, Some(design))?,
+        Some(c) => super::check_outputs::check_files_for(c, Some(design))?,
         None => Vec::new(),
     };
     out.push((
@@ -408,11 +409,11 @@ pub fn to_text(
         let c = found.chosen.as_ref().expect("a run has findings");
         out.push_str(&super::bid_out::bid_text(&c.sheet, c.costs.as_ref()));
         for n in &r.placement.notes {
-            out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+            out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, ""));
         }
     }
     for n in &design.notes {
-        out.push_str(&wrap(&format!("note: {n}"), 96, ""));
+        out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, ""));
     }
     for n in &model.crs_warnings {
         out.push_str(&wrap(&format!("warning: {n}"), 96, ""));

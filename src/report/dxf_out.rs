@@ -284,7 +284,7 @@ fn notes(out: &mut Out, run: &CheckRun, unit: DrawingUnit, section: &Section) {
         format!("section A-A': {}", section.basis),
     ];
     lines.extend(
-        crate::report::wrap(crate::caution::CAUTION, 100, "")
+        crate::report::words::wrap(crate::caution::CAUTION, 100, "")
             .lines()
             .map(String::from),
     );

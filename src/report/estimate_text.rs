@@ -1,9 +1,10 @@
 //! The quick estimate as a readable terminal table, and as JSON.
 
 use super::format::Fmt;
-use super::{thousands, wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::estimate::{Estimate, EstimateNote, ExcavationEstimate, FlowMethod, InfluenceBasis};
 use crate::input::units::{m3s_to_gpm, UnitSystem};
+use crate::report::words::{thousands, wrap};
 
 fn flow(m3_per_day: f64, units: UnitSystem) -> String {
     let m3s = m3_per_day / 86_400.0;

@@ -73,8 +73,8 @@ impl Fmt {
     /// A flow total: "1 234 m³/day" (SI) or "226 gpm" (US).
     pub fn flow(&self, q: f64) -> String {
         match self.units {
-            UnitSystem::Si => format!("{} m³/day", super::thousands(m3s_to_m3d(q), 0)),
-            UnitSystem::Us => format!("{} gpm", super::thousands(m3s_to_gpm(q), 0)),
+            UnitSystem::Si => format!("{} m³/day", super::words::thousands(m3s_to_m3d(q), 0)),
+            UnitSystem::Us => format!("{} gpm", super::words::thousands(m3s_to_gpm(q), 0)),
         }
     }
     /// A rate per well: "5.20 L/s" (SI) or "82.4 gpm" (US).
@@ -99,7 +99,7 @@ impl Fmt {
     pub fn area(&self, m2: f64) -> String {
         format!(
             "{} {}",
-            super::thousands(self.units.area(m2), 0),
+            super::words::thousands(self.units.area(m2), 0),
             self.units.area_unit()
         )
     }
@@ -132,7 +132,7 @@ impl Fmt {
     pub fn coordinate(&self, m: f64) -> String {
         format!(
             "{} {}",
-            super::thousands(self.units.length(m), 1),
+            super::words::thousands(self.units.length(m), 1),
             self.lu()
         )
     }
@@ -173,8 +173,8 @@ impl Fmt {
     /// A flow total without its unit (m³/day or gpm), for table columns.
     pub fn flow_value(&self, q: f64) -> String {
         match self.units {
-            UnitSystem::Si => super::thousands(m3s_to_m3d(q), 0),
-            UnitSystem::Us => super::thousands(m3s_to_gpm(q), 0),
+            UnitSystem::Si => super::words::thousands(m3s_to_m3d(q), 0),
+            UnitSystem::Us => super::words::thousands(m3s_to_gpm(q), 0),
         }
     }
     /// Unit of a flow total ("m³/day", "gpm").
@@ -191,8 +191,8 @@ impl Fmt {
     /// A volume without its unit.
     pub fn volume_value(&self, m3: f64) -> String {
         match self.units {
-            UnitSystem::Si => super::thousands(m3, 0),
-            UnitSystem::Us => super::thousands(m3 * GAL_PER_M3, 0),
+            UnitSystem::Si => super::words::thousands(m3, 0),
+            UnitSystem::Us => super::words::thousands(m3 * GAL_PER_M3, 0),
         }
     }
     /// Unit of a volume ("m³", "gal").
@@ -207,14 +207,14 @@ impl Fmt {
     pub fn pressure(&self, pa: f64) -> String {
         match self.units {
             UnitSystem::Si => format!("{} kPa", num(pa / 1e3, 1)),
-            UnitSystem::Us => format!("{} psf", super::thousands(pa * PSF_PER_PA, 0)),
+            UnitSystem::Us => format!("{} psf", super::words::thousands(pa * PSF_PER_PA, 0)),
         }
     }
     /// Transmissivity: "4.44e-3 m²/s" or "4 130 ft²/day".
     pub fn transmissivity(&self, t: f64) -> String {
         match self.units {
             UnitSystem::Si => format!("{t:.2e} m²/s"),
-            UnitSystem::Us => format!("{} ft²/day", super::thousands(t * FT2D_PER_M2S, 0)),
+            UnitSystem::Us => format!("{} ft²/day", super::words::thousands(t * FT2D_PER_M2S, 0)),
         }
     }
     /// Unit of transmissivity in tables ("m²/s", "ft²/day").

@@ -32,11 +32,3 @@ pub mod uncertainty_files;
 pub mod uncertainty_text;
 pub mod verdict;
 pub mod words;
-
-/// The caution carried by every output (defined once in [`crate::caution`]).
-pub use crate::caution::CAUTION;
-
-// Re-exports keep the older paths (`report::wrap`, `report::check_files`, …) that callers
-// across report/ and the tests use.
-pub use check_outputs::{check_files, check_files_for};
-pub use words::{thousands, wrap};

@@ -240,7 +240,7 @@ pub fn white_page(width: f64, height: f64) -> Document {
 pub fn caution_block(x: f64, y: f64, size: f64, step: f64, wrap_at: usize) -> Group {
     let mut g = Group::new().set("id", "caution");
     let words = format!("CAUTION: {}", crate::caution::CAUTION);
-    for (k, l) in super::wrap(&words, wrap_at, "").lines().enumerate() {
+    for (k, l) in super::words::wrap(&words, wrap_at, "").lines().enumerate() {
         g = g.add(text(x, y + step * k as f64, size, "start", l.to_string()).set("fill", "#555"));
     }
     g

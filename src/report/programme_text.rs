@@ -2,9 +2,10 @@
 //! recovery) and `programme.csv` (times, flows, volumes, levels at every hydrograph place).
 
 use super::format::Fmt;
-use super::{wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::input::model::Model;
 use crate::input::units::UnitSystem;
+use crate::report::words::wrap;
 use crate::transient::answers::{ProgrammeAnswers, SeriesKind};
 use crate::transient::programme::DAY;
 

@@ -3,9 +3,10 @@
 
 use super::format::Fmt;
 use super::pumping_test_chart::pumping_test_svg;
-use super::{wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::findings::commands::NamedFit;
 use crate::input::units::UnitSystem;
+use crate::report::words::wrap;
 use crate::test_analysis::{aquifer_lines_in, Fit, Method, PumpingTestData};
 
 /// The method named on the command line: theis, cooper-jacob, hantush, unconfined, recovery,

@@ -330,14 +330,22 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "unmet_count": e.unmet_count,
         "lowest_margin_m": worst.and_then(|p| p.margin_m),
         "lowest_margin_at": worst.map(|p| json!({"name": p.point.name, "x": p.point.position[0], "y": p.point.position[1]})),
-        "placement_notes": run.placement.notes,
+        "placement_notes": run.placement.notes.iter().map(|n| n.words(run.model.units)).collect::<Vec<_>>(),
         "well_problems": e.wells.iter().filter(|w| !w.problems.is_empty()).map(|w| json!({"well": w.name, "problems": w.problems.iter().map(|p| well_problem(p, &si)).collect::<Vec<_>>()})).collect::<Vec<_>>(),
         "neighbours": found.neighbours,
         "neighbour_rules_of_thumb": super::neighbours::summary::rules_of_thumb(),
         "uplift": found.uplift,
         "recharge_sizing": found.recharge,
-        "caution": super::CAUTION,
+        "caution": crate::caution::CAUTION,
     });
+    // the recharge programme's binding limits worded in the run's units
+    if let Some(rs) = &found.recharge {
+        summary["recharge_sizing"]["binding"] = json!(rs
+            .binding
+            .iter()
+            .map(|b| b.words(run.model.units))
+            .collect::<Vec<_>>());
+    }
     // cut-off walls (only when there are any): quantities without prices and the solve size
     if let Some(w) = &found.walls {
         summary["walls"] = json!({

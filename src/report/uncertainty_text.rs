@@ -3,11 +3,12 @@
 //! (percentiles, swings, the robust design, the implied contingency, the caution).
 
 use super::format::Fmt;
-use super::{thousands, wrap, CAUTION};
+use crate::caution::CAUTION;
 use crate::findings::uncertainty::UncertaintyFindings;
 use crate::input::model::Model;
 use crate::input::model_uncertainty::InputKind;
 use crate::input::units::UnitSystem;
+use crate::report::words::{thousands, wrap};
 use crate::uncertainty::run::{Measure, Mode, Series, UncertaintyRun};
 use serde_json::json;
 

@@ -85,7 +85,10 @@ pub fn wells(cx: &Context) -> Part {
     }
     body.push_str(&table.to_html(f));
     for n in &cx.run.placement.notes {
-        body.push_str(&format!("<p class=\"note\">{}</p>", esc(n)));
+        body.push_str(&format!(
+            "<p class=\"note\">{}</p>",
+            esc(&n.words(cx.run.model.units))
+        ));
     }
     body.push_str(
         "<p class=\"note\">Every well is also in <a href=\"wells.csv\">wells.csv</a>.</p>",

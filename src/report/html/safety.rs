@@ -91,9 +91,16 @@ pub fn cautions(cx: &Context) -> Part {
         "<p class=\"caution\">{}</p>\n",
         esc(crate::caution::CAUTION)
     );
-    let mut notes: Vec<String> = cx.run.placement.notes.clone();
+    let units = cx.run.model.units;
+    let mut notes: Vec<String> = cx
+        .run
+        .placement
+        .notes
+        .iter()
+        .map(|n| n.words(units))
+        .collect();
     if let Some(d) = cx.design {
-        notes.extend(d.notes.iter().cloned());
+        notes.extend(d.notes.iter().map(|n| n.words(units)));
     }
     notes.extend(
         cx.run

@@ -87,7 +87,7 @@ pub(super) fn halo(t: Text) -> Text {
 
 /// Split `text` into lines of at most `width` characters.
 pub(super) fn lines_of(text: &str, width: usize) -> Vec<String> {
-    crate::report::wrap(text, width, "")
+    crate::report::words::wrap(text, width, "")
         .lines()
         .map(str::to_string)
         .collect()

@@ -2,13 +2,14 @@
 //! and interval, datum, wells, flows, the result, the worst point, grid, date, design file) and
 //! the caution along the foot of the page.
 
+use crate::caution::CAUTION;
 use crate::check::run::CheckRun;
 use crate::field::grid::ContourSet;
 use crate::report::map::layers::group;
 use crate::report::map::options::MapOptions;
 use crate::report::map::page::{FAIL, FOOTER_TOP, INK, PANEL, PLAN};
 use crate::report::map::text::{decimals, lines_of, r1, signed, text};
-use crate::report::{thousands, CAUTION};
+use crate::report::words::thousands;
 use svg::node::element::{Group, Line, Rectangle};
 
 /// The title block: its rows wrapped to the column, the verdict's row in the failure colour

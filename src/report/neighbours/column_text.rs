@@ -4,7 +4,7 @@
 
 use crate::input::units::UnitSystem;
 use crate::report::neighbours::numbers::{mm, ratio_text, truncate};
-use crate::report::wrap;
+use crate::report::words::wrap;
 use crate::safety::neighbours::NeighbourResult;
 
 /// 1 psf = 0.047 880 26 kPa (NIST SP 811 App. B).

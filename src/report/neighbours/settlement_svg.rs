@@ -3,6 +3,7 @@
 //! building outlined in its status colour, with scale bar, north arrow, legend, method and
 //! caution.
 
+use crate::caution::CAUTION;
 use crate::check::run::CheckRun;
 use crate::input::model::Model;
 use crate::input::units::UnitSystem;
@@ -12,7 +13,7 @@ use crate::report::neighbours::settlement_plot::{
     MARGIN, PANEL_W, PLOT_W, TITLE_H,
 };
 use crate::report::neighbours::status::status_colour;
-use crate::report::{wrap, CAUTION};
+use crate::report::words::wrap;
 use crate::safety::neighbours::{NeighbourResult, Status};
 use crate::safety::settlement_map::SettlementMap;
 use svg::node::element::{Circle, ClipPath, Definitions, Group, Line, Path as SvgPath, Rectangle};

@@ -11,7 +11,7 @@ use crate::report::neighbours::numbers::{
     mm, pressure_kpa, ratio_text, rule_settlement, truncate, unit_weight,
 };
 use crate::report::neighbours::table::neighbours_table;
-use crate::report::wrap;
+use crate::report::words::wrap;
 use crate::safety::limit_check::{LimitBasis, LimitQuantity};
 use crate::safety::neighbours::{
     NeighbourResult, Status, RULE_OF_THUMB_DISTORTION, RULE_OF_THUMB_LABEL, RULE_OF_THUMB_RISE,
@@ -279,12 +279,16 @@ fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
             f.rate_value(w.capacity_m3_per_s)
         ));
     }
+    // Flows per well in the rate unit (L/s or gpm); in SI the net flow also as a daily total.
+    let daily = match units {
+        UnitSystem::Si => format!(" ({:.0} m³/day)", r.net_flow_m3_per_s * 86_400.0),
+        UnitSystem::Us => String::new(),
+    };
     out.push_str(&format!(
-        "  abstraction {:.1} L/s, recharge {:.1} L/s, net flow {:.1} L/s ({:.0} m³/day)\n",
-        r.abstraction_m3_per_s * 1e3,
-        r.recharge_m3_per_s * 1e3,
-        r.net_flow_m3_per_s * 1e3,
-        r.net_flow_m3_per_s * 86_400.0
+        "  abstraction {:.1} {ru}, recharge {:.1} {ru}, net flow {:.1} {ru}{daily}\n",
+        f.rate_number(r.abstraction_m3_per_s),
+        f.rate_number(r.recharge_m3_per_s),
+        f.rate_number(r.net_flow_m3_per_s),
     ));
     if !r.binding.is_empty() {
         out.push_str(&format!(
@@ -292,7 +296,7 @@ fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
             r.binding
                 .iter()
                 .take(4)
-                .cloned()
+                .map(|b| b.words(units))
                 .collect::<Vec<_>>()
                 .join("; "),
             if r.binding.len() > 4 {
