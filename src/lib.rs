@@ -38,6 +38,7 @@ pub mod geometry;
 pub mod input;
 pub mod optimise;
 pub mod physics;
+pub mod plural;
 pub mod report;
 pub mod safety;
 pub mod test_analysis;

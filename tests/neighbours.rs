@@ -531,6 +531,42 @@ fn failing_neighbours_set_exit_code_3() {
     assert_eq!(run.status.code(), Some(0), "{}", text(&run.stdout));
 }
 
+// A neighbour named like a formula is written to both neighbour CSVs with a leading apostrophe,
+// as the wells CSV does, so a spreadsheet shows the name instead of evaluating it (OWASP, "CSV
+// Injection": prefix cells beginning with =, +, -, @ with an apostrophe).
+#[test]
+fn neighbour_names_are_not_read_as_spreadsheet_formulas() {
+    let dir = tmp_dir("formula");
+    let design = dir.join("formula.toml");
+    let base = confined_design("-1 L/s", "");
+    assert!(base.contains("name = \"House\""));
+    std::fs::write(
+        &design,
+        base.replace("name = \"House\"", "name = \"=1+House\""),
+    )
+    .expect("write");
+    let out = dir.join("out");
+    let run = drydig(&[
+        "check",
+        design.to_str().expect("utf-8"),
+        "-o",
+        out.to_str().expect("utf-8"),
+    ]);
+    assert!(
+        matches!(run.status.code(), Some(0 | 3)),
+        "{}",
+        text(&run.stderr)
+    );
+    for f in ["neighbours.csv", "neighbour_points.csv"] {
+        let csv = std::fs::read_to_string(out.join(f)).expect("csv written");
+        let rows: Vec<&str> = csv.lines().skip(1).collect();
+        assert!(!rows.is_empty(), "{f}: {csv}");
+        for row in rows {
+            assert!(row.starts_with("'=1+House,"), "{f}: {row}");
+        }
+    }
+}
+
 // The recharge demo brings the failing warehouse within its allowable drawdown (2.0 m): over it
 // without recharge in riverside_basement.toml, within it with the sized recharge line.
 #[test]

@@ -188,8 +188,8 @@ fn header_message(headers: &csv::StringRecord) -> String {
         format!("found: {}", shown.join(", "))
     } else {
         format!(
-            "the first line has {} cell(s), not a header of column names — is this the wells CSV?",
-            headers.len()
+            "the first line has {}, not a header of column names — is this the wells CSV?",
+            crate::plural::count(headers.len(), "cell", "cells")
         )
     };
     format!(

@@ -57,8 +57,10 @@ impl WallFindings {
             })
             .collect();
         out.push(format!(
-            "walls solved as line doublets: {} collocation points × {} aquifer(s) = {} unknown jumps, one solve per well of unit rate",
-            self.collocation_points, self.aquifers, self.unknowns
+            "walls solved as line doublets: {} × {} = {} unknown jumps, one solve per well of unit rate",
+            crate::plural::count(self.collocation_points, "collocation point", "collocation points"),
+            crate::plural::count(self.aquifers, "aquifer", "aquifers"),
+            self.unknowns
         ));
         out
     }

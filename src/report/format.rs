@@ -138,14 +138,28 @@ impl Fmt {
     }
 }
 
-/// An angular distortion or deflection ratio as "1/n" ("0" when none, two decimals from 1 up).
+/// Below this an angular distortion or deflection ratio is negligible for any building and
+/// prints as "< 1/100 000": 200 times smaller than the 1/500 usually allowed.
+pub const NEGLIGIBLE_RATIO: f64 = 1e-5;
+
+/// An angular distortion or deflection ratio as people read it: "1/n" with n to three
+/// significant figures and thousands grouped ("1/495", "1/4 950", "1/47 000"); "< 1/100 000"
+/// when negligible ([`NEGLIGIBLE_RATIO`]); "0" when none; two decimals from 1 up. Machine
+/// columns (CSV, JSON) keep the number itself.
 pub fn ratio_value(beta: f64) -> String {
     if beta <= 0.0 {
         "0".into()
+    } else if beta < NEGLIGIBLE_RATIO {
+        format!("< 1/{}", super::words::thousands(1.0 / NEGLIGIBLE_RATIO, 0))
     } else if beta >= 1.0 {
         format!("{beta:.2}")
     } else {
-        format!("1/{:.0}", 1.0 / beta)
+        let n = 1.0 / beta;
+        let unit = 10f64.powi((n.log10().floor() as i32 - 2).max(0));
+        format!(
+            "1/{}",
+            super::words::thousands((n / unit).round() * unit, 0)
+        )
     }
 }
 
@@ -270,6 +284,21 @@ pub fn esc(text: &str) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// An angular distortion of 1/500, the value usually allowed for framed buildings and load
+    /// bearing walls (Skempton & MacDonald 1956; Bjerrum 1963; Burland & Wroth 1974 — from
+    /// memory), prints as itself so a reader compares it at a glance; one 200 times smaller is
+    /// negligible and says so instead of printing seven digits.
+    #[test]
+    fn ratios_read_against_the_1_in_500_rule() {
+        assert_eq!(ratio_value(1.0 / 500.0), "1/500");
+        assert_eq!(ratio_value(1.0 / 4951.0), "1/4\u{2009}950");
+        assert_eq!(ratio_value(1.0 / 46_965.0), "1/47\u{2009}000");
+        assert_eq!(ratio_value(1.0 / 99_999.0), "1/100\u{2009}000");
+        assert_eq!(ratio_value(1.0 / 4_587_445.0), "< 1/100\u{2009}000");
+        assert_eq!(ratio_value(0.0), "0");
+        assert_eq!(ratio_value(1.5), "1.50");
+    }
 
     // Snapshots. Conversions: NIST SP 811 (2008) App. B: 1 ft = 0.3048 m; 1 US gal =
     // 3.785411784 L; so 5.2 L/s = 5.2e-3·60/3.785411784e-3 = 82.42 gpm and 3.8 m = 12.47 ft.

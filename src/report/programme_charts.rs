@@ -311,10 +311,14 @@ pub fn charts(model: &Model, a: &ProgrammeAnswers) -> Vec<(String, Vec<u8>)> {
             dashed: true,
         });
     }
-    let warning = match a.well_breaches.iter().min_by(|x, y| x.time.total_cmp(&y.time)) {
+    let warning = match a
+        .well_breaches
+        .iter()
+        .min_by(|x, y| x.time.total_cmp(&y.time))
+    {
         Some(b) => format!(
-            " — WARNING: {} well(s) below the lowest allowed level while pumping (first {} on day {:.1})",
-            a.well_breaches.len(),
+            " — WARNING: {} below the lowest allowed level while pumping (first {} on day {:.1})",
+            crate::plural::count(a.well_breaches.len(), "well", "wells"),
             b.well,
             b.time / DAY
         ),

@@ -227,8 +227,8 @@ fn images_text(a: &ProgrammeAnswers, f: &Fmt) -> String {
     ));
     if a.images_capped > 0 {
         s.push_str(&format!(
-            "  WARNING: for {} well(s) the image series was cut at {} images before that distance: levels late in the programme may be off.\n",
-            a.images_capped,
+            "  WARNING: for {} the image series was cut at {} images before that distance: levels late in the programme may be off.\n",
+            crate::plural::count(a.images_capped, "well", "wells"),
             crate::transient::programme::MAX_IMAGES_IN_TIME
         ));
     }

@@ -30,6 +30,7 @@ use super::notes::ReadNote;
 use super::{ring_problem, Drawing, Marker, Shape};
 use crate::input::error::InputError;
 use crate::input::read::{read_capped, MAX_DXF_BYTES};
+use crate::plural::count;
 
 pub use super::dxf_arcs::flatten;
 
@@ -380,23 +381,34 @@ fn notes(
     }
     if world.inserts > 0 {
         out.notes.push(ReadNote::Said(format!(
-            "{} block reference(s) on layer {layer} expanded with their position, scale and \
-             rotation",
-            world.inserts
+            "{} on layer {layer} expanded with their position, scale and rotation",
+            count(world.inserts, "block reference", "block references")
         )));
     }
     if world.mirrored > 0 {
         out.notes.push(ReadNote::Said(format!(
-            "{} mirrored entit(ies) or block reference(s) converted to world coordinates \
-             (DXF arbitrary axis algorithm)",
-            world.mirrored
+            "{} converted to world coordinates (DXF arbitrary axis algorithm)",
+            count(
+                world.mirrored,
+                "mirrored entity or block reference",
+                "mirrored entities or block references"
+            )
         )));
     }
     if world.distorted_circles > 0 {
         out.notes.push(ReadNote::Said(format!(
-            "{} circle(s) in blocks scaled unequally in x and y: their centres are taken, their \
-             radii are not",
-            world.distorted_circles
+            "{} in blocks scaled unequally in x and y: {} taken, {} not",
+            count(world.distorted_circles, "circle", "circles"),
+            if world.distorted_circles == 1 {
+                "its centre is"
+            } else {
+                "their centres are"
+            },
+            if world.distorted_circles == 1 {
+                "its radius is"
+            } else {
+                "their radii are"
+            }
         )));
     }
     if !naming.is_empty() {

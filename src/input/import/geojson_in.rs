@@ -360,8 +360,8 @@ fn refuse_bad_rings(path: &Path, drawing: &Drawing) -> Result<(), InputError> {
             path,
             format!("{} (\"{}\")", p.source, p.name),
             format!(
-                "the polygon has {} hole(s) ({area:.1} m² in all); drydig does not read holes: give the outer outline alone (the whole area inside it is then dewatered, on the safe side for an excavation) or draw separate outlines",
-                holes.len()
+                "the polygon has {} ({area:.1} m² in all); drydig does not read holes: give the outer outline alone (the whole area inside it is then dewatered, on the safe side for an excavation) or draw separate outlines",
+                crate::plural::count(holes.len(), "hole", "holes")
             ),
         ));
     }
@@ -502,7 +502,7 @@ mod tests {
         );
         let e = parse(p, &holed, &PropertyFilter::new("layer", "excavation")).unwrap_err();
         assert!(e.field.contains("Basement"), "{e}");
-        assert!(e.message.contains("1 hole(s) (12.5 m² in all)"), "{e}");
+        assert!(e.message.contains("1 hole (12.5 m² in all)"), "{e}");
         let d = parse(p, &text, &PropertyFilter::new("layer", "river")).unwrap();
         assert_eq!(
             d.lines[0].geometry.0[1],

@@ -56,8 +56,9 @@ impl ReadNote {
                     UnitSystem::Us => format!("{:.3} ft", units.length(*tolerance_m)),
                 };
                 format!(
-                    "{arcs} arc(s) on layer {layer} flattened into {segments} straight segments, \
-                     each within {within} of the true arc"
+                    "{} on layer {layer} flattened into {}, each within {within} of the true arc",
+                    crate::plural::count(*arcs, "arc", "arcs"),
+                    crate::plural::count(*segments, "straight segment", "straight segments")
                 )
             }
             (ReadNote::Said(s), _) => s.clone(),
@@ -119,6 +120,9 @@ mod tests {
             tolerance_m: 0.01,
         };
         assert!(a.to_string().contains("each within 0.01 m of"));
+        assert!(a
+            .to_string()
+            .starts_with("2 arcs on layer PIT flattened into 40 straight segments,"));
         assert!(a.words(UnitSystem::Us).contains("each within 0.033 ft of"));
     }
 }

@@ -183,13 +183,44 @@ fn read(design: &Path, field: &str, r: &Reference, lines: bool) -> Result<Drawin
     }
 }
 
+/// What a drawing reference picks: an outline (closed), a wall line (open or closed) or a
+/// boundary line (open).
+#[derive(Clone, Copy)]
+enum Wanted {
+    Outline,
+    WallLine,
+    BoundaryLine,
+}
+
+impl Wanted {
+    /// The noun in messages: "outline", "wall line", "line".
+    fn noun(self) -> &'static str {
+        match self {
+            Wanted::Outline => "outline",
+            Wanted::WallLine => "wall line",
+            Wanted::BoundaryLine => "line",
+        }
+    }
+
+    /// The error when the layer or property selects nothing of this kind in `shown`.
+    fn none_found(self, shown: &str) -> String {
+        let kind = match self {
+            Wanted::Outline => "closed outline (closed polyline or polygon)",
+            Wanted::WallLine => "wall line (polyline, open or closed)",
+            Wanted::BoundaryLine => "open line (polyline or LineString)",
+        };
+        format!("no {kind} found in {shown} with that layer or property")
+    }
+}
+
 fn pick<'a, T>(
     design: &Path,
     field: &str,
     r: &Reference,
     items: &'a [super::Shape<T>],
-    what: &str,
+    wanted: Wanted,
 ) -> Result<&'a super::Shape<T>, InputError> {
+    let what = wanted.noun();
     let names: Vec<&str> = items.iter().map(|s| s.name.as_str()).collect();
     match &r.name {
         Some(n) => items
@@ -207,14 +238,7 @@ fn pick<'a, T>(
                 )
             }),
         None if items.len() == 1 => Ok(&items[0]),
-        None if items.is_empty() => Err(err(
-            design,
-            field,
-            format!(
-                "no closed {what} found in {} with that layer or property",
-                r.shown
-            ),
-        )),
+        None if items.is_empty() => Err(err(design, field, wanted.none_found(&r.shown))),
         None => Err(err(
             design,
             &format!("{field}.name"),
@@ -312,7 +336,7 @@ fn polygon_from(
             ),
         ));
     }
-    let s = pick(design, &f, &r, &got.polygons, "outline")?;
+    let s = pick(design, &f, &r, &got.polygons, Wanted::Outline)?;
     note(log, &f, &r, &got, &format!("\"{}\" ({})", s.name, s.source));
     log.source(format!("{field}.{target}"), &r, &s.source);
     t.insert(target.into(), ring(&s.geometry));
@@ -394,7 +418,7 @@ fn wall_from(design: &Path, field: &str, t: &mut Table, log: &mut Log) -> Result
             ),
         ));
     }
-    let s = pick(design, &f, &r, &found, "wall line")?;
+    let s = pick(design, &f, &r, &found, Wanted::WallLine)?;
     let (pts, closed) = &s.geometry;
     match t.get("closed").map(Value::as_bool) {
         None => {}
@@ -482,7 +506,7 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
             let f = format!("boundary[{}].line_from", i + 1);
             let r = reference(design, &f, &v)?;
             let got = read(design, &f, &r, true)?;
-            let s = pick(design, &f, &r, &got.lines, "line")?;
+            let s = pick(design, &f, &r, &got.lines, Wanted::BoundaryLine)?;
             let pts = &s.geometry.0;
             let (a, b) = (pts[0], pts[pts.len() - 1]);
             note(
@@ -570,4 +594,22 @@ pub fn resolve(design: &Path, source: &str) -> Result<Option<Resolved>, InputErr
         sources: log.sources,
         files: log.files,
     }))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::Wanted;
+
+    /// A boundary line is an open polyline: the error for an empty selection must not ask for
+    /// a closed one, while an outline's must (an excavation outline encloses an area).
+    #[test]
+    fn empty_selection_names_the_kind_of_line_wanted() {
+        let boundary = Wanted::BoundaryLine.none_found("site.dxf");
+        assert!(boundary.starts_with("no open line"), "{boundary}");
+        assert!(!boundary.contains("closed"), "{boundary}");
+        let outline = Wanted::Outline.none_found("site.dxf");
+        assert!(outline.starts_with("no closed outline"), "{outline}");
+        let wall = Wanted::WallLine.none_found("site.geojson");
+        assert!(wall.contains("open or closed"), "{wall}");
+    }
 }

@@ -1,8 +1,11 @@
 //! The neighbour tables: `neighbours.csv`, one row per building with its worst drawdown,
 //! settlement (checked, final, at the end of the works), distortion, deflection ratio, damage
 //! category, limits and their basis (the CSV columns of [`neighbours_table`]), and `neighbour_points.csv`, the corners and
-//! worst points of every building with level, drawdown and settlement.
+//! worst points of every building with level, drawdown and settlement. Names beginning with
+//! `=`, `+`, `-`, `@` or `#` get a leading apostrophe, as in the wells CSV, so a spreadsheet does
+//! not read them as a formula.
 
+use crate::field::wells_csv::csv_text;
 use crate::input::units::UnitSystem;
 use crate::report::format::Fmt;
 use crate::report::neighbours::table::neighbours_table;
@@ -38,8 +41,8 @@ pub fn neighbour_points_csv(results: &[NeighbourResult]) -> anyhow::Result<Vec<u
         }
         for (label, s) in rows {
             w.write_record([
-                r.name.clone(),
-                label,
+                csv_text(&r.name),
+                csv_text(&label),
                 format!("{:.3}", s.position[0]),
                 format!("{:.3}", s.position[1]),
                 s.level_m.map_or("dry".into(), |z| format!("{z:.4}")),

@@ -59,8 +59,9 @@ fn settlement_row(r: &NeighbourResult, f: &Fmt) -> Option<Vec<String>> {
         end,
         r.max_differential_m
             .map_or("—".into(), |d| esc(&f.small_length(d))),
-        r.max_distortion.map_or("—".into(), ratio_text),
-        r.max_deflection_ratio.map_or("—".into(), ratio_text),
+        r.max_distortion.map_or("—".into(), |b| esc(&ratio_text(b))),
+        r.max_deflection_ratio
+            .map_or("—".into(), |b| esc(&ratio_text(b))),
         damage,
     ])
 }

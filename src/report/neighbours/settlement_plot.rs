@@ -10,7 +10,11 @@ pub(super) const PLOT_W: f64 = 860.0;
 pub(super) const PANEL_W: f64 = 250.0;
 pub(super) const MARGIN: f64 = 30.0;
 pub(super) const TITLE_H: f64 = 56.0;
-pub(super) const FOOT_H: f64 = 86.0;
+/// The footer: gap under the plot to the first baseline, line pitch, and the margin under
+/// the last line.
+pub(super) const FOOT_GAP: f64 = 18.0;
+pub(super) const FOOT_LINE: f64 = 13.0;
+pub(super) const FOOT_PAD: f64 = 10.0;
 
 /// World → picture transform.
 pub(super) struct View {

@@ -9,10 +9,11 @@ use crate::input::model::Model;
 use crate::input::units::UnitSystem;
 use crate::report::neighbours::numbers::{ratio_text, truncate};
 use crate::report::neighbours::settlement_plot::{
-    fmt_step, fmt_value, label, nice_step, path_data, polyline_data, ramp, Grid, View, FOOT_H,
-    MARGIN, PANEL_W, PLOT_W, TITLE_H,
+    fmt_step, fmt_value, label, nice_step, path_data, polyline_data, ramp, Grid, View, FOOT_GAP,
+    FOOT_LINE, FOOT_PAD, MARGIN, PANEL_W, PLOT_W, TITLE_H,
 };
 use crate::report::neighbours::status::status_colour;
+use crate::report::plot_kit::{caution_block, white_page};
 use crate::report::words::wrap;
 use crate::safety::neighbours::{NeighbourResult, Status};
 use crate::safety::settlement_map::SettlementMap;
@@ -33,7 +34,12 @@ struct Page<'a> {
     width: f64,
     height: f64,
     extent: [f64; 4],
+    /// The method note under the plot, wrapped.
+    method: Vec<String>,
 }
+
+/// Characters a footer line holds (10 px text across the page).
+const FOOT_WRAP: usize = 150;
 
 impl<'a> Page<'a> {
     fn new(run: &'a CheckRun, map: &SettlementMap) -> Page<'a> {
@@ -50,6 +56,14 @@ impl<'a> Page<'a> {
         let scale = PLOT_W / (xmax - xmin);
         let plot_h = ((ymax - ymin) * scale).clamp(300.0, 900.0);
         let scale = scale.min(plot_h / (ymax - ymin));
+        let method: Vec<String> = wrap(&method_note(model), FOOT_WRAP, "")
+            .lines()
+            .map(str::to_string)
+            .collect();
+        let caution_lines = wrap(&format!("CAUTION: {CAUTION}"), FOOT_WRAP, "")
+            .lines()
+            .count();
+        let foot_h = FOOT_GAP + FOOT_LINE * (method.len() + caution_lines - 1) as f64 + FOOT_PAD;
         Page {
             model,
             units: u,
@@ -64,8 +78,9 @@ impl<'a> Page<'a> {
             },
             plot_h,
             width: MARGIN * 2.0 + PLOT_W + PANEL_W,
-            height: TITLE_H + plot_h + FOOT_H,
+            height: TITLE_H + plot_h + foot_h,
             extent: map.extent,
+            method,
         }
     }
 }
@@ -102,17 +117,7 @@ pub fn settlement_svg(run: &CheckRun, results: &[NeighbourResult], map: &Settlem
 fn frame(pg: &Page) -> Document {
     let (model, su, lu, plot_h, view) = (pg.model, pg.su, pg.lu, pg.plot_h, &pg.view);
     let (width, height) = (pg.width, pg.height);
-    let mut doc = Document::new()
-        .set("xmlns", "http://www.w3.org/2000/svg")
-        .set("width", format!("{width:.0}"))
-        .set("height", format!("{height:.0}"))
-        .set("viewBox", format!("0 0 {width:.0} {height:.0}"));
-    doc = doc.add(
-        Rectangle::new()
-            .set("width", "100%")
-            .set("height", "100%")
-            .set("fill", "#ffffff"),
-    );
+    let mut doc = white_page(width.round(), height.round());
     doc = doc.add(
         label(
             MARGIN,
@@ -529,26 +534,26 @@ fn legend(
     doc
 }
 
-/// The method line and the caution under the plot.
-fn method_and_caution(mut doc: Document, pg: &Page) -> Document {
-    let model = pg.model;
-    // Method and caution.
-    let mut fy = TITLE_H + pg.plot_h + 18.0;
-    let method = format!(
+/// The method note under the plot: how drawdown becomes settlement, and where the limits come
+/// from.
+fn method_note(model: &Model) -> String {
+    format!(
         "Method: drawdown by superposition (Strack discharge potential); Δσ′ = Δu from the head drop at the top and base of each layer ({}); ρ = Σ m_v·Δσ′·Δz, or C_r to σ′_p and C_c beyond; U(T_v) of Terzaghi in time where c_v is given. Limits marked * in the tables are rules of thumb (common practice, no source).",
         if model.neighbours.iter().any(|n| n.buoyancy_loss) {
             "buoyancy-loss form where chosen"
         } else {
             "simple form"
         }
-    );
-    for line in wrap(&method, 150, "").lines() {
+    )
+}
+
+/// The method note and the caution under the plot; the page's height leaves room for every
+/// line of both.
+fn method_and_caution(mut doc: Document, pg: &Page) -> Document {
+    let mut fy = TITLE_H + pg.plot_h + FOOT_GAP;
+    for line in &pg.method {
         doc = doc.add(label(MARGIN, fy, 10.0, line).set("fill", "#333"));
-        fy += 13.0;
+        fy += FOOT_LINE;
     }
-    for line in wrap(&format!("CAUTION: {CAUTION}"), 150, "").lines() {
-        doc = doc.add(label(MARGIN, fy, 10.0, line).set("fill", "#8a1c1c"));
-        fy += 13.0;
-    }
-    doc
+    doc.add(caution_block(MARGIN, fy, 10.0, FOOT_LINE, FOOT_WRAP))
 }

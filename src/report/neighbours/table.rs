@@ -31,7 +31,7 @@ fn columns(rise: bool) -> Vec<Column> {
     );
     utilisation.terminal = false;
     vec![
-        col("neighbour", Words, true, Csv::Words("name")),
+        col("neighbour", Words, true, Csv::Name("name")),
         col("status", Words, false, Csv::Words("status")),
         col(
             "drawdown",
