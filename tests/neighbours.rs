@@ -857,6 +857,19 @@ fn sized_recharge_flows_in_us_units_read_in_gpm() {
     let part = &stdout[from..to];
     assert!(!part.contains("L/s"), "{part}");
     assert!(!part.contains("m³/day"), "{part}");
+    // The notes too: the highest recharge level is ground (6.20 m) − the default 1.00 m margin,
+    // 17.06 ft (ground − 3.28 ft), and the default rise 0.30 m is 0.98 ft (1 ft = 0.3048 m,
+    // NIST SP 811 (2008) App. B); no length in metres is left in the section.
+    let flat = part.split_whitespace().collect::<Vec<_>>().join(" ");
+    assert!(
+        flat.contains("at or below 17.06 ft (ground − 3.28 ft (default margin"),
+        "{flat}"
+    );
+    assert!(flat.contains("(default 0.98 ft,"), "{flat}");
+    assert!(
+        !flat.contains(" m ") && !flat.contains(" m)") && !flat.contains(" m;"),
+        "{flat}"
+    );
     let line = part
         .lines()
         .find(|l| l.trim_start().starts_with("abstraction "))

@@ -56,8 +56,8 @@ pub enum WellProblem {
         level: f64,
         /// Highest level allowed, m.
         highest: f64,
-        /// Where that level comes from (the design file's words).
-        basis: String,
+        /// Where that level comes from (JSON: the SI words).
+        basis: crate::input::model::InjectionBasis,
     },
     /// A recharge well injects more than its injection capacity.
     OverInjectionCapacity {

@@ -591,7 +591,62 @@ pub struct AsBuilt {
     /// Highest level allowed in a recharge well, m (ground − margin, or given).
     pub max_injection_level: f64,
     /// How that level was set, for reports.
-    pub injection_basis: String,
+    pub injection_basis: InjectionBasis,
+}
+
+/// How the highest level allowed in a recharge well was set; worded in the run's units by
+/// [`InjectionBasis::words`] (JSON carries the SI words).
+#[derive(Debug, Clone, PartialEq)]
+pub enum InjectionBasis {
+    /// `wells.max_injection_level` given in the design file, m.
+    Given {
+        /// The level given, m.
+        level_m: f64,
+    },
+    /// Ground level less `wells.injection_margin`.
+    BelowGround {
+        /// The margin below ground, m.
+        margin_m: f64,
+        /// No margin given: the common-practice default.
+        default: bool,
+    },
+}
+
+impl InjectionBasis {
+    /// In words, lengths in `units`: "ground − 1.00 m (default margin, common practice (no
+    /// source))", "given max_injection_level 4.50 m".
+    pub fn words(&self, units: UnitSystem) -> String {
+        match self {
+            InjectionBasis::Given { level_m } => {
+                format!(
+                    "given max_injection_level {}",
+                    units.length_words(*level_m, 2)
+                )
+            }
+            InjectionBasis::BelowGround { margin_m, default } => format!(
+                "ground − {}{}",
+                units.length_words(*margin_m, 2),
+                if *default {
+                    " (default margin, common practice (no source))"
+                } else {
+                    ""
+                }
+            ),
+        }
+    }
+}
+
+impl std::fmt::Display for InjectionBasis {
+    /// The SI words (design-file units), as JSON and solver labels carry them.
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.words(UnitSystem::Si))
+    }
+}
+
+impl serde::Serialize for InjectionBasis {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(&self.to_string())
+    }
 }
 
 impl AsBuilt {

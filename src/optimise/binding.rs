@@ -65,8 +65,8 @@ pub enum Binding {
         well: String,
         /// The highest level, m.
         level_m: f64,
-        /// Where that level comes from, in words.
-        basis: String,
+        /// Where that level comes from.
+        basis: crate::input::model::InjectionBasis,
     },
     /// Sichardt's capacity of a well on its wetted screen.
     SichardtCapacity {
@@ -148,7 +148,11 @@ impl Binding {
                 well,
                 level_m,
                 basis,
-            } => format!("level in recharge well {well} ≤ {} ({basis})", len(*level_m)),
+            } => format!(
+                "level in recharge well {well} ≤ {} ({})",
+                len(*level_m),
+                basis.words(units)
+            ),
             Binding::SichardtCapacity { well } => {
                 format!("Sichardt capacity of {well} on its wetted screen")
             }

@@ -28,6 +28,7 @@ pub mod precheck;
 pub mod pumps;
 pub mod rates;
 pub mod recharge;
+pub mod recharge_notes;
 pub mod rolling;
 pub mod search;
 pub mod search_range;

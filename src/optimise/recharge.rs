@@ -35,6 +35,7 @@ use crate::input::model::Model;
 use crate::optimise::binding::Binding;
 use crate::optimise::lp;
 use crate::optimise::lp_problem::{Constraint, LpStatus, RateProblem, Sense};
+use crate::optimise::recharge_notes::RechargeNote;
 use crate::safety::neighbours::{drawdown_limit_for_recharge, sample_points};
 use serde::Serialize;
 use std::path::Path;
@@ -67,7 +68,7 @@ pub struct Protected {
     /// Drawdown allowed everywhere under it, m.
     pub drawdown_limit_m: f64,
     /// Where that limit comes from.
-    pub basis: String,
+    pub basis: crate::safety::limit_check::RechargeLimitBasis,
     /// Largest drawdown under it with no recharge, m.
     pub drawdown_without_recharge_m: f64,
 }
@@ -92,8 +93,9 @@ pub struct RechargeSizing {
     /// Constraints active at the optimum (SI numbers), worded where shown with
     /// [`Binding::words`] in the run's units.
     pub binding: Vec<Binding>,
-    /// What an engineer should know.
-    pub notes: Vec<String>,
+    /// What an engineer should know (SI numbers), worded where shown with
+    /// [`RechargeNote::words`] in the run's units.
+    pub notes: Vec<RechargeNote>,
 }
 
 /// How the abstraction wells enter the programme.
@@ -261,7 +263,7 @@ fn build(model: &Model, field: &Field, placement: &Placement, mode: Mode) -> Pro
             let b = Binding::RechargeWellLevel {
                 well: w.name.clone(),
                 level_m: model.as_built.max_injection_level,
-                basis: model.as_built.injection_basis.to_string(),
+                basis: model.as_built.injection_basis.clone(),
             };
             constraints.push(Constraint {
                 coefficients: row,
@@ -348,34 +350,34 @@ pub fn size(
         });
     }
     let field = field_for(model, &placement.wells);
-    let mut notes = Vec::new();
+    let mut notes: Vec<RechargeNote> = Vec::new();
     let fixed = build(model, &field, &placement, Mode::FixedAbstraction);
     if fixed.protected.is_empty() {
-        notes.push("no neighbour has a drawdown or settlement limit to protect (give allowable_drawdown or a soil profile): recharge sized to zero".into());
+        notes.push(RechargeNote::Said("no neighbour has a drawdown or settlement limit to protect (give allowable_drawdown or a soil profile): recharge sized to zero".into()));
     }
     let mut sol = lp::solve(&fixed.rate_problem);
     let mut problem = fixed;
     let mut status = status_word(&sol.status);
     if sol.status != LpStatus::Optimal {
         if problem.unmet_without_recharge > 0 {
-            notes.push(format!(
+            notes.push(RechargeNote::Said(format!(
                 "with the listed abstraction, {} excavation check points are above their target even before recharge; recharge only raises levels",
                 problem.unmet_without_recharge
-            ));
+            )));
         }
         let joint = build(model, &field, &placement, Mode::Joint);
         let joint_sol = lp::solve(&joint.rate_problem);
         if joint_sol.status == LpStatus::Optimal {
-            notes.push(format!("with the abstraction held at its listed rates the sizing is {status}; the abstraction rates were sized too (0 … capacity, minimising abstraction + recharge), see wells.csv"));
+            notes.push(RechargeNote::Said(format!("with the abstraction held at its listed rates the sizing is {status}; the abstraction rates were sized too (0 … capacity, minimising abstraction + recharge), see wells.csv")));
             status = "optimal (abstraction re-sized)".into();
             sol = joint_sol;
             problem = joint;
         } else {
-            notes.push(format!(
+            notes.push(RechargeNote::Said(format!(
                 "held abstraction: {status}; abstraction sized too: {}",
                 status_word(&joint_sol.status)
-            ));
-            notes.push("no rates keep every protected neighbour within its limit while the excavation meets its target, the recharge wells stay below ground and the pumped wells above their intakes; the recharge wells are evaluated at their listed (largest) rates — add recharge wells, move them, protect fewer buildings (protect_with_recharge), or cut the excavation off".into());
+            )));
+            notes.push(RechargeNote::Said("no rates keep every protected neighbour within its limit while the excavation meets its target, the recharge wells stay below ground and the pumped wells above their intakes; the recharge wells are evaluated at their listed (largest) rates — add recharge wells, move them, protect fewer buildings (protect_with_recharge), or cut the excavation off".into()));
         }
     }
     let feasible = sol.status == LpStatus::Optimal;
@@ -385,22 +387,25 @@ pub fn size(
             w.rate = if w.rate < 0.0 { q.min(0.0) } else { q.max(0.0) };
         }
     }
-    notes.push(format!("recharge wells are bounded by their listed rates and by their injection capacity ({:.0} % of the abstraction capacity{}), and keep their water level at or below {:.2} m ({}); neighbours' water may rise at most their allowable_rise (default {:.2} m, common practice (no source)); the water injected must be clean and compatible with the aquifer, or the wells clog",
-        model.as_built.injection_fraction * 100.0,
-        if (model.as_built.injection_fraction - crate::input::model::DEFAULT_INJECTION_FRACTION).abs() < 1e-12 { ", common practice (no source)" } else { "" },
-        model.as_built.max_injection_level,
-        model.as_built.injection_basis,
-        crate::safety::neighbours::RULE_OF_THUMB_RISE));
+    notes.push(RechargeNote::Bounds {
+        injection_fraction: model.as_built.injection_fraction,
+        default_fraction: (model.as_built.injection_fraction
+            - crate::input::model::DEFAULT_INJECTION_FRACTION)
+            .abs()
+            < 1e-12,
+        max_level_m: model.as_built.max_injection_level,
+        basis: model.as_built.injection_basis.clone(),
+        default_rise_m: crate::safety::neighbours::RULE_OF_THUMB_RISE,
+    });
     for j in &recharge {
         let w = &placement.wells[*j];
         let inj = injection_capacity(model, w);
         if -w.rate > inj * (1.0 + 1e-9) && !feasible {
-            notes.push(format!(
-                "{}: listed rate {:.2} L/s is above its injection capacity {:.2} L/s",
-                w.name,
-                -w.rate * 1e3,
-                inj * 1e3
-            ));
+            notes.push(RechargeNote::OverCapacity {
+                well: w.name.clone(),
+                rate_m3_per_s: -w.rate,
+                capacity_m3_per_s: inj,
+            });
         }
     }
     placement.notes.push(LayoutNote::Said(if feasible {

@@ -45,9 +45,10 @@ pub fn well_problem(p: &WellProblem, f: &Fmt) -> String {
             highest,
             basis,
         } => format!(
-            "recharge level {} is above the highest allowed {} ({basis}), by {}",
+            "recharge level {} is above the highest allowed {} ({}), by {}",
             f.length(*level),
             f.length(*highest),
+            basis.words(f.units),
             f.length(level - highest)
         ),
         WellProblem::OverInjectionCapacity {

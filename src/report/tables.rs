@@ -338,12 +338,17 @@ pub fn summary_json(found: &CheckFindings) -> Value {
         "recharge_sizing": found.recharge,
         "caution": crate::caution::CAUTION,
     });
-    // the recharge programme's binding limits worded in the run's units
+    // the recharge programme's binding limits and notes worded in the run's units
     if let Some(rs) = &found.recharge {
         summary["recharge_sizing"]["binding"] = json!(rs
             .binding
             .iter()
             .map(|b| b.words(run.model.units))
+            .collect::<Vec<_>>());
+        summary["recharge_sizing"]["notes"] = json!(rs
+            .notes
+            .iter()
+            .map(|n| n.words(run.model.units))
             .collect::<Vec<_>>());
     }
     // cut-off walls (only when there are any): quantities without prices and the solve size

@@ -97,3 +97,68 @@ impl LimitCheck {
         }
     }
 }
+
+/// Where the drawdown limit held by recharge sizing comes from: the neighbour's allowable
+/// drawdown, or the uniform drawdown that settles it by its settlement limit. Worded in the
+/// run's units by [`RechargeLimitBasis::words`]; `summary.json` carries the SI words.
+#[derive(Debug, Clone, PartialEq)]
+pub enum RechargeLimitBasis {
+    /// `allowable_drawdown` in the design file.
+    AllowableDrawdown,
+    /// The drawdown that settles the building by its settlement limit.
+    Settlement {
+        /// The settlement limit, m.
+        limit_m: f64,
+        /// Where that limit comes from.
+        basis: LimitBasis,
+    },
+}
+
+impl RechargeLimitBasis {
+    /// In words, the settlement in mm or inches (1 in = 25.4 mm exactly, NIST SP 811 (2008)
+    /// App. B).
+    pub fn words(&self, units: crate::input::units::UnitSystem) -> String {
+        match self {
+            RechargeLimitBasis::AllowableDrawdown => "allowable drawdown (design file)".into(),
+            RechargeLimitBasis::Settlement { limit_m, basis } => {
+                let limit = match units {
+                    crate::input::units::UnitSystem::Si => format!("{:.1} mm", limit_m * 1e3),
+                    crate::input::units::UnitSystem::Us => {
+                        format!("{:.2} in", limit_m / 0.0254)
+                    }
+                };
+                format!("drawdown that settles it by {limit} ({})", basis.words())
+            }
+        }
+    }
+}
+
+impl Serialize for RechargeLimitBasis {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(&self.words(crate::input::units::UnitSystem::Si))
+    }
+}
+
+#[cfg(test)]
+mod recharge_basis_tests {
+    use super::*;
+    use crate::input::units::UnitSystem;
+
+    /// A 10 mm settlement limit reads 0.39 in (1 in = 25.4 mm exactly, NIST SP 811 (2008)
+    /// App. B); the SI words are those `summary.json` has always carried.
+    #[test]
+    fn settlement_basis_in_inches() {
+        let b = RechargeLimitBasis::Settlement {
+            limit_m: 0.010,
+            basis: LimitBasis::DesignFile,
+        };
+        assert_eq!(
+            b.words(UnitSystem::Us),
+            "drawdown that settles it by 0.39 in (design file)"
+        );
+        assert_eq!(
+            serde_json::to_string(&b).unwrap(),
+            "\"drawdown that settles it by 10.0 mm (design file)\""
+        );
+    }
+}

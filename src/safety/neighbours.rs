@@ -27,7 +27,7 @@ use crate::input::model::{Model, Neighbour};
 use crate::physics::building_damage::Category;
 use crate::physics::potential::Level;
 use crate::safety::distortion::{self, Side};
-use crate::safety::limit_check::{LimitBasis, LimitCheck, LimitQuantity};
+use crate::safety::limit_check::{LimitBasis, LimitCheck, LimitQuantity, RechargeLimitBasis};
 use crate::safety::pore_pressure::{self, HeadDrop};
 use crate::safety::settlement::{self, StressForm};
 use geo::{BoundingRect, Contains, Point};
@@ -306,11 +306,14 @@ pub fn distortion_limit(n: &Neighbour) -> (f64, LimitBasis) {
 /// The drawdown a neighbour may take everywhere under it, m, for sizing recharge: the smaller of
 /// its allowable drawdown and the uniform drawdown that settles it by its settlement limit.
 /// `None` when neither limits it.
-pub fn drawdown_limit_for_recharge(model: &Model, n: &Neighbour) -> Option<(f64, String)> {
+pub fn drawdown_limit_for_recharge(
+    model: &Model,
+    n: &Neighbour,
+) -> Option<(f64, RechargeLimitBasis)> {
     let h0 = model.aquifer.initial_level;
-    let mut best: Option<(f64, String)> = n
+    let mut best: Option<(f64, RechargeLimitBasis)> = n
         .allowable_drawdown
-        .map(|s| (s, "allowable drawdown (design file)".to_string()));
+        .map(|s| (s, RechargeLimitBasis::AllowableDrawdown));
     if !n.layers.is_empty() {
         let (limit, basis) = settlement_limit(n);
         let max_s = (h0 - model.aquifer.base_level).max(0.0);
@@ -319,11 +322,10 @@ pub fn drawdown_limit_for_recharge(model: &Model, n: &Neighbour) -> Option<(f64,
             if best.as_ref().is_none_or(|(b, _)| s < *b) {
                 best = Some((
                     s,
-                    format!(
-                        "drawdown that settles it by {:.1} mm ({})",
-                        limit * 1e3,
-                        basis.words()
-                    ),
+                    RechargeLimitBasis::Settlement {
+                        limit_m: limit,
+                        basis,
+                    },
                 ));
             }
         }

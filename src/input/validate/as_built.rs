@@ -113,18 +113,14 @@ pub fn as_built(
                     ),
                 ));
             }
-            (q.si, format!("given max_injection_level {:.2} m", q.si))
+            (q.si, InjectionBasis::Given { level_m: q.si })
         }
         None => (
             ground - margin,
-            format!(
-                "ground − {margin:.2} m{}",
-                if margin_q.is_some() {
-                    ""
-                } else {
-                    " (default margin, common practice (no source))"
-                }
-            ),
+            InjectionBasis::BelowGround {
+                margin_m: margin,
+                default: margin_q.is_none(),
+            },
         ),
     };
     Ok(AsBuilt {

@@ -265,7 +265,7 @@ fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
             "  protect {:<24} drawdown ≤ {:.2} {lu} ({}); {:.2} {lu} without recharge\n",
             truncate(&p.name, 24),
             units.length(p.drawdown_limit_m),
-            p.basis,
+            p.basis.words(units),
             units.length(p.drawdown_without_recharge_m)
         ));
     }
@@ -307,7 +307,7 @@ fn recharge_text(r: &RechargeSizing, units: UnitSystem) -> String {
         ));
     }
     for n in &r.notes {
-        out.push_str(&wrap(&format!("note: {n}"), 96, "  "));
+        out.push_str(&wrap(&format!("note: {}", n.words(units)), 96, "  "));
     }
     out
 }
