@@ -62,8 +62,8 @@ pub struct Design {
     pub binding: Vec<crate::optimise::binding::Binding>,
     /// What was searched, in words.
     pub search: String,
-    /// What an engineer should know (SI numbers; worded with [`DesignNote::words`] in the
-    /// run's units where shown).
+    /// What an engineer should know (SI numbers; worded with
+    /// [`crate::optimise::design_notes::DesignNote::words`] in the run's units where shown).
     pub notes: Vec<crate::optimise::design_notes::DesignNote>,
     /// The quick estimate of the layout's excavation.
     pub estimate: ExcavationEstimate,

@@ -1,5 +1,5 @@
 //! Geometry taken from drawings named in the design file: `outline_from` (excavations),
-//! `footprint_from` (neighbours), `line_from` (boundaries, and cut-off walls: [`wall_from`]),
+//! `footprint_from` (neighbours), `line_from` (boundaries, and cut-off walls: `wall_from`),
 //! `outline_from` (keep-out zones) and
 //! `[layout] wells_from` (given wells), each `{ file = "drawings/site.dxf", layer = "EXCAVATION" }`
 //! for a DXF drawing or `{ file = "site.geojson", property = "layer", value = "excavation" }`
