@@ -208,13 +208,7 @@ pub fn evaluate(model: &Model, field: &Field, wells: &[Well], points: &[CheckPoi
             } else {
                 face - loss
             };
-            let lowest = match w.kind {
-                WellKind::DeepWell => w.pump_intake + spec.submergence,
-                WellKind::Wellpoint => model
-                    .as_built
-                    .suction_floor(spec.suction_limit)
-                    .max(w.pump_intake + spec.submergence),
-            };
+            let lowest = lowest_pumping_level(model, w);
             // Sichardt's entrance gradient over the wetted filter column (the screen when no
             // filter column is given)
             let wetted = (w.filter_top.min(face) - w.filter_base).max(0.0);
@@ -341,4 +335,20 @@ fn recharge_limits(
         });
     }
     (top, inj)
+}
+
+/// The lowest level a pumped well may hold, m: its pump intake + submergence; for a wellpoint
+/// also no lower than suction can lift from its header ([`AsBuilt::suction_floor`]). One rule
+/// for `check` and the uncertainty samples.
+///
+/// [`AsBuilt::suction_floor`]: crate::input::model::AsBuilt::suction_floor
+pub fn lowest_pumping_level(model: &Model, w: &Well) -> f64 {
+    let spec = &model.wells;
+    match w.kind {
+        WellKind::DeepWell => w.pump_intake + spec.submergence,
+        WellKind::Wellpoint => model
+            .as_built
+            .suction_floor(spec.suction_limit)
+            .max(w.pump_intake + spec.submergence),
+    }
 }

@@ -33,7 +33,7 @@ use crate::check::field_build::{field_with_radius, point_elevation};
 use crate::field::radius::{depends_on_drawdown, design_drawdown, radius_at, serves_trench};
 use crate::field::wells::Well;
 use crate::input::model::Model;
-use crate::input::model::{WellKind, WellLossSpec};
+use crate::input::model::WellLossSpec;
 use crate::input::model_uncertainty::{InputKind, Uncertainty};
 use crate::physics::capacity::sichardt_well_capacity;
 use crate::physics::images::BoundaryKind;
@@ -331,13 +331,7 @@ fn within_limits(model: &Model, w: &Well, lv: Level) -> bool {
         WellLossSpec::Jacob(c) => jacob_loss(c, w.rate),
         _ => 0.0,
     };
-    let lowest = match w.kind {
-        WellKind::DeepWell => w.pump_intake + spec.submergence,
-        WellKind::Wellpoint => model
-            .as_built
-            .suction_floor(spec.suction_limit)
-            .max(w.pump_intake + spec.submergence),
-    };
+    let lowest = crate::check::evaluate::lowest_pumping_level(model, w);
     if w.rate > 0.0 && face - loss < lowest - TARGET_TOLERANCE {
         return false;
     }
