@@ -21,10 +21,23 @@ pub const NO_DAYS: &str = "days to dig: not sampled here (sampled with `uncertai
 /// How the convergence figure is found.
 pub const CONVERGENCE_METHOD: &str = "half-width of the 95 % bootstrap percentile interval of P90 (resamples of the samples with replacement), divided by P90; the bootstrap treats the samples as independent, so for a Latin hypercube and an output that rises or falls with its inputs it is an upper bound";
 
+/// How the replicate figure is found.
+pub const REPLICATE_METHOD: &str = "the same Latin hypercube sampling repeated with other seeds (the run's own seed first); sample standard deviation of their P90s and the largest move from the run's P90, each divided by the run's P90";
+
 /// The convergence line: how far the P90 of the first output may move with other samples.
 pub fn convergence_line(run: &UncertaintyRun) -> Option<String> {
     let c = run.convergence?;
     let label = &run.series.first()?.label;
+    if let Some(r) = c.replicates {
+        return Some(format!(
+            "sampling convergence: P90 of {label} moves by {:.1} % (standard deviation; largest move {:.1} %) over {} Latin hypercubes of N = {} ({REPLICATE_METHOD}); the bootstrap bound is ± {:.1} %\n",
+            100.0 * r.relative_sd,
+            100.0 * r.relative_max,
+            r.count,
+            c.samples,
+            100.0 * c.relative_half_width
+        ));
+    }
     Some(format!(
         "sampling convergence: P90 of {label} within ± {:.1} % at N = {} ({CONVERGENCE_METHOD}, {} resamples)\n",
         100.0 * c.relative_half_width,
@@ -384,6 +397,12 @@ pub fn to_json(model: &Model, found: &UncertaintyFindings) -> serde_json::Value 
             "resamples": c.resamples,
             "relative_half_width_95": c.relative_half_width,
             "method": CONVERGENCE_METHOD,
+            "replicates": c.replicates.map(|r| json!({
+                "latin_hypercubes": r.count,
+                "relative_sd": r.relative_sd,
+                "relative_largest_move": r.relative_max,
+                "method": REPLICATE_METHOD,
+            })),
         })),
         "tornado": {"output": run.tornado.0, "all_at_p50": run.tornado.1, "swings": run.tornado.2},
         "notes": notes(run),

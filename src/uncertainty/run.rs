@@ -12,12 +12,17 @@ use crate::uncertainty::days_to_dig::DigStages;
 use crate::uncertainty::design_samples::{design_sample, robust, DesignSample, Robust};
 use crate::uncertainty::fast_check::FastCheck;
 use crate::uncertainty::sampling::sample_values;
-use crate::uncertainty::stats::{bootstrap_convergence, percentiles, Convergence, Percentiles};
+use crate::uncertainty::stats::{
+    bootstrap_convergence, percentiles, replicate_spread, Convergence, Percentiles,
+};
 use rayon::prelude::*;
 use serde::Serialize;
 
 /// Resamples of the bootstrap behind the convergence figure.
 pub const BOOTSTRAP_RESAMPLES: usize = 1000;
+
+/// Further Latin hypercubes (other seeds) drawn in check mode to measure how far P90 moves.
+pub const REPLICATES: usize = 7;
 
 /// Which command's question is asked of each sample.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -216,6 +221,7 @@ pub fn run(
         has_programme: model.programme.is_some(),
         days_not_ready: None,
     };
+    let blank = out.clone();
     match settings.mode {
         Mode::Check => check_mode(model, &models, &median, &swing_models, tick, &mut out)?,
         Mode::Design => design_mode(
@@ -234,6 +240,24 @@ pub fn run(
         let v: Vec<f64> = s.values.iter().flatten().copied().collect();
         bootstrap_convergence(&v, 0.9, BOOTSTRAP_RESAMPLES, seed)
     });
+    if let (Mode::Check, Some(c), Some(p)) = (settings.mode, out.convergence.as_mut(), flow) {
+        // The same sampling repeated with other seeds: the run's P90 first, then each repeat's.
+        // Only the flow's P90 is read: days to dig are left out of the repeats.
+        let mut base = model.clone();
+        base.programme = None;
+        let mut p90s = vec![p.p90];
+        for k in 1..=REPLICATES as u64 {
+            let seed_k = seed.wrapping_add(k.wrapping_mul(0x9E37_79B9_7F4A_7C15));
+            let mut rep = blank.clone();
+            rep.values = sample_values(spec, n, seed_k);
+            let models_k: Vec<Model> = rep.values.iter().map(|v| apply(&base, spec, v)).collect();
+            check_mode(&base, &models_k, &median, &swing_models, &|| {}, &mut rep)?;
+            if let Some(q) = rep.series.first().and_then(|s| s.percentiles) {
+                p90s.push(q.p90);
+            }
+        }
+        c.replicates = replicate_spread(&p90s);
+    }
     let names: Vec<String> = spec
         .inputs
         .iter()

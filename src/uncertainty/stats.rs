@@ -69,6 +69,40 @@ pub struct Convergence {
     pub resamples: usize,
     /// Half the width of the 95 % interval ÷ the quantile.
     pub relative_half_width: f64,
+    /// The spread of the quantile over independent repeats of the whole sampling (check mode,
+    /// where a repeat is cheap): the honest figure for a Latin hypercube.
+    pub replicates: Option<Replicates>,
+}
+
+/// The quantile from independent Latin hypercubes of the same size (other seeds).
+#[derive(Debug, Clone, Copy, Serialize, PartialEq)]
+pub struct Replicates {
+    /// Hypercubes, the run's own included.
+    pub count: usize,
+    /// Sample standard deviation of their quantiles ÷ the run's quantile.
+    pub relative_sd: f64,
+    /// Largest distance of one from the run's quantile ÷ the run's quantile.
+    pub relative_max: f64,
+}
+
+/// The spread of `quantiles` (the run's own first) about the first, as [`Replicates`]. `None`
+/// with fewer than 3 or a first of 0.
+pub fn replicate_spread(quantiles: &[f64]) -> Option<Replicates> {
+    let q0 = *quantiles.first()?;
+    let n = quantiles.len();
+    if n < 3 || q0 == 0.0 {
+        return None;
+    }
+    let mean = quantiles.iter().sum::<f64>() / n as f64;
+    let var = quantiles.iter().map(|q| (q - mean).powi(2)).sum::<f64>() / (n - 1) as f64;
+    Some(Replicates {
+        count: n,
+        relative_sd: var.sqrt() / q0.abs(),
+        relative_max: quantiles
+            .iter()
+            .map(|q| (q - q0).abs() / q0.abs())
+            .fold(0.0, f64::max),
+    })
 }
 
 /// The bootstrap spread of the `p` quantile of the finite `values`: `resamples` resamples of
@@ -111,6 +145,7 @@ pub fn bootstrap_convergence(
         samples: v.len(),
         resamples,
         relative_half_width: 0.5 * (hi - lo) / q.abs(),
+        replicates: None,
     })
 }
 
@@ -170,5 +205,16 @@ mod tests {
         let ratio = a.relative_half_width / b.relative_half_width;
         assert!((1.6..2.5).contains(&ratio), "{ratio}");
         assert!(bootstrap_convergence(&values(5), 0.9, 100, 1).is_none());
+    }
+
+    /// Python's `statistics.stdev([1.0, 1.1, 0.9, 1.05])` (sample standard deviation, n − 1)
+    /// = 0.08539125638299667; the largest move from the first is 0.1.
+    #[test]
+    fn replicate_spread_is_the_sample_standard_deviation() {
+        let r = replicate_spread(&[1.0, 1.1, 0.9, 1.05]).unwrap();
+        assert!((r.relative_sd - 0.08539125638299667).abs() < 1e-12, "{r:?}");
+        assert!((r.relative_max - 0.1).abs() < 1e-12, "{r:?}");
+        assert_eq!(r.count, 4);
+        assert!(replicate_spread(&[1.0, 1.1]).is_none());
     }
 }

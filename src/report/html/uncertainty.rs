@@ -33,6 +33,18 @@ pub fn part(model: &Model, found: &UncertaintyFindings, charts: &[(String, Strin
     if let Some(r) = run.rank_correlation {
         rows.push(("rank correlation of K and S", format!("{r:.2}")));
     }
+    if let Some(r) = run.convergence.and_then(|c| c.replicates) {
+        rows.push((
+            "sampling convergence of P90 (standard deviation over Latin hypercubes of other seeds)",
+            format!(
+                "{:.1} % over {} hypercubes of N = {} (largest move {:.1} %)",
+                100.0 * r.relative_sd,
+                r.count,
+                run.samples,
+                100.0 * r.relative_max
+            ),
+        ));
+    }
     if let Some(c) = run.convergence {
         rows.push((
             "sampling convergence of P90 (95 % bootstrap, an upper bound for Latin hypercube)",
