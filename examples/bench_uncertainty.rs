@@ -2,7 +2,9 @@
 //! design file with an [uncertainty] section through the shortcut (tables built once per
 //! layout), beside the naive loop — the whole `check` (field, evaluation, neighbours, findings
 //! with the level grid) re-run on each sample's model, timed on a few samples and extrapolated —
-//! and M samples of `design` (each sample a full fewest-wells search).
+//! and M samples of `design` (each sample a full fewest-wells search). The check run includes
+//! the repeated hypercubes of its convergence figure (`REPLICATES` more of N samples each); the
+//! ratio to the naive loop is taken per sample evaluated.
 //!
 //! Usage: bench_uncertainty FILE CHECK_SAMPLES DESIGN_SAMPLES NAIVE_SAMPLES
 
@@ -40,8 +42,9 @@ fn main() {
     let d = run(&model, settings(Mode::Design, n_design), &|| {}).unwrap();
     let design = t.elapsed().as_secs_f64();
     println!(
-        "{{\"threads\": {}, \"check_samples\": {n_check}, \"check_seconds\": {fast:.3}, \"naive_samples_timed\": {n_naive}, \"naive_seconds_extrapolated\": {naive:.3}, \"check_flow_p90_m3_per_s\": {p90:.6e}, \"design_samples\": {n_design}, \"design_seconds\": {design:.3}, \"robust_wells\": {}}}",
+        "{{\"threads\": {}, \"check_samples\": {n_check}, \"check_hypercubes\": {}, \"check_seconds\": {fast:.3}, \"naive_samples_timed\": {n_naive}, \"naive_seconds_extrapolated\": {naive:.3}, \"check_flow_p90_m3_per_s\": {p90:.6e}, \"design_samples\": {n_design}, \"design_seconds\": {design:.3}, \"robust_wells\": {}}}",
         rayon::current_num_threads(),
+        1 + drydig::uncertainty::run::REPLICATES,
         d.robust.as_ref().map_or(0, |r| r.wells)
     );
 }
