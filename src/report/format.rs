@@ -142,8 +142,8 @@ impl Fmt {
 /// prints as "< 1/100 000": 200 times smaller than the 1/500 usually allowed.
 pub const NEGLIGIBLE_RATIO: f64 = 1e-5;
 
-/// An angular distortion or deflection ratio as people read it: "1/n" with n to three
-/// significant figures and thousands grouped ("1/495", "1/4 950", "1/47 000"); "< 1/100 000"
+/// An angular distortion or deflection ratio as people read it: "1/n" with n rounded down to
+/// three significant figures, thousands grouped ("1/495", "1/4 950", "1/46 900"); "< 1/100 000"
 /// when negligible ([`NEGLIGIBLE_RATIO`]); "0" when none; two decimals from 1 up. Machine
 /// columns (CSV, JSON) keep the number itself.
 pub fn ratio_value(beta: f64) -> String {
@@ -154,11 +154,13 @@ pub fn ratio_value(beta: f64) -> String {
     } else if beta >= 1.0 {
         format!("{beta:.2}")
     } else {
+        // n rounded down, so the ratio shown is never smaller than the one computed: 1/499.6
+        // reads "1/499" beside a 1/500 limit, not "1/500" (1e-9 keeps an exact 1/500 itself).
         let n = 1.0 / beta;
         let unit = 10f64.powi((n.log10().floor() as i32 - 2).max(0));
         format!(
             "1/{}",
-            super::words::thousands((n / unit).round() * unit, 0)
+            super::words::thousands((n / unit * (1.0 + 1e-9)).floor() * unit, 0)
         )
     }
 }
@@ -293,8 +295,10 @@ mod tests {
     fn ratios_read_against_the_1_in_500_rule() {
         assert_eq!(ratio_value(1.0 / 500.0), "1/500");
         assert_eq!(ratio_value(1.0 / 4951.0), "1/4\u{2009}950");
-        assert_eq!(ratio_value(1.0 / 46_965.0), "1/47\u{2009}000");
-        assert_eq!(ratio_value(1.0 / 99_999.0), "1/100\u{2009}000");
+        assert_eq!(ratio_value(1.0 / 46_965.0), "1/46\u{2009}900");
+        assert_eq!(ratio_value(1.0 / 99_999.0), "1/99\u{2009}900");
+        // just over the 1/500 rule: shown over it, not rounded onto it
+        assert_eq!(ratio_value(1.0 / 499.6), "1/499");
         assert_eq!(ratio_value(1.0 / 4_587_445.0), "< 1/100\u{2009}000");
         assert_eq!(ratio_value(0.0), "0");
         assert_eq!(ratio_value(1.5), "1.50");
