@@ -69,7 +69,6 @@ thead { display: table-header-group; }
 .result { font-size: 12pt; padding: 2mm 3mm; border-left: 3pt solid var(--good); background: #f3f8f3; }
 .result.bad { border-left-color: var(--bad); background: #fbf1f2; }
 .bad { color: var(--bad); font-weight: bold; }
-td .bad { overflow-wrap: normal; }
 .note { font-size: 9pt; color: #444; }
 figure { margin: 2mm 0; break-inside: avoid; }
 figure svg { display: block; width: 100%; height: auto; max-height: 235mm; }
