@@ -46,6 +46,22 @@ fn tmp_dir(tag: &str) -> PathBuf {
     d
 }
 
+/// `drydig check` on a demo in layouts/ with `extra` arguments into `out`: its terminal text
+/// (exit 0, or 3 when a limit is not met).
+fn check_demo(name: &str, extra: &[&str], out: &std::path::Path) -> String {
+    let file = layouts(name);
+    let mut args = vec!["check", file.to_str().expect("utf-8")];
+    args.extend_from_slice(extra);
+    args.extend(["-o", out.to_str().expect("utf-8")]);
+    let run = drydig(&args);
+    assert!(
+        matches!(run.status.code(), Some(0) | Some(3)),
+        "{}",
+        text(&run.stderr)
+    );
+    text(&run.stdout)
+}
+
 fn layouts(name: &str) -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR"))
         .join("layouts")
@@ -755,20 +771,7 @@ fn valve_house_in_us_units() {
 #[test]
 fn neighbours_table_in_us_units_carries_feet_and_inches() {
     let out = tmp_dir("table-us");
-    let run = drydig(&[
-        "check",
-        layouts("riverside_basement.toml").to_str().expect("utf-8"),
-        "--units",
-        "us",
-        "-o",
-        out.to_str().expect("utf-8"),
-    ]);
-    assert!(
-        matches!(run.status.code(), Some(0) | Some(3)),
-        "{}",
-        text(&run.stderr)
-    );
-    let stdout = text(&run.stdout);
+    let stdout = check_demo("riverside_basement.toml", &["--units", "us"], &out);
     let table: Vec<&str> = stdout
         .lines()
         .skip_while(|l| !l.starts_with("neighbours ("))
@@ -833,23 +836,11 @@ fn neighbours_table_in_us_units_carries_feet_and_inches() {
 fn sized_recharge_flows_in_us_units_read_in_gpm() {
     let dir = tmp_dir("recharge-us");
     let out = dir.join("us");
-    let run = drydig(&[
-        "check",
-        layouts("riverside_basement_recharge.toml")
-            .to_str()
-            .expect("utf-8"),
-        "--size-recharge",
-        "--units",
-        "us",
-        "-o",
-        out.to_str().expect("utf-8"),
-    ]);
-    assert!(
-        matches!(run.status.code(), Some(0) | Some(3)),
-        "{}",
-        text(&run.stderr)
+    let stdout = check_demo(
+        "riverside_basement_recharge.toml",
+        &["--size-recharge", "--units", "us"],
+        &out,
     );
-    let stdout = text(&run.stdout);
     let from = stdout.find("recharge sizing:").expect("recharge section");
     let to = stdout[from..]
         .find("RESULT (neighbours)")
