@@ -251,7 +251,7 @@ pub fn run(
             let mut rep = blank.clone();
             rep.values = sample_values(spec, n, seed_k);
             let models_k: Vec<Model> = rep.values.iter().map(|v| apply(&base, spec, v)).collect();
-            check_mode(&base, &models_k, &median, &swing_models, &|| {}, &mut rep)?;
+            check_mode(&base, &models_k, &median, &[], &|| {}, &mut rep)?;
             if let Some(q) = rep.series.first().and_then(|s| s.percentiles) {
                 p90s.push(q.p90);
             }
