@@ -423,6 +423,15 @@ impl UnitSystem {
     pub fn length_words(self, metres: f64, decimals: usize) -> String {
         format!("{:.decimals$} {}", self.length(metres), self.length_unit())
     }
+    /// A small length (given in m) in words: mm to one decimal, or inches (1 in = 0.0254 m
+    /// exactly, NIST SP 811 (2008) App. B) to two: "10.0 mm", "0.39 in". As
+    /// `report::format::Fmt::small_length`, for engine notes.
+    pub fn small_length_words(self, metres: f64) -> String {
+        match self {
+            UnitSystem::Si => format!("{:.1} mm", metres * 1e3),
+            UnitSystem::Us => format!("{:.2} in", metres / 0.0254),
+        }
+    }
     /// A transmissivity (given in m²/s) in words: "3.341e-3 m²/s", "3 107 ft²/day" (1 ft =
     /// 0.3048 m, 1 day = 86 400 s; NIST SP 811 (2008) App. B).
     pub fn transmissivity_words(self, t: f64) -> String {

@@ -115,20 +115,15 @@ pub enum RechargeLimitBasis {
 }
 
 impl RechargeLimitBasis {
-    /// In words, the settlement in mm or inches (1 in = 25.4 mm exactly, NIST SP 811 (2008)
-    /// App. B).
+    /// In words, the settlement in mm or inches.
     pub fn words(&self, units: crate::input::units::UnitSystem) -> String {
         match self {
             RechargeLimitBasis::AllowableDrawdown => "allowable drawdown (design file)".into(),
-            RechargeLimitBasis::Settlement { limit_m, basis } => {
-                let limit = match units {
-                    crate::input::units::UnitSystem::Si => format!("{:.1} mm", limit_m * 1e3),
-                    crate::input::units::UnitSystem::Us => {
-                        format!("{:.2} in", limit_m / 0.0254)
-                    }
-                };
-                format!("drawdown that settles it by {limit} ({})", basis.words())
-            }
+            RechargeLimitBasis::Settlement { limit_m, basis } => format!(
+                "drawdown that settles it by {} ({})",
+                units.small_length_words(*limit_m),
+                basis.words()
+            ),
         }
     }
 }
